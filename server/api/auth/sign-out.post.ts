@@ -1,0 +1,5 @@
+// Sign out: clears the sealed session cookie.
+export default defineEventHandler(async (event) => {
+  await clearUserSession(event)
+  return { ok: true }
+})

@@ -1,0 +1,9 @@
+// The signed-in user, their sites and roles, and each site's display settings.
+export default defineEventHandler(async (event) => {
+  const actor = await requireActor(event)
+  const sites = actor.siteIds.length
+    ? await useDb().select({ id: tables.sites.id, name: tables.sites.name, timeZone: tables.sites.timeZone, unitSystem: tables.sites.unitSystem })
+      .from(tables.sites).where(inArray(tables.sites.id, actor.siteIds))
+    : []
+  return { user: actor.user, memberships: actor.memberships, sites }
+})

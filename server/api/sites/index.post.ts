@@ -1,0 +1,24 @@
+import { siteCreateSchema } from '#shared/utils/admin-schemas'
+
+// Create a site in the admin's organisation; the creating admin becomes its admin.
+export default defineEventHandler(async (event) => {
+  const body = await validateBody(event, siteCreateSchema)
+  const actor = await requireActor(event)
+  const adminSites = actor.memberships.filter(m => m.roles.includes('admin')).map(m => m.siteId)
+  if (adminSites.length === 0) throw createError({ statusCode: 403, message: 'Only admins create sites.' })
+  const db = useDb()
+  const [anchor] = await db.select({ organizationId: tables.sites.organizationId }).from(tables.sites).where(eq(tables.sites.id, adminSites[0]!))
+  try {
+    return await db.transaction(async (tx) => {
+      const [site] = await tx.insert(tables.sites).values({ ...body, organizationId: anchor!.organizationId, settings: defaultSiteSettings() }).returning()
+      await tx.insert(tables.memberships).values({ userId: actor.user.id, siteId: site!.id, role: 'admin' })
+      await writeAudit(tx, { actor, siteId: site!.id, action: 'create', entity: 'site', entityId: site!.id, after: site })
+      setResponseStatus(event, 201)
+      return { item: site }
+    })
+  }
+  catch (error) {
+    if (isUniqueViolation(error)) throw createError({ statusCode: 409, message: `A site named "${body.name}" already exists.`, data: { fields: { name: 'Already used.' } } })
+    throw error
+  }
+})

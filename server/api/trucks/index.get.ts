@@ -1,0 +1,2 @@
+// List trucks at a site: paged, sorted, filtered (?siteId=&page=&sort=&dir=&q=&<filter>=).
+export default defineEventHandler(event => listAssets(event, 'truck'))

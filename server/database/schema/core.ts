@@ -1,0 +1,110 @@
+import { bigserial, boolean, date, index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid, doublePrecision } from 'drizzle-orm/pg-core'
+import { sql } from 'drizzle-orm'
+import type { SiteSettings } from '../../../shared/utils/site-settings'
+import { areaKindEnum, assetKindEnum, qualificationKindEnum, roleEnum, unitSystemEnum } from './enums'
+import { id, timestamps } from './shared'
+
+export const organizations = pgTable('organizations', {
+  id: id(),
+  name: text().notNull(),
+  ...timestamps,
+})
+
+export const sites = pgTable('sites', {
+  id: id(),
+  organizationId: uuid().notNull().references(() => organizations.id),
+  name: text().notNull(),
+  address: text().notNull().default(''),
+  timeZone: text().notNull().default('America/Chicago'),
+  unitSystem: unitSystemEnum().notNull().default('us'),
+  settings: jsonb().$type<SiteSettings>().notNull(),
+  ...timestamps,
+}, t => [index().on(t.organizationId), uniqueIndex().on(t.organizationId, t.name)])
+
+export const areas = pgTable('areas', {
+  id: id(),
+  siteId: uuid().notNull().references(() => sites.id),
+  kind: areaKindEnum().notNull(),
+  name: text().notNull(),
+  floorAreaFt2: doublePrecision(),
+  roomVolumeFt3: doublePrecision(),
+  installedExhaustCfm: doublePrecision(),
+  lpStorageLimitLb: doublePrecision(),
+  notes: text().notNull().default(''),
+  archived: boolean().notNull().default(false),
+  ...timestamps,
+}, t => [index().on(t.siteId, t.kind), uniqueIndex().on(t.siteId, t.name)])
+
+export const users = pgTable('users', {
+  id: id(),
+  email: text().notNull(),
+  name: text().notNull(),
+  passwordHash: text().notNull(),
+  active: boolean().notNull().default(true),
+  ...timestamps,
+}, t => [uniqueIndex('users_email_lower_idx').on(sql`lower(${t.email})`)])
+
+export const memberships = pgTable('memberships', {
+  id: id(),
+  userId: uuid().notNull().references(() => users.id),
+  siteId: uuid().notNull().references(() => sites.id),
+  role: roleEnum().notNull(),
+  ...timestamps,
+}, t => [uniqueIndex().on(t.userId, t.siteId, t.role), index().on(t.siteId, t.role)])
+
+// Training and evaluation records; operators are re-evaluated at least every three years
+// (29 CFR 1910.178(l)(4)(iii)).
+export const qualifications = pgTable('qualifications', {
+  id: id(),
+  userId: uuid().notNull().references(() => users.id),
+  kind: qualificationKindEnum().notNull(),
+  trainedOn: date().notNull(),
+  evaluatedOn: date(),
+  expiresOn: date().notNull(),
+  notes: text().notNull().default(''),
+  ...timestamps,
+}, t => [index().on(t.userId, t.kind), index().on(t.expiresOn)])
+
+// Failed sign-ins, kept in the database so every app server sees the same count.
+export const signInFailures = pgTable('sign_in_failures', {
+  id: bigserial({ mode: 'number' }).primaryKey(),
+  key: text().notNull(),
+  at: timestamp({ withTimezone: true }).notNull().defaultNow(),
+}, t => [index().on(t.key, t.at)])
+
+export const auditLog = pgTable('audit_log', {
+  id: bigserial({ mode: 'number' }).primaryKey(),
+  at: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  userId: uuid().references(() => users.id),
+  siteId: uuid().references(() => sites.id),
+  action: text().notNull(),
+  entity: text().notNull(),
+  entityId: uuid().notNull(),
+  before: jsonb(),
+  after: jsonb(),
+  note: text(),
+}, t => [index().on(t.entity, t.entityId, t.at), index().on(t.siteId, t.at), index().on(t.userId)])
+
+// One QR tag code per asset; re-tagging retires the old code (which still resolves) and issues a new one.
+export const tags = pgTable('tags', {
+  id: id(),
+  code: text().notNull(),
+  assetKind: assetKindEnum().notNull(),
+  assetId: uuid().notNull(),
+  siteId: uuid().notNull().references(() => sites.id),
+  issuedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  retiredAt: timestamp({ withTimezone: true }),
+  replacedByCode: text(),
+  printedAt: timestamp({ withTimezone: true }),
+}, t => [
+  uniqueIndex().on(t.code),
+  index().on(t.assetKind, t.assetId),
+  index().on(t.siteId),
+  uniqueIndex('tags_one_live_per_asset').on(t.assetKind, t.assetId).where(sql`${t.retiredAt} IS NULL`),
+])
+
+// Gap-free code counters: bumped inside the creating transaction, so a rollback returns the number.
+export const tagCounters = pgTable('tag_counters', {
+  prefix: text().primaryKey(),
+  last: integer().notNull().default(0),
+})

@@ -1,0 +1,34 @@
+import postgres from 'postgres'
+import { drizzle, type PostgresJsDatabase } from 'drizzle-orm/postgres-js'
+import * as schema from '../database/schema'
+
+export { and, or, eq, ne, gt, gte, lt, lte, inArray, isNull, isNotNull, ilike, sql, desc, asc, count } from 'drizzle-orm'
+export const tables = schema
+
+export type Database = PostgresJsDatabase<typeof schema>
+export type Transaction = Parameters<Parameters<Database['transaction']>[0]>[0]
+export type DbOrTx = Database | Transaction
+
+let instance: { db: Database, client: postgres.Sql } | undefined
+
+// One pool per server process, created on first use.
+export function useDb(): Database {
+  if (!instance) {
+    const { databaseUrl } = useRuntimeConfig()
+    const client = postgres(databaseUrl, {
+      max: Number(process.env.BAYWARD_DB_POOL ?? 10),
+      idle_timeout: 30,
+      connect_timeout: 5,
+      onnotice: () => {},
+    })
+    instance = { client, db: drizzle(client, { schema, casing: 'snake_case' }) }
+  }
+  return instance.db
+}
+
+export async function closeDb() {
+  if (instance) {
+    await instance.client.end({ timeout: 5 })
+    instance = undefined
+  }
+}

@@ -1,0 +1,27 @@
+import type { H3Event } from 'h3'
+
+// Failed sign-ins counted per e-mail and per client address in the database, so every app
+// server behind a load balancer shares the count.
+export function signInKeys(event: H3Event, email: string) {
+  const address = getRequestIP(event, { xForwardedFor: process.env.BAYWARD_TRUST_PROXY === '1' }) ?? 'unknown'
+  return [`email:${email.toLowerCase()}`, `ip:${address}`]
+}
+
+export async function tooManyFailures(keys: string[]): Promise<boolean> {
+  const { attempts, windowSeconds } = useRuntimeConfig().signInLimit as { attempts: number, windowSeconds: number }
+  const since = new Date(Date.now() - windowSeconds * 1000)
+  const rows = await useDb()
+    .select({ key: tables.signInFailures.key, n: count() })
+    .from(tables.signInFailures)
+    .where(and(inArray(tables.signInFailures.key, keys), gte(tables.signInFailures.at, since)))
+    .groupBy(tables.signInFailures.key)
+  return rows.some(r => Number(r.n) >= Number(attempts))
+}
+
+export async function recordFailure(keys: string[]) {
+  await useDb().insert(tables.signInFailures).values(keys.map(key => ({ key })))
+}
+
+export async function clearFailures(keys: string[]) {
+  await useDb().delete(tables.signInFailures).where(inArray(tables.signInFailures.key, keys.filter(k => k.startsWith('email:'))))
+}

@@ -1,0 +1,40 @@
+import { z } from 'zod'
+
+// Site policy: every threshold the battery room, fuel station and due engine apply.
+// Defaults carry their source (see DEVELOPERS.md, "Where the numbers come from").
+export const siteSettingsSchema = z.object({
+  /** 8 h work / 8 h charge / 8 h cool (common practice). */
+  coolDownMinutes: z.number().int().min(0).max(24 * 60).default(480),
+  /** Specific-gravity reference temperature, °F (US Army TM 5-1185 tables are referenced to 80 °F). */
+  sgReferenceTempF: z.number().min(40).max(100).default(80),
+  /** Specific-gravity correction per °F (0.004 per 10 °F, published in several battery manuals). */
+  sgCorrectionPerDegF: z.number().min(0).max(0.01).default(0.0004),
+  /** A cell this far below the battery's mean is flagged weak (0.020, common practice). */
+  cellSpreadThreshold: z.number().min(0.005).max(0.1).default(0.02),
+  /** Highest electrolyte temperature at the end of a charge, °F (110–115 °F, from memory). */
+  maxChargeTempF: z.number().min(80).max(140).default(115),
+  wateringEveryCharges: z.number().int().min(1).max(50).default(5),
+  wateringEveryDays: z.number().int().min(1).max(60).default(7),
+  equalizeEveryCharges: z.number().int().min(1).max(50).default(5),
+  equalizeEveryDays: z.number().int().min(1).max(60).default(7),
+  /** What a swap does without a current battery-changing qualification. */
+  qualificationPolicy: z.enum(['warn', 'block']).default('warn'),
+  tariffPerKwh: z.number().min(0).max(10).default(0.12),
+  currency: z.string().length(3).default('USD'),
+  fullCylinderReorderAt: z.number().int().min(0).max(1000).default(6),
+  /** Minnesota Rules 5205.0116: CO at idle and high idle at most 1 % (LP-gas) and 2 % (gasoline). */
+  emissionsMaxCoPctLp: z.number().min(0).max(10).default(1),
+  emissionsMaxCoPctGasoline: z.number().min(0).max(10).default(2),
+  emissionsRetestDays: z.number().int().min(1).max(365).default(30),
+  /** NIOSH REL for carbon monoxide, 35 ppm 8-h TWA. */
+  coSiteLimitPpm: z.number().min(1).max(50).default(35),
+  /** 49 CFR 180.209: years to the next requalification by method. */
+  requalYearsWaterJacket: z.number().int().min(1).max(12).default(12),
+  requalYearsProofPressure: z.number().int().min(1).max(12).default(7),
+  requalYearsExternalVisual: z.number().int().min(1).max(12).default(5),
+  dueSoonDays: z.number().int().min(1).max(90).default(14),
+})
+
+export type SiteSettings = z.infer<typeof siteSettingsSchema>
+
+export const defaultSiteSettings = (): SiteSettings => siteSettingsSchema.parse({})
