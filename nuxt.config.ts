@@ -1,10 +1,7 @@
 // Bayward: Nuxt 4 app (app/, server/, shared/), PostgreSQL through Drizzle, sealed-cookie sessions.
 export default defineNuxtConfig({
-  compatibilityDate: '2026-11-01',
   modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', '@vueuse/nuxt', 'nuxt-auth-utils', '@nuxt/eslint'],
   devtools: { enabled: false },
-  telemetry: false,
-  css: ['@fontsource-variable/roboto-flex/index.css', '~/assets/css/main.css'],
   app: {
     head: {
       htmlAttrs: { lang: 'en' },
@@ -17,19 +14,21 @@ export default defineNuxtConfig({
       link: [{ rel: 'icon', type: 'image/svg+xml', href: '/favicon.svg' }],
     },
   },
+  css: ['@fontsource-variable/roboto-flex/index.css', '~/assets/css/main.css'],
   runtimeConfig: {
     databaseUrl: 'postgres://bayward@127.0.0.1:54329/bayward',
-    publicBaseUrl: 'http://localhost:3000',
-    signInLimit: { attempts: 5, windowSeconds: 900 },
+    signInLimit: { perEmail: 5, perAddress: 30, windowSeconds: 900 },
     session: {
       name: 'bayward-session',
       maxAge: 60 * 60 * 12,
       cookie: { sameSite: 'lax', httpOnly: true },
     },
-    public: { appName: 'Bayward' },
+    public: { appName: 'Bayward', baseUrl: 'http://localhost:3000' },
   },
-  tailwindcss: { cssPath: false, viewer: false },
-  eslint: { config: { stylistic: true } },
+  compatibilityDate: '2026-11-01',
   nitro: { experimental: { tasks: false } },
   typescript: { strict: true },
+  telemetry: false,
+  eslint: { config: { stylistic: true } },
+  tailwindcss: { cssPath: false, viewer: false },
 })

@@ -3,7 +3,7 @@ export default defineEventHandler(async (event) => {
   const actor = await requireActor(event)
   const sites = actor.siteIds.length
     ? await useDb().select({ id: tables.sites.id, name: tables.sites.name, timeZone: tables.sites.timeZone, unitSystem: tables.sites.unitSystem })
-      .from(tables.sites).where(inArray(tables.sites.id, actor.siteIds))
+        .from(tables.sites).where(inArray(tables.sites.id, actor.siteIds))
     : []
   return { user: actor.user, memberships: actor.memberships, sites }
 })

@@ -8,14 +8,14 @@ export function signInKeys(event: H3Event, email: string) {
 }
 
 export async function tooManyFailures(keys: string[]): Promise<boolean> {
-  const { attempts, windowSeconds } = useRuntimeConfig().signInLimit as { attempts: number, windowSeconds: number }
+  const { perEmail, perAddress, windowSeconds } = useRuntimeConfig().signInLimit as { perEmail: number, perAddress: number, windowSeconds: number }
   const since = new Date(Date.now() - windowSeconds * 1000)
   const rows = await useDb()
     .select({ key: tables.signInFailures.key, n: count() })
     .from(tables.signInFailures)
     .where(and(inArray(tables.signInFailures.key, keys), gte(tables.signInFailures.at, since)))
     .groupBy(tables.signInFailures.key)
-  return rows.some(r => Number(r.n) >= Number(attempts))
+  return rows.some(r => Number(r.n) >= Number(r.key.startsWith('email:') ? perEmail : perAddress))
 }
 
 export async function recordFailure(keys: string[]) {

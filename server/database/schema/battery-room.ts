@@ -1,10 +1,9 @@
 import { boolean, doublePrecision, index, integer, jsonb, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid, type AnyPgColumn } from 'drizzle-orm/pg-core'
 import { sql } from 'drizzle-orm'
 import { assetKindEnum, chargeOutcomeEnum, electrolyteLevelEnum, holdActionEnum, readingScopeEnum } from './enums'
-import { sites, users } from './core'
+import { users } from './core'
 import { batteries, chargers, trucks } from './assets'
 import { eventBase } from './event-base'
-
 
 export const batterySwaps = pgTable('battery_swaps', {
   ...eventBase(),

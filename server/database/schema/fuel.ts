@@ -1,11 +1,10 @@
 import { boolean, date, doublePrecision, index, jsonb, pgTable, text, uniqueIndex, uuid, type AnyPgColumn } from 'drizzle-orm/pg-core'
 import { sql } from 'drizzle-orm'
 import { requalMethodEnum } from './enums'
-import { areas, sites, users } from './core'
+import { areas } from './core'
 import { lpCylinders, trucks } from './assets'
 import { uploads } from './logs'
 import { eventBase } from './event-base'
-
 
 // A refill attempt, kept whether it was filled or refused (refusals are part of the record).
 export const cylinderRefills = pgTable('cylinder_refills', {

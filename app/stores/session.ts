@@ -1,0 +1,51 @@
+import { defineStore } from 'pinia'
+import type { Role, SiteMembership } from '#shared/types/auth'
+import type { UnitSystem } from '#shared/utils/units'
+
+interface MeResponse {
+  user: { id: string, email: string, name: string }
+  memberships: SiteMembership[]
+  sites: { id: string, name: string, timeZone: string, unitSystem: UnitSystem }[]
+}
+
+// Who is signed in, where (the current site), and what they may do there.
+export const useSessionStore = defineStore('session', () => {
+  const me = ref<MeResponse | null>(null)
+  const siteCookie = useCookie<string | null>('bayward-site', { sameSite: 'lax', maxAge: 60 * 60 * 24 * 365 })
+
+  const signedIn = computed(() => me.value !== null)
+  const sites = computed(() => me.value?.sites.slice().sort((a, b) => a.name.localeCompare(b.name)) ?? [])
+  const currentSite = computed(() => sites.value.find(s => s.id === siteCookie.value) ?? sites.value[0] ?? null)
+  const siteId = computed(() => currentSite.value?.id ?? null)
+  const roles = computed<Role[]>(() => me.value?.memberships.find(m => m.siteId === siteId.value)?.roles ?? [])
+  const units = computed<UnitSystem>(() => currentSite.value?.unitSystem ?? 'us')
+  const isLead = computed(() => roles.value.some(r => LEAD_ROLES.includes(r)))
+  const primaryRole = computed<Role | null>(() => {
+    const order: Role[] = ['admin', 'safety_lead', 'facilities_lead', 'technician', 'operator']
+    return order.find(r => roles.value.includes(r)) ?? null
+  })
+
+  function can(...wanted: Role[]) {
+    return roles.value.some(r => wanted.includes(r))
+  }
+
+  async function load() {
+    try {
+      me.value = await useRequestFetch()<MeResponse>('/api/me')
+    }
+    catch {
+      me.value = null
+    }
+  }
+
+  function chooseSite(id: string) {
+    siteCookie.value = id
+  }
+
+  async function signOut() {
+    await $fetch('/api/auth/sign-out', { method: 'POST' })
+    me.value = null
+  }
+
+  return { me, signedIn, sites, currentSite, siteId, roles, units, isLead, primaryRole, can, load, chooseSite, signOut }
+})

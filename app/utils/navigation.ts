@@ -1,0 +1,28 @@
+import type { Role } from '#shared/types/auth'
+
+export interface NavItem {
+  to: string
+  label: string
+  icon: string
+  roles: readonly Role[]
+}
+
+const everyone: Role[] = ['operator', 'technician', 'facilities_lead', 'safety_lead', 'admin']
+const floor: Role[] = ['technician', 'facilities_lead', 'safety_lead', 'admin']
+const leads: Role[] = ['facilities_lead', 'safety_lead', 'admin']
+
+// What each role uses, in the order they use it. Icons name paths in UiIcon.
+export const NAV_ITEMS: NavItem[] = [
+  { to: '/', label: 'Home', icon: 'home', roles: everyone },
+  { to: '/trucks', label: 'Trucks', icon: 'truck', roles: everyone },
+  { to: '/batteries', label: 'Batteries', icon: 'battery', roles: floor },
+  { to: '/chargers', label: 'Chargers', icon: 'plug', roles: floor },
+  { to: '/cylinders', label: 'LP cylinders', icon: 'cylinder', roles: floor },
+  { to: '/areas', label: 'Areas', icon: 'area', roles: leads },
+  { to: '/people', label: 'People', icon: 'people', roles: ['admin', 'safety_lead', 'facilities_lead'] },
+  { to: '/site', label: 'Site settings', icon: 'cog', roles: ['admin'] },
+]
+
+export function navFor(roles: readonly Role[]): NavItem[] {
+  return NAV_ITEMS.filter(item => item.roles.some(r => roles.includes(r)))
+}

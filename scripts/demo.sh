@@ -1,0 +1,13 @@
+#!/usr/bin/env bash
+# `npm run demo`: set-up, seed the demo scenario, build, and serve on http://localhost:3000.
+set -euo pipefail
+cd "$(dirname "$0")/.."
+source scripts/setup.sh bayward
+npx tsx scripts/seed.ts
+export NUXT_SESSION_PASSWORD="${NUXT_SESSION_PASSWORD:-demo-session-password-change-me-in-production-42}"
+export NUXT_PUBLIC_BASE_URL="${NUXT_PUBLIC_BASE_URL:-http://localhost:${PORT:-3000}}"
+echo "› building"
+npx nuxt build > .data/build.log 2>&1 || { tail -40 .data/build.log; exit 1; }
+npx tsx scripts/print-sign-ins.ts
+echo "› serving on http://localhost:${PORT:-3000}  (Ctrl-C to stop)"
+PORT="${PORT:-3000}" exec node .output/server/index.mjs

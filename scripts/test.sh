@@ -1,0 +1,14 @@
+#!/usr/bin/env bash
+# `npm test`: set-up against the test database, then lint, type-check, build, and every vitest project.
+set -euo pipefail
+cd "$(dirname "$0")/.."
+source scripts/setup.sh bayward_test
+bash scripts/ensure-chromium.sh
+export NUXT_SESSION_PASSWORD="${NUXT_SESSION_PASSWORD:-test-session-password-not-for-production-use-0123}"
+export NUXT_PUBLIC_BASE_URL="${NUXT_PUBLIC_BASE_URL:-http://localhost:3000}"
+export BAYWARD_SMTP_CAPTURE_DIR="${BAYWARD_SMTP_CAPTURE_DIR:-$(pwd)/.data/mail-test}"
+
+echo "› lint";       npx eslint .
+echo "› typecheck";  npx nuxt typecheck
+echo "› build";      npx nuxt build > .data/build.log 2>&1 || { tail -40 .data/build.log; exit 1; }
+echo "› tests";      npx vitest run "$@"

@@ -1,0 +1,95 @@
+import { fileURLToPath } from 'node:url'
+import { fetch, getServerLogs } from '@nuxt/test-utils/e2e'
+
+const rootDir = fileURLToPath(new URL('../..', import.meta.url))
+
+/**
+ * Options for `setup()`: the server built by `nuxt build` in `.output`, started once per file.
+ * With `build: false`, @nuxt/test-utils would look for the server in a random `.nuxt/test/<id>/output`
+ * folder, so the output folder is named here. The server inherits NUXT_DATABASE_URL and
+ * NUXT_SESSION_PASSWORD from this process's environment.
+ */
+export const builtServer = {
+  rootDir,
+  build: false,
+  server: true,
+  browser: false,
+  nuxtConfig: { nitro: { output: { dir: `${rootDir}.output` } } },
+}
+
+export const SESSION_COOKIE = 'bayward-session'
+
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
+export interface Reply<T = any> {
+  status: number
+  body: T
+  headers: Headers
+}
+
+/** A string body is sent as it is (for malformed JSON); anything else is JSON-encoded. */
+type Body = unknown
+
+export interface Client {
+  get: <T = any>(path: string) => Promise<Reply<T>> // eslint-disable-line @typescript-eslint/no-explicit-any
+  post: <T = any>(path: string, body?: Body) => Promise<Reply<T>> // eslint-disable-line @typescript-eslint/no-explicit-any
+  patch: <T = any>(path: string, body?: Body) => Promise<Reply<T>> // eslint-disable-line @typescript-eslint/no-explicit-any
+  put: <T = any>(path: string, body?: Body) => Promise<Reply<T>> // eslint-disable-line @typescript-eslint/no-explicit-any
+  /** the session cookie as sent (`bayward-session=…`), or null */
+  readonly cookie: string | null
+}
+
+function sessionFrom(headers: Headers): string | null | undefined {
+  for (const line of headers.getSetCookie()) {
+    const [pair] = line.split(';')
+    const eq = pair!.indexOf('=')
+    if (pair!.slice(0, eq).trim() !== SESSION_COOKIE) continue
+    const value = pair!.slice(eq + 1).trim()
+    return value ? `${SESSION_COOKIE}=${value}` : null
+  }
+  return undefined
+}
+
+/** A client that keeps the session cookie the server sets, like a browser would. Never throws on a status. */
+export function client(cookie: string | null = null): Client {
+  let jar = cookie
+  async function send(method: string, path: string, body?: Body): Promise<Reply> {
+    const headers: Record<string, string> = { accept: 'application/json' }
+    if (jar) headers.cookie = jar
+    if (body !== undefined) headers['content-type'] = 'application/json'
+    const res = await fetch(path, {
+      method,
+      headers,
+      body: body === undefined ? undefined : typeof body === 'string' ? body : JSON.stringify(body),
+      redirect: 'manual',
+    })
+    const next = sessionFrom(res.headers)
+    if (next !== undefined) jar = next
+    const text = await res.text()
+    let parsed: unknown = text
+    try {
+      parsed = text ? JSON.parse(text) : null
+    }
+    catch { /* not JSON: keep the text */ }
+    if (res.status >= 500) console.error(`${method} ${path} → ${res.status}\n${getServerLogs().slice(-20).join('\n')}`)
+    return { status: res.status, body: parsed, headers: res.headers }
+  }
+  return {
+    get: path => send('GET', path),
+    post: (path, body) => send('POST', path, body ?? {}),
+    patch: (path, body) => send('PATCH', path, body ?? {}),
+    put: (path, body) => send('PUT', path, body ?? {}),
+    get cookie() { return jar },
+  }
+}
+
+/** Signs in through POST /api/auth/sign-in; a failed sign-in here is a broken fixture, so it throws. */
+export async function signIn(who: { email: string, password: string }): Promise<Client> {
+  const c = client()
+  const res = await c.post('/api/auth/sign-in', { email: who.email, password: who.password })
+  if (res.status !== 200 || !c.cookie) throw new Error(`sign-in as ${who.email} answered ${res.status}: ${JSON.stringify(res.body)}`)
+  return c
+}
+
+/** The query string for a list route. */
+export const qs = (params: Record<string, string | number | boolean | undefined>) =>
+  new URLSearchParams(Object.entries(params).filter(([, v]) => v !== undefined).map(([k, v]) => [k, String(v)])).toString()
