@@ -1,0 +1,58 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { setup, url } from '@nuxt/test-utils/e2e'
+import type { Browser } from 'playwright-core'
+import { builtServer } from '../support/http'
+import { closeTestDb, site, user } from '../support/db'
+import { DESKTOP, PHONE, launchChromium, newContext } from '../support/chromium'
+
+await setup(builtServer)
+
+let browser: Browser
+let siteId: string
+const people: Record<string, { email: string, password: string }> = {}
+
+beforeAll(async () => {
+  browser = await launchChromium()
+  const s = await site()
+  siteId = s.id
+  people.operator = await user({ siteId, roles: ['operator'] })
+  people.facilities = await user({ siteId, roles: ['facilities_lead'] })
+})
+afterAll(async () => {
+  await browser?.close()
+  await closeTestDb()
+})
+
+async function signInAndOpenMenu(who: { email: string, password: string }, viewport: typeof PHONE) {
+  const context = await newContext(browser, url('/'), viewport)
+  const page = await context.newPage()
+  await page.goto(url('/trucks'))
+  await page.waitForURL(/\/sign-in\?next=%2Ftrucks/)
+  await page.getByLabel('E-mail').fill(who.email)
+  await page.getByLabel('Password').fill(who.password)
+  await page.getByRole('button', { name: 'Sign in' }).click()
+  await page.waitForURL(/\/trucks$/)
+  if (viewport === PHONE) await page.getByRole('button', { name: 'Open menu' }).click()
+  const nav = page.getByRole('navigation', { name: 'Main' }).filter({ visible: true })
+  const labels = (await nav.getByRole('link').allInnerTexts()).map(t => t.trim()).filter(Boolean)
+  return { context, labels }
+}
+
+describe('navigation by role', () => {
+  it('an operator at phone width sees the floor items, not the lead pages', async () => {
+    const { context, labels } = await signInAndOpenMenu(people.operator!, PHONE)
+    expect(labels).toContain('Home')
+    expect(labels).toContain('Trucks')
+    expect(labels).not.toContain('Areas')
+    expect(labels).not.toContain('People')
+    expect(labels).not.toContain('Site settings')
+    await context.close()
+  })
+
+  it('a facilities lead at desktop width sees the registry and people', async () => {
+    const { context, labels } = await signInAndOpenMenu(people.facilities!, DESKTOP)
+    expect(labels).toEqual(expect.arrayContaining(['Home', 'Trucks', 'Batteries', 'Chargers', 'LP cylinders', 'Areas', 'People']))
+    expect(labels).not.toContain('Site settings')
+    await context.close()
+  })
+})
