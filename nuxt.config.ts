@@ -24,9 +24,28 @@ export default defineNuxtConfig({
       cookie: { sameSite: 'lax', httpOnly: true },
     },
     public: { appName: 'Bayward', baseUrl: 'http://localhost:3000' },
+    // Certificates and photos: size limit, and the S3-compatible bucket used when built with
+    // BAYWARD_UPLOADS_DRIVER=s3 (NUXT_UPLOADS_S3_ENDPOINT, _REGION, _BUCKET, _ACCESS_KEY_ID, _SECRET_ACCESS_KEY).
+    uploads: {
+      maxBytes: 10 * 1024 * 1024,
+      s3: { endpoint: '', region: 'auto', bucket: '', accessKeyId: '', secretAccessKey: '' },
+    },
   },
+  // Separate build and output folders let several builds of one checkout coexist (BAYWARD_BUILD_NAME=x).
+  buildDir: process.env.BAYWARD_BUILD_NAME ? `.nuxt-${process.env.BAYWARD_BUILD_NAME}` : '.nuxt',
   compatibilityDate: '2026-11-01',
-  nitro: { experimental: { tasks: false } },
+  nitro: {
+    experimental: { tasks: false },
+    storage: {
+      // background jobs (label sheets, CSV imports): progress and results, shared by app servers
+      jobs: { driver: 'fs', base: './.data/jobs' },
+      // uploaded certificates and photos, under generated keys; never served as static files
+      uploads: { driver: 'fs', base: './.data/uploads' },
+    },
+    // BAYWARD_UPLOADS_DRIVER=s3 at build time remounts 'uploads' on an S3-compatible bucket (needs the aws4fetch package).
+    plugins: process.env.BAYWARD_UPLOADS_DRIVER === 's3' ? ['storage/uploads-s3.ts'] : [],
+    output: { dir: process.env.BAYWARD_BUILD_NAME ? `.output-${process.env.BAYWARD_BUILD_NAME}` : '.output' },
+  },
   typescript: { strict: true },
   telemetry: false,
   eslint: { config: { stylistic: true } },

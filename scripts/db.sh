@@ -8,7 +8,7 @@ PGPORT=${BAYWARD_PG_PORT:-54329}
 DATA="$ROOT/.data/pg"
 SOCK="$ROOT/.data/pg-socket"
 LOG="$ROOT/.data/pg.log"
-DATABASES=${BAYWARD_DATABASES:-"bayward bayward_test"}
+DATABASES=${BAYWARD_DATABASES:-"bayward bayward_test bayward_test_seed"}
 
 find_bin() {
   for dir in /usr/lib/postgresql/*/bin; do

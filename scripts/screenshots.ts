@@ -8,9 +8,9 @@ import { CHROMIUM_ARGS } from '../tests/support/chromium'
 
 const PASSWORD = 'bayward-demo'
 const shots: { who: string, email: string, paths: string[] }[] = [
-  { who: 'operator', email: 'operator@millbrook.example', paths: ['/', '/trucks'] },
-  { who: 'technician', email: 'technician@millbrook.example', paths: ['/', '/batteries'] },
-  { who: 'facilities', email: 'facilities@millbrook.example', paths: ['/', '/batteries', '/cylinders', '/trucks/new'] },
+  { who: 'operator', email: 'operator@millbrook.example', paths: ['/', '/scan', '/t/B-00003', '/trucks'] },
+  { who: 'technician', email: 'technician@millbrook.example', paths: ['/', '/batteries', '/t/B-00003'] },
+  { who: 'facilities', email: 'facilities@millbrook.example', paths: ['/', '/batteries', '/cylinders', '/trucks/new', '/labels'] },
   { who: 'safety', email: 'safety@millbrook.example', paths: ['/', '/areas'] },
   { who: 'admin', email: 'admin@quillmere.example', paths: ['/people', '/site'] },
 ]

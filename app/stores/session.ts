@@ -15,7 +15,8 @@ export const useSessionStore = defineStore('session', () => {
 
   const signedIn = computed(() => me.value !== null)
   const sites = computed(() => me.value?.sites.slice().sort((a, b) => a.name.localeCompare(b.name)) ?? [])
-  const currentSite = computed(() => sites.value.find(s => s.id === siteCookie.value) ?? sites.value[0] ?? null)
+  const homeSiteId = computed(() => me.value?.memberships[0]?.siteId)
+  const currentSite = computed(() => sites.value.find(s => s.id === siteCookie.value) ?? sites.value.find(s => s.id === homeSiteId.value) ?? sites.value[0] ?? null)
   const siteId = computed(() => currentSite.value?.id ?? null)
   const roles = computed<Role[]>(() => me.value?.memberships.find(m => m.siteId === siteId.value)?.roles ?? [])
   const units = computed<UnitSystem>(() => currentSite.value?.unitSystem ?? 'us')

@@ -14,11 +14,17 @@ const leads: Role[] = ['facilities_lead', 'safety_lead', 'admin']
 // What each role uses, in the order they use it. Icons name paths in UiIcon.
 export const NAV_ITEMS: NavItem[] = [
   { to: '/', label: 'Home', icon: 'home', roles: everyone },
+  { to: '/scan', label: 'Scan', icon: 'scan', roles: everyone },
+  { to: '/bay', label: 'Bay board', icon: 'area', roles: everyone },
+  { to: '/swap', label: 'Change battery', icon: 'battery', roles: everyone },
+  { to: '/charge', label: 'Charge', icon: 'plug', roles: floor },
+  { to: '/check', label: 'Electrolyte check', icon: 'search', roles: floor },
   { to: '/trucks', label: 'Trucks', icon: 'truck', roles: everyone },
   { to: '/batteries', label: 'Batteries', icon: 'battery', roles: floor },
   { to: '/chargers', label: 'Chargers', icon: 'plug', roles: floor },
   { to: '/cylinders', label: 'LP cylinders', icon: 'cylinder', roles: floor },
   { to: '/areas', label: 'Areas', icon: 'area', roles: leads },
+  { to: '/labels', label: 'Label sheet', icon: 'tag', roles: leads },
   { to: '/people', label: 'People', icon: 'people', roles: ['admin', 'safety_lead', 'facilities_lead'] },
   { to: '/site', label: 'Site settings', icon: 'cog', roles: ['admin'] },
 ]

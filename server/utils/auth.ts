@@ -22,6 +22,7 @@ export async function requireActor(event: H3Event): Promise<Actor> {
     .leftJoin(tables.memberships, eq(tables.memberships.userId, tables.users.id))
     .leftJoin(tables.sites, eq(tables.sites.id, tables.memberships.siteId))
     .where(eq(tables.users.id, session.user.id))
+    .orderBy(asc(tables.memberships.createdAt))
   const first = rows[0]
   if (!first || !first.active) {
     await clearUserSession(event)
@@ -34,7 +35,8 @@ export async function requireActor(event: H3Event): Promise<Actor> {
     m.roles.push(row.role)
     bySite.set(row.siteId, m)
   }
-  const memberships = [...bySite.values()].sort((a, b) => a.siteName.localeCompare(b.siteName))
+  // in the order the user joined them: the first is their home site
+  const memberships = [...bySite.values()]
   const actor: Actor = {
     user: { id: first.userId, email: first.email, name: first.name },
     memberships,

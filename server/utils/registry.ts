@@ -2,7 +2,7 @@ import type { H3Event } from 'h3'
 import { z } from 'zod'
 import type { PgColumn, PgTable } from 'drizzle-orm/pg-core'
 import type { SQL } from 'drizzle-orm'
-import type { AssetKind } from '#shared/utils/asset-schemas'
+import type { AssetKind, ListQuery } from '#shared/utils/asset-schemas'
 import {
   AREA_KINDS, BATTERY_CHEMISTRIES, CYLINDER_SPECS, CYLINDER_STATUSES, TRUCK_POWERS,
   assetCreateSchemas, assetFieldSchemas, idParamsSchema, listQuerySchema, outOfServiceSchema,
@@ -92,15 +92,15 @@ function kinds(): Record<AssetKind, KindConfig> {
 let cached: Record<AssetKind, KindConfig> | undefined
 export const assetKinds = () => (cached ??= kinds())
 
-function liveTagCode(kind: AssetKind, idColumn: PgColumn) {
-  return sql<string | null>`(SELECT code FROM tags WHERE tags.asset_kind = ${kind} AND tags.asset_id = ${idColumn} AND tags.retired_at IS NULL)`
+// The asset's id is named with its table: drizzle writes a lone column unqualified in a select
+// list, and inside this subquery a bare "id" would be tags.id.
+function liveTagCode(kind: AssetKind, table: PgTable) {
+  return sql<string | null>`(SELECT code FROM tags WHERE tags.asset_kind = ${kind} AND tags.asset_id = ${table}.id AND tags.retired_at IS NULL)`
 }
 
-// Server-side paged, sorted, filtered list of one asset kind at one site.
-export async function listAssets(event: H3Event, kind: AssetKind) {
+// The WHERE and ORDER BY of an asset list from its query (?siteId, q, sort, dir and the kind's filters).
+function listConditions(event: H3Event, kind: AssetKind, query: ListQuery) {
   const cfg = assetKinds()[kind]
-  const query = validateQuery(event, listQuerySchema)
-  await requireSiteRole(event, query.siteId)
   const raw = getQuery(event)
   const where: SQL[] = [eq(cfg.table.siteId, query.siteId)]
   for (const [name, f] of Object.entries(cfg.filters)) {
@@ -111,17 +111,25 @@ export async function listAssets(event: H3Event, kind: AssetKind) {
   }
   if (query.q) {
     const like = `%${query.q.replace(/[\\%_]/g, m => `\\${m}`)}%`
-    where.push(or(...cfg.search.map(col => ilike(col, like)), sql`${liveTagCode(kind, cfg.table.id)} ILIKE ${like}`)!)
+    where.push(or(...cfg.search.map(col => ilike(col, like)), sql`${liveTagCode(kind, cfg.table)} ILIKE ${like}`)!)
   }
   const sortKey = query.sort && cfg.sortable[query.sort] ? query.sort : cfg.defaultSort
   const sortCol = cfg.sortable[sortKey]!
+  return { condition: and(...where), sortKey, order: [query.dir === 'desc' ? desc(sortCol) : asc(sortCol), asc(cfg.table.id)] }
+}
+
+// Server-side paged, sorted, filtered list of one asset kind at one site.
+export async function listAssets(event: H3Event, kind: AssetKind) {
+  const cfg = assetKinds()[kind]
+  const query = validateQuery(event, listQuerySchema)
+  await requireSiteRole(event, query.siteId)
+  const { condition, sortKey, order } = listConditions(event, kind, query)
   const db = useDb()
-  const condition = and(...where)
   const [items, [{ total } = { total: 0 }]] = await Promise.all([
-    db.select({ row: cfg.table, tagCode: liveTagCode(kind, cfg.table.id) })
+    db.select({ row: cfg.table, tagCode: liveTagCode(kind, cfg.table) })
       .from(cfg.table as PgTable)
       .where(condition)
-      .orderBy(query.dir === 'desc' ? desc(sortCol) : asc(sortCol), asc(cfg.table.id))
+      .orderBy(...order)
       .limit(query.pageSize)
       .offset((query.page - 1) * query.pageSize),
     db.select({ total: count() }).from(cfg.table as PgTable).where(condition),
@@ -136,13 +144,73 @@ export async function listAssets(event: H3Event, kind: AssetKind) {
   }
 }
 
+// The whole filtered list as CSV (the same query as the list, without paging).
+export async function exportAssets(event: H3Event, kind: AssetKind) {
+  const cfg = assetKinds()[kind]
+  const query = validateQuery(event, listQuerySchema)
+  await requireSiteRole(event, query.siteId)
+  const { condition, order } = listConditions(event, kind, query)
+  const rows = await useDb().select({ row: cfg.table, tagCode: liveTagCode(kind, cfg.table) })
+    .from(cfg.table as PgTable).where(condition).orderBy(...order).limit(200_000)
+  const { byId } = await areaNames(query.siteId)
+  const csv = toCsv(kind, rows.map(r => ({ ...(r.row as Record<string, unknown>), tagCode: r.tagCode })), byId)
+  return sendCsv(event, `bayward-${kind}-list-${new Date().toISOString().slice(0, 10)}.csv`, csv)
+}
+
+const importBody = z.object({
+  siteId: z.uuid('Pick a site.'),
+  csv: z.string().min(1, 'The file is empty.').max(5_000_000, 'The file is over 5 MB; split it.'),
+  dryRun: z.boolean().default(true),
+})
+
+// CSV import: a dry run lists every bad row (line and field); a real run writes all rows or none,
+// as a job whose progress the client polls.
+export async function importAssets(event: H3Event, kind: AssetKind) {
+  const cfg = assetKinds()[kind]
+  const body = await validateBody(event, importBody)
+  const actor = await requireSiteRole(event, body.siteId, EDITORS)
+  const { byName } = await areaNames(body.siteId)
+  const { rows, errors, total } = parseAssetCsv(kind, body.csv, byName)
+  const identities = rows.map(r => String(r[cfg.identity]).toLowerCase())
+  identities.forEach((id, i) => {
+    if (identities.indexOf(id) !== i) errors.push({ line: rows[i]!._line as number, field: cfg.identity, message: `"${rows[i]![cfg.identity]}" appears twice in the file.` })
+  })
+  if (rows.length) {
+    const identityCol = (cfg.table as unknown as Record<string, PgColumn>)[cfg.identity]!
+    const existing = await useDb().select({ v: identityCol }).from(cfg.table as PgTable)
+      .where(and(eq(cfg.table.siteId, body.siteId), inArray(sql`lower(${identityCol})`, identities)))
+    const taken = new Set(existing.map(e => String(e.v).toLowerCase()))
+    rows.forEach((r) => {
+      if (taken.has(String(r[cfg.identity]).toLowerCase())) errors.push({ line: r._line as number, field: cfg.identity, message: `A ${cfg.noun} "${r[cfg.identity]}" already exists at this site.` })
+    })
+  }
+  errors.sort((a, b) => a.line - b.line)
+  if (body.dryRun || errors.length) {
+    return { dryRun: true, total, valid: errors.length ? rows.length - new Set(errors.map(e => e.line)).size : rows.length, errors }
+  }
+  const job = await startJob('import', { siteId: body.siteId, userId: actor.user.id }, rows.length, async (progress) => {
+    await useDb().transaction(async (tx) => {
+      for (const [i, { _line, ...values }] of rows.entries()) {
+        const [row] = await tx.insert(cfg.table).values({ ...values, siteId: body.siteId } as never).returning()
+        const created = row as Record<string, unknown> & { id: string }
+        await issueTag(tx, kind, created.id, body.siteId)
+        await writeAudit(tx, { actor, siteId: body.siteId, action: 'import', entity: kind, entityId: created.id, after: created, note: `CSV line ${_line}` })
+        if (i % 25 === 24) await progress(i + 1)
+      }
+    })
+    return { imported: rows.length }
+  })
+  setResponseStatus(event, 202)
+  return { dryRun: false, job: job.id, total: rows.length, errors: [] }
+}
+
 // Finds one asset by id among the sites the user belongs to; anything else is 404.
 export async function findAssetForActor(event: H3Event, kind: AssetKind, id: string) {
   const actor = await requireActor(event)
   const cfg = assetKinds()[kind]
   if (actor.siteIds.length === 0) throw createError({ statusCode: 404, message: `No such ${cfg.noun}.` })
   const [found] = await useDb()
-    .select({ row: cfg.table, tagCode: liveTagCode(kind, cfg.table.id) })
+    .select({ row: cfg.table, tagCode: liveTagCode(kind, cfg.table) })
     .from(cfg.table as PgTable)
     .where(and(eq(cfg.table.id, id), inArray(cfg.table.siteId, actor.siteIds)))
   if (!found) throw createError({ statusCode: 404, message: `No such ${cfg.noun}.` })
@@ -173,6 +241,8 @@ async function checkAreaRefs(kind: AssetKind, siteId: string, values: Record<str
 
 function conflict(kind: AssetKind, values: Record<string, unknown>, error: unknown): never {
   const cfg = assetKinds()[kind]
+  const unstorable = unstorableValueError(error, values)
+  if (unstorable) throw unstorable
   if (isUniqueViolation(error)) {
     throw createError({
       statusCode: 409,

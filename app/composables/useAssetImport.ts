@@ -1,0 +1,47 @@
+import type { AssetKind } from '#shared/utils/asset-schemas'
+
+interface ImportReply { dryRun: boolean, total: number, valid?: number, errors: { line: number, field: string, message: string }[], job?: string }
+
+// CSV import: a dry run first (every bad row with its line), then the all-or-nothing import as a job.
+export function useAssetImport(kind: AssetKind) {
+  const view = ASSET_VIEWS[kind]
+  const session = useSessionStore()
+  const report = ref<ImportReply | null>(null)
+  const progress = ref<{ done: number, total: number, status: string } | null>(null)
+  const problem = ref('')
+
+  async function check(csv: string) {
+    problem.value = ''
+    progress.value = null
+    try {
+      report.value = await $fetch<ImportReply>(`${view.api}/import`, { method: 'POST', body: { siteId: session.siteId, csv, dryRun: true } })
+    }
+    catch (error) {
+      problem.value = errorMessage(error)
+    }
+  }
+
+  async function run(csv: string) {
+    problem.value = ''
+    try {
+      const reply = await $fetch<ImportReply>(`${view.api}/import`, { method: 'POST', body: { siteId: session.siteId, csv, dryRun: false } })
+      report.value = reply
+      if (!reply.job) return
+      progress.value = { done: 0, total: reply.total, status: 'running' }
+      while (progress.value.status === 'running') {
+        await new Promise(r => setTimeout(r, 400))
+        progress.value = await $fetch<{ done: number, total: number, status: string }>(`/api/jobs/${reply.job}`)
+      }
+      if (progress.value.status === 'done') {
+        await refreshNuxtData(`${kind}-list`)
+        useToast().show(`${reply.total} imported.`)
+      }
+      else problem.value = 'The import failed and nothing was written. Try again.'
+    }
+    catch (error) {
+      problem.value = errorMessage(error)
+    }
+  }
+
+  return { report, progress, problem, check, run }
+}

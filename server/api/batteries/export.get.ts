@@ -1,0 +1,2 @@
+// The batteries list as filtered, as CSV (same query as the list, no paging).
+export default defineEventHandler(event => exportAssets(event, 'battery'))

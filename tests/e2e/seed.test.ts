@@ -1,0 +1,39 @@
+import { execFileSync } from 'node:child_process'
+import { afterAll, describe, expect, it } from 'vitest'
+import postgres from 'postgres'
+
+// The demo seed runs against its own database so it never mixes with other tests' fixtures.
+const url = (process.env.NUXT_DATABASE_URL ?? '').replace(/\/[^/]+$/, '/bayward_test_seed')
+const env = { ...process.env, NUXT_DATABASE_URL: url }
+const sql = postgres(url, { max: 1, onnotice: () => {} })
+const run = (...args: string[]) => execFileSync('npx', ['tsx', 'scripts/seed.ts', ...args], { env, encoding: 'utf8', timeout: 120_000 })
+
+async function counts() {
+  const [row] = await sql`SELECT
+    (SELECT count(*) FROM sites)::int AS sites, (SELECT count(*) FROM users)::int AS users,
+    (SELECT count(*) FROM trucks)::int AS trucks, (SELECT count(*) FROM batteries)::int AS batteries,
+    (SELECT count(*) FROM chargers)::int AS chargers, (SELECT count(*) FROM lp_cylinders)::int AS cylinders,
+    (SELECT count(*) FROM tags)::int AS tags`
+  return row!
+}
+
+afterAll(() => sql.end())
+
+describe('demo seed', () => {
+  it('builds the scenario, is harmless the second time, and rebuilds with --reset', async () => {
+    execFileSync('node', ['scripts/migrate.mjs'], { env })
+    run('--reset')
+    const first = await counts()
+    expect(first.sites).toBe(2)
+    expect(first.trucks).toBeGreaterThanOrEqual(25)
+    expect(first.batteries).toBeGreaterThanOrEqual(50)
+    expect(first.cylinders).toBeGreaterThanOrEqual(70)
+    expect(first.tags).toBe(first.trucks + first.batteries + first.chargers + first.cylinders + 5)
+    expect(run()).toMatch(/already present/)
+    expect(await counts()).toEqual(first)
+    run('--reset')
+    expect(await counts()).toEqual(first)
+    const [twoTrucks] = await sql`SELECT count(*)::int AS n FROM (SELECT current_truck_id FROM batteries WHERE current_truck_id IS NOT NULL GROUP BY 1 HAVING count(*) > 1) x`
+    expect(twoTrucks!.n).toBe(0)
+  }, 180_000)
+})
