@@ -20,3 +20,19 @@ export function pgConstraint(error: unknown): string | undefined {
 }
 
 export const isUniqueViolation = (error: unknown) => pgErrorCode(error) === '23505'
+
+const realCalendarDate = (s: string) => {
+  const d = new Date(`${s}T00:00:00Z`)
+  return Number(s.slice(0, 4)) >= 1 && !Number.isNaN(d.getTime()) && d.toISOString().slice(0, 10) === s
+}
+
+// A value the schema let through but PostgreSQL refuses (data exception, SQLSTATE class 22: an
+// impossible date such as 2024-02-30) is bad input: a 400 naming the date fields at fault.
+export function unstorableValueError(error: unknown, values: Record<string, unknown>) {
+  if (!pgErrorCode(error)?.startsWith('22')) return undefined
+  const fields: Record<string, string> = {}
+  for (const [key, value] of Object.entries(values)) {
+    if (typeof value === 'string' && /^\d{4}-\d{2}-\d{2}$/.test(value) && !realCalendarDate(value)) fields[key] = 'Not a real date.'
+  }
+  return createError({ statusCode: 400, message: 'Check the highlighted fields.', data: { fields: Object.keys(fields).length ? fields : { _: 'A value cannot be stored.' } } })
+}

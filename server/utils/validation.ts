@@ -21,6 +21,23 @@ function invalid(error: z.ZodError, what: string) {
   })
 }
 
+// PostgreSQL text cannot hold U+0000, so input carrying one is refused here rather than failing in a query.
+function nulCharacterPath(value: unknown, path: string[] = []): string | undefined {
+  if (typeof value === 'string') return value.includes('\u0000') ? path.join('.') || '_' : undefined
+  if (value && typeof value === 'object') {
+    for (const [key, inner] of Object.entries(value)) {
+      const found = key.includes('\u0000') ? [...path, key].join('.') : nulCharacterPath(inner, [...path, key])
+      if (found) return found
+    }
+  }
+  return undefined
+}
+
+function refuseNulCharacters(input: unknown) {
+  const path = nulCharacterPath(input)
+  if (path) throw createError({ statusCode: 400, message: 'Text cannot contain a NUL character.', data: { fields: { [path]: 'Contains a character that cannot be stored.' } } })
+}
+
 export async function validateBody<S extends z.ZodType>(event: H3Event, schema: S): Promise<z.output<S>> {
   let body: unknown
   try {
@@ -29,13 +46,16 @@ export async function validateBody<S extends z.ZodType>(event: H3Event, schema: 
   catch {
     throw createError({ statusCode: 400, message: 'The request body is not valid JSON.' })
   }
+  refuseNulCharacters(body)
   const result = schema.safeParse(body ?? {})
   if (!result.success) throw invalid(result.error, 'the form')
   return result.data
 }
 
 export function validateQuery<S extends z.ZodType>(event: H3Event, schema: S): z.output<S> {
-  const result = schema.safeParse(getQuery(event))
+  const query = getQuery(event)
+  refuseNulCharacters(query)
+  const result = schema.safeParse(query)
   if (!result.success) throw invalid(result.error, 'the query')
   return result.data
 }

@@ -1,6 +1,6 @@
 import { z } from 'zod'
-import { siteSettingsSchema } from './site-settings'
 import { passwordSchema } from './auth-schemas'
+import { isoDateSchema } from './iso-date'
 
 export const ROLE_VALUES = ['operator', 'technician', 'facilities_lead', 'safety_lead', 'admin'] as const
 export const QUALIFICATION_KINDS = [
@@ -13,15 +13,24 @@ export const QUALIFICATION_LABELS: Record<typeof QUALIFICATION_KINDS[number], st
   truck_class_7: 'Truck class 7', battery_changing: 'Battery changing', lp_gas_transfer: 'LP-gas transfer',
 }
 
-const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date like 2026-03-31.')
+const isoDate = isoDateSchema
 
-export const siteCreateSchema = z.object({
+const siteFields = {
   name: z.string().trim().min(2, 'Name the site.').max(80),
-  address: z.string().trim().max(200).default(''),
-  timeZone: z.string().trim().min(3).max(60).refine(tz => Intl.supportedValuesOf('timeZone').includes(tz) || tz === 'UTC', 'Pick a time zone such as America/Chicago.').default('America/Chicago'),
-  unitSystem: z.enum(['us', 'metric']).default('us'),
+  address: z.string().trim().max(200),
+  timeZone: z.string().trim().min(3).max(60).refine(tz => Intl.supportedValuesOf('timeZone').includes(tz) || tz === 'UTC', 'Pick a time zone such as America/Chicago.'),
+  unitSystem: z.enum(['us', 'metric']),
+}
+export const siteCreateSchema = z.object({
+  ...siteFields,
+  address: siteFields.address.default(''),
+  timeZone: siteFields.timeZone.default('America/Chicago'),
+  unitSystem: siteFields.unitSystem.default('us'),
 })
-export const siteUpdateSchema = siteCreateSchema.partial().extend({ settings: siteSettingsSchema.partial().optional() })
+// No defaults here: a PATCH changes only the keys it sends.
+export const siteUpdateSchema = z.object(siteFields).partial().extend({
+  settings: z.record(z.string(), z.unknown()).optional(),
+})
 
 export const userCreateSchema = z.object({
   email: z.string().trim().toLowerCase().email('Enter an e-mail address.').max(200),

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { isoDateSchema } from './iso-date'
 
 // Payloads for the asset registry, shared by the forms and the routes. Measurements are in the
 // canonical US customary units (lb, in, ft², ft³, cfm); forms convert metric input before sending.
@@ -43,7 +44,7 @@ const text = (max: number, label: string) => z.string({ error: `${label} is requ
 const optionalText = (max: number) => z.string().trim().max(max, `At most ${max} characters.`).default('')
 const positive = (label: string, max: number) => z.number({ error: `${label} must be a number.` }).positive(`${label} must be above 0.`).max(max, `${label} above ${max} looks wrong.`)
 const optionalPositive = (label: string, max: number) => positive(label, max).nullable().default(null)
-const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date like 2026-03-31.').refine(s => !Number.isNaN(Date.parse(s)), 'Not a real date.')
+const isoDate = isoDateSchema
 const uuidRef = z.uuid('Pick one from the list.')
 
 export const truckFields = z.object({

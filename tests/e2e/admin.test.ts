@@ -138,7 +138,7 @@ describe('user administration', () => {
   })
 
   describe('qualifications', () => {
-    it('an admin records a training and evaluation; it shows in the user list', async () => {
+    it('an admin records a qualification (instruction and evaluation); it shows in the user list', async () => {
       const who = await user({ siteId: siteA, roles: ['operator'] })
       const res = await adminA.post(`/api/users/${who.id}/qualifications`, qualificationBody())
       expect(res.status, JSON.stringify(res.body)).toBe(201)
@@ -158,9 +158,11 @@ describe('user administration', () => {
     })
 
     it.each([
-      ['an expiry before the training', { expiresOn: '2025-12-31' }, 'expiresOn'],
+      ['an expiry before the instruction date', { expiresOn: '2025-12-31' }, 'expiresOn'],
       ['an unknown kind', { kind: 'forklift_ninja' }, 'kind'],
       ['a date that is not a date', { trainedOn: '12/01/2026' }, 'trainedOn'],
+      ['a day that does not exist', { trainedOn: '2026-02-30' }, 'trainedOn'],
+      ['a month that does not exist', { expiresOn: '2029-13-01' }, 'expiresOn'],
     ])('refuses %s → 400', async (_what, over, field) => {
       const who = await user({ siteId: siteA, roles: ['operator'] })
       const res = await adminA.post(`/api/users/${who.id}/qualifications`, qualificationBody(over))
@@ -226,7 +228,7 @@ describe('user administration', () => {
       expect((await adminB.post('/api/users', newUserBody(siteA, ['operator']))).status).toBe(404)
     })
 
-    it('cannot set roles at site A, change a site-A user or record their training (404)', async () => {
+    it('cannot set roles at site A, change a site-A user or record their qualification (404)', async () => {
       const target = await user({ siteId: siteA, roles: ['operator'] })
       expect((await adminB.put(`/api/users/${target.id}/roles`, { siteId: siteA, roles: ['admin'] })).status).toBe(404)
       expect((await adminB.patch(`/api/users/${target.id}`, { active: false })).status).toBe(404)

@@ -3,7 +3,7 @@ import { setup } from '@nuxt/test-utils/e2e'
 import { builtServer, signIn, type Client } from '../support/http'
 import {
   area, areaInput, battery, batteryInput, charger, chargerInput, closeTestDb, cylinder, cylinderInput,
-  site, truck, truckInput, user,
+  site, truck, truckInput, uniqueName, user,
 } from '../support/db'
 
 await setup(builtServer)
@@ -36,6 +36,8 @@ describe('bad input is 400 with field messages, conflicts 409, never 500', () =>
     ['battery of an unknown chemistry', '/api/batteries', () => batteryInput({ chemistry: 'nickel_iron_x' }), 'chemistry'],
     ['battery put in service before it was made', '/api/batteries', () => batteryInput({ manufacturedOn: '2024-05-01', inServiceOn: '2024-01-01' }), 'inServiceOn'],
     ['battery with a date that is not a date', '/api/batteries', () => batteryInput({ manufacturedOn: '05/01/2024' }), 'manufacturedOn'],
+    ['battery made on a day that does not exist (30 February)', '/api/batteries', () => batteryInput({ manufacturedOn: '2024-02-30' }), 'manufacturedOn', 'Not a real date.'],
+    ['battery put in service in year 0', '/api/batteries', () => batteryInput({ inServiceOn: '0000-06-01' }), 'inServiceOn', 'Not a real date.'],
     ['battery whose home area is a fuel station', '/api/batteries', () => batteryInput({ homeAreaId: fuelStationId }), 'homeAreaId', 'Pick a charging area.'],
     ['charger whose area is a fuel station', '/api/chargers', () => chargerInput(fuelStationId), 'areaId', 'Pick a charging area.'],
     ['charger without an area', '/api/chargers', () => without(chargerInput(chargingAreaId), 'areaId'), 'areaId'],
@@ -45,6 +47,7 @@ describe('bad input is 400 with field messages, conflicts 409, never 500', () =>
     ['truck of class 8', '/api/trucks', () => truckInput({ power: 'lp_gas', truckClass: 8 }), 'truckClass'],
     ['cylinder created as in use', '/api/cylinders', () => cylinderInput({ status: 'in_use' }), 'status'],
     ['cylinder with a requalification date but no method', '/api/cylinders', () => cylinderInput({ lastRequalifiedOn: '2023-04-01' }), 'lastRequalificationMethod'],
+    ['cylinder requalified on 29 February of a common year', '/api/cylinders', () => cylinderInput({ lastRequalifiedOn: '2023-02-29', lastRequalificationMethod: 'external_visual' }), 'lastRequalifiedOn', 'Not a real date.'],
     ['cylinder kept in a charging area', '/api/cylinders', () => cylinderInput({ areaId: chargingAreaId }), 'areaId', 'Pick a fuel station.'],
     ['cylinder with a negative tare weight', '/api/cylinders', () => cylinderInput({ tareLb: -30 }), 'tareLb'],
     ['area of an unknown kind', '/api/areas', () => areaInput({ kind: 'garage' }), 'kind'],
@@ -55,6 +58,40 @@ describe('bad input is 400 with field messages, conflicts 409, never 500', () =>
     expect(res.status, JSON.stringify(res.body)).toBe(400)
     expect(res.body.data.fields).toHaveProperty(field)
     if (text) expect(res.body.data.fields[field]).toContain(text)
+  })
+
+  describe('junk in any field is refused (400, or 409 when it collides), never a 500', () => {
+    const JUNK: [string, unknown][] = [['null', null], ['an object', { $gt: '' }], ['a list', [1, 2]], ['true', true], ['a word', 'lots'], ['a NUL character', 'A\u0000B']]
+    const bodies: [string, string, () => Record<string, unknown>][] = [
+      ['batteries', '/api/batteries', () => batteryInput()],
+      ['trucks', '/api/trucks', () => truckInput()],
+      ['chargers', '/api/chargers', () => chargerInput(chargingAreaId)],
+      ['cylinders', '/api/cylinders', () => cylinderInput()],
+      ['areas', '/api/areas', () => areaInput()],
+    ]
+    it.each(bodies)('%s: every field, every kind of junk', async (_kind, route, body) => {
+      const outcomes: string[] = []
+      for (const field of Object.keys(body())) {
+        for (const [what, value] of JUNK) {
+          const res = await admin.post(route, { siteId, ...body(), [field]: value })
+          if (![201, 400, 409].includes(res.status)) outcomes.push(`${field} = ${what} → ${res.status}`)
+        }
+      }
+      expect(outcomes).toEqual([])
+    })
+
+    it.each(bodies)('%s: PATCH with junk in every field', async (kind, route, body) => {
+      const created = await admin.post(route, { siteId, ...body() })
+      expect(created.status).toBe(201)
+      const outcomes: string[] = []
+      for (const field of Object.keys(body())) {
+        for (const [what, value] of JUNK) {
+          const res = await admin.patch(`${route}/${created.body.item.id}`, { [field]: value })
+          if (![200, 400, 409].includes(res.status)) outcomes.push(`${kind}.${field} = ${what} → ${res.status}`)
+        }
+      }
+      expect(outcomes).toEqual([])
+    })
   })
 
   it('accepts a lithium-ion battery whose cell count is not voltage ÷ 2 (the 2 V rule is for lead-acid)', async () => {
@@ -118,6 +155,13 @@ describe('bad input is 400 with field messages, conflicts 409, never 500', () =>
       expect(res.status).toBe(400)
       expect(res.body.data.fields.cellCount).toContain('24 cells')
       expect((await admin.patch(`/api/batteries/${b.id}`, { voltage: 48, cellCount: 24 })).status).toBe(200)
+    })
+
+    it('a day that does not exist → 400 on that field, not a database error', async () => {
+      const b = await battery({ siteId })
+      const res = await admin.patch(`/api/batteries/${b.id}`, { inServiceOn: '2025-04-31' })
+      expect(res.status).toBe(400)
+      expect(res.body.data.fields).toEqual({ inServiceOn: 'Not a real date.' })
     })
 
     it('a cylinder cannot be marked in use by an edit', async () => {
@@ -230,10 +274,92 @@ describe('bad input is 400 with field messages, conflicts 409, never 500', () =>
       expect(res.body.sort).toBe('serial')
     })
 
+    it('a NUL character in the query → 400, not a database error', async () => {
+      for (const param of ['q=A%00B', 'chemistry=agm%00']) {
+        const res = await admin.get(`/api/batteries?siteId=${siteId}&${param}`)
+        expect(res.status).toBe(400)
+        expect(res.body.data.fields).toHaveProperty(param.split('=')[0]!)
+      }
+    })
+
     it('a search with LIKE wildcards is taken literally', async () => {
       const res = await admin.get(`/api/batteries?siteId=${siteId}&q=${encodeURIComponent('%_\\')}`)
       expect(res.status).toBe(200)
       expect(res.body.total).toBe(0)
     })
+  })
+})
+
+describe('a list pages, sorts, filters and searches on the server', () => {
+  let siteId: string
+  let stem: string
+  let admin: Client
+  const serial = (n: number) => `${stem}-${String(n).padStart(2, '0')}`
+  const serials = (res: { body: { items: { serial: string }[] } }) => res.body.items.map(i => i.serial)
+
+  beforeAll(async () => {
+    siteId = (await site()).id
+    stem = uniqueName('PG')
+    admin = await signIn(await user({ siteId, roles: ['admin'] }))
+    // 01, 03, 05 are AGM; voltages 24/36/48 in turn
+    for (let n = 1; n <= 7; n++) {
+      const voltage = [24, 36, 48][n % 3]!
+      await battery({ siteId, serial: serial(n), chemistry: n % 2 === 1 && n <= 5 ? 'agm' : 'flooded_lead_acid', voltage, cellCount: voltage / 2 })
+    }
+    // a battery at another site never shows up here
+    await battery({ siteId: (await site()).id, serial: serial(8), chemistry: 'agm' })
+  })
+  afterAll(closeTestDb)
+
+  const list = (query: string) => admin.get(`/api/batteries?siteId=${siteId}&${query}`)
+
+  it('pages through in the default order (serial, ascending) with the right total', async () => {
+    const p1 = await list('pageSize=3')
+    expect(p1.status).toBe(200)
+    expect(p1.body).toMatchObject({ total: 7, page: 1, pageSize: 3, sort: 'serial', dir: 'asc' })
+    expect(serials(p1)).toEqual([serial(1), serial(2), serial(3)])
+    expect(serials(await list('pageSize=3&page=2'))).toEqual([serial(4), serial(5), serial(6)])
+    const p3 = await list('pageSize=3&page=3')
+    expect(serials(p3)).toEqual([serial(7)])
+    const p4 = await list('pageSize=3&page=4')
+    expect(p4.body).toMatchObject({ total: 7, items: [] })
+  })
+
+  it('sorts descending', async () => {
+    const res = await list('sort=serial&dir=desc&pageSize=4')
+    expect(serials(res)).toEqual([serial(7), serial(6), serial(5), serial(4)])
+    expect(res.body.total).toBe(7)
+  })
+
+  it('sorts by a number column', async () => {
+    const res = await list('sort=voltage&dir=desc')
+    const volts = res.body.items.map((i: { voltage: number }) => i.voltage)
+    expect(volts).toEqual([...volts].sort((a, b) => b - a))
+    expect(volts[0]).toBe(48)
+  })
+
+  it('filters by chemistry, and the total counts the filtered rows', async () => {
+    const res = await list('chemistry=agm')
+    expect(res.body.total).toBe(3)
+    expect(serials(res)).toEqual([serial(1), serial(3), serial(5)])
+    const paged = await list('chemistry=agm&dir=desc&pageSize=2&page=1')
+    expect(paged.body.total).toBe(3)
+    expect(serials(paged)).toEqual([serial(5), serial(3)])
+    expect((await list('chemistry=agm&voltage=36')).body.total).toBe(1)
+  })
+
+  it('filters by out-of-service', async () => {
+    const [held] = (await list(`q=${serial(6)}`)).body.items
+    expect((await admin.post(`/api/batteries/${held.id}/out-of-service`, { outOfService: true, reason: 'Dead cell.' })).status).toBe(200)
+    expect(serials(await list('outOfService=true'))).toEqual([serial(6)])
+    expect((await list('outOfService=false')).body.total).toBe(6)
+  })
+
+  it('searches by serial, whole or in part, in any case', async () => {
+    expect(serials(await list(`q=${serial(4)}`))).toEqual([serial(4)])
+    const res = await list(`q=${encodeURIComponent(stem.toLowerCase())}`)
+    expect(res.body.total).toBe(7)
+    expect((await list(`q=${stem}-0&pageSize=2`)).body).toMatchObject({ total: 7 })
+    expect((await list('q=no-such-serial-anywhere')).body).toMatchObject({ total: 0, items: [] })
   })
 })

@@ -17,8 +17,9 @@ export default async function prepareTestDatabase() {
   if ((process.env.NUXT_SESSION_PASSWORD ?? '').length < 32) {
     throw new Error('NUXT_SESSION_PASSWORD must be set (at least 32 characters) for the server under test.')
   }
-  if (!existsSync(`${root}.output/server/index.mjs`)) {
-    throw new Error('No built server at .output/server/index.mjs. Run `npx nuxt build` first (`npm test` does).')
+  const outputDir = process.env.BAYWARD_BUILD_NAME ? `.output-${process.env.BAYWARD_BUILD_NAME}` : '.output'
+  if (!existsSync(`${root}${outputDir}/server/index.mjs`)) {
+    throw new Error(`No built server at ${outputDir}/server/index.mjs. Run \`npx nuxt build\` first (\`npm test\` does).`)
   }
   // Both the e2e and browser projects list this file; the database is emptied only once per run.
   if (process.env.BAYWARD_TEST_DB_PREPARED === database) return

@@ -1,7 +1,9 @@
 import { fileURLToPath } from 'node:url'
-import { fetch, getServerLogs } from '@nuxt/test-utils/e2e'
+import { getServerLogs, url } from '@nuxt/test-utils/e2e'
 
 const rootDir = fileURLToPath(new URL('../..', import.meta.url))
+// BAYWARD_BUILD_NAME=x selects the build in `.output-x` (see nuxt.config.ts).
+const outputDir = process.env.BAYWARD_BUILD_NAME ? `.output-${process.env.BAYWARD_BUILD_NAME}` : '.output'
 
 /**
  * Options for `setup()`: the server built by `nuxt build` in `.output`, started once per file.
@@ -14,7 +16,7 @@ export const builtServer = {
   build: false,
   server: true,
   browser: false,
-  nuxtConfig: { nitro: { output: { dir: `${rootDir}.output` } } },
+  nuxtConfig: { nitro: { output: { dir: `${rootDir}${outputDir}` } } },
 }
 
 export const SESSION_COOKIE = 'bayward-session'
@@ -49,6 +51,29 @@ function sessionFrom(headers: Headers): string | null | undefined {
   return undefined
 }
 
+// @nuxt/test-utils holds the server's address only while a test runs (its afterEach drops it), so the
+// address seen first is kept for requests made from a later describe's beforeAll.
+let serverBase: string | undefined
+function target(path: string): string {
+  try {
+    serverBase ??= url('/')
+    return url(path)
+  }
+  catch (error) {
+    if (serverBase) return new URL(path, serverBase).toString()
+    throw error
+  }
+}
+
+function lastServerLines(): string {
+  try {
+    return getServerLogs().slice(-20).join('\n')
+  }
+  catch {
+    return ''
+  }
+}
+
 /** A client that keeps the session cookie the server sets, like a browser would. Never throws on a status. */
 export function client(cookie: string | null = null): Client {
   let jar = cookie
@@ -56,7 +81,7 @@ export function client(cookie: string | null = null): Client {
     const headers: Record<string, string> = { accept: 'application/json' }
     if (jar) headers.cookie = jar
     if (body !== undefined) headers['content-type'] = 'application/json'
-    const res = await fetch(path, {
+    const res = await fetch(target(path), {
       method,
       headers,
       body: body === undefined ? undefined : typeof body === 'string' ? body : JSON.stringify(body),
@@ -70,7 +95,7 @@ export function client(cookie: string | null = null): Client {
       parsed = text ? JSON.parse(text) : null
     }
     catch { /* not JSON: keep the text */ }
-    if (res.status >= 500) console.error(`${method} ${path} → ${res.status}\n${getServerLogs().slice(-20).join('\n')}`)
+    if (res.status >= 500) console.error(`${method} ${path} → ${res.status}\n${lastServerLines()}`)
     return { status: res.status, body: parsed, headers: res.headers }
   }
   return {

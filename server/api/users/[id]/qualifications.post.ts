@@ -14,10 +14,15 @@ export default defineEventHandler(async (event) => {
     if (reach.length === 0) throw createError({ statusCode: 403, message: 'Admins and safety leads record training.' })
     throw createError({ statusCode: 404, message: 'No such user.' })
   }
-  return db.transaction(async (tx) => {
-    const [q] = await tx.insert(tables.qualifications).values({ ...body, userId: id }).returning()
-    await writeAudit(tx, { actor, siteId: shared[0]!.siteId, action: 'create', entity: 'qualification', entityId: q!.id, after: q })
-    setResponseStatus(event, 201)
-    return { item: q }
-  })
+  try {
+    return await db.transaction(async (tx) => {
+      const [q] = await tx.insert(tables.qualifications).values({ ...body, userId: id }).returning()
+      await writeAudit(tx, { actor, siteId: shared[0]!.siteId, action: 'create', entity: 'qualification', entityId: q!.id, after: q })
+      setResponseStatus(event, 201)
+      return { item: q }
+    })
+  }
+  catch (error) {
+    throw unstorableValueError(error, body) ?? error
+  }
 })

@@ -5,6 +5,8 @@ export default defineEventHandler(async (event) => {
   const { id } = validateParams(event, idParamsSchema)
   const body = await validateBody(event, userRolesSchema)
   const actor = await requireSiteRole(event, body.siteId, ['admin'])
+  // The user must already be one this admin manages (a shared site), or any admin could claim anyone.
+  await requireManagedUser(event, id)
   const db = useDb()
   const [user] = await db.select({ id: tables.users.id }).from(tables.users).where(eq(tables.users.id, id))
   if (!user) throw createError({ statusCode: 404, message: 'No such user.' })

@@ -1,0 +1,11 @@
+import { z } from 'zod'
+
+/** A real calendar date written YYYY-MM-DD (2024-02-30 and year 0 are refused). */
+export function isRealIsoDate(s: string): boolean {
+  if (!/^\d{4}-\d{2}-\d{2}$/.test(s)) return false
+  const year = Number(s.slice(0, 4))
+  const d = new Date(`${s}T00:00:00Z`)
+  return year >= 1900 && year <= 2200 && !Number.isNaN(d.getTime()) && d.toISOString().slice(0, 10) === s
+}
+
+export const isoDateSchema = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date like 2026-03-31.').refine(isRealIsoDate, 'Not a real date.')

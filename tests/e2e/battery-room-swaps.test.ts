@@ -1,0 +1,239 @@
+import { randomUUID } from 'node:crypto'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { setup } from '@nuxt/test-utils/e2e'
+import { count, eq } from 'drizzle-orm'
+import { builtServer, signIn, type Client } from '../support/http'
+import { area, battery, closeTestDb, site, tables, user, useTestDb } from '../support/db'
+import { fittedTruck, openCharge, pastCharge, putInTruck, qualify, readyBattery, roomCharger } from '../support/battery-room'
+import { defaultSiteSettings } from '../../shared/utils/site-settings'
+
+await setup(builtServer)
+
+const storedBattery = async (id: string) => (await useTestDb().select().from(tables.batteries).where(eq(tables.batteries.id, id)))[0]!
+const swapsOf = async (truckId: string) => useTestDb().select().from(tables.batterySwaps).where(eq(tables.batterySwaps.truckId, truckId))
+const codes = (body: { data?: { reasons?: { code: string }[] } }) => (body.data?.reasons ?? []).map(r => r.code)
+
+describe('battery swaps', () => {
+  let siteId: string
+  let chargerId: string
+  let techId: string
+  let operator: Client
+  let tech: Client
+  let lead: Client
+
+  beforeAll(async () => {
+    siteId = (await site()).id
+    const areaId = (await area({ siteId })).id
+    chargerId = (await roomCharger(siteId, areaId)).id
+    const op = await user({ siteId, roles: ['operator'] })
+    const te = await user({ siteId, roles: ['technician'] })
+    techId = te.id
+    await qualify(op.id)
+    await qualify(te.id)
+    operator = await signIn(op)
+    tech = await signIn(te)
+    lead = await signIn(await user({ siteId, roles: ['facilities_lead'] }))
+  })
+  afterAll(closeTestDb)
+
+  const swap = (c: Client, body: Record<string, unknown>) => c.post('/api/battery-room/swaps', { hourMeter: 1200, idempotencyKey: randomUUID(), ...body })
+  const ready = (over: Record<string, unknown> = {}) => readyBattery({ siteId, userId: techId, chargerId, ...over })
+
+  it('an operator changes a battery: the one out leaves the truck, the one in is fitted, the hour meter moves', async () => {
+    const t = await fittedTruck(siteId, { hourMeter: 1100 })
+    const out = await battery({ siteId })
+    await putInTruck(out.id, t.id)
+    const fresh = await ready()
+    const res = await swap(operator, { truckId: t.id, batteryOutId: out.id, batteryInId: fresh.id, hourMeter: 1234.5 })
+    expect(res.status, JSON.stringify(res.body)).toBe(201)
+    expect(res.body.item).toMatchObject({ truckId: t.id, batteryOutId: out.id, batteryInId: fresh.id, hourMeter: 1234.5, overrideReason: null })
+    expect(res.body.warnings).toEqual([])
+    expect((await storedBattery(fresh.id)).currentTruckId).toBe(t.id)
+    expect((await storedBattery(out.id)).currentTruckId).toBeNull()
+    const [tr] = await useTestDb().select().from(tables.trucks).where(eq(tables.trucks.id, t.id))
+    expect(tr!.hourMeter).toBe(1234.5)
+    const [audit] = await useTestDb().select().from(tables.auditLog).where(eq(tables.auditLog.entityId, res.body.item.id))
+    expect(audit).toMatchObject({ action: 'swap', entity: 'battery_swap', siteId })
+  })
+
+  it.each([
+    ['voltage', { voltage: 48, cellCount: 24 }, 'voltage_mismatch'],
+    ['connector', { connector: 'Red 175 A' }, 'connector_mismatch'],
+    ['chemistry', { chemistry: 'agm' }, 'chemistry_not_allowed'],
+    ['compartment', { lengthIn: 44 }, 'too_long_for_compartment'],
+    ['weight under the nameplate minimum', { weightLb: 1500 }, 'under_minimum_weight'],
+    ['weight over the nameplate maximum', { weightLb: 2600 }, 'over_maximum_weight'],
+  ])('refuses a battery that does not fit: %s', async (_what, over, code) => {
+    const t = await fittedTruck(siteId)
+    const b = await ready(over)
+    const res = await swap(operator, { truckId: t.id, batteryInId: b.id })
+    expect(res.status, JSON.stringify(res.body)).toBe(409)
+    expect(codes(res.body)).toEqual([code])
+    expect(res.body.data.reasons[0].message.length).toBeGreaterThan(20)
+    expect(res.body.data.overridable).toBe(false)
+    expect((await storedBattery(b.id)).currentTruckId).toBeNull()
+    expect(await swapsOf(t.id)).toHaveLength(0)
+  })
+
+  it('says in words that a light battery upsets the counterweight', async () => {
+    const t = await fittedTruck(siteId)
+    const b = await ready({ weightLb: 1750 })
+    const res = await swap(operator, { truckId: t.id, batteryInId: b.id })
+    expect(res.status).toBe(409)
+    expect(res.body.message).toContain('nameplate minimum is 1,800 lb')
+    expect(res.body.message).toContain('counterweight')
+  })
+
+  it.each([
+    ['on charge', 'not_charged', async (id: string) => { await openCharge({ siteId, userId: techId, batteryId: id, chargerId: (await roomCharger(siteId, (await area({ siteId })).id)).id, startedHoursAgo: 2 }) }],
+    ['cooling', 'still_cooling', async (id: string) => { await pastCharge({ siteId, userId: techId, batteryId: id, chargerId, endedHoursAgo: 1 }) }],
+    ['out of service', 'out_of_service', async (id: string) => { await useTestDb().update(tables.batteries).set({ outOfService: true, outOfServiceReason: 'Cracked cover' }).where(eq(tables.batteries.id, id)) }],
+    ['watering overdue', 'watering_overdue', async (id: string) => {
+      for (const h of [150, 130, 110, 90, 70, 50]) await pastCharge({ siteId, userId: techId, batteryId: id, chargerId, endedHoursAgo: h })
+    }],
+  ])('refuses a battery that is not ready: %s', async (_what, code, arrange) => {
+    const t = await fittedTruck(siteId)
+    const b = await ready()
+    await arrange(b.id)
+    const res = await swap(operator, { truckId: t.id, batteryInId: b.id })
+    expect(res.status, JSON.stringify(res.body)).toBe(409)
+    expect(codes(res.body)).toContain(code)
+    expect((await storedBattery(b.id)).currentTruckId).toBeNull()
+  })
+
+  it('refuses a battery that needs a charge', async () => {
+    const t = await fittedTruck(siteId)
+    const b = await battery({ siteId })
+    const res = await swap(operator, { truckId: t.id, batteryInId: b.id })
+    expect(res.status).toBe(409)
+    expect(codes(res.body)).toEqual(['not_charged'])
+  })
+
+  it('refuses a battery that is in another truck, and nobody may override that', async () => {
+    const other = await fittedTruck(siteId)
+    const t = await fittedTruck(siteId)
+    const b = await ready()
+    await putInTruck(b.id, other.id)
+    const res = await swap(tech, { truckId: t.id, batteryInId: b.id, overrideReason: 'Shift start, no other battery ready.' })
+    expect(res.status).toBe(409)
+    expect(codes(res.body)).toEqual(['in_another_truck'])
+    expect(res.body.message).toContain(other.fleetNumber)
+    expect((await storedBattery(b.id)).currentTruckId).toBe(other.id)
+  })
+
+  it('refuses a "battery out" that is not the one in the truck, and an empty one when the truck holds a battery', async () => {
+    const t = await fittedTruck(siteId)
+    const inside = await battery({ siteId })
+    await putInTruck(inside.id, t.id)
+    const stranger = await battery({ siteId })
+    const b = await ready()
+    const wrong = await swap(operator, { truckId: t.id, batteryOutId: stranger.id, batteryInId: b.id })
+    expect(wrong.status).toBe(409)
+    expect(codes(wrong.body)).toEqual(['battery_out_not_in_truck'])
+    const empty = await swap(operator, { truckId: t.id, batteryInId: b.id })
+    expect(empty.status).toBe(409)
+    expect(codes(empty.body)).toEqual(['truck_has_battery'])
+  })
+
+  it('a technician overrides with a written reason; it is stored and listed for the leads', async () => {
+    const t = await fittedTruck(siteId)
+    const b = await ready({ restedHours: 2 })
+    const refused = await swap(tech, { truckId: t.id, batteryInId: b.id })
+    expect(refused.status).toBe(409)
+    expect(refused.body.data.overridable).toBe(true)
+    const reason = 'Cooled under the fan; end temperature read 88 °F.'
+    const res = await swap(tech, { truckId: t.id, batteryInId: b.id, overrideReason: reason })
+    expect(res.status, JSON.stringify(res.body)).toBe(201)
+    expect(res.body.item.overrideReason).toBe(reason)
+    expect(res.body.item.overriddenChecks.map((c: { code: string }) => c.code)).toEqual(['still_cooling'])
+    const report = await lead.get(`/api/battery-room/overrides?siteId=${siteId}`)
+    expect(report.status).toBe(200)
+    const row = report.body.items.find((i: { id: string }) => i.id === `swap-${res.body.item.id}`)
+    expect(row).toMatchObject({ kind: 'swap', reason })
+    expect(row.checks[0].code).toBe('still_cooling')
+  })
+
+  it('an operator may not override, and a reason under 10 characters is refused', async () => {
+    const t = await fittedTruck(siteId)
+    const b = await ready({ restedHours: 2 })
+    const op = await swap(operator, { truckId: t.id, batteryInId: b.id, overrideReason: 'Needed it for the shift start.' })
+    expect(op.status).toBe(403)
+    const short = await swap(tech, { truckId: t.id, batteryInId: b.id, overrideReason: 'ok fine' })
+    expect(short.status).toBe(400)
+    expect(short.body.data.fields.overrideReason).toMatch(/10 characters/)
+    expect((await storedBattery(b.id)).currentTruckId).toBeNull()
+  })
+
+  it('two people taking the same Ready battery at once: one wins, the other gets a clear conflict', async () => {
+    const [t1, t2] = [await fittedTruck(siteId), await fittedTruck(siteId)]
+    const b = await ready()
+    const replies = await Promise.all([
+      swap(operator, { truckId: t1.id, batteryInId: b.id }),
+      swap(tech, { truckId: t2.id, batteryInId: b.id }),
+    ])
+    expect(replies.map(r => r.status).sort()).toEqual([201, 409])
+    const lost = replies.find(r => r.status === 409)!
+    expect(codes(lost.body)).toEqual(['in_another_truck'])
+    expect(lost.body.message).toMatch(/already in truck .*someone has just taken it/)
+    const won = replies.find(r => r.status === 201)!
+    expect((await storedBattery(b.id)).currentTruckId).toBe(won.body.item.truckId)
+    const [{ n }] = await useTestDb().select({ n: count() }).from(tables.batterySwaps).where(eq(tables.batterySwaps.batteryInId, b.id)) as [{ n: number }]
+    expect(Number(n)).toBe(1)
+  })
+
+  it('a retry with the same key stores once and answers with the stored record', async () => {
+    const t = await fittedTruck(siteId)
+    const b = await ready()
+    const key = randomUUID()
+    const first = await swap(operator, { truckId: t.id, batteryInId: b.id, idempotencyKey: key })
+    const again = await swap(operator, { truckId: t.id, batteryInId: b.id, idempotencyKey: key })
+    expect(first.status).toBe(201)
+    expect(again.status).toBe(200)
+    expect(again.body.replayed).toBe(true)
+    expect(again.body.item.id).toBe(first.body.item.id)
+    expect(await swapsOf(t.id)).toHaveLength(1)
+  })
+
+  it('the same key sent twice at once also stores once', async () => {
+    const t = await fittedTruck(siteId)
+    const b = await ready()
+    const key = randomUUID()
+    const both = await Promise.all([0, 1].map(() => swap(operator, { truckId: t.id, batteryInId: b.id, idempotencyKey: key })))
+    expect(both.map(r => r.status).sort()).toEqual([200, 201])
+    expect(both[0]!.body.item.id).toBe(both[1]!.body.item.id)
+    expect(await swapsOf(t.id)).toHaveLength(1)
+  })
+
+  it('refuses an hour meter lower than the last reading', async () => {
+    const t = await fittedTruck(siteId, { hourMeter: 5000 })
+    const b = await ready()
+    const res = await swap(operator, { truckId: t.id, batteryInId: b.id, hourMeter: 4000 })
+    expect(res.status).toBe(400)
+    expect(res.body.data.fields.hourMeter).toContain('5000')
+  })
+})
+
+describe('battery-changing qualification', () => {
+  it('warn policy: the swap goes ahead with a recorded warning; block policy: it is refused', async () => {
+    for (const policy of ['warn', 'block'] as const) {
+      const siteId = (await site({ settings: { ...defaultSiteSettings(), qualificationPolicy: policy } })).id
+      const areaId = (await area({ siteId })).id
+      const ch = await roomCharger(siteId, areaId)
+      const op = await user({ siteId, roles: ['operator'] })
+      await qualify(op.id, '2020-01-31')
+      const client = await signIn(op)
+      const t = await fittedTruck(siteId)
+      const b = await readyBattery({ siteId, userId: op.id, chargerId: ch.id })
+      const res = await client.post('/api/battery-room/swaps', { truckId: t.id, batteryInId: b.id, hourMeter: 10, idempotencyKey: randomUUID() })
+      if (policy === 'warn') {
+        expect(res.status, JSON.stringify(res.body)).toBe(201)
+        expect(res.body.warnings.map((w: { code: string }) => w.code)).toEqual(['qualification_missing'])
+        expect(res.body.item.overriddenChecks[0].code).toBe('qualification_missing')
+      }
+      else {
+        expect(res.status).toBe(409)
+        expect(codes(res.body)).toEqual(['qualification_missing'])
+      }
+    }
+  })
+})

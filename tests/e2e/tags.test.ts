@@ -1,0 +1,169 @@
+import { execFileSync } from 'node:child_process'
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { fetch, setup, url } from '@nuxt/test-utils/e2e'
+import jsQR from 'jsqr'
+import { PNG } from 'pngjs'
+import { builtServer, signIn, type Client } from '../support/http'
+import { batteryInput, closeTestDb, site, user, useTestDb, tables } from '../support/db'
+
+await setup(builtServer)
+
+// Decodes a PNG with jsQR, a general-purpose QR decoder this project did not write.
+function decodePng(bytes: Buffer): string | null {
+  const png = PNG.sync.read(bytes)
+  return jsQR(new Uint8ClampedArray(png.data), png.width, png.height)?.data ?? null
+}
+
+const BASE = process.env.NUXT_PUBLIC_BASE_URL ?? 'http://localhost:3000'
+let lead: Client
+let operator: Client
+let outsider: Client
+let siteId: string
+let code: string
+let batteryId: string
+
+beforeAll(async () => {
+  siteId = (await site()).id
+  const otherSite = (await site()).id
+  lead = await signIn(await user({ siteId, roles: ['facilities_lead'] }))
+  operator = await signIn(await user({ siteId, roles: ['operator'] }))
+  outsider = await signIn(await user({ siteId: otherSite, roles: ['facilities_lead'] }))
+  const created = await lead.post('/api/batteries', { ...batteryInput(), siteId })
+  expect(created.status).toBe(201)
+  code = created.body.item.tagCode
+  batteryId = created.body.item.id
+})
+afterAll(() => closeTestDb())
+
+async function bytes(client: Client, path: string) {
+  const res = await fetch(url(path), { headers: { cookie: client.cookie ?? '' } })
+  return { status: res.status, type: res.headers.get('content-type'), body: Buffer.from(await res.arrayBuffer()) }
+}
+
+describe('tag page data', () => {
+  it('resolves a typed code in any common spelling to the asset, its state and the user\'s roles', async () => {
+    const digits = String(Number(code.slice(2)))
+    const res = await operator.get(`/api/tags/${code.toLowerCase().replace('-', '')}`)
+    expect(res.status).toBe(200)
+    expect(res.body.code).toBe(code)
+    expect(res.body.asset.id).toBe(batteryId)
+    expect(res.body.roles).toEqual(['operator'])
+    expect(res.body.status.label).toBeTruthy()
+    expect((await operator.get(`/api/tags/B-${digits}`)).body.code).toBe(code)
+  })
+
+  it('answers the same 404 for an unknown code and another site\'s code', async () => {
+    const unknown = await operator.get('/api/tags/B-99999999')
+    const foreign = await outsider.get(`/api/tags/${code}`)
+    expect(unknown.status).toBe(404)
+    expect(foreign.status).toBe(404)
+    expect(foreign.body.message).toBe(unknown.body.message)
+    expect((await operator.get('/api/tags/not-a-code')).status).toBe(404)
+  })
+
+  it('needs a session', async () => {
+    const res = await fetch(url(`/api/tags/${code}`))
+    expect(res.status).toBe(401)
+  })
+})
+
+describe('QR symbols decode to exactly the tag URL', () => {
+  it('PNG from the QR route', async () => {
+    const png = await bytes(operator, `/api/tags/${code}/qr?format=png`)
+    expect(png.status).toBe(200)
+    expect(png.type).toBe('image/png')
+    expect(decodePng(png.body)).toBe(`${BASE}/t/${code}`)
+  })
+
+  it('a page of the label-sheet PDF, rendered to an image by poppler\'s pdftoppm', async () => {
+    const start = await lead.post('/api/labels', { siteId, kind: 'battery', layout: 'large', paper: 'letter' })
+    expect(start.status).toBe(202)
+    let job = start.body
+    for (let i = 0; i < 100 && job.status !== 'done'; i++) {
+      await new Promise(r => setTimeout(r, 100))
+      job = (await lead.get(`/api/jobs/${start.body.id}`)).body
+    }
+    expect(job.status).toBe('done')
+    const pdf = await bytes(lead, `/api/labels/${start.body.id}/pdf`)
+    expect(pdf.type).toBe('application/pdf')
+    const dir = mkdtempSync(join(tmpdir(), 'bayward-labels-'))
+    writeFileSync(join(dir, 'sheet.pdf'), pdf.body)
+    execFileSync('pdftoppm', ['-png', '-r', '150', '-f', '1', '-l', '1', join(dir, 'sheet.pdf'), join(dir, 'page')])
+    const rendered = PNG.sync.read(readFileSync(join(dir, 'page-1.png')))
+    // crop the first label (large layout: 4 × 3 in at the top left of the centred grid) and decode it
+    const found = jsQR(new Uint8ClampedArray(rendered.data), rendered.width, rendered.height)
+    expect(found?.data).toBe(`${BASE}/t/${code}`)
+    const fonts = execFileSync('pdffonts', [join(dir, 'sheet.pdf')], { encoding: 'utf8' })
+    expect(fonts).toMatch(/RobotoFlex|Roboto Flex/i)
+    expect(fonts).toMatch(/\byes\b/) // embedded
+    const tag = await useTestDb().query.tags.findFirst({ where: (t, { eq }) => eq(t.code, code) })
+    expect(tag?.printedAt).not.toBeNull()
+  })
+
+  it('an operator cannot make label sheets', async () => {
+    expect((await operator.post('/api/labels', { siteId })).status).toBe(403)
+  })
+})
+
+describe('re-tagging', () => {
+  it('retires the old code, which still resolves and says it was replaced; history keeps both', async () => {
+    expect((await operator.post(`/api/tags/${code}/retag`, { reason: 'label burnt by acid' })).status).toBe(403)
+    expect((await lead.post(`/api/tags/${code}/retag`, {})).status).toBe(400)
+    const res = await lead.post(`/api/tags/${code}/retag`, { reason: 'label burnt by acid' })
+    expect(res.status).toBe(201)
+    const fresh = res.body.code as string
+    expect(fresh).not.toBe(code)
+    const old = await operator.get(`/api/tags/${code}`)
+    expect(old.body).toMatchObject({ retired: true, replacedBy: fresh, asset: { id: batteryId } })
+    expect((await operator.get(`/api/tags/${fresh}`)).body.retired).toBe(false)
+    expect((await lead.post(`/api/tags/${code}/retag`, { reason: 'again' })).status).toBe(409)
+    const history = await operator.get(`/api/history/battery/${batteryId}`)
+    expect(history.body.items.some((h: { title: string, detail: string }) => h.title === 'Re-tagged' && h.detail.includes(fresh))).toBe(true)
+    const rows = await useTestDb().select().from(tables.tags)
+    expect(rows.filter(t => t.assetId === batteryId)).toHaveLength(2)
+    code = fresh
+  })
+})
+
+describe('CSV import and export', () => {
+  const header = 'serial,chemistry,voltage,cellCount,capacityAh,weightLb,lengthIn,widthIn,heightIn,connector'
+  const good = (serial: string) => `${serial},flooded_lead_acid,24,12,510,900,31,13,30,175 A red`
+
+  it('a file with bad rows writes nothing and lists each error with its line', async () => {
+    const before = (await useTestDb().select().from(tables.batteries)).length
+    const csv = [header, good('CSV-OK-1'), 'CSV-BAD-1,flooded_lead_acid,24,13,510,900,31,13,30,175 A red', 'CSV-BAD-2,plasma,24,12,510,-5,31,13,30,x', good('CSV-OK-1')].join('\n')
+    for (const dryRun of [true, false]) {
+      const res = await lead.post('/api/batteries/import', { siteId, csv, dryRun })
+      expect(res.status).toBe(200)
+      const lines = res.body.errors.map((e: { line: number }) => e.line)
+      expect(lines).toEqual(expect.arrayContaining([3, 4, 5]))
+      expect(res.body.errors.find((e: { line: number, field: string }) => e.line === 3).field).toBe('cellCount')
+    }
+    expect((await useTestDb().select().from(tables.batteries)).length).toBe(before)
+  })
+
+  it('a good file imports every row, each with a tag, and export gives them back', async () => {
+    const serials = Array.from({ length: 30 }, (_, i) => `CSV-GOOD-${i}`)
+    const csv = [header, ...serials.map(good)].join('\n')
+    const dry = await lead.post('/api/batteries/import', { siteId, csv, dryRun: true })
+    expect(dry.body).toMatchObject({ errors: [], total: 30, valid: 30 })
+    expect((await operator.post('/api/batteries/import', { siteId, csv, dryRun: false })).status).toBe(403)
+    const run = await lead.post('/api/batteries/import', { siteId, csv, dryRun: false })
+    expect(run.status).toBe(202)
+    let job = { status: 'running' }
+    for (let i = 0; i < 100 && job.status === 'running'; i++) {
+      await new Promise(r => setTimeout(r, 100))
+      job = (await lead.get(`/api/jobs/${run.body.job}`)).body
+    }
+    expect(job.status).toBe('done')
+    const exported = await operator.get(`/api/batteries/export?siteId=${siteId}&q=CSV-GOOD`)
+    expect(exported.status).toBe(200)
+    const lines = String(exported.body).trim().split(/\r?\n/)
+    expect(lines).toHaveLength(31)
+    expect(lines[1]).toMatch(/^B-\d{5},CSV-GOOD-/)
+    expect((await outsider.get(`/api/batteries/export?siteId=${siteId}`)).status).toBe(404)
+  })
+})
