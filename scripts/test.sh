@@ -3,7 +3,7 @@
 set -euo pipefail
 cd "$(dirname "$0")/.."
 source scripts/setup.sh bayward_test
-bash scripts/ensure-chromium.sh
+bash scripts/ensure-tools.sh
 export NUXT_SESSION_PASSWORD="${NUXT_SESSION_PASSWORD:-test-session-password-not-for-production-use-0123}"
 export NUXT_PUBLIC_BASE_URL="${NUXT_PUBLIC_BASE_URL:-http://localhost:3000}"
 export BAYWARD_SMTP_CAPTURE_DIR="${BAYWARD_SMTP_CAPTURE_DIR:-$(pwd)/.data/mail-test}"

@@ -51,11 +51,6 @@ export class Clock {
     const day = dayjs.tz(this.now, SITE_TIME_ZONE).day()
     return this.dateDaysAgo((day + 6) % 7)
   }
-
-  /** Day of the week of a calendar date, 0 = Sunday. */
-  weekday(isoDate: string): number {
-    return dayjs.utc(isoDate).day()
-  }
 }
 
 export function addMinutes(instant: Date, minutes: number): Date {

@@ -39,6 +39,18 @@ export class Random {
     return items[Math.floor(this.next() * items.length)]!
   }
 
+  /** A shuffled copy (Fisher–Yates). */
+  shuffle<T>(items: readonly T[]): T[] {
+    const copy = [...items]
+    for (let i = copy.length - 1; i > 0; i--) {
+      const j = Math.floor(this.next() * (i + 1))
+      const held = copy[i]!
+      copy[i] = copy[j]!
+      copy[j] = held
+    }
+    return copy
+  }
+
   /** A value rounded to a number of decimals, as an instrument would show it. */
   reading(min: number, max: number, decimals: number): number {
     return roundTo(this.between(min, max), decimals)

@@ -1,0 +1,105 @@
+import { addCalendarInterval } from '../../shared/utils/due-dates'
+import { addMinutes } from './clock'
+import type { SeedContext, SiteContext } from './context'
+import type { AreaRow } from './rows'
+
+interface ChecklistItem {
+  key: string
+  label: string
+  hint?: string
+}
+
+export const CHARGING_AREA_ITEMS: ChecklistItem[] = [
+  { key: 'eyewash_flushed_reachable', label: 'Eyewash flushed and reachable', hint: 'Activated weekly, reachable within 10 seconds (ANSI/ISEA Z358.1-2014).' },
+  { key: 'spill_kit_neutralizer_stocked', label: 'Spill kit and neutralizer stocked', hint: 'Flushing and neutralizing spilled electrolyte (29 CFR 1910.178(g)(2)).' },
+  { key: 'ppe_stocked', label: 'PPE stocked: goggles, face shield, acid-resistant gloves and apron', hint: '29 CFR 1910.133' },
+  { key: 'ventilation_running', label: 'Ventilation running', hint: '29 CFR 1910.178(g)(2)' },
+  { key: 'no_smoking_signs_posted', label: 'No-smoking signs up', hint: '29 CFR 1910.178(g)(10)' },
+  { key: 'extinguisher_present_charged', label: 'Extinguisher present and charged', hint: 'Monthly visual check (29 CFR 1910.157(e)(2)).' },
+  { key: 'chargers_cables_undamaged', label: 'Chargers and cables undamaged', hint: 'Chargers protected from truck damage (29 CFR 1910.178(g)(2)).' },
+  { key: 'no_combustibles_near_chargers', label: 'No combustibles near chargers' },
+  { key: 'battery_handling_equipment_ok', label: 'Battery handling equipment in order', hint: 'Hoist, conveyor or equivalent (29 CFR 1910.178(g)(4)).' },
+  { key: 'floor_clean_dry', label: 'Floor clean and dry' },
+]
+
+export const FUEL_STATION_ITEMS: ChecklistItem[] = [
+  { key: 'cage_locked', label: 'Cage locked' },
+  { key: 'cylinders_upright_relief_up', label: 'Cylinders upright with relief valve up', hint: 'Relief valve in the vapour space (NFPA 58).' },
+  { key: 'no_leaks_or_odour', label: 'No leaks or gas odour' },
+  { key: 'signage_posted', label: 'Signage posted: propane, no smoking' },
+  { key: 'extinguisher_present_charged', label: 'Extinguisher present and charged', hint: 'Monthly visual check (29 CFR 1910.157(e)(2)).' },
+  { key: 'no_ignition_sources', label: 'No ignition sources near the cage' },
+]
+
+const LOG_DAYS = 30
+
+// Daily area logs for the last 30 days, recorded by the technician; the safety lead has signed every
+// log before this week except the one with the failed eyewash at Millbrook's North charge room.
+export function writeAreaLogs(ctx: SeedContext) {
+  const { clock, rand, rows, newId } = ctx
+  const weekStart = clock.weekStart()
+  const failedOn = clock.dateDaysAgo(2)
+  const oldFailOn = clock.dateDaysAgo(16)
+  let failedEntryId: string | null = null
+
+  for (const site of [ctx.sites.mb, ctx.sites.fx]) {
+    const templates = {
+      charging_area: { id: newId(), items: CHARGING_AREA_ITEMS, title: 'Charging area — daily check' },
+      fuel_station: { id: newId(), items: FUEL_STATION_ITEMS, title: 'Fuel station — daily check' },
+    }
+    for (const [areaKind, t] of Object.entries(templates) as Array<[AreaRow['kind'], typeof templates.charging_area]>) {
+      rows.checklistTemplates.push({ id: t.id, siteId: site.id, areaKind, cadence: 'daily', title: t.title, items: t.items, version: 1, active: true, createdAt: ctx.registeredAt, updatedAt: ctx.registeredAt })
+    }
+    for (const area of [...site.chargingAreas, site.fuelStation]) {
+      const template = templates[area.kind]
+      for (let d = LOG_DAYS - 1; d >= 0; d--) {
+        const periodStart = clock.dateDaysAgo(d)
+        const startAt = clock.at(periodStart, 6, rand.int(5, 40))
+        if (startAt > clock.now) continue
+        const logId = newId()
+        const failEyewash = site.key === 'mb' && area.name === 'North charge room' && periodStart === failedOn
+        const failExtinguisher = site.key === 'fx' && area.kind === 'fuel_station' && periodStart === oldFailOn
+        const signedAt = clock.at(addCalendarInterval(periodStart, 1, 'day'), 9, rand.int(0, 59))
+        const signed = periodStart < weekStart && !failEyewash && signedAt < clock.now
+        rows.areaLogs.push({ id: logId, siteId: site.id, areaId: area.id, templateId: template.id, cadence: 'daily', periodStart, signedBy: signed ? site.people.safety : null, signedAt: signed ? signedAt : null, createdAt: startAt, updatedAt: signed ? signedAt : startAt })
+        let at = startAt
+        for (const item of template.items) {
+          at = addMinutes(at, rand.int(1, 3))
+          const id = newId()
+          let result: 'pass' | 'fail' = 'pass'
+          let note = ''
+          if (failEyewash && item.key === 'eyewash_flushed_reachable') {
+            result = 'fail'
+            note = 'Weak flow from the left nozzle when flushed. Portable eyewash placed beside the station; plumber called.'
+            failedEntryId = id
+          }
+          if (failExtinguisher && item.key === 'extinguisher_present_charged') {
+            result = 'fail'
+            note = 'Gauge needle in the red. Swapped for the spare from the dock office.'
+            writeFollowUp(ctx, site, id, 'Yard fuel cage extinguisher gauge in the red', periodStart, addMinutes(at, 240), 'Recharged unit back on its bracket; spare returned to the dock office.')
+          }
+          rows.areaLogEntries.push({ id, siteId: site.id, userId: site.people.technician, at, recordedAt: new Date(at.getTime() + rand.int(2, 20) * 1000), logId, itemKey: item.key, result, note })
+        }
+      }
+    }
+  }
+  if (failedEntryId) writeFollowUp(ctx, ctx.sites.mb, failedEntryId, 'North charge room eyewash: weak flow on the daily check', failedOn, null, null)
+}
+
+function writeFollowUp(ctx: SeedContext, site: SiteContext, entryId: string, title: string, failedOn: string, closedAt: Date | null, closingNote: string | null) {
+  const openedAt = ctx.clock.at(failedOn, 7, 30)
+  ctx.rows.followUps.push({
+    id: ctx.newId(),
+    siteId: site.id,
+    source: 'checklist',
+    sourceId: entryId,
+    title,
+    ownerUserId: site.people.safety,
+    dueOn: addCalendarInterval(failedOn, 3, 'day'),
+    closedAt,
+    closedBy: closedAt ? site.people.safety : null,
+    closingNote,
+    createdAt: openedAt,
+    updatedAt: closedAt ?? openedAt,
+  })
+}
