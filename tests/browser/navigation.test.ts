@@ -27,13 +27,14 @@ async function signInAndOpenMenu(who: { email: string, password: string }, viewp
   const context = await newContext(browser, url('/'), viewport)
   const page = await context.newPage()
   await page.goto(url('/trucks'))
-  await page.waitForURL(/\/sign-in\?next=%2Ftrucks/)
+  await page.waitForURL(/\/sign-in\?next=(%2F|\/)trucks/)
   await page.getByLabel('E-mail').fill(who.email)
   await page.getByLabel('Password').fill(who.password)
   await page.getByRole('button', { name: 'Sign in' }).click()
   await page.waitForURL(/\/trucks$/)
   if (viewport === PHONE) await page.getByRole('button', { name: 'Open menu' }).click()
   const nav = page.getByRole('navigation', { name: 'Main' }).filter({ visible: true })
+  await nav.getByRole('link', { name: 'Home' }).waitFor()
   const labels = (await nav.getByRole('link').allInnerTexts()).map(t => t.trim()).filter(Boolean)
   return { context, labels }
 }

@@ -1,6 +1,3 @@
-import { mkdtempSync } from 'node:fs'
-import { tmpdir } from 'node:os'
-import { join } from 'node:path'
 import { chromium, type Browser, type BrowserContext } from 'playwright-core'
 
 // Debian's Chromium, headless, with the flags that keep it off the network.
@@ -12,7 +9,8 @@ export const CHROMIUM_ARGS = [
 export async function launchChromium(): Promise<Browser> {
   return chromium.launch({
     executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
-    args: [...CHROMIUM_ARGS, `--user-data-dir=${mkdtempSync(join(tmpdir(), 'bayward-chromium-'))}`],
+    // playwright gives every launch a fresh, empty profile of its own
+    args: CHROMIUM_ARGS,
   })
 }
 
