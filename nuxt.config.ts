@@ -1,3 +1,5 @@
+import { fileURLToPath } from 'node:url'
+
 // Bayward: Nuxt 4 app (app/, server/, shared/), PostgreSQL through Drizzle, sealed-cookie sessions.
 export default defineNuxtConfig({
   modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', '@vueuse/nuxt', 'nuxt-auth-utils', '@nuxt/eslint'],
@@ -48,6 +50,13 @@ export default defineNuxtConfig({
   },
   typescript: { strict: true },
   telemetry: false,
+  hooks: {
+    // Bayward's handler (database unavailable → 503) runs before Nuxt's own error page handler.
+    'nitro:config'(config) {
+      const nuxtHandlers = [config.errorHandler ?? []].flat()
+      config.errorHandler = [fileURLToPath(new URL('./server/error-handler.ts', import.meta.url)), ...nuxtHandlers]
+    },
+  },
   eslint: { config: { stylistic: true } },
   tailwindcss: { cssPath: false, viewer: false },
 })
