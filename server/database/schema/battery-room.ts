@@ -21,6 +21,7 @@ export const batterySwaps = pgTable('battery_swaps', {
   index().on(t.batteryOutId, t.at),
   index().on(t.userId),
   uniqueIndex('battery_swaps_idem').on(t.idempotencyKey).where(sql`${t.idempotencyKey} IS NOT NULL`),
+  index().on(t.correctsId),
 ])
 
 // A charge session opens when a battery goes on a charger and is closed once when it comes off.
@@ -48,6 +49,9 @@ export const chargeSessions = pgTable('charge_sessions', {
   uniqueIndex('charge_sessions_open_battery').on(t.batteryId).where(sql`${t.endedAt} IS NULL AND ${t.correctsId} IS NULL`),
   uniqueIndex('charge_sessions_open_charger').on(t.chargerId).where(sql`${t.endedAt} IS NULL AND ${t.correctsId} IS NULL`),
   uniqueIndex('charge_sessions_idem').on(t.idempotencyKey).where(sql`${t.idempotencyKey} IS NOT NULL`),
+  index().on(t.userId),
+  index().on(t.endedBy),
+  index().on(t.correctsId),
 ])
 
 export const electrolyteChecks = pgTable('electrolyte_checks', {
@@ -68,6 +72,8 @@ export const electrolyteChecks = pgTable('electrolyte_checks', {
   index().on(t.siteId, t.at),
   index().on(t.batteryId, t.at),
   uniqueIndex('electrolyte_checks_idem').on(t.idempotencyKey).where(sql`${t.idempotencyKey} IS NOT NULL`),
+  index().on(t.userId),
+  index().on(t.correctsId),
 ])
 
 export const cellReadings = pgTable('cell_readings', {
@@ -86,4 +92,4 @@ export const assetHolds = pgTable('asset_holds', {
   assetId: uuid().notNull(),
   action: holdActionEnum().notNull(),
   reason: text().notNull(),
-}, t => [index().on(t.assetKind, t.assetId, t.at), index().on(t.siteId, t.at)])
+}, t => [index().on(t.assetKind, t.assetId, t.at), index().on(t.siteId, t.at), index().on(t.userId)])

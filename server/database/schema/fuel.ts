@@ -27,6 +27,8 @@ export const cylinderRefills = pgTable('cylinder_refills', {
   index().on(t.siteId, t.at),
   index().on(t.cylinderId, t.at),
   uniqueIndex('cylinder_refills_idem').on(t.idempotencyKey).where(sql`${t.idempotencyKey} IS NOT NULL`),
+  index().on(t.userId),
+  index().on(t.correctsId),
 ])
 
 export const cylinderExchanges = pgTable('cylinder_exchanges', {
@@ -41,6 +43,8 @@ export const cylinderExchanges = pgTable('cylinder_exchanges', {
   index().on(t.cylinderOnId),
   index().on(t.cylinderOffId),
   uniqueIndex('cylinder_exchanges_idem').on(t.idempotencyKey).where(sql`${t.idempotencyKey} IS NOT NULL`),
+  index().on(t.userId),
+  index().on(t.correctsId),
 ])
 
 // 49 CFR 180.209 requalification, with the marking stamped on the cylinder.
@@ -52,7 +56,7 @@ export const requalifications = pgTable('requalifications', {
   marking: text().notNull().default(''),
   passed: boolean().notNull(),
   nextDueOn: date(),
-}, t => [index().on(t.cylinderId, t.performedOn), index().on(t.siteId)])
+}, t => [index().on(t.cylinderId, t.performedOn), index().on(t.siteId), index().on(t.userId)])
 
 export const emissionsTests = pgTable('emissions_tests', {
   ...eventBase(),
@@ -71,7 +75,7 @@ export const emissionsTests = pgTable('emissions_tests', {
   nextDueOn: date().notNull(),
   certificateUploadId: uuid().references(() => uploads.id),
   correctsId: uuid().references((): AnyPgColumn => emissionsTests.id),
-}, t => [index().on(t.truckId, t.testedOn), index().on(t.siteId, t.nextDueOn)])
+}, t => [index().on(t.truckId, t.testedOn), index().on(t.siteId, t.nextDueOn), index().on(t.userId), index().on(t.certificateUploadId), index().on(t.correctsId)])
 
 export const coReadings = pgTable('co_readings', {
   ...eventBase(),
@@ -79,4 +83,4 @@ export const coReadings = pgTable('co_readings', {
   takenOn: date().notNull(),
   ppm: doublePrecision().notNull(),
   durationHours: doublePrecision().notNull(),
-}, t => [index().on(t.areaId, t.takenOn), index().on(t.siteId, t.takenOn)])
+}, t => [index().on(t.areaId, t.takenOn), index().on(t.siteId, t.takenOn), index().on(t.userId)])

@@ -17,7 +17,7 @@ export const uploads = pgTable('uploads', {
   sha256: text().notNull(),
   displayName: text().notNull(),
   createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
-}, t => [uniqueIndex().on(t.storageKey), index().on(t.siteId)])
+}, t => [uniqueIndex().on(t.storageKey), index().on(t.siteId), index().on(t.userId)])
 
 // A recurring obligation rule per site: every N days, charges or hours, or a date rule.
 export const schedules = pgTable('schedules', {
@@ -59,7 +59,7 @@ export const areaLogs = pgTable('area_logs', {
   signedBy: uuid().references(() => users.id),
   signedAt: timestamp({ withTimezone: true }),
   ...timestamps,
-}, t => [uniqueIndex().on(t.areaId, t.templateId, t.periodStart), index().on(t.siteId, t.periodStart)])
+}, t => [uniqueIndex().on(t.areaId, t.templateId, t.periodStart), index().on(t.siteId, t.periodStart), index().on(t.templateId), index().on(t.signedBy)])
 
 export const areaLogEntries = pgTable('area_log_entries', {
   ...eventBase(),
@@ -72,6 +72,8 @@ export const areaLogEntries = pgTable('area_log_entries', {
   index().on(t.logId, t.itemKey),
   index().on(t.siteId, t.at),
   uniqueIndex('area_log_entries_idem').on(t.idempotencyKey).where(sql`${t.idempotencyKey} IS NOT NULL`),
+  index().on(t.userId),
+  index().on(t.correctsId),
 ])
 
 export const followUps = pgTable('follow_ups', {
@@ -86,7 +88,7 @@ export const followUps = pgTable('follow_ups', {
   closedBy: uuid().references(() => users.id),
   closingNote: text(),
   ...timestamps,
-}, t => [index().on(t.siteId, t.closedAt), index().on(t.source, t.sourceId), index().on(t.ownerUserId)])
+}, t => [index().on(t.siteId, t.closedAt), index().on(t.source, t.sourceId), index().on(t.ownerUserId), index().on(t.closedBy)])
 
 export const incidents = pgTable('incidents', {
   ...eventBase(),
@@ -98,7 +100,7 @@ export const incidents = pgTable('incidents', {
   immediateActions: text().notNull().default(''),
   followUpOwnerId: uuid().references(() => users.id),
   photoUploadIds: uuid().array().notNull().default(sql`'{}'`),
-}, t => [index().on(t.siteId, t.at), index().on(t.areaId), index().on(t.assetKind, t.assetId)])
+}, t => [index().on(t.siteId, t.at), index().on(t.areaId), index().on(t.assetKind, t.assetId), index().on(t.userId), index().on(t.followUpOwnerId)])
 
 // Every message Bayward sends is recorded first, then delivered; failures are retried.
 export const mailMessages = pgTable('mail_messages', {

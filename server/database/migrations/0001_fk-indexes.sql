@@ -1,0 +1,24 @@
+CREATE INDEX "asset_holds_user_id_index" ON "asset_holds" USING btree ("user_id");--> statement-breakpoint
+CREATE INDEX "battery_swaps_corrects_id_index" ON "battery_swaps" USING btree ("corrects_id");--> statement-breakpoint
+CREATE INDEX "charge_sessions_user_id_index" ON "charge_sessions" USING btree ("user_id");--> statement-breakpoint
+CREATE INDEX "charge_sessions_ended_by_index" ON "charge_sessions" USING btree ("ended_by");--> statement-breakpoint
+CREATE INDEX "charge_sessions_corrects_id_index" ON "charge_sessions" USING btree ("corrects_id");--> statement-breakpoint
+CREATE INDEX "electrolyte_checks_user_id_index" ON "electrolyte_checks" USING btree ("user_id");--> statement-breakpoint
+CREATE INDEX "electrolyte_checks_corrects_id_index" ON "electrolyte_checks" USING btree ("corrects_id");--> statement-breakpoint
+CREATE INDEX "co_readings_user_id_index" ON "co_readings" USING btree ("user_id");--> statement-breakpoint
+CREATE INDEX "cylinder_exchanges_user_id_index" ON "cylinder_exchanges" USING btree ("user_id");--> statement-breakpoint
+CREATE INDEX "cylinder_exchanges_corrects_id_index" ON "cylinder_exchanges" USING btree ("corrects_id");--> statement-breakpoint
+CREATE INDEX "cylinder_refills_user_id_index" ON "cylinder_refills" USING btree ("user_id");--> statement-breakpoint
+CREATE INDEX "cylinder_refills_corrects_id_index" ON "cylinder_refills" USING btree ("corrects_id");--> statement-breakpoint
+CREATE INDEX "emissions_tests_user_id_index" ON "emissions_tests" USING btree ("user_id");--> statement-breakpoint
+CREATE INDEX "emissions_tests_certificate_upload_id_index" ON "emissions_tests" USING btree ("certificate_upload_id");--> statement-breakpoint
+CREATE INDEX "emissions_tests_corrects_id_index" ON "emissions_tests" USING btree ("corrects_id");--> statement-breakpoint
+CREATE INDEX "requalifications_user_id_index" ON "requalifications" USING btree ("user_id");--> statement-breakpoint
+CREATE INDEX "area_log_entries_user_id_index" ON "area_log_entries" USING btree ("user_id");--> statement-breakpoint
+CREATE INDEX "area_log_entries_corrects_id_index" ON "area_log_entries" USING btree ("corrects_id");--> statement-breakpoint
+CREATE INDEX "area_logs_template_id_index" ON "area_logs" USING btree ("template_id");--> statement-breakpoint
+CREATE INDEX "area_logs_signed_by_index" ON "area_logs" USING btree ("signed_by");--> statement-breakpoint
+CREATE INDEX "follow_ups_closed_by_index" ON "follow_ups" USING btree ("closed_by");--> statement-breakpoint
+CREATE INDEX "incidents_user_id_index" ON "incidents" USING btree ("user_id");--> statement-breakpoint
+CREATE INDEX "incidents_follow_up_owner_id_index" ON "incidents" USING btree ("follow_up_owner_id");--> statement-breakpoint
+CREATE INDEX "uploads_user_id_index" ON "uploads" USING btree ("user_id");
