@@ -22,7 +22,7 @@ export default function bayErrorHandler(error: unknown, event: H3Event) {
   if (!databaseUnavailable(error)) return
   const body = { statusCode: 503, statusMessage: 'Service Unavailable', message: 'Bayward cannot reach its database right now. Nothing from this request was saved; try again in a moment.' }
   setResponseStatus(event, 503, 'Service Unavailable')
-  setResponseHeader(event, 'retry-after', '5')
+  setResponseHeader(event, 'retry-after', 5)
   setResponseHeader(event, 'content-type', 'application/json')
   setResponseHeader(event, 'cache-control', 'no-store')
   event.node.res.end(JSON.stringify(body))
