@@ -4,7 +4,7 @@ import { setup } from '@nuxt/test-utils/e2e'
 import { count, eq } from 'drizzle-orm'
 import { builtServer, signIn, type Client } from '../support/http'
 import { area, battery, closeTestDb, site, tables, user, useTestDb } from '../support/db'
-import { fittedTruck, openCharge, pastCharge, putInTruck, qualify, readyBattery, roomCharger } from '../support/battery-room'
+import { fittedTruck, openCharge, pastCharge, putInTruck, qualify, readyBattery, roomCharger, tagFor } from '../support/battery-room'
 import { defaultSiteSettings } from '../../shared/utils/site-settings'
 
 await setup(builtServer)
@@ -54,6 +54,18 @@ describe('battery swaps', () => {
     expect(tr!.hourMeter).toBe(1234.5)
     const [audit] = await useTestDb().select().from(tables.auditLog).where(eq(tables.auditLog.entityId, res.body.item.id))
     expect(audit).toMatchObject({ action: 'swap', entity: 'battery_swap', siteId })
+
+    // the tag page and the timelines hear about it through the battery-room plugin
+    const code = await tagFor('battery', fresh.id, siteId)
+    const tag = await operator.get(`/api/tags/${code}`)
+    expect(tag.body.status).toMatchObject({ state: 'in_truck', tone: 'neutral' })
+    expect(tag.body.status.label).toContain(t.fleetNumber)
+    const outTag = await operator.get(`/api/tags/${await tagFor('battery', out.id, siteId)}`)
+    expect(outTag.body.status).toMatchObject({ state: 'needs_charge', label: 'Needs charge' })
+    const history = await operator.get(`/api/history/battery/${fresh.id}`)
+    expect(history.body.items.map((i: { title: string }) => i.title)).toEqual(expect.arrayContaining([`Put in truck ${t.fleetNumber}`, expect.stringMatching(/^Off charger /)]))
+    const truckHistory = await operator.get(`/api/history/truck/${t.id}`)
+    expect(truckHistory.body.items[0].title).toBe(`Battery ${fresh.serial} fitted`)
   })
 
   it.each([

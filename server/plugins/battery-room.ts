@@ -1,0 +1,114 @@
+import type { BatteryState } from '#shared/utils/battery-state'
+import type { StatusTone } from '../utils/asset-status'
+import type { HistoryEntry } from '../utils/asset-history'
+
+const STATE_TONES: Record<BatteryState, StatusTone> = {
+  in_truck: 'neutral', on_charge: 'notice', cooling: 'notice', ready: 'safe', needs_charge: 'caution', out_of_service: 'danger',
+}
+const FLAG_TONES: Record<string, StatusTone> = {
+  wateringOverdue: 'warning', weakCell: 'warning', ranHot: 'warning', wateringDue: 'caution', equalizeDue: 'notice',
+}
+const number = new Intl.NumberFormat('en-US', { maximumFractionDigits: 1 })
+
+// The battery room describes batteries (derived state and care flags) and electric trucks (the battery
+// they hold), and adds swaps, charges and electrolyte checks to the timelines.
+export default defineNitroPlugin(() => {
+  registerAssetStatus('battery', async (row) => {
+    const db = useDb()
+    const [settings, [facts]] = await Promise.all([
+      batteryRoomSettings(db, row.siteId),
+      loadBatteryFacts(db, { siteId: row.siteId, batteryIds: [row.id] }),
+    ])
+    if (!facts) return null
+    const s = batteryRoomStatus(facts, settings, new Date())
+    const where = s.state === 'in_truck' ? ` · truck ${facts.truckFleetNumber}` : s.state === 'on_charge' ? ` · charger ${facts.openChargerName}` : ''
+    const cooling = s.state === 'cooling' ? ` · ${s.coolingMinutesLeft} min left` : ''
+    return {
+      state: s.state,
+      label: `${s.label}${where}${cooling}`,
+      tone: STATE_TONES[s.state],
+      flags: s.flagList.map(f => ({ key: f.key, label: f.label, tone: FLAG_TONES[f.key] ?? 'caution' })),
+    }
+  })
+
+  registerAssetStatus('truck', async (row) => {
+    if (row.power !== 'electric' || row.outOfService) return null
+    const [current] = await useDb().select({ serial: tables.batteries.serial }).from(tables.batteries).where(eq(tables.batteries.currentTruckId, row.id))
+    return current
+      ? { state: 'battery_in', flags: [{ key: 'battery', label: `Battery ${current.serial}`, tone: 'neutral' as const }] }
+      : { state: 'battery_needed', flags: [{ key: 'battery', label: 'No battery recorded', tone: 'caution' as const }] }
+  })
+
+  registerHistorySource('battery', async (batteryId, limit) => {
+    const db = useDb()
+    const s = tables.batterySwaps
+    const c = tables.chargeSessions
+    const e = tables.electrolyteChecks
+    const [swaps, charges, checks] = await Promise.all([
+      db.select({ id: s.id, at: s.at, batteryInId: s.batteryInId, truck: tables.trucks.fleetNumber, who: tables.users.name, overrideReason: s.overrideReason })
+        .from(s).innerJoin(tables.trucks, eq(tables.trucks.id, s.truckId)).innerJoin(tables.users, eq(tables.users.id, s.userId))
+        .where(or(eq(s.batteryInId, batteryId), eq(s.batteryOutId, batteryId))).orderBy(desc(s.at)).limit(limit),
+      db.select({ row: c, charger: tables.chargers.name, who: tables.users.name })
+        .from(c).innerJoin(tables.chargers, eq(tables.chargers.id, c.chargerId)).innerJoin(tables.users, eq(tables.users.id, c.userId))
+        .where(eq(c.batteryId, batteryId)).orderBy(desc(c.at)).limit(limit),
+      db.select({ row: e, who: tables.users.name })
+        .from(e).innerJoin(tables.users, eq(tables.users.id, e.userId))
+        .where(eq(e.batteryId, batteryId)).orderBy(desc(e.at)).limit(limit),
+    ])
+    const entries: HistoryEntry[] = swaps.map(w => ({
+      id: `swap-${w.id}-${w.batteryInId === batteryId ? 'in' : 'out'}`,
+      at: w.at,
+      title: w.batteryInId === batteryId ? `Put in truck ${w.truck}` : `Taken out of truck ${w.truck}`,
+      who: w.who,
+      detail: w.overrideReason ? `Override: ${w.overrideReason}` : null,
+      tone: w.overrideReason ? 'warning' : undefined,
+    }))
+    for (const { row, charger, who } of charges) {
+      entries.push({ id: `charge-${row.id}`, at: row.at, title: `${row.equalize ? 'Equalize' : 'Charge'} on ${charger}`, who, detail: row.overrideReason ? `Override: ${row.overrideReason}` : null })
+      if (row.endedAt) {
+        const bits = [
+          row.outcome === 'interrupted' ? 'interrupted' : 'complete',
+          row.ampHoursReturned !== null ? `${number.format(row.ampHoursReturned)} Ah` : null,
+          row.gridKwh !== null ? `${number.format(row.gridKwh)} kWh` : null,
+          row.endTempF !== null ? `${number.format(row.endTempF)} °F` : null,
+          row.ranHot ? 'ran hot' : null,
+        ].filter(Boolean)
+        entries.push({ id: `charge-end-${row.id}`, at: row.endedAt, title: `Off charger ${charger}`, who, detail: bits.join(' · '), tone: row.ranHot ? 'warning' : undefined })
+      }
+    }
+    for (const { row, who } of checks) {
+      const bits = [
+        `level ${row.level}`,
+        row.waterAddedGal > 0 ? `${number.format(row.waterAddedGal)} gal water` : null,
+        row.meanCorrectedSg !== null ? `mean SG ${row.meanCorrectedSg.toFixed(3)}` : null,
+        row.spread !== null ? `spread ${row.spread.toFixed(3)}` : null,
+        row.lowCellCount ? `${row.lowCellCount} low cell${row.lowCellCount === 1 ? '' : 's'}` : null,
+      ].filter(Boolean)
+      entries.push({ id: `check-${row.id}`, at: row.at, title: row.scope === 'every_cell' ? 'Every-cell reading' : row.scope === 'pilot_cell' ? 'Pilot-cell reading' : 'Electrolyte level check', who, detail: bits.join(' · '), tone: row.lowCellCount ? 'warning' : undefined })
+    }
+    return entries
+  })
+
+  registerHistorySource('truck', async (truckId, limit) => {
+    const s = tables.batterySwaps
+    const rows = await useDb().select({ id: s.id, at: s.at, hourMeter: s.hourMeter, serial: tables.batteries.serial, who: tables.users.name, overrideReason: s.overrideReason })
+      .from(s).innerJoin(tables.batteries, eq(tables.batteries.id, s.batteryInId)).innerJoin(tables.users, eq(tables.users.id, s.userId))
+      .where(eq(s.truckId, truckId)).orderBy(desc(s.at)).limit(limit)
+    return rows.map(r => ({
+      id: `swap-${r.id}`, at: r.at, title: `Battery ${r.serial} fitted`, who: r.who,
+      detail: [r.hourMeter !== null ? `${number.format(r.hourMeter)} h` : null, r.overrideReason ? `Override: ${r.overrideReason}` : null].filter(Boolean).join(' · ') || null,
+      tone: r.overrideReason ? 'warning' as const : undefined,
+    }))
+  })
+
+  registerHistorySource('charger', async (chargerId, limit) => {
+    const c = tables.chargeSessions
+    const rows = await useDb().select({ row: c, serial: tables.batteries.serial, who: tables.users.name })
+      .from(c).innerJoin(tables.batteries, eq(tables.batteries.id, c.batteryId)).innerJoin(tables.users, eq(tables.users.id, c.userId))
+      .where(eq(c.chargerId, chargerId)).orderBy(desc(c.at)).limit(limit)
+    return rows.map(({ row, serial, who }) => ({
+      id: `charge-${row.id}`, at: row.at, title: `Charged battery ${serial}`, who,
+      detail: row.endedAt ? `${row.outcome ?? 'ended'}${row.gridKwh !== null ? ` · ${number.format(row.gridKwh)} kWh` : ''}` : 'on charge now',
+    }))
+  })
+})
