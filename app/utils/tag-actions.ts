@@ -32,6 +32,13 @@ export const TAG_ACTIONS: TagAction[] = [
   { key: 'charge-off', label: 'Take off charge', kinds: ['battery'], roles: floor, states: ['on_charge'], to: a => `/charge?battery=${a.code}`, primary: true },
   { key: 'charger-on', label: 'Put a battery on', kinds: ['charger'], roles: floor, to: a => `/charge?charger=${a.code}`, primary: true },
   { key: 'truck-swap', label: 'Change its battery', kinds: ['truck'], roles: everyone, states: ['battery_in', 'battery_needed'], to: a => `/swap?truck=${a.code}`, primary: true },
+  { key: 'cylinder-on-truck', label: 'Put on a truck', kinds: ['cylinder'], roles: everyone, states: ['full'], to: a => `/exchange?on=${a.code}`, primary: true },
+  { key: 'cylinder-refill', label: 'Refill', kinds: ['cylinder'], roles: floor, states: ['empty'], to: a => `/refill?code=${a.code}`, primary: true },
+  { key: 'truck-cylinder', label: 'Change its cylinder', kinds: ['truck'], roles: everyone, states: ['cylinder_fitted', 'cylinder_needed'], to: a => `/exchange?truck=${a.id}`, primary: true },
+  { key: 'truck-emissions', label: 'Record emissions test', kinds: ['truck'], roles: ['facilities_lead', 'admin'], states: ['cylinder_fitted', 'cylinder_needed', 'engine_in_service'], to: a => `/emissions?truck=${a.id}` },
+  { key: 'area-log', label: 'Fill in today\'s log', kinds: ['area'], roles: ['technician'], to: a => `/logs?area=${a.id}`, primary: true },
+  { key: 'area-sign', label: 'Review and sign', kinds: ['area'], roles: ['safety_lead'], to: a => `/logs?area=${a.id}&review=1`, primary: true },
+  { key: 'incident', label: 'Report an incident', kinds: ['battery', 'charger', 'cylinder', 'truck', 'area'], roles: everyone, to: a => `/incidents?asset=${a.code}` },
   { key: 'hold', label: 'Take out of service', kinds: ['battery', 'charger', 'cylinder', 'truck'], roles: floor, to: a => `${ASSET_VIEWS[a.kind].path}/${a.id}#service` },
   { key: 'open', label: 'Open the full record', kinds: ['battery', 'charger', 'cylinder', 'truck', 'area'], roles: everyone, to: a => `${ASSET_VIEWS[a.kind].path}/${a.id}` },
 ]

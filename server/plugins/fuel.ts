@@ -1,0 +1,125 @@
+import { alias } from 'drizzle-orm/pg-core'
+import type { HistoryEntry } from '../utils/asset-history'
+import type { FuelCylinderRow, FuelTruckRow } from '../utils/fuel'
+
+const lb = (v: number | null) => (v === null ? '—' : `${Math.round(v * 10) / 10} lb`)
+
+// Fuel-station states and events on cylinders and trucks: requalification and emissions dates,
+// refills, cylinder changes, requalifications and emissions tests in the asset timelines.
+export default defineNitroPlugin(() => {
+  registerAssetStatus('cylinder', async (row) => {
+    const cylinder = row as unknown as FuelCylinderRow
+    const db = useDb()
+    const facts = await fuelSiteFacts(db, cylinder.siteId)
+    const requal = cylinderRequalification(cylinder, facts)
+    const flags: { key: string, label: string, tone: 'danger' | 'warning' | 'caution' }[] = []
+    if (requal.status === 'overdue' && cylinder.status !== 'condemned') {
+      flags.push({ key: 'requalification_overdue', label: `Requalification overdue since ${requal.dueOn}: do not fill or fit`, tone: 'danger' })
+    }
+    const [lastRefill] = await db.select({ at: tables.cylinderRefills.at, tareFlagged: tables.cylinderRefills.tareFlagged })
+      .from(tables.cylinderRefills).where(eq(tables.cylinderRefills.cylinderId, cylinder.id))
+      .orderBy(desc(tables.cylinderRefills.at)).limit(1)
+    if (lastRefill?.tareFlagged) {
+      const [after] = await db.select({ id: tables.requalifications.id }).from(tables.requalifications)
+        .where(and(eq(tables.requalifications.cylinderId, cylinder.id), gte(tables.requalifications.at, lastRefill.at))).limit(1)
+      if (!after) flags.push({ key: 'tare_loss', label: 'Tare weight down 5 % or more: requalify before filling', tone: 'warning' })
+    }
+    if (cylinder.status === 'condemned') return { flags }
+    return {
+      flags,
+      due: [{ what: 'Requalification', dueOn: requal.dueOn, state: requal.status === 'current' ? 'upcoming' : requal.status }],
+    }
+  })
+
+  registerAssetStatus('truck', async (row) => {
+    const truck = row as unknown as FuelTruckRow
+    if (!isCombustionPower(truck.power)) return null
+    const db = useDb()
+    const facts = await fuelSiteFacts(db, truck.siteId)
+    const last = (await latestEmissionsTests(db, [truck.id])).get(truck.id) ?? null
+    const { bucket } = emissionsBucket(last, facts.today)
+    const flags: { key: string, label: string, tone: 'danger' | 'warning' | 'notice' }[] = []
+    if (!last) flags.push({ key: 'emissions_none', label: 'No emissions test on record', tone: 'warning' })
+    else if (!last.passed) flags.push({ key: 'emissions_failed', label: `Emissions test failed on ${last.testedOn}: retest by ${last.nextDueOn}`, tone: 'danger' })
+    // The truck's state names its fuel side (an out-of-service truck keeps that state).
+    let state: { state: string, label: string, tone: 'neutral' | 'caution' } | undefined
+    if (truck.power === 'lp_gas') {
+      const [fitted] = await db.select({ serial: tables.lpCylinders.serial }).from(tables.lpCylinders).where(eq(tables.lpCylinders.currentTruckId, truck.id))
+      if (fitted) flags.push({ key: 'cylinder', label: `Cylinder ${fitted.serial}`, tone: 'notice' })
+      state = fitted ? { state: 'cylinder_fitted', label: 'Cylinder fitted', tone: 'neutral' } : { state: 'cylinder_needed', label: 'No cylinder', tone: 'caution' }
+    }
+    else {
+      state = { state: 'engine_in_service', label: 'In service', tone: 'neutral' }
+    }
+    const due = last
+      ? [{ what: last.passed ? 'Emissions test' : 'Emissions retest', dueOn: last.nextDueOn, state: (bucket === 'overdue' ? 'overdue' : bucket === 'current' || bucket === 'due_90' || bucket === 'due_60' ? 'upcoming' : 'due_soon') as 'overdue' | 'upcoming' | 'due_soon' }]
+      : [{ what: 'Emissions test', dueOn: facts.today, state: 'overdue' as const }]
+    return { ...(truck.outOfService ? {} : state), flags, due }
+  })
+
+  registerHistorySource('cylinder', async (id, limit): Promise<HistoryEntry[]> => {
+    const db = useDb()
+    const refills = await db.select({ r: tables.cylinderRefills, who: tables.users.name }).from(tables.cylinderRefills)
+      .innerJoin(tables.users, eq(tables.users.id, tables.cylinderRefills.userId))
+      .where(eq(tables.cylinderRefills.cylinderId, id)).orderBy(desc(tables.cylinderRefills.at)).limit(limit)
+    const exchanges = await db.select({ e: tables.cylinderExchanges, who: tables.users.name, truck: tables.trucks.fleetNumber }).from(tables.cylinderExchanges)
+      .innerJoin(tables.users, eq(tables.users.id, tables.cylinderExchanges.userId))
+      .innerJoin(tables.trucks, eq(tables.trucks.id, tables.cylinderExchanges.truckId))
+      .where(or(eq(tables.cylinderExchanges.cylinderOnId, id), eq(tables.cylinderExchanges.cylinderOffId, id)))
+      .orderBy(desc(tables.cylinderExchanges.at)).limit(limit)
+    const requals = await db.select({ q: tables.requalifications, who: tables.users.name }).from(tables.requalifications)
+      .innerJoin(tables.users, eq(tables.users.id, tables.requalifications.userId))
+      .where(eq(tables.requalifications.cylinderId, id)).orderBy(desc(tables.requalifications.at)).limit(limit)
+    return [
+      ...refills.map(({ r, who }): HistoryEntry => ({
+        id: `refill-${r.id}`,
+        at: r.at,
+        who,
+        title: r.refused ? 'Refill refused' : `Refilled: ${lb(r.netAddedLb)} added`,
+        detail: r.refused ? r.refusalReasons.join(' ') : `Limit ${lb(r.fillLimitLb)}; ${r.gallonsAt60F === null ? '—' : `${r.gallonsAt60F.toFixed(1)} gal at 60 °F`}${r.note ? ` · ${r.note}` : ''}`,
+        tone: r.refused ? 'danger' : 'safe',
+      })),
+      ...exchanges.map(({ e, who, truck }): HistoryEntry => ({
+        id: `exchange-${e.id}-${e.cylinderOnId === id ? 'on' : 'off'}`,
+        at: e.at,
+        who,
+        title: e.cylinderOnId === id ? `Put on truck ${truck}` : `Taken off truck ${truck} (to the cage, empty)`,
+        detail: e.note || null,
+        tone: 'notice',
+      })),
+      ...requals.map(({ q, who }): HistoryEntry => ({
+        id: `requal-${q.id}`,
+        at: q.at,
+        who,
+        title: q.passed ? `Requalified (${REQUALIFICATION_METHOD_LABELS[q.method].toLowerCase()})` : 'Condemned at requalification',
+        detail: `Performed ${q.performedOn}; marked ${q.marking || '—'}${q.nextDueOn ? `; next due ${q.nextDueOn}` : ''}${q.note ? ` · ${q.note}` : ''}`,
+        tone: q.passed ? 'safe' : 'danger',
+      })),
+    ]
+  })
+
+  registerHistorySource('truck', async (id, limit): Promise<HistoryEntry[]> => {
+    const db = useDb()
+    const on = alias(tables.lpCylinders, 'cyl_on')
+    const exchanges = await db.select({ e: tables.cylinderExchanges, who: tables.users.name, onSerial: on.serial }).from(tables.cylinderExchanges)
+      .innerJoin(tables.users, eq(tables.users.id, tables.cylinderExchanges.userId))
+      .innerJoin(on, eq(on.id, tables.cylinderExchanges.cylinderOnId))
+      .where(eq(tables.cylinderExchanges.truckId, id)).orderBy(desc(tables.cylinderExchanges.at)).limit(limit)
+    const tests = await db.select({ t: tables.emissionsTests, who: tables.users.name }).from(tables.emissionsTests)
+      .innerJoin(tables.users, eq(tables.users.id, tables.emissionsTests.userId))
+      .where(eq(tables.emissionsTests.truckId, id)).orderBy(desc(tables.emissionsTests.at)).limit(limit)
+    return [
+      ...exchanges.map(({ e, who, onSerial }): HistoryEntry => ({
+        id: `exchange-${e.id}`, at: e.at, who, title: `Cylinder changed: ${onSerial} fitted`, detail: e.note || null, tone: 'notice',
+      })),
+      ...tests.map(({ t, who }): HistoryEntry => ({
+        id: `emissions-${t.id}`,
+        at: t.at,
+        who,
+        title: t.passed ? `Emissions test passed (${t.testedOn})` : `Emissions test failed (${t.testedOn})`,
+        detail: `CO ${t.coIdlePct} % idle, ${t.coHighIdlePct} % high idle; tested by ${t.testerName}; next due ${t.nextDueOn}${t.reasons.length ? ` · ${t.reasons.join(' ')}` : ''}`,
+        tone: t.passed ? 'safe' : 'danger',
+      })),
+    ]
+  })
+})

@@ -1,0 +1,129 @@
+import { createHash, randomUUID } from 'node:crypto'
+import type { H3Event } from 'h3'
+import type { Actor } from './auth'
+
+// Certificates and photos. The bytes go to the 'uploads' storage mount (nuxt.config nitro.storage:
+// local disk under .data/uploads by default) under a generated key; the file's own name is only shown.
+
+export const UPLOAD_TYPES = {
+  'application/pdf': { label: 'PDF', extension: 'pdf' },
+  'image/jpeg': { label: 'JPEG photo', extension: 'jpg' },
+  'image/png': { label: 'PNG image', extension: 'png' },
+} as const
+export type UploadType = keyof typeof UPLOAD_TYPES
+
+const DEFAULT_MAX_BYTES = 10 * 1024 * 1024
+/** Room for the multipart boundaries and headers around the file itself. */
+const MULTIPART_OVERHEAD_BYTES = 64 * 1024
+
+export function uploadMaxBytes(): number {
+  const configured = Number((useRuntimeConfig().uploads as { maxBytes?: number } | undefined)?.maxBytes)
+  return Number.isFinite(configured) && configured > 0 ? configured : DEFAULT_MAX_BYTES
+}
+
+// The type from the file's first bytes (magic numbers), never from its name or the browser's claim.
+export function sniffUploadType(bytes: Uint8Array): UploadType | null {
+  const starts = (sig: number[]) => sig.every((b, i) => bytes[i] === b)
+  if (starts([0x25, 0x50, 0x44, 0x46, 0x2D])) return 'application/pdf' // %PDF-
+  if (starts([0xFF, 0xD8, 0xFF])) return 'image/jpeg'
+  if (starts([0x89, 0x50, 0x4E, 0x47, 0x0D, 0x0A, 0x1A, 0x0A])) return 'image/png'
+  return null
+}
+
+// A file name that tries to be a path (separators, '..', control characters) is refused outright.
+export function hostileFileName(name: string): boolean {
+  // eslint-disable-next-line no-control-regex
+  return /[/\\]/.test(name) || name.includes('..') || /[\u0000-\u001F\u007F]/.test(name)
+}
+
+// What is shown as the file's name: letters, digits and a few marks, at most 100 characters,
+// with the extension that matches its real type.
+export function sanitizeDisplayName(name: string, type: UploadType): string {
+  const extension = UPLOAD_TYPES[type].extension
+  const stem = name.normalize('NFKC').replace(/\.[^.]*$/, '')
+    .replace(/[^\p{L}\p{N} ._()-]+/gu, '_').replace(/\s+/g, ' ').replace(/^[ ._-]+|[ ._-]+$/g, '').slice(0, 96)
+  return `${stem || 'upload'}.${extension}`
+}
+
+// Refuses a body that announces itself as too big before any of it is read.
+export function refuseOversizedRequest(event: H3Event) {
+  const declared = Number(getRequestHeader(event, 'content-length'))
+  const max = uploadMaxBytes()
+  if (Number.isFinite(declared) && declared > max + MULTIPART_OVERHEAD_BYTES) {
+    throw createError({ statusCode: 413, message: `The file is larger than ${Math.round(max / 1024 / 1024)} MB.` })
+  }
+}
+
+export interface CheckedFile {
+  bytes: Buffer
+  type: UploadType
+  displayName: string
+}
+
+// The one file in a multipart body under `field`, checked for size, type and name.
+export async function readUploadedFile(event: H3Event, field = 'file'): Promise<CheckedFile> {
+  refuseOversizedRequest(event)
+  const contentType = getRequestHeader(event, 'content-type') ?? ''
+  if (!contentType.startsWith('multipart/form-data')) {
+    throw createError({ statusCode: 415, message: 'Send the file as multipart/form-data.' })
+  }
+  let parts: Awaited<ReturnType<typeof readMultipartFormData>>
+  try {
+    parts = await readMultipartFormData(event)
+  }
+  catch {
+    throw createError({ statusCode: 400, message: 'The upload could not be read. Try again.' })
+  }
+  const files = (parts ?? []).filter(p => p.name === field && p.filename !== undefined)
+  if (files.length !== 1) throw createError({ statusCode: 400, message: 'Attach one file.', data: { fields: { [field]: 'Attach one file.' } } })
+  const file = files[0]!
+  const max = uploadMaxBytes()
+  if (file.data.length === 0) throw createError({ statusCode: 400, message: 'The file is empty.', data: { fields: { [field]: 'The file is empty.' } } })
+  if (file.data.length > max) throw createError({ statusCode: 413, message: `The file is larger than ${Math.round(max / 1024 / 1024)} MB.` })
+  const name = file.filename ?? ''
+  if (hostileFileName(name)) {
+    throw createError({ statusCode: 400, message: 'The file name is not allowed. Rename the file (no slashes or "..") and try again.', data: { fields: { [field]: 'File name not allowed.' } } })
+  }
+  const type = sniffUploadType(file.data)
+  if (!type) {
+    throw createError({ statusCode: 415, message: 'Only PDF, JPEG or PNG files are accepted.', data: { fields: { [field]: 'PDF, JPEG or PNG only.' } } })
+  }
+  return { bytes: file.data, type, displayName: sanitizeDisplayName(name, type) }
+}
+
+// Writes the bytes, then the row (with an audit entry); a failed row removes the bytes again.
+export async function storeUpload(actor: Actor, siteId: string, file: CheckedFile) {
+  const storageKey = `${siteId}:${randomUUID()}`
+  const storage = useStorage('uploads')
+  await storage.setItemRaw(storageKey, file.bytes)
+  try {
+    return await useDb().transaction(async (tx) => {
+      const [row] = await tx.insert(tables.uploads).values({
+        siteId, userId: actor.user.id, storageKey, contentType: file.type, bytes: file.bytes.length,
+        sha256: createHash('sha256').update(file.bytes).digest('hex'), displayName: file.displayName,
+      }).returning()
+      await writeAudit(tx, { actor, siteId, action: 'create', entity: 'upload', entityId: row!.id, after: { displayName: row!.displayName, contentType: row!.contentType, bytes: row!.bytes } })
+      return row!
+    })
+  }
+  catch (error) {
+    await storage.removeItem(storageKey).catch(() => {})
+    throw error
+  }
+}
+
+export type UploadRow = typeof tables.uploads.$inferSelect
+
+export function publicUpload(row: UploadRow) {
+  return { id: row.id, siteId: row.siteId, contentType: row.contentType, bytes: row.bytes, displayName: row.displayName, createdAt: row.createdAt }
+}
+
+// An upload at one of the actor's sites; anything else is 404.
+export async function findUploadForActor(event: H3Event, id: string): Promise<{ actor: Actor, upload: UploadRow }> {
+  const actor = await requireActor(event)
+  if (actor.siteIds.length === 0) throw createError({ statusCode: 404, message: 'No such file.' })
+  const [upload] = await useDb().select().from(tables.uploads)
+    .where(and(eq(tables.uploads.id, id), inArray(tables.uploads.siteId, actor.siteIds)))
+  if (!upload) throw createError({ statusCode: 404, message: 'No such file.' })
+  return { actor, upload }
+}

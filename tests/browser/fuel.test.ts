@@ -1,0 +1,124 @@
+import { mkdirSync } from 'node:fs'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { setup, url } from '@nuxt/test-utils/e2e'
+import type { Browser, Page } from 'playwright-core'
+import { eq } from 'drizzle-orm'
+import { builtServer } from '../support/http'
+import { closeTestDb, site, tables, truck, user, useTestDb } from '../support/db'
+import { DESKTOP, PHONE, launchChromium, newContext } from '../support/chromium'
+import { freshCylinder, fuelStation, isoDaysFromNow, lpTransferQualification, lpTruck } from '../support/fuel'
+import { PREFILL_INSPECTION_ITEMS } from '../../shared/utils/lp-gas'
+
+await setup(builtServer)
+
+let browser: Browser
+let siteId: string
+let emptySerial: string
+const people: Record<string, { email: string, password: string }> = {}
+
+// Invented fuel station: a few full and empty cylinders, LP and gasoline trucks with tests in each bucket.
+beforeAll(async () => {
+  mkdirSync('screenshots', { recursive: true })
+  browser = await launchChromium()
+  const s = await site({ name: `Harrow Lane DC ${Date.now().toString(36)}` })
+  siteId = s.id
+  const station = await fuelStation(siteId, 200)
+  await useTestDb().update(tables.areas).set({ name: `Fuel station ${Date.now().toString(36)}` }).where(eq(tables.areas.id, station.id))
+  for (let i = 0; i < 4; i++) await freshCylinder(siteId, { areaId: station.id, status: 'full' })
+  await freshCylinder(siteId, { areaId: station.id, status: 'quarantined' })
+  const soon = new Date()
+  soon.setUTCMonth(soon.getUTCMonth() + 2)
+  await freshCylinder(siteId, { areaId: station.id, status: 'empty', manufactureYear: soon.getUTCFullYear() - 12, manufactureMonth: soon.getUTCMonth() + 1 })
+  emptySerial = (await freshCylinder(siteId, { areaId: station.id, status: 'empty' })).serial
+  const fitted = await lpTruck(siteId)
+  await freshCylinder(siteId, { areaId: station.id, status: 'in_use', currentTruckId: fitted.id })
+
+  const technician = await user({ siteId, roles: ['technician'] })
+  await lpTransferQualification(technician.id)
+  people.technician = technician
+  const facilities = await user({ siteId, roles: ['facilities_lead'] })
+  people.facilities = facilities
+  const tests = [
+    { t: fitted, testedOn: isoDaysFromNow(-380), passed: true, next: isoDaysFromNow(-15) },
+    { t: await lpTruck(siteId), testedOn: isoDaysFromNow(-10), passed: false, next: isoDaysFromNow(20), co: 1.4 },
+    { t: await truck({ siteId, power: 'gasoline', truckClass: 5, systemVoltage: null, minBatteryWeightLb: null, maxBatteryWeightLb: null, allowedChemistries: [] }), testedOn: isoDaysFromNow(-340), passed: true, next: isoDaysFromNow(25) },
+    { t: await lpTruck(siteId), testedOn: isoDaysFromNow(-300), passed: true, next: isoDaysFromNow(65) },
+  ]
+  for (const x of tests) {
+    await useTestDb().insert(tables.emissionsTests).values({
+      siteId, userId: facilities.id, truckId: x.t.id, testedOn: x.testedOn, testerName: 'Invented Tailpipe Services',
+      coIdlePct: 0.4, coHighIdlePct: x.co ?? 0.5, passed: x.passed, reasons: x.passed ? [] : ['CO at high idle is 1.4 %, above the 1 % limit for LP-gas trucks.'], nextDueOn: x.next,
+    })
+  }
+  await lpTruck(siteId)
+})
+afterAll(async () => {
+  await browser?.close()
+  await closeTestDb()
+})
+
+async function signedIn(who: { email: string, password: string }, viewport: typeof PHONE, path: string): Promise<Page> {
+  const context = await newContext(browser, url('/'), viewport)
+  const page = await context.newPage()
+  await page.goto(url(path))
+  await page.waitForURL(/\/sign-in/)
+  await page.getByLabel('E-mail').fill(who.email)
+  await page.getByLabel('Password').fill(who.password)
+  await page.getByRole('button', { name: 'Sign in' }).click()
+  await page.waitForURL(u => u.pathname === path.split('?')[0])
+  return page
+}
+
+describe('fuel station in the browser', () => {
+  it('a technician refills a cylinder at phone width', async () => {
+    const page = await signedIn(people.technician!, PHONE, `/refill?code=${emptySerial}`)
+    await expect.poll(() => page.getByText('Pre-fill inspection').first().isVisible()).toBe(true)
+    for (const item of PREFILL_INSPECTION_ITEMS) {
+      await page.getByRole('radiogroup', { name: item.label }).getByRole('radio', { name: 'Pass' }).click()
+    }
+    await page.getByLabel('Weight before filling (lb)').fill('31')
+    await page.getByLabel('Weight after filling (lb)').fill('62')
+    await expect.poll(() => page.getByText('Propane added').isVisible()).toBe(true)
+    await page.screenshot({ path: 'screenshots/fuel-refill-phone.png', fullPage: true })
+    await page.getByRole('button', { name: 'Record the refill' }).click()
+    await expect.poll(() => page.getByRole('heading', { name: 'Filled' }).isVisible()).toBe(true)
+    expect(await page.getByText('31 lb of propane added').isVisible()).toBe(true)
+    await page.goto(url('/cage'))
+    await expect.poll(() => page.locator('[data-count="full"]').first().innerText()).toBe('5')
+    await page.screenshot({ path: 'screenshots/fuel-cage-phone.png', fullPage: true })
+    await page.goto(url(`/requalify?code=${emptySerial}`))
+    await expect.poll(() => page.getByRole('heading', { name: 'Requalification history' }).isVisible()).toBe(true)
+    await page.screenshot({ path: 'screenshots/fuel-requalify-phone.png', fullPage: true })
+    await page.goto(url('/exchange'))
+    await page.getByLabel('Truck').selectOption({ index: 1 })
+    await expect.poll(() => page.getByText('Before you take it off').isVisible()).toBe(true)
+    await page.screenshot({ path: 'screenshots/fuel-exchange-phone.png', fullPage: true })
+    await page.goto(url('/co'))
+    await expect.poll(() => page.getByRole('heading', { name: 'Record readings' }).isVisible()).toBe(true)
+    await page.getByLabel('CO (ppm) #1').fill('150')
+    await page.getByLabel('Hours #1').fill('2')
+    await page.screenshot({ path: 'screenshots/fuel-co-phone.png', fullPage: true })
+    await page.context().close()
+  })
+
+  it('a facilities lead opens the emissions view and the cage at desktop width', async () => {
+    const page = await signedIn(people.facilities!, DESKTOP, '/emissions')
+    const section = page.getByRole('article', { name: /Emissions at Harrow Lane DC/ })
+    await expect.poll(() => section.isVisible()).toBe(true)
+    expect(await section.locator('[data-bucket="overdue"]').innerText()).toBe('2')
+    expect(await section.locator('[data-bucket="failed"]').innerText()).toBe('1')
+    expect(await section.locator('[data-bucket="due_30"]').innerText()).toBe('1')
+    expect(await page.getByText('Minnesota Rules 5205.0116').first().isVisible()).toBe(true)
+    await page.screenshot({ path: 'screenshots/fuel-emissions-desktop.png', fullPage: true })
+    await page.emulateMedia({ media: 'print' })
+    await page.screenshot({ path: 'screenshots/fuel-emissions-print.png', fullPage: true })
+    await page.emulateMedia({ media: 'screen' })
+    await page.getByRole('link', { name: 'Record test' }).first().click()
+    await expect.poll(() => page.getByRole('heading', { name: /Emissions test · truck/ }).isVisible()).toBe(true)
+    await page.screenshot({ path: 'screenshots/fuel-emissions-form-desktop.png' })
+    await page.goto(url('/cage'))
+    await expect.poll(() => page.getByText('Propane stored').first().isVisible()).toBe(true)
+    await page.screenshot({ path: 'screenshots/fuel-cage-desktop.png', fullPage: true })
+    await page.context().close()
+  })
+})
