@@ -13,8 +13,9 @@ const rootDir = fileURLToPath(new URL('../..', import.meta.url))
 
 export const passingInspection = () => Object.fromEntries(PREFILL_INSPECTION_ITEMS.map(i => [i.key, 'pass']))
 
-export function isoDaysFromNow(days: number): string {
-  return new Date(Date.now() + days * 86_400_000).toISOString().slice(0, 10)
+/** A calendar date `days` from today at a test site (sites default to America/Chicago), as the server counts it. */
+export function isoDaysFromNow(days: number, timeZone = 'America/Chicago'): string {
+  return new Intl.DateTimeFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit' }).format(new Date(Date.now() + days * 86_400_000))
 }
 
 export const fuelStation = (siteId: string, lpStorageLimitLb: number | null = 300) =>
