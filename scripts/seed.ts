@@ -18,6 +18,7 @@ import { writeElectrolyteChecks } from './seed/electrolyte'
 import { buildCylinders, simulateFuelStation } from './seed/fuel'
 import { writeCoReadings, writeEmissionsTests } from './seed/compliance'
 import { writeAreaLogs } from './seed/area-logs'
+import { insertSchedules } from './seed/schedules'
 import { writeBatteryHolds, writeTagsAndAudit } from './seed/registry'
 import { countRows, insertSeedRows, truncateSchemaTables } from './seed/database'
 import { boardSummary } from './seed/summary'
@@ -115,6 +116,7 @@ async function main() {
     await db.transaction(async (tx) => {
       if (reset) await truncateSchemaTables(tx)
       await insertSeedRows(tx, demo.rows)
+      await insertSchedules(tx, demo.ctx)
     })
 
     const counts = await countRows(db)

@@ -7,6 +7,11 @@ bash scripts/ensure-tools.sh
 export NUXT_SESSION_PASSWORD="${NUXT_SESSION_PASSWORD:-test-session-password-not-for-production-use-0123}"
 export NUXT_PUBLIC_BASE_URL="${NUXT_PUBLIC_BASE_URL:-http://localhost:3000}"
 export BAYWARD_SMTP_CAPTURE_DIR="${BAYWARD_SMTP_CAPTURE_DIR:-$(pwd)/.data/mail-test}"
+export NUXT_SMTP_PORT="${NUXT_SMTP_PORT:-2526}"
+export BAYWARD_DIGEST_DISABLED="${BAYWARD_DIGEST_DISABLED:-true}"
+BAYWARD_SMTP_FAKE_PORT="$NUXT_SMTP_PORT" node scripts/smtp-fake.mjs > .data/smtp-fake-test.log 2>&1 &
+SMTP_FAKE_PID=$!
+trap 'kill "$SMTP_FAKE_PID" 2>/dev/null || true' EXIT
 
 echo "› lint";       npx eslint .
 echo "› typecheck";  npx nuxt typecheck

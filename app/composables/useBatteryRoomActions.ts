@@ -48,42 +48,51 @@ export function refusalOf(error: unknown): BatteryRoomRefusal | null {
   return { message: e.data?.message ?? '', reasons, overridable: !!e.data?.data?.overridable }
 }
 
-// Swaps, charges and electrolyte checks from the floor forms: $fetch, toast, refresh the board.
+/** What a floor form says about its record when the outbox keeps it: the label and the entered values in words. */
+export interface FloorRecordWords { label: string, details?: string[] }
+
+type SwapAnswer = { item: { id: string }, warnings: FitReason[], overridden?: FitReason[] }
+type ChargeOnAnswer = { item: { id: string } }
+type ChargeOffAnswer = { item: { gridKwh: number, energyCost: number, countedCycle: boolean, ranHot: boolean }, currency: string }
+type CheckAnswer = { item: { id: string, meanCorrectedSg: number | null, spread: number | null, stateOfChargePct: number | null }, lowCells: number[], warnings: FitReason[] }
+
+// Swaps, charges and electrolyte checks from the floor forms: through the device outbox, toast, refresh the board.
 export function useBatteryRoomActions() {
   const toast = useToast()
   const session = useSessionStore()
+  const { submitFloorRecord } = useFloorSubmit()
   const BOARD_KEYS = ['bay-board']
 
   function lookup(code: string) {
     return $fetch<FloorLookup>('/api/battery-room/lookup', { query: { siteId: session.siteId, code } })
   }
 
-  async function swap(body: { truckId: string, batteryOutId: string | null, batteryInId: string, hourMeter: number, overrideReason?: string, idempotencyKey: string }) {
-    const result = await $fetch<{ item: { id: string }, warnings: FitReason[], overridden?: FitReason[] }>('/api/battery-room/swaps', { method: 'POST', body })
+  async function settle<T>(outcome: FloorOutcome<T>, saved: (data: T) => void) {
+    // a kept record is shown by the form itself and by the outbox banner
+    if (outcome.state === 'kept') return outcome
     await refreshNuxtData(BOARD_KEYS)
-    toast.show(result.overridden?.length ? 'Battery changed; the override is logged.' : 'Battery changed.')
-    return result
+    saved(outcome.data)
+    return outcome
   }
 
-  async function chargeOn(body: { batteryId: string, chargerId: string, overrideReason?: string, idempotencyKey: string }) {
-    const result = await $fetch<{ item: { id: string } }>('/api/battery-room/charges', { method: 'POST', body })
-    await refreshNuxtData(BOARD_KEYS)
-    toast.show('On charge.')
-    return result
+  async function swap(body: { truckId: string, batteryOutId: string | null, batteryInId: string, hourMeter: number, overrideReason?: string, idempotencyKey: string }, words: FloorRecordWords) {
+    const outcome = await submitFloorRecord<SwapAnswer>({ kind: 'swap', url: '/api/battery-room/swaps', body, ...words })
+    return settle(outcome, r => toast.show(r.overridden?.length ? 'Battery changed; the override is logged.' : 'Battery changed.'))
   }
 
-  async function chargeOff(sessionId: string, body: { ampHoursReturned: number, endTempF: number, equalize: boolean, outcome: 'complete' | 'interrupted' }) {
-    const result = await $fetch<{ item: { gridKwh: number, energyCost: number, countedCycle: boolean, ranHot: boolean }, currency: string }>(`/api/battery-room/charges/${sessionId}/end`, { method: 'POST', body })
-    await refreshNuxtData(BOARD_KEYS)
-    toast.show(result.item.ranHot ? 'Off charge. It ran hot: let it cool and check it.' : 'Off charge; cooling now.', result.item.ranHot ? 'danger' : 'safe')
-    return result
+  async function chargeOn(body: { batteryId: string, chargerId: string, overrideReason?: string, idempotencyKey: string }, words: FloorRecordWords) {
+    const outcome = await submitFloorRecord<ChargeOnAnswer>({ kind: 'charge_on', url: '/api/battery-room/charges', body, ...words })
+    return settle(outcome, () => toast.show('On charge.'))
   }
 
-  async function check(body: Record<string, unknown>) {
-    const result = await $fetch<{ item: { id: string, meanCorrectedSg: number | null, spread: number | null, stateOfChargePct: number | null }, lowCells: number[], warnings: FitReason[] }>('/api/battery-room/checks', { method: 'POST', body })
-    await refreshNuxtData(BOARD_KEYS)
-    toast.show(result.lowCells.length ? `Saved. Weak cell: ${result.lowCells.join(', ')}.` : 'Check saved.', result.lowCells.length ? 'danger' : 'safe')
-    return result
+  async function chargeOff(sessionId: string, body: { ampHoursReturned: number, endTempF: number, equalize: boolean, outcome: 'complete' | 'interrupted', idempotencyKey: string }, words: FloorRecordWords) {
+    const outcome = await submitFloorRecord<ChargeOffAnswer>({ kind: 'charge_off', url: `/api/battery-room/charges/${sessionId}/end`, body, atField: 'endedAt', ...words })
+    return settle(outcome, r => toast.show(r.item.ranHot ? 'Off charge. It ran hot: let it cool and check it.' : 'Off charge; cooling now.', r.item.ranHot ? 'danger' : 'safe'))
+  }
+
+  async function check(body: Record<string, unknown>, words: FloorRecordWords) {
+    const outcome = await submitFloorRecord<CheckAnswer>({ kind: 'check', url: '/api/battery-room/checks', body, ...words })
+    return settle(outcome, r => toast.show(r.lowCells.length ? `Saved. Weak cell: ${r.lowCells.join(', ')}.` : 'Check saved.', r.lowCells.length ? 'danger' : 'safe'))
   }
 
   return { lookup, swap, chargeOn, chargeOff, check }

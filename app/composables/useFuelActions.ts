@@ -1,4 +1,5 @@
 import type { RefillInput } from '#shared/utils/fuel-schemas'
+import type { FloorRecordWords } from '~/composables/useBatteryRoomActions'
 
 export interface CylinderLookup {
   item: Record<string, unknown> & { id: string, serial: string, tagCode: string | null, status: string, waterCapacityLb: number, tareLb: number, nominalPropaneLb: number, outOfService: boolean }
@@ -34,17 +35,22 @@ export function refusalFrom(error: unknown): Refusal | null {
 export function useFuelActions() {
   const toast = useToast()
   const session = useSessionStore()
+  const { submitFloorRecord } = useFloorSubmit()
   const cylinderKeys = (id: string) => ['fuel-cage', 'cylinder-list', `cylinder-${id}`, `history-cylinder-${id}`]
 
   function lookupCylinder(code: string) {
     return $fetch<CylinderLookup>('/api/fuel/cylinders/lookup', { query: { siteId: session.siteId, code } })
   }
 
-  async function refill(cylinderId: string, body: Partial<RefillInput>) {
-    const result = await $fetch<{ item: { id: string, netAddedLb: number | null, gallonsAt60F: number | null } }>(`/api/cylinders/${cylinderId}/refills`, { method: 'POST', body })
+  // through the device outbox: `keptKey` is set when the record is kept on the device to send later
+  async function refill(cylinderId: string, body: Partial<RefillInput>, words: FloorRecordWords = { label: 'Cylinder refill' }) {
+    const outcome = await submitFloorRecord<{ item: { id: string, netAddedLb: number | null, gallonsAt60F: number | null } }>({ kind: 'refill', url: `/api/cylinders/${cylinderId}/refills`, body, atField: null, ...words })
+    if (outcome.state === 'kept') {
+      return { id: null, netAddedLb: null, gallonsAt60F: null, keptKey: outcome.key }
+    }
     await refreshNuxtData(cylinderKeys(cylinderId))
     toast.show('Refill recorded: the cylinder is full.')
-    return result.item
+    return { ...outcome.data.item, keptKey: null }
   }
 
   async function quarantine(cylinderId: string, reason: string) {
@@ -53,11 +59,15 @@ export function useFuelActions() {
     toast.show('Cylinder quarantined in the cage.')
   }
 
-  async function exchange(truckId: string, body: { cylinderOnCode: string, cylinderOffId: string | null, idempotencyKey: string, note?: string }) {
-    const result = await $fetch<{ item: { id: string } }>(`/api/trucks/${truckId}/cylinder-exchanges`, { method: 'POST', body })
+  // through the device outbox: `keptKey` is set when the record is kept on the device to send later
+  async function exchange(truckId: string, body: { cylinderOnCode: string, cylinderOffId: string | null, idempotencyKey: string, note?: string }, words: FloorRecordWords = { label: 'Cylinder change' }) {
+    const outcome = await submitFloorRecord<{ item: { id: string } }>({ kind: 'exchange', url: `/api/trucks/${truckId}/cylinder-exchanges`, body, atField: null, ...words })
+    if (outcome.state === 'kept') {
+      return { id: null, keptKey: outcome.key }
+    }
     await refreshNuxtData(['fuel-cage', 'fuel-lp-trucks', `truck-${truckId}`, `history-truck-${truckId}`])
     toast.show('Cylinder change recorded.')
-    return result.item
+    return { ...outcome.data.item, keptKey: null }
   }
 
   async function recordRequalification(cylinderId: string, body: Record<string, unknown>) {

@@ -87,10 +87,15 @@ async function hasBatteryChangingQualification(db: DbOrTx, userId: string, at: D
   return (rows as unknown[]).length > 0
 }
 
-async function storedSwap(db: DbOrTx, key: string, actor: Actor) {
-  const [row] = await db.select().from(tables.batterySwaps).where(eq(tables.batterySwaps.idempotencyKey, key))
+/** A record found by its retry key, refused when someone else made it. */
+function ownRecord<R extends { userId: string }>(row: R | undefined, actor: Actor): R | undefined {
   if (row && row.userId !== actor.user.id) throw createError({ statusCode: 409, message: 'That retry key belongs to someone else\'s record; reload the form.' })
   return row
+}
+
+async function storedSwap(db: DbOrTx, key: string, actor: Actor) {
+  const [row] = await db.select().from(tables.batterySwaps).where(eq(tables.batterySwaps.idempotencyKey, key))
+  return ownRecord(row, actor)
 }
 
 // A battery swap: one transaction that locks the truck and the batteries, checks fit, readiness,
@@ -197,7 +202,7 @@ export async function startChargeSession(event: H3Event) {
   const siteId = batteryRow.siteId
   const actor = await requireSiteRole(event, siteId, BATTERY_ROOM_FLOOR_ROLES)
   const cs = tables.chargeSessions
-  const stored = async (db: DbOrTx) => (await db.select().from(cs).where(eq(cs.idempotencyKey, body.idempotencyKey)))[0]
+  const stored = async (db: DbOrTx) => ownRecord((await db.select().from(cs).where(eq(cs.idempotencyKey, body.idempotencyKey)))[0], actor)
   const replay = await stored(useDb())
   if (replay) return { item: replay, replayed: true }
   const at = eventTime(body.at, 'at')
@@ -245,6 +250,18 @@ export async function startChargeSession(event: H3Event) {
 
 const sessionParams = z.object({ id: z.uuid() })
 
+// Ending a charge happens once: the same user sending the same readings again is a retry of that end.
+function sameChargeEnd(row: typeof tables.chargeSessions.$inferSelect, userId: string, body: z.output<typeof chargeEndSchema>): boolean {
+  return row.endedAt !== null && row.endedBy === userId && row.ampHoursReturned === body.ampHoursReturned
+    && row.endTempF === body.endTempF && row.outcome === body.outcome && row.equalize === body.equalize
+}
+
+async function chargeEndReplay(row: typeof tables.chargeSessions.$inferSelect) {
+  const settings = await batteryRoomSettings(useDb(), row.siteId)
+  const status = batteryRoomStatus(await oneBatteryFacts(useDb(), row.siteId, row.batteryId), settings, new Date())
+  return { item: row, status, currency: settings.currency, replayed: true }
+}
+
 // A battery comes off charge: energy and cost from the amp-hours, the cycle count, the hot flag.
 export async function endChargeSession(event: H3Event) {
   const { id } = validateParams(event, sessionParams)
@@ -256,7 +273,10 @@ export async function endChargeSession(event: H3Event) {
     : []
   if (!found) throw createError({ statusCode: 404, message: 'No such charge session.' })
   const actor = await requireSiteRole(event, found.siteId, BATTERY_ROOM_FLOOR_ROLES)
-  if (found.endedAt) throw createError({ statusCode: 409, message: 'This charge has already been ended.' })
+  if (found.endedAt) {
+    if (sameChargeEnd(found, actor.user.id, body)) return chargeEndReplay(found)
+    throw createError({ statusCode: 409, message: 'This charge has already been ended.' })
+  }
   const endedAt = eventTime(body.endedAt, 'endedAt')
   if (endedAt.getTime() < found.at.getTime()) throw badField('endedAt', 'The charge cannot end before it started.')
   const settings = await batteryRoomSettings(useDb(), found.siteId)
@@ -271,7 +291,11 @@ export async function endChargeSession(event: H3Event) {
       countedCycle, ranHot: ranHot(body.endTempF, settings.maxChargeTempF),
       note: body.note ? [found.note, body.note].filter(Boolean).join('\n') : found.note,
     }).where(and(eq(cs.id, id), isNull(cs.endedAt))).returning()
-    if (!session) throw createError({ statusCode: 409, message: 'Someone ended this charge at the same moment; reload.' })
+    if (!session) {
+      const [now] = await tx.select().from(cs).where(eq(cs.id, id))
+      if (now && sameChargeEnd(now, actor.user.id, body)) return chargeEndReplay(now)
+      throw createError({ statusCode: 409, message: 'Someone ended this charge at the same moment; reload.' })
+    }
     if (countedCycle) {
       await tx.update(tables.batteries).set({ cycleCount: sql`${tables.batteries.cycleCount} + 1` }).where(eq(tables.batteries.id, battery!.id))
     }
@@ -289,7 +313,7 @@ export async function recordElectrolyteCheck(event: H3Event) {
   const siteId = row.siteId
   const actor = await requireSiteRole(event, siteId, BATTERY_ROOM_FLOOR_ROLES)
   const ec = tables.electrolyteChecks
-  const stored = async (db: DbOrTx) => (await db.select().from(ec).where(eq(ec.idempotencyKey, body.idempotencyKey)))[0]
+  const stored = async (db: DbOrTx) => ownRecord((await db.select().from(ec).where(eq(ec.idempotencyKey, body.idempotencyKey)))[0], actor)
   const replay = await stored(useDb())
   if (replay) return { item: replay, replayed: true, warnings: [] as FitReason[] }
   if (row.chemistry !== 'flooded_lead_acid') throw badField('batteryId', 'Only flooded lead-acid batteries take water and hydrometer readings.')

@@ -270,6 +270,8 @@ interface ExchangeRequest {
 export async function recordExchange(actor: Actor, req: ExchangeRequest) {
   const { truck } = req
   return useDb().transaction(async (tx) => {
+    // the truck lock first, so a copy of the same request sent at once finds the first one's row
+    await tx.select({ id: tables.trucks.id }).from(tables.trucks).where(eq(tables.trucks.id, truck.id)).for('update')
     if (req.idempotencyKey) {
       const [earlier] = await tx.select().from(tables.cylinderExchanges).where(eq(tables.cylinderExchanges.idempotencyKey, req.idempotencyKey))
       if (earlier) {
@@ -277,7 +279,6 @@ export async function recordExchange(actor: Actor, req: ExchangeRequest) {
         return { exchange: earlier, repeated: true }
       }
     }
-    await tx.select({ id: tables.trucks.id }).from(tables.trucks).where(eq(tables.trucks.id, truck.id)).for('update')
     const ids = [...new Set([req.cylinderOnId, req.cylinderOffId].filter((v): v is string => !!v))].sort()
     const locked = await tx.select().from(tables.lpCylinders)
       .where(and(inArray(tables.lpCylinders.id, ids), eq(tables.lpCylinders.siteId, truck.siteId)))

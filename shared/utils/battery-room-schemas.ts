@@ -53,6 +53,8 @@ export const chargeEndSchema = z.object({
   endTempF: z.number({ error: 'Temperature must be a number.' }).min(0, 'Below 0 °F looks wrong.').max(200, 'Above 200 °F looks wrong.'),
   equalize: z.boolean().default(false),
   outcome: z.enum(CHARGE_OUTCOMES, { error: 'Complete or interrupted?' }),
+  /** Carried for the device outbox; a charge ends once, so a repeat is recognised by the same user and readings. */
+  idempotencyKey: idempotencyKey.optional(),
   endedAt: eventTime,
   note: z.string().trim().max(1000).default(''),
 })

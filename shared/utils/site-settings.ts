@@ -33,6 +33,12 @@ export const siteSettingsSchema = z.object({
   requalYearsProofPressure: z.number().int().min(1).max(12).default(7),
   requalYearsExternalVisual: z.number().int().min(1).max(12).default(5),
   dueSoonDays: z.number().int().min(1).max(90).default(14),
+  /** Site-local hour (0–23) the daily due-list digest goes to each lead (site policy). */
+  digestHour: z.number().int().min(0).max(23).default(6),
+  /** Charger inspection interval in days (site policy; no published interval, common practice monthly). */
+  chargerInspectionEveryDays: z.number().int().min(1).max(365).default(30),
+  /** Every-cell specific-gravity reading interval in days (common practice: monthly). */
+  fullCellCheckEveryDays: z.number().int().min(1).max(365).default(30),
 })
 
 export type SiteSettings = z.infer<typeof siteSettingsSchema>

@@ -138,3 +138,26 @@ describe('monthly extinguisher checks (NFPA 10: "monthly" is at most 31 days)', 
     expect(monthlyAtMost31Days('2028-02-01')).toBe('2028-03-03')
   })
 })
+
+describe('due dates by rule kind at month ends, leap days and in a site time zone', () => {
+  it('a daily checklist done on Feb 28 of a leap year is due Feb 29, of a common year Mar 1', () => {
+    expect(addCalendarInterval('2028-02-28', 1, 'day')).toBe('2028-02-29')
+    expect(addCalendarInterval('2026-02-28', 1, 'day')).toBe('2026-03-01')
+  })
+
+  it('quarterly CO monitoring from Nov 30 lands on the last day of February (Minnesota Rules 5205.0116: at least quarterly)', () => {
+    expect(addCalendarInterval('2027-11-30', 3, 'month')).toBe('2028-02-29')
+    expect(addCalendarInterval('2026-11-30', 3, 'month')).toBe('2027-02-28')
+  })
+
+  it('three-year operator evaluation from a leap day clamps to Feb 28 (29 CFR 1910.178(l)(4)(iii))', () => {
+    expect(addCalendarInterval('2028-02-29', 3, 'year')).toBe('2031-02-28')
+  })
+
+  it('a watering logged at 23:30 Chicago time counts for that local day, not the UTC one', () => {
+    const watered = new Date('2026-03-31T04:30:00Z') // 23:30 CDT on Mar 30
+    expect(localDate(watered, 'America/Chicago')).toBe('2026-03-30')
+    expect(addCalendarInterval(localDate(watered, 'America/Chicago'), 7, 'day')).toBe('2026-04-06')
+    expect(addCalendarInterval(localDate(watered, 'UTC'), 7, 'day')).toBe('2026-04-07')
+  })
+})

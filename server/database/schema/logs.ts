@@ -29,6 +29,8 @@ export const schedules = pgTable('schedules', {
   rule: scheduleRuleEnum().notNull(),
   every: integer(),
   everyUnit: text(),
+  // For count rules ("every 5 charges or 7 days"): the days cap, whichever comes first.
+  withinDays: integer(),
   dueSoonDays: integer().notNull().default(7),
   responsibleRole: roleEnum().notNull(),
   source: text().notNull().default(''),

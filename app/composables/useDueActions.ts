@@ -1,0 +1,72 @@
+import type { FloorRecordWords } from '~/composables/useBatteryRoomActions'
+
+// Area logs, follow-ups, incidents, calendar feeds: $fetch → toast → refresh the views and the due list.
+export function useDueActions() {
+  const toast = useToast()
+  const session = useSessionStore()
+  const { submitFloorRecord } = useFloorSubmit()
+  const logKeys = ['area-log', 'area-log-followups']
+
+  async function done(keys: string[], message: string, tone?: 'safe' | 'danger') {
+    await Promise.all([refreshNuxtData(keys), refreshDue()])
+    toast.show(message, tone)
+  }
+
+  // through the device outbox: `keptKey` is set when the entries are kept on the device to send later
+  async function recordLog(body: { areaId: string, date: string, cadence?: string, entries: { itemKey: string, result: string, note: string }[], idempotencyKey: string }, words: FloorRecordWords = { label: 'Checklist items' }) {
+    const outcome = await submitFloorRecord<{ followUps: string[] }>({ kind: 'log_entries', url: '/api/logs/entries', body: { ...body, siteId: session.siteId }, atField: null, ...words })
+    if (outcome.state === 'kept') return { followUps: [] as string[], keptKey: outcome.key }
+    const result = { ...outcome.data, keptKey: null }
+    await done(logKeys, result.followUps.length ? `Saved. ${result.followUps.length} failed item${result.followUps.length === 1 ? '' : 's'}: the safety lead has been told and a follow-up is open.` : 'Checklist saved.', result.followUps.length ? 'danger' : 'safe')
+    return result
+  }
+
+  async function correctEntry(entryId: string, body: { result: string, note: string, reason: string }) {
+    const result = await $fetch(`/api/logs/entries/${entryId}/corrections`, { method: 'POST', body })
+    await done(logKeys, 'Correction added to the log.')
+    return result
+  }
+
+  async function signLogs(body: { areaId: string, date: string, span: 'day' | 'week', note?: string }) {
+    const result = await $fetch<{ signed: unknown[] }>('/api/logs/sign', { method: 'POST', body: { ...body, siteId: session.siteId } })
+    await done(logKeys, `Signed ${result.signed.length} log${result.signed.length === 1 ? '' : 's'}. They are locked now.`, 'safe')
+    return result
+  }
+
+  async function closeFollowUp(id: string, note: string) {
+    await $fetch(`/api/follow-ups/${id}/close`, { method: 'POST', body: { note } })
+    await done(logKeys, 'Follow-up closed.', 'safe')
+  }
+
+  async function saveTemplate(body: Record<string, unknown>) {
+    const result = await $fetch<{ item: { version: number } }>('/api/logs/templates', { method: 'POST', body: { ...body, siteId: session.siteId } })
+    await done(['log-templates'], `Saved as version ${result.item.version}. Logs already begun keep their version.`)
+    return result.item
+  }
+
+  async function uploadPhoto(file: File) {
+    const form = new FormData()
+    form.append('file', file, file.name)
+    return (await $fetch<{ item: { id: string, displayName: string } }>('/api/uploads', { method: 'POST', query: { siteId: session.siteId }, body: form })).item
+  }
+
+  async function reportIncident(body: Record<string, unknown>) {
+    const result = await $fetch<{ alerted: number }>('/api/incidents', { method: 'POST', body: { ...body, siteId: session.siteId } })
+    await done(['incidents'], `Incident reported. ${result.alerted} safety lead${result.alerted === 1 ? ' has' : 's have'} been told.`, 'safe')
+    return result
+  }
+
+  async function createFeed() {
+    const result = await $fetch<{ item: { id: string, url: string } }>('/api/calendar/feeds', { method: 'POST' })
+    await refreshNuxtData('calendar-feeds')
+    return result.item
+  }
+
+  async function revokeFeed(id: string) {
+    await $fetch(`/api/calendar/feeds/${id}`, { method: 'DELETE' })
+    await refreshNuxtData('calendar-feeds')
+    toast.show('Feed revoked: its address no longer works.')
+  }
+
+  return { recordLog, correctEntry, signLogs, closeFollowUp, saveTemplate, uploadPhoto, reportIncident, createFeed, revokeFeed }
+}

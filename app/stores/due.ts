@@ -1,0 +1,69 @@
+import { defineStore } from 'pinia'
+import type { Role } from '#shared/types/auth'
+import type { ObligationState } from '#shared/utils/due-dates'
+import type { DueKind, DueSubject } from '#shared/utils/due-schedules'
+
+export interface DueItem {
+  id: string
+  kind: DueKind
+  what: string
+  subject: DueSubject
+  areaName: string | null
+  dueOn: string | null
+  state: ObligationState
+  lastDoneOn: string | null
+  remaining: number | null
+  detail: string | null
+  responsibleRole: Role
+  action: { label: string, to: string }
+}
+
+export interface DueListReply {
+  site: { id: string, name: string, timeZone: string }
+  today: string
+  items: DueItem[]
+  counts: Record<ObligationState, number>
+  total: number
+}
+
+export interface DueFilter {
+  role?: Role | 'all'
+  state?: string
+  kind?: string
+  sort?: 'due' | 'kind' | 'subject' | 'role'
+}
+
+const keyOf = (siteId: string, filter: DueFilter) => `${siteId}|${filter.role ?? ''}|${filter.state ?? ''}|${filter.kind ?? ''}|${filter.sort ?? ''}`
+
+// The user's due lists, one per site and filter, refreshed after anything is recorded.
+export const useDueStore = defineStore('due', () => {
+  const lists = ref<Record<string, { siteId: string, filter: DueFilter, reply: DueListReply, loadedAt: number }>>({})
+  const loading = ref(false)
+
+  async function load(siteId: string, filter: DueFilter = {}) {
+    loading.value = true
+    try {
+      const reply = await useRequestFetch()<DueListReply>('/api/due', { query: { siteId, ...filter } })
+      lists.value[keyOf(siteId, filter)] = { siteId, filter, reply, loadedAt: Date.now() }
+      return reply
+    }
+    finally {
+      loading.value = false
+    }
+  }
+
+  function list(siteId: string | null, filter: DueFilter = {}): DueListReply | null {
+    return siteId ? lists.value[keyOf(siteId, filter)]?.reply ?? null : null
+  }
+
+  async function refreshAll() {
+    await Promise.all(Object.values(lists.value).map(l => load(l.siteId, l.filter).catch(() => null)))
+  }
+
+  return { lists, loading, load, list, refreshAll }
+})
+
+/** Reloads every due list the user has open; call after recording work that closes an obligation. */
+export function refreshDue() {
+  return useDueStore().refreshAll()
+}

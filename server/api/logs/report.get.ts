@@ -1,0 +1,17 @@
+import { logRangeQuerySchema } from '#shared/utils/area-checklists'
+
+// The audit report: every area (or one) and every day in a range, with entries, corrections and signatures.
+export default defineEventHandler(async (event) => {
+  const query = validateQuery(event, logRangeQuerySchema)
+  await requireSiteRole(event, query.siteId, LOG_VIEW_ROLES)
+  const db = useDb()
+  const site = await loadDueSite(db, query.siteId)
+  const areas = query.areaId
+    ? [await areaAtSite(db, query.siteId, query.areaId)]
+    : await db.select().from(tables.areas).where(and(eq(tables.areas.siteId, query.siteId), eq(tables.areas.archived, false))).orderBy(asc(tables.areas.name))
+  const sections = []
+  for (const area of areas) {
+    sections.push({ area: { id: area.id, name: area.name, kind: area.kind }, days: await areaLogDays(db, query.siteId, area, query.from, query.to) })
+  }
+  return { site: { id: site.id, name: site.name, timeZone: site.timeZone }, from: query.from, to: query.to, generatedAt: new Date(), sections }
+})

@@ -1,0 +1,1 @@
+ALTER TABLE "schedules" ADD COLUMN "within_days" integer;

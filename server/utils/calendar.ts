@@ -1,0 +1,65 @@
+import { createHash, randomBytes } from 'node:crypto'
+import { createEvents, type EventAttributes } from 'ics'
+import type { Role } from '#shared/types/auth'
+import type { Actor } from './auth'
+
+// Private calendar feeds of a user's due list. The URL carries a random token; only its SHA-256 is
+// stored, so a leaked database does not leak working feed addresses.
+
+export const hashFeedToken = (token: string) => createHash('sha256').update(token).digest('hex')
+
+const TOKEN_PATTERN = /^[\w-]{43}$/
+
+export function feedUrl(token: string): string {
+  const base = (useRuntimeConfig().public.baseUrl as string) || 'http://localhost:3000'
+  return new URL(`/calendar/${token}.ics`, base).toString()
+}
+
+export async function createCalendarFeed(actor: Actor) {
+  const token = randomBytes(32).toString('base64url')
+  return useDb().transaction(async (tx) => {
+    const [row] = await tx.insert(tables.calendarFeeds).values({ userId: actor.user.id, tokenHash: hashFeedToken(token) }).returning()
+    await writeAudit(tx, { actor, siteId: null, action: 'create', entity: 'calendar_feed', entityId: row!.id })
+    return { id: row!.id, createdAt: row!.createdAt, revokedAt: null, url: feedUrl(token) }
+  })
+}
+
+// The live feed's owner, or null for a malformed, unknown or revoked token, or a deactivated user.
+export async function feedOwner(token: string) {
+  if (!TOKEN_PATTERN.test(token)) return null
+  const [row] = await useDb().select({ feedId: tables.calendarFeeds.id, userId: tables.users.id, name: tables.users.name, active: tables.users.active })
+    .from(tables.calendarFeeds).innerJoin(tables.users, eq(tables.users.id, tables.calendarFeeds.userId))
+    .where(and(eq(tables.calendarFeeds.tokenHash, hashFeedToken(token)), isNull(tables.calendarFeeds.revokedAt)))
+  return row && row.active ? row : null
+}
+
+const dateArray = (iso: string): [number, number, number] => [Number(iso.slice(0, 4)), Number(iso.slice(5, 7)), Number(iso.slice(8, 10))]
+
+// The user's open obligations at every site they belong to, as all-day events on their due dates.
+export async function calendarFeedIcs(owner: { userId: string, name: string }): Promise<string> {
+  const db = useDb()
+  const memberships = await db.select({ siteId: tables.memberships.siteId, role: tables.memberships.role }).from(tables.memberships)
+    .where(eq(tables.memberships.userId, owner.userId))
+  const bySite = new Map<string, Role[]>()
+  for (const m of memberships) bySite.set(m.siteId, [...(bySite.get(m.siteId) ?? []), m.role])
+  const events: EventAttributes[] = []
+  for (const [siteId, roles] of bySite) {
+    const list = await computeDueList(db, siteId, { roles, personId: owner.userId, states: ['overdue', 'due_soon', 'upcoming'], kinds: null, sort: 'due', limit: 5000 })
+    for (const o of list.items) {
+      const on = o.dueOn ?? list.today
+      events.push({
+        uid: `${o.id.replace(/[^\w-]/g, '-')}@bayward`,
+        title: `${o.state === 'overdue' ? 'Overdue: ' : ''}${o.what} — ${o.subject.label}`,
+        description: [`${OBLIGATION_STATE_LABELS[o.state]} at ${list.site.name}.`, o.detail, o.lastDoneOn ? `Last done ${o.lastDoneOn}.` : null].filter(Boolean).join(' '),
+        start: dateArray(on),
+        end: dateArray(addCalendarInterval(on, 1, 'day')),
+        url: new URL(o.action.to, (useRuntimeConfig().public.baseUrl as string) || 'http://localhost:3000').toString(),
+        categories: [list.site.name, ROLE_LABELS[o.responsibleRole]],
+        transp: 'TRANSPARENT',
+      })
+    }
+  }
+  const { error, value } = createEvents(events, { productId: '-//Bayward//Due list//EN', calName: `Bayward due list — ${owner.name}` })
+  if (error || !value) throw createError({ statusCode: 500, message: 'The calendar could not be built.' })
+  return value
+}

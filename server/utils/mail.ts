@@ -1,0 +1,248 @@
+import nodemailer, { type Transporter } from 'nodemailer'
+import { sql } from 'drizzle-orm'
+import type { Role } from '#shared/types/auth'
+import { MAIL_MAX_ATTEMPTS, mailRetryDelaySeconds, digestDue } from '#shared/utils/mail-schedule'
+import type { DbOrTx } from './db'
+import type { Obligation } from './due'
+
+// The outbox: every message is written to mail_messages inside the transaction of the record that
+// caused it, then delivered after the response; a failed delivery is kept and tried again later.
+
+export interface SmtpSettings {
+  host: string
+  port: number
+  secure: boolean
+  user: string
+  pass: string
+  from: string
+}
+
+/** SMTP from the environment (NUXT_SMTP_HOST, _PORT, _SECURE, _USER, _PASS, _FROM); a local server on 2525 by default. */
+export function smtpSettings(env: NodeJS.ProcessEnv = process.env): SmtpSettings {
+  return {
+    host: env.NUXT_SMTP_HOST || '127.0.0.1',
+    port: Number(env.NUXT_SMTP_PORT || 2525),
+    secure: env.NUXT_SMTP_SECURE === 'true',
+    user: env.NUXT_SMTP_USER || '',
+    pass: env.NUXT_SMTP_PASS || '',
+    from: env.NUXT_SMTP_FROM || 'Bayward <bayward@localhost>',
+  }
+}
+
+let transport: { key: string, transporter: Transporter } | undefined
+
+function mailTransport(settings: SmtpSettings): Transporter {
+  const key = JSON.stringify(settings)
+  if (transport?.key !== key) {
+    transport = {
+      key,
+      transporter: nodemailer.createTransport({
+        host: settings.host,
+        port: settings.port,
+        secure: settings.secure,
+        auth: settings.user ? { user: settings.user, pass: settings.pass } : undefined,
+        connectionTimeout: 5000,
+        greetingTimeout: 5000,
+        socketTimeout: 15000,
+      }),
+    }
+  }
+  return transport.transporter
+}
+
+export interface OutgoingMail {
+  siteId: string | null
+  to: string
+  subject: string
+  body: string
+  kind: string
+}
+
+export type MailRow = typeof tables.mailMessages.$inferSelect
+
+/** Records messages in the outbox (inside the caller's transaction); delivery comes later. */
+export async function queueMail(tx: DbOrTx, messages: OutgoingMail | OutgoingMail[]): Promise<MailRow[]> {
+  const list = Array.isArray(messages) ? messages : [messages]
+  if (list.length === 0) return []
+  return tx.insert(tables.mailMessages).values(list.map(m => ({
+    siteId: m.siteId, toAddress: m.to, subject: m.subject.slice(0, 300), body: m.body, kind: m.kind,
+  }))).returning()
+}
+
+/** Active people holding one of the roles at a site, with their e-mail. */
+export async function peopleWithRoles(tx: DbOrTx, siteId: string, roles: readonly Role[]) {
+  if (roles.length === 0) return []
+  return tx.selectDistinct({ id: tables.users.id, email: tables.users.email, name: tables.users.name })
+    .from(tables.memberships).innerJoin(tables.users, eq(tables.users.id, tables.memberships.userId))
+    .where(and(eq(tables.memberships.siteId, siteId), inArray(tables.memberships.role, [...roles]), eq(tables.users.active, true)))
+}
+
+export interface AlertInput {
+  siteId: string
+  kind: string
+  subject: string
+  body: string
+  /** who gets it: everyone with these roles at the site (safety leads by default) */
+  roles?: readonly Role[]
+  /** and these people too (a follow-up owner) */
+  userIds?: readonly string[]
+}
+
+function appLink(path: string): string {
+  const base = (useRuntimeConfig().public.baseUrl as string | undefined) || 'http://localhost:3000'
+  return new URL(path, base).toString()
+}
+
+// An immediate alert: one outbox message per recipient, in the caller's transaction.
+export async function queueAlert(tx: DbOrTx, alert: AlertInput): Promise<MailRow[]> {
+  const people = await peopleWithRoles(tx, alert.siteId, alert.roles ?? ['safety_lead'])
+  const extra = alert.userIds?.length
+    ? await tx.select({ id: tables.users.id, email: tables.users.email, name: tables.users.name }).from(tables.users)
+        .where(and(inArray(tables.users.id, [...alert.userIds]), eq(tables.users.active, true)))
+    : []
+  const to = new Map([...people, ...extra].map(p => [p.email.toLowerCase(), p]))
+  return queueMail(tx, [...to.values()].map(p => ({
+    siteId: alert.siteId, to: p.email, kind: alert.kind, subject: `[Bayward] ${alert.subject}`,
+    body: `Hello ${p.name.split(' ')[0]},\n\n${alert.body}\n\n— Bayward`,
+  })))
+}
+
+// Alerts the fuel-station routes raise; call inside the transaction that stores the record, then
+// deliverMailSoon() after it commits.
+export function notifyFailedEmissionsTest(tx: DbOrTx, a: { siteId: string, truckId: string, fleetNumber: string, testedOn: string, reasons: string[], retestBy: string }) {
+  return queueAlert(tx, {
+    siteId: a.siteId, kind: 'alert:emissions_failed', roles: ['facilities_lead', 'safety_lead'],
+    subject: `Emissions test failed: truck ${a.fleetNumber}`,
+    body: `Truck ${a.fleetNumber} failed its emissions test on ${a.testedOn}.\n${a.reasons.join('\n')}\nRetest by ${a.retestBy}.\n\n${appLink(`/emissions?truck=${a.truckId}`)}`,
+  })
+}
+
+export function notifyRefusedCylinder(tx: DbOrTx, a: { siteId: string, cylinderId: string, code: string, reasons: string[], by: string }) {
+  return queueAlert(tx, {
+    siteId: a.siteId, kind: 'alert:cylinder_refused', roles: ['safety_lead', 'facilities_lead'],
+    subject: `Cylinder ${a.code} refused at the fuel station`,
+    body: `${a.by} was refused a fill of cylinder ${a.code}:\n${a.reasons.join('\n')}\n\n${appLink(`/cylinders/${a.cylinderId}`)}`,
+  })
+}
+
+export function notifyCoAboveCeiling(tx: DbOrTx, a: { siteId: string, areaId: string, areaName: string, takenOn: string, peakPpm: number, ceilingPpm: number }) {
+  return queueAlert(tx, {
+    siteId: a.siteId, kind: 'alert:co_ceiling', roles: ['safety_lead'],
+    subject: `CO above ${a.ceilingPpm} ppm in ${a.areaName}`,
+    body: `A CO reading of ${a.peakPpm} ppm was recorded in ${a.areaName} on ${a.takenOn}, above the ${a.ceilingPpm} ppm ceiling (NIOSH). Clear the area, ventilate, and find the source.\n\n${appLink(`/co?area=${a.areaId}`)}`,
+  })
+}
+
+let deliveryTimer: ReturnType<typeof setTimeout> | undefined
+
+/** Delivers the outbox shortly, after the current response; never throws into the request. */
+export function deliverMailSoon() {
+  if (deliveryTimer) return
+  deliveryTimer = setTimeout(() => {
+    deliveryTimer = undefined
+    deliverDueMail().catch(error => console.error('mail delivery failed', error))
+  }, 10)
+  deliveryTimer.unref?.()
+}
+
+export interface DeliveryResult { attempted: number, sent: number, failed: number }
+
+// Claims due messages (skipping those another server holds), sends each, and records the outcome.
+// `force` also takes failed messages whose next try is later, and those past the last attempt.
+export async function deliverDueMail({ force = false, siteId, limit = 50 }: { force?: boolean, siteId?: string, limit?: number } = {}): Promise<DeliveryResult> {
+  const db = useDb()
+  const claimed = await db.execute(sql`
+    UPDATE mail_messages SET next_attempt_at = now() + interval '2 minutes', updated_at = now()
+    WHERE id IN (
+      SELECT id FROM mail_messages
+      WHERE status IN ('queued', 'failed')
+        ${force ? sql`` : sql`AND next_attempt_at <= now() AND attempts < ${MAIL_MAX_ATTEMPTS}::int`}
+        ${siteId ? sql`AND site_id = ${siteId}` : sql``}
+      ORDER BY created_at LIMIT ${limit}::int FOR UPDATE SKIP LOCKED
+    )
+    RETURNING id, to_address AS "toAddress", subject, body, attempts`) as unknown as { id: string, toAddress: string, subject: string, body: string, attempts: number }[]
+  const settings = smtpSettings()
+  const result: DeliveryResult = { attempted: claimed.length, sent: 0, failed: 0 }
+  for (const m of claimed) {
+    const attempts = m.attempts + 1
+    try {
+      await mailTransport(settings).sendMail({ from: settings.from, to: m.toAddress, subject: m.subject, text: m.body })
+      await db.update(tables.mailMessages).set({ status: 'sent', attempts, sentAt: new Date(), lastError: null }).where(eq(tables.mailMessages.id, m.id))
+      result.sent += 1
+    }
+    catch (error) {
+      const delay = mailRetryDelaySeconds(attempts)
+      await db.update(tables.mailMessages).set({
+        status: 'failed', attempts, lastError: String((error as Error)?.message ?? error).slice(0, 500),
+        nextAttemptAt: new Date(Date.now() + (delay ?? 365 * 86_400) * 1000),
+      }).where(eq(tables.mailMessages.id, m.id))
+      result.failed += 1
+    }
+  }
+  return result
+}
+
+const DIGEST_ROLES: Role[] = ['facilities_lead', 'safety_lead']
+
+// The daily digest: each lead gets what is overdue and due soon in their roles' lists. With `force`
+// it goes now; otherwise once a day from the site's digest hour.
+export async function sendDigests({ siteIds, force = false, now = new Date() }: { siteIds?: string[], force?: boolean, now?: Date } = {}) {
+  const db = useDb()
+  const sites = await db.select({ id: tables.sites.id, timeZone: tables.sites.timeZone, settings: tables.sites.settings }).from(tables.sites)
+    .where(siteIds ? inArray(tables.sites.id, siteIds.length ? siteIds : ['00000000-0000-0000-0000-000000000000']) : undefined)
+  let queued = 0
+  for (const s of sites) {
+    const hour = siteSettingsSchema.safeParse(s.settings ?? {}).data?.digestHour ?? 6
+    if (!force) {
+      const [sent] = await db.execute(sql`
+        SELECT 1 FROM mail_messages WHERE site_id = ${s.id} AND kind = 'digest'
+          AND created_at >= (date_trunc('day', now() AT TIME ZONE ${s.timeZone}) AT TIME ZONE ${s.timeZone}) LIMIT 1`) as unknown as unknown[]
+      if (!digestDue(now, s.timeZone, hour, !!sent)) continue
+    }
+    const leads = await db.select({ id: tables.users.id, email: tables.users.email, name: tables.users.name, role: tables.memberships.role })
+      .from(tables.memberships).innerJoin(tables.users, eq(tables.users.id, tables.memberships.userId))
+      .where(and(eq(tables.memberships.siteId, s.id), inArray(tables.memberships.role, DIGEST_ROLES), eq(tables.users.active, true)))
+    if (leads.length === 0) continue
+    const list = await computeDueList(db, s.id, { roles: null, personId: null, states: ['overdue', 'due_soon'], kinds: null, sort: 'due', limit: 100_000 })
+    const byUser = new Map<string, { email: string, name: string, roles: Role[] }>()
+    for (const l of leads) {
+      const u = byUser.get(l.id) ?? { email: l.email, name: l.name, roles: [] }
+      u.roles.push(l.role)
+      byUser.set(l.id, u)
+    }
+    const messages: OutgoingMail[] = []
+    for (const u of byUser.values()) {
+      const mine = list.items.filter(o => u.roles.includes(o.responsibleRole))
+      if (mine.length === 0) continue
+      messages.push({ siteId: s.id, to: u.email, kind: 'digest', subject: `[Bayward] ${list.site.name}: ${digestHeadline(mine)}`, body: digestBody(u.name, list.site.name, list.today, mine) })
+    }
+    await db.transaction(tx => queueMail(tx, messages))
+    queued += messages.length
+  }
+  if (queued) deliverMailSoon()
+  return { queued }
+}
+
+function digestHeadline(items: Obligation[]) {
+  const overdue = items.filter(o => o.state === 'overdue').length
+  const soon = items.length - overdue
+  return `${overdue} overdue, ${soon} due soon`
+}
+
+function digestBody(name: string, siteName: string, today: string, items: Obligation[]) {
+  const line = (o: Obligation) => `  • ${o.dueOn ?? 'now'}  ${o.what} — ${o.subject.label}${o.detail ? ` (${o.detail})` : ''}\n    ${appLink(o.action.to)}`
+  const overdue = items.filter(o => o.state === 'overdue')
+  const soon = items.filter(o => o.state === 'due_soon')
+  return [
+    `Hello ${name.split(' ')[0]},`,
+    '',
+    `Your due list at ${siteName} on ${today}:`,
+    '',
+    overdue.length ? `OVERDUE (${overdue.length})\n${overdue.slice(0, 60).map(line).join('\n')}${overdue.length > 60 ? `\n  … and ${overdue.length - 60} more` : ''}` : 'Nothing overdue.',
+    '',
+    soon.length ? `DUE SOON (${soon.length})\n${soon.slice(0, 60).map(line).join('\n')}${soon.length > 60 ? `\n  … and ${soon.length - 60} more` : ''}` : 'Nothing due soon.',
+    '',
+    `The whole list: ${appLink('/due')}`,
+    '— Bayward',
+  ].join('\n')
+}
