@@ -1,13 +1,17 @@
 #!/usr/bin/env bash
 # Project-owned PostgreSQL cluster: .data/pg, listening on 127.0.0.1 only, on a non-default port.
 # Usage: scripts/db.sh start|stop|status|psql [db]|reset-db <name>
+# BAYWARD_PG_DATA (default .data/pg) and BAYWARD_PG_PORT select another, private cluster; its socket
+# folder and log file sit beside its data folder.
 set -euo pipefail
 cd "$(dirname "$0")/.."
 ROOT=$(pwd)
 PGPORT=${BAYWARD_PG_PORT:-54329}
-DATA="$ROOT/.data/pg"
-SOCK="$ROOT/.data/pg-socket"
-LOG="$ROOT/.data/pg.log"
+DATA=${BAYWARD_PG_DATA:-.data/pg}
+case "$DATA" in /*) ;; *) DATA="$ROOT/$DATA" ;; esac
+DATA=${DATA%/}
+SOCK="$DATA-socket"
+LOG="$DATA.log"
 DATABASES=${BAYWARD_DATABASES:-"bayward bayward_test bayward_test_seed"}
 
 find_bin() {

@@ -8,11 +8,11 @@ import { CHROMIUM_ARGS } from '../tests/support/chromium'
 
 const PASSWORD = 'bayward-demo'
 const shots: { who: string, email: string, paths: string[] }[] = [
-  { who: 'operator', email: 'operator@millbrook.example', paths: ['/', '/scan', '/t/B-00003', '/trucks'] },
-  { who: 'technician', email: 'technician@millbrook.example', paths: ['/', '/batteries', '/t/B-00003'] },
-  { who: 'facilities', email: 'facilities@millbrook.example', paths: ['/', '/batteries', '/cylinders', '/trucks/new', '/labels'] },
-  { who: 'safety', email: 'safety@millbrook.example', paths: ['/', '/areas'] },
-  { who: 'admin', email: 'admin@quillmere.example', paths: ['/people', '/site'] },
+  { who: 'operator', email: 'operator@millbrook.example', paths: ['/', '/scan', '/t/B-00003', '/swap', '/bay', '/exchange'] },
+  { who: 'technician', email: 'technician@millbrook.example', paths: ['/', '/bay', '/charge', '/check', '/refill', '/cage', '/logs', '/t/B-00003'] },
+  { who: 'facilities', email: 'facilities@millbrook.example', paths: ['/', '/due', '/emissions', '/batteries', '/cylinders', '/trucks/new', '/labels'] },
+  { who: 'safety', email: 'safety@millbrook.example', paths: ['/', '/logs', '/incidents', '/ventilation', '/co', '/areas'] },
+  { who: 'admin', email: 'admin@quillmere.example', paths: ['/', '/people', '/site'] },
 ]
 const viewports = { phone: { width: 390, height: 844 }, desktop: { width: 1366, height: 900 } }
 

@@ -20,6 +20,7 @@ function databaseUnavailable(error: unknown): boolean {
 // quick 503 with a plain message instead of a 500; anything else falls through to Nuxt.
 export default function bayErrorHandler(error: unknown, event: H3Event) {
   if (!databaseUnavailable(error)) return
+  discardDbPool()
   const body = { statusCode: 503, statusMessage: 'Service Unavailable', message: 'Bayward cannot reach its database right now. Nothing from this request was saved; try again in a moment.' }
   setResponseStatus(event, 503, 'Service Unavailable')
   setResponseHeader(event, 'retry-after', 5)

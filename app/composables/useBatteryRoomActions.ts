@@ -70,7 +70,7 @@ export function useBatteryRoomActions() {
   async function settle<T>(outcome: FloorOutcome<T>, saved: (data: T) => void) {
     // a kept record is shown by the form itself and by the outbox banner
     if (outcome.state === 'kept') return outcome
-    await refreshNuxtData(BOARD_KEYS)
+    await Promise.all([refreshNuxtData(BOARD_KEYS), refreshDue()])
     saved(outcome.data)
     return outcome
   }

@@ -48,7 +48,7 @@ export function useFuelActions() {
     if (outcome.state === 'kept') {
       return { id: null, netAddedLb: null, gallonsAt60F: null, keptKey: outcome.key }
     }
-    await refreshNuxtData(cylinderKeys(cylinderId))
+    await Promise.all([refreshNuxtData(cylinderKeys(cylinderId)), refreshDue()])
     toast.show('Refill recorded: the cylinder is full.')
     return { ...outcome.data.item, keptKey: null }
   }
@@ -72,7 +72,7 @@ export function useFuelActions() {
 
   async function recordRequalification(cylinderId: string, body: Record<string, unknown>) {
     const result = await $fetch<{ requalification: { dueOn: string } }>(`/api/cylinders/${cylinderId}/requalifications`, { method: 'POST', body })
-    await refreshNuxtData([...cylinderKeys(cylinderId), `requalifications-${cylinderId}`])
+    await Promise.all([refreshNuxtData([...cylinderKeys(cylinderId), `requalifications-${cylinderId}`]), refreshDue()])
     toast.show(`Requalification recorded. Next due ${result.requalification.dueOn}.`)
     return result
   }
@@ -86,14 +86,14 @@ export function useFuelActions() {
 
   async function recordEmissionsTest(truckId: string, body: Record<string, unknown>) {
     const result = await $fetch<{ item: { passed: boolean, nextDueOn: string }, verdict: { reasons: string[] } }>(`/api/trucks/${truckId}/emissions-tests`, { method: 'POST', body })
-    await refreshNuxtData(['fuel-emissions', `emissions-tests-${truckId}`, `truck-${truckId}`, `history-truck-${truckId}`])
+    await Promise.all([refreshNuxtData(['fuel-emissions', `emissions-tests-${truckId}`, `truck-${truckId}`, `history-truck-${truckId}`]), refreshDue()])
     toast.show(result.item.passed ? `Passed. Next test due ${result.item.nextDueOn}.` : `Failed. Retest due ${result.item.nextDueOn}.`, result.item.passed ? 'safe' : 'danger')
     return result
   }
 
   async function recordCoReadings(body: Record<string, unknown>) {
     const result = await $fetch<{ alert: boolean, assessment: { twaPpm: number } }>('/api/fuel/co-readings', { method: 'POST', body: { ...body, siteId: session.siteId } })
-    await refreshNuxtData('fuel-co')
+    await Promise.all([refreshNuxtData('fuel-co'), refreshDue()])
     toast.show(result.alert ? 'Saved. A reading is above the 200 ppm ceiling: clear the area and ventilate.' : 'CO readings saved.', result.alert ? 'danger' : 'safe')
     return result
   }

@@ -18,5 +18,8 @@ export const SITE_SETTING_VIEWS: { key: keyof SiteSettings, label: string, sourc
   { key: 'requalYearsWaterJacket', label: 'Requalification years — water jacket', source: '49 CFR 180.209' },
   { key: 'requalYearsProofPressure', label: 'Requalification years — proof pressure', source: '49 CFR 180.209 (from memory)' },
   { key: 'requalYearsExternalVisual', label: 'Requalification years — external visual', source: '49 CFR 180.209' },
+  { key: 'chargerInspectionEveryDays', label: 'Charger inspection every N days', source: 'common practice: monthly; follow the charger maker' },
+  { key: 'fullCellCheckEveryDays', label: 'Every-cell specific-gravity reading every N days', source: 'common practice: monthly' },
+  { key: 'digestHour', label: 'Daily digest e-mail at (site hour, 0–23)', source: 'site choice' },
   { key: 'dueSoonDays', label: '"Due soon" starts N days ahead', source: 'site choice' },
 ]

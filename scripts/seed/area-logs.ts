@@ -1,35 +1,12 @@
 import { addCalendarInterval } from '../../shared/utils/due-dates'
+import { DEFAULT_CHECKLIST_ITEMS } from '../../shared/utils/area-checklists'
 import { addMinutes } from './clock'
 import type { SeedContext, SiteContext } from './context'
 import type { AreaRow } from './rows'
 
-interface ChecklistItem {
-  key: string
-  label: string
-  hint?: string
-}
-
-export const CHARGING_AREA_ITEMS: ChecklistItem[] = [
-  { key: 'eyewash_flushed_reachable', label: 'Eyewash flushed and reachable', hint: 'Activated weekly, reachable within 10 seconds (ANSI/ISEA Z358.1-2014).' },
-  { key: 'spill_kit_neutralizer_stocked', label: 'Spill kit and neutralizer stocked', hint: 'Flushing and neutralizing spilled electrolyte (29 CFR 1910.178(g)(2)).' },
-  { key: 'ppe_stocked', label: 'PPE stocked: goggles, face shield, acid-resistant gloves and apron', hint: '29 CFR 1910.133' },
-  { key: 'ventilation_running', label: 'Ventilation running', hint: '29 CFR 1910.178(g)(2)' },
-  { key: 'no_smoking_signs_posted', label: 'No-smoking signs up', hint: '29 CFR 1910.178(g)(10)' },
-  { key: 'extinguisher_present_charged', label: 'Extinguisher present and charged', hint: 'Monthly visual check (29 CFR 1910.157(e)(2)).' },
-  { key: 'chargers_cables_undamaged', label: 'Chargers and cables undamaged', hint: 'Chargers protected from truck damage (29 CFR 1910.178(g)(2)).' },
-  { key: 'no_combustibles_near_chargers', label: 'No combustibles near chargers' },
-  { key: 'battery_handling_equipment_ok', label: 'Battery handling equipment in order', hint: 'Hoist, conveyor or equivalent (29 CFR 1910.178(g)(4)).' },
-  { key: 'floor_clean_dry', label: 'Floor clean and dry' },
-]
-
-export const FUEL_STATION_ITEMS: ChecklistItem[] = [
-  { key: 'cage_locked', label: 'Cage locked' },
-  { key: 'cylinders_upright_relief_up', label: 'Cylinders upright with relief valve up', hint: 'Relief valve in the vapour space (NFPA 58).' },
-  { key: 'no_leaks_or_odour', label: 'No leaks or gas odour' },
-  { key: 'signage_posted', label: 'Signage posted: propane, no smoking' },
-  { key: 'extinguisher_present_charged', label: 'Extinguisher present and charged', hint: 'Monthly visual check (29 CFR 1910.157(e)(2)).' },
-  { key: 'no_ignition_sources', label: 'No ignition sources near the cage' },
-]
+// The demo logs use the app's own default checklist items.
+export const CHARGING_AREA_ITEMS = DEFAULT_CHECKLIST_ITEMS.charging_area
+export const FUEL_STATION_ITEMS = DEFAULT_CHECKLIST_ITEMS.fuel_station
 
 const LOG_DAYS = 30
 

@@ -32,3 +32,12 @@ export async function closeDb() {
     instance = undefined
   }
 }
+
+// After a connection failure the whole pool is replaced: postgres.js 3.4.9 can leave a connection whose
+// socket closed with a write pending unable to send again, so its queries would wait forever
+// (porsager/postgres#1208). Queries still on the old pool fail with CONNECTION_DESTROYED or _ENDED (a 503).
+export function discardDbPool() {
+  const old = instance
+  instance = undefined
+  old?.client.end({ timeout: 0 }).catch(() => {})
+}

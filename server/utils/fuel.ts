@@ -214,6 +214,12 @@ export async function recordRefill(actor: Actor, cylinderId: string, input: Refi
       actor, siteId: cylinder.siteId, action: refused ? 'refill_refused' : 'refill', entity: 'cylinder_refill', entityId: refill!.id,
       after: refill, note: refused ? reasons.join(' ') : undefined,
     })
+    // the safety leads hear of a refused cylinder at once (queued with the record, sent after the answer)
+    if (refused) {
+      const [tag] = await tx.select({ code: tables.tags.code }).from(tables.tags)
+        .where(and(eq(tables.tags.assetKind, 'cylinder'), eq(tables.tags.assetId, cylinderId), isNull(tables.tags.retiredAt)))
+      await notifyRefusedCylinder(tx, { siteId: cylinder.siteId, cylinderId, code: tag?.code ?? cylinder.serial, reasons, by: actor.user.name })
+    }
     return {
       refill: refill!,
       cylinder: after,

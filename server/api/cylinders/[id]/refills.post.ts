@@ -23,6 +23,7 @@ export default defineEventHandler(async (event) => {
     else throw error
   }
   if (outcome.status === 409 || outcome.status === 422) {
+    deliverMailSoon()
     throw createError({
       statusCode: outcome.status,
       message: outcome.reasons[0] ?? 'Refill refused.',

@@ -25,12 +25,17 @@ export default defineEventHandler(async (event) => {
     hcPpm: body.hcPpm, co2Percent: body.co2Pct, o2Percent: body.o2Pct,
   }, policy)
   const nextDueOn = nextEmissionsDue(body.testedOn, verdict.pass, policy)
-  return db.transaction(async (tx) => {
+  const result = await db.transaction(async (tx) => {
     const [item] = await tx.insert(tables.emissionsTests).values({
       ...body, siteId: truck.siteId, userId: actor.user.id, truckId: truck.id, passed: verdict.pass, reasons: verdict.reasons, nextDueOn,
     }).returning()
     await writeAudit(tx, { actor, siteId: truck.siteId, action: verdict.pass ? 'emissions_passed' : 'emissions_failed', entity: 'emissions_test', entityId: item!.id, after: item })
+    if (!verdict.pass) {
+      await notifyFailedEmissionsTest(tx, { siteId: truck.siteId, truckId: truck.id, fleetNumber: truck.fleetNumber, testedOn: body.testedOn, reasons: verdict.reasons, retestBy: nextDueOn })
+    }
     setResponseStatus(event, 201)
     return { item, verdict, policy, source: EMISSIONS_POLICY_SOURCE }
   })
+  if (!verdict.pass) deliverMailSoon()
+  return result
 })
