@@ -107,11 +107,17 @@ const local = (tz: string, column: SQL) => sql`((${column}) AT TIME ZONE ${tz}):
 const liveTag = (kind: string, idColumn: SQL) =>
   sql`(SELECT code FROM tags WHERE tags.asset_kind = ${kind} AND tags.asset_id = ${idColumn} AND tags.retired_at IS NULL)`
 
-// The latest passing, uncorrected entry of one checklist item in an area's logs.
-const lastPassAt = (areaColumn: SQL, itemKey: string) => sql`(
-  SELECT max(e.at) FROM area_logs l JOIN area_log_entries e ON e.log_id = l.id
-  WHERE l.area_id = ${areaColumn} AND e.item_key = ${itemKey} AND e.result = 'pass'
-    AND NOT EXISTS (SELECT 1 FROM area_log_entries c2 WHERE c2.corrects_id = e.id))`
+// The latest passing, uncorrected entry of one checklist item, per area of the site: each area's logs
+// are walked newest first (index on area_id, period_start) and the walk stops at the first pass.
+const lastPassByArea = (siteId: string, itemKey: string) => sql`(
+  SELECT a2.id AS area_id, lp.at FROM areas a2
+  LEFT JOIN LATERAL (
+    SELECT e.at FROM area_logs l
+    JOIN area_log_entries e ON e.log_id = l.id AND e.item_key = ${itemKey} AND e.result = 'pass'
+    WHERE l.area_id = a2.id AND NOT EXISTS (SELECT 1 FROM area_log_entries c2 WHERE c2.corrects_id = e.id)
+    ORDER BY l.period_start DESC, e.at DESC LIMIT 1
+  ) lp ON true
+  WHERE a2.site_id = ${siteId})`
 
 // One statement per obligation kind: each returns every subject at the site with its due date.
 function kindQuery(kind: DueKind, { site, schedule: s, personId }: KindContext): SQL | null {
@@ -157,7 +163,7 @@ function kindQuery(kind: DueKind, { site, schedule: s, personId }: KindContext):
           ${plusInterval(sql`COALESCE(${local(tz, sql`w.at`)}, ${local(tz, sql`ch.created_at`)})`, s)} AS due_on,
           ${local(tz, sql`w.at`)} AS last_done_on, NULL::int AS remaining, NULL::text AS detail
         FROM chargers ch JOIN areas a ON a.id = ch.area_id
-        LEFT JOIN LATERAL (SELECT ${lastPassAt(sql`ch.area_id`, CHARGER_ITEM_KEY)} AS at) w ON true
+        LEFT JOIN ${lastPassByArea(siteId, CHARGER_ITEM_KEY)} w ON w.area_id = ch.area_id
         WHERE ch.site_id = ${siteId} AND NOT ch.out_of_service`
     case 'eyewash_activation':
     case 'extinguisher_visual': {
@@ -169,7 +175,7 @@ function kindQuery(kind: DueKind, { site, schedule: s, personId }: KindContext):
           ${plusInterval(sql`COALESCE(${local(tz, sql`w.at`)}, ${local(tz, sql`a.created_at`)})`, s)} AS due_on,
           ${local(tz, sql`w.at`)} AS last_done_on, NULL::int AS remaining, NULL::text AS detail
         FROM areas a
-        LEFT JOIN LATERAL (SELECT ${lastPassAt(sql`a.id`, item)} AS at) w ON true
+        LEFT JOIN ${lastPassByArea(siteId, item)} w ON w.area_id = a.id
         WHERE a.site_id = ${siteId} AND NOT a.archived ${kindFilter}`
     }
     case 'area_checklist':
@@ -180,9 +186,11 @@ function kindQuery(kind: DueKind, { site, schedule: s, personId }: KindContext):
           ld.d AS last_done_on, NULL::int AS remaining, NULL::text AS detail
         FROM areas a
         LEFT JOIN LATERAL (
-          SELECT max(l.period_start) AS d FROM area_logs l JOIN checklist_templates t ON t.id = l.template_id
+          -- newest first, stopping at the first complete daily log
+          SELECT l.period_start AS d FROM area_logs l JOIN checklist_templates t ON t.id = l.template_id
           WHERE l.area_id = a.id AND l.cadence = 'daily'
             AND (SELECT count(DISTINCT e.item_key) FROM area_log_entries e WHERE e.log_id = l.id) >= jsonb_array_length(t.items)
+          ORDER BY l.period_start DESC LIMIT 1
         ) ld ON true
         WHERE a.site_id = ${siteId} AND NOT a.archived`
     case 'log_review':

@@ -61,7 +61,7 @@ export const areaLogs = pgTable('area_logs', {
   signedBy: uuid().references(() => users.id),
   signedAt: timestamp({ withTimezone: true }),
   ...timestamps,
-}, t => [uniqueIndex().on(t.areaId, t.templateId, t.periodStart), index().on(t.siteId, t.periodStart), index().on(t.templateId), index().on(t.signedBy)])
+}, t => [uniqueIndex().on(t.areaId, t.templateId, t.periodStart), index().on(t.siteId, t.periodStart), index().on(t.areaId, t.periodStart), index().on(t.templateId), index().on(t.signedBy)])
 
 export const areaLogEntries = pgTable('area_log_entries', {
   ...eventBase(),

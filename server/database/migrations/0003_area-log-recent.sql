@@ -1,0 +1,1 @@
+CREATE INDEX "area_logs_area_id_period_start_index" ON "area_logs" USING btree ("area_id","period_start");
