@@ -14,19 +14,29 @@ export interface JobState<R = unknown> {
 }
 
 const storage = () => useStorage('jobs')
+// Jobs this server runs, for fast and consistent reads here; storage serves the other app servers.
+const live = new Map<string, JobState>()
+// One write at a time per job, so a reader never meets a file half rewritten by a later update.
+const writes = new Map<string, Promise<void>>()
+function persist(job: JobState): Promise<void> {
+  const next = (writes.get(job.id) ?? Promise.resolve()).then(() => storage().setItem(`${job.id}.json`, { ...job }))
+  writes.set(job.id, next.catch(() => {}))
+  return next
+}
 
 // Long work (hundreds of labels, a big CSV) runs as a job: the request returns its id at once, the
 // work yields to the event loop between chunks, and the client polls its progress.
 export async function startJob<R>(kind: string, owner: { siteId: string, userId: string }, total: number,
   work: (progress: (done: number) => Promise<void>, jobId: string) => Promise<R>): Promise<JobState<R>> {
   const job: JobState<R> = { id: randomUUID(), kind, ...owner, status: 'running', done: 0, total, message: null, result: null, createdAt: new Date().toISOString() }
-  await storage().setItem(`${job.id}.json`, job)
+  live.set(job.id, job)
+  await persist(job)
   let last = 0
   const progress = async (done: number) => {
     job.done = done
     if (done - last >= Math.max(1, Math.floor(total / 20)) || done === total) {
       last = done
-      await storage().setItem(`${job.id}.json`, job)
+      await persist(job)
     }
     await new Promise(resolve => setImmediate(resolve))
   }
@@ -40,13 +50,17 @@ export async function startJob<R>(kind: string, owner: { siteId: string, userId:
       job.status = 'failed'
       job.message = (error as { message?: string }).message ?? 'The job failed.'
     }
-    await storage().setItem(`${job.id}.json`, job)
+    await persist(job)
+    // finished jobs are read from storage from now on
+    setTimeout(() => live.delete(job.id), 60_000).unref?.()
   })()
   return job
 }
 
 export async function readJob<R = unknown>(id: string, userId: string): Promise<JobState<R>> {
-  const job = /^[0-9a-f-]{36}$/.test(id) ? await storage().getItem<JobState<R>>(`${id}.json`) : null
+  if (!/^[0-9a-f-]{36}$/.test(id)) throw createError({ statusCode: 404, message: 'No such job.' })
+  const stored = live.get(id) ?? await storage().getItem<JobState<R>>(`${id}.json`).catch(() => null)
+  const job = (stored && typeof stored === 'object' ? stored : null) as JobState<R> | null
   if (!job || job.userId !== userId) throw createError({ statusCode: 404, message: 'No such job.' })
   return job
 }
