@@ -128,9 +128,12 @@ function kindQuery(kind: DueKind, { site, schedule: s, personId }: KindContext):
     case 'battery_equalize': {
       const lastDone = kind === 'battery_watering'
         ? sql`SELECT max(e.at) AS at FROM electrolyte_checks e WHERE e.battery_id = b.id AND e.water_added_gal > 0`
-        : sql`SELECT max(c.ended_at) AS at FROM charge_sessions c WHERE c.battery_id = b.id AND c.equalize AND c.outcome = 'complete'`
+        : sql`SELECT c.ended_at AS at FROM charge_sessions c WHERE c.battery_id = b.id AND c.equalize AND c.outcome = 'complete' ORDER BY c.at DESC LIMIT 1`
       const every = s.every ?? 1
-      const since = sql`c.battery_id = b.id AND c.ended_at IS NOT NULL AND c.ended_at > COALESCE(w.at, '-infinity'::timestamptz)`
+      // a charge that ended after the last watering started at most a day or so before it: the bound on
+      // c.at lets the (battery_id, at) index skip the battery's older sessions
+      const since = sql`c.battery_id = b.id AND c.at > COALESCE(w.at, '-infinity'::timestamptz) - interval '3 days'
+        AND c.ended_at IS NOT NULL AND c.ended_at > COALESCE(w.at, '-infinity'::timestamptz)`
       return sql`
         SELECT 'battery' AS subject_kind, b.id AS subject_id, b.serial AS label, ${liveTag('battery', sql`b.id`)} AS tag_code,
           b.home_area_id AS area_id, NULL::text AS area_name, NULL::uuid AS person_id, NULL::date AS period_start,
