@@ -106,20 +106,20 @@ export async function loadBatteryFacts(db: SqlRunner, filter: BatteryFactsFilter
       SELECT c.ended_at, c.outcome, c.end_temp_f, c.equalize
       FROM charge_sessions c
       WHERE c.battery_id = b.id AND c.ended_at IS NOT NULL
-      ORDER BY c.ended_at DESC LIMIT 1
+      ORDER BY c.at DESC LIMIT 1
     ) lc ON true
     LEFT JOIN LATERAL (
-      SELECT max(s.at) FILTER (WHERE s.battery_out_id = b.id) AS removed_at,
-             max(s.at) FILTER (WHERE s.battery_in_id = b.id) AS installed_at
-      FROM battery_swaps s
-      WHERE s.battery_out_id = b.id OR s.battery_in_id = b.id
+      SELECT
+        (SELECT s.at FROM battery_swaps s WHERE s.battery_out_id = b.id ORDER BY s.at DESC LIMIT 1) AS removed_at,
+        (SELECT s.at FROM battery_swaps s WHERE s.battery_in_id = b.id ORDER BY s.at DESC LIMIT 1) AS installed_at
     ) sw ON true
     LEFT JOIN LATERAL (
       SELECT max(e.at) AS watered_at FROM electrolyte_checks e WHERE e.battery_id = b.id AND e.water_added_gal > 0
     ) wt ON true
     LEFT JOIN LATERAL (
-      SELECT max(c.ended_at) AS equalized_at FROM charge_sessions c
+      SELECT c.ended_at AS equalized_at FROM charge_sessions c
       WHERE c.battery_id = b.id AND c.equalize AND c.outcome = 'complete'
+      ORDER BY c.at DESC LIMIT 1
     ) eq ON true
     LEFT JOIN LATERAL (
       SELECT
@@ -128,6 +128,9 @@ export async function loadBatteryFacts(db: SqlRunner, filter: BatteryFactsFilter
       FROM charge_sessions c
       WHERE c.battery_id = b.id AND c.ended_at IS NOT NULL
         AND c.ended_at > LEAST(COALESCE(wt.watered_at, '-infinity'::timestamptz), COALESCE(eq.equalized_at, '-infinity'::timestamptz))
+        -- a session ending after that moment started at most a day or so before it: lets the (battery_id, at)
+        -- index skip the battery's older sessions
+        AND c.at > LEAST(COALESCE(wt.watered_at, '-infinity'::timestamptz), COALESCE(eq.equalized_at, '-infinity'::timestamptz)) - interval '3 days'
     ) cnt ON true
     LEFT JOIN LATERAL (
       SELECT e.at, e.spread, e.low_cell_count FROM electrolyte_checks e
