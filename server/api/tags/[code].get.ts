@@ -2,11 +2,12 @@ import { z } from 'zod'
 
 const ParamsSchema = z.object({ code: z.string().min(1).max(200) })
 
-// What a scanned tag opens: the asset, its state in words, what is due, its last events, the user's roles.
+// What a scanned tag opens: the asset, its state in words, what is due, the user's roles. The last events
+// come from the history route, so the state and actions answer first.
 export default defineEventHandler(async (event) => {
   const { code } = validateParams(event, ParamsSchema)
   const { actor, tag, kind, row, liveCode } = await resolveTagForActor(event, code)
-  const [status, recent] = await Promise.all([assetStatus(kind, row), assetTimeline(kind, row.id, 5)])
+  const status = await assetStatus(kind, row)
   return {
     code: tag.code,
     retired: tag.retiredAt !== null,
@@ -15,7 +16,6 @@ export default defineEventHandler(async (event) => {
     kind,
     asset: { id: row.id, siteId: row.siteId, title: assetTitle(kind, row), identity: assetIdentity(kind, row), outOfService: !!row.outOfService, outOfServiceReason: row.outOfServiceReason ?? null },
     status,
-    recent,
     roles: rolesAt(actor, row.siteId),
   }
 })
