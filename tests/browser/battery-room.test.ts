@@ -4,7 +4,7 @@ import { asc, eq } from 'drizzle-orm'
 import type { Browser, Page } from 'playwright-core'
 import { builtServer } from '../support/http'
 import { area, battery, closeTestDb, site, tables, user, useTestDb } from '../support/db'
-import { DESKTOP, PHONE, launchChromium, newContext } from '../support/chromium'
+import { DESKTOP, PHONE, launchChromium, signInAt } from '../support/chromium'
 import { fittedTruck, openCharge, pastCharge, putInTruck, qualify, readyBattery, roomCharger, tagFor } from '../support/battery-room'
 
 await setup(builtServer)
@@ -30,18 +30,8 @@ afterAll(async () => {
   await closeTestDb()
 })
 
-async function signedIn(who: { email: string, password: string }, path: string, viewport = PHONE): Promise<Page> {
-  const context = await newContext(browser, url('/'), viewport)
-  const page = await context.newPage()
-  await page.goto(url(path))
-  await page.waitForURL(/\/sign-in/)
-  await page.getByLabel('E-mail').fill(who.email)
-  await page.getByLabel('Password').fill(who.password)
-  await page.getByRole('button', { name: 'Sign in' }).click()
-  await page.waitForURL(u => u.pathname === path)
-  await page.waitForLoadState('networkidle')
-  return page
-}
+const signedIn = async (who: { email: string, password: string }, path: string, viewport = PHONE): Promise<Page> =>
+  (await signInAt(browser, who, path, viewport)).page
 
 describe('battery room on the floor', () => {
   it('an operator at phone width changes a battery by typing three codes', async () => {

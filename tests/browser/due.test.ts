@@ -5,7 +5,7 @@ import { eq } from 'drizzle-orm'
 import type { Browser, Page } from 'playwright-core'
 import { builtServer } from '../support/http'
 import { area, battery, charger, closeTestDb, site, tables, truck, user, useTestDb } from '../support/db'
-import { DESKTOP, PHONE, launchChromium, newContext } from '../support/chromium'
+import { DESKTOP, PHONE, launchChromium, signInAt } from '../support/chromium'
 import { CHARGING_KEYS, daysFrom, endedCharges, todayIn } from '../support/due'
 
 process.env.BAYWARD_MAIL_TICK_SECONDS = '0'
@@ -60,18 +60,8 @@ afterAll(async () => {
   await closeTestDb()
 })
 
-async function signedIn(who: { email: string, password: string }, path: string, viewport = PHONE): Promise<Page> {
-  const context = await newContext(browser, url('/'), viewport)
-  const page = await context.newPage()
-  await page.goto(url(path))
-  await page.waitForURL(/\/sign-in/)
-  await page.getByLabel('E-mail').fill(who.email)
-  await page.getByLabel('Password').fill(who.password)
-  await page.getByRole('button', { name: 'Sign in' }).click()
-  await page.waitForURL(u => u.pathname === path.split('?')[0])
-  await page.waitForLoadState('networkidle')
-  return page
-}
+const signedIn = async (who: { email: string, password: string }, path: string, viewport = PHONE): Promise<Page> =>
+  (await signInAt(browser, who, path, viewport)).page
 
 const shot = (page: Page, name: string, viewport: typeof PHONE) =>
   page.screenshot({ path: `screenshots/due-${name}-${viewport === PHONE ? 'phone' : 'desktop'}.png`, fullPage: viewport === DESKTOP })

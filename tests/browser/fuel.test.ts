@@ -5,7 +5,7 @@ import type { Browser, Page } from 'playwright-core'
 import { eq } from 'drizzle-orm'
 import { builtServer } from '../support/http'
 import { closeTestDb, site, tables, truck, user, useTestDb } from '../support/db'
-import { DESKTOP, PHONE, launchChromium, newContext } from '../support/chromium'
+import { DESKTOP, PHONE, launchChromium, signInAt } from '../support/chromium'
 import { freshCylinder, fuelStation, isoDaysFromNow, lpTransferQualification, lpTruck } from '../support/fuel'
 import { PREFILL_INSPECTION_ITEMS } from '../../shared/utils/lp-gas'
 
@@ -57,17 +57,8 @@ afterAll(async () => {
   await closeTestDb()
 })
 
-async function signedIn(who: { email: string, password: string }, viewport: typeof PHONE, path: string): Promise<Page> {
-  const context = await newContext(browser, url('/'), viewport)
-  const page = await context.newPage()
-  await page.goto(url(path))
-  await page.waitForURL(/\/sign-in/)
-  await page.getByLabel('E-mail').fill(who.email)
-  await page.getByLabel('Password').fill(who.password)
-  await page.getByRole('button', { name: 'Sign in' }).click()
-  await page.waitForURL(u => u.pathname === path.split('?')[0])
-  return page
-}
+const signedIn = async (who: { email: string, password: string }, viewport: typeof PHONE, path: string): Promise<Page> =>
+  (await signInAt(browser, who, path, viewport)).page
 
 describe('fuel station in the browser', () => {
   it('a technician refills a cylinder at phone width', async () => {

@@ -4,7 +4,7 @@ import { eq } from 'drizzle-orm'
 import type { Browser, BrowserContext, Page, Route } from 'playwright-core'
 import { builtServer, signIn } from '../support/http'
 import { area, battery, closeTestDb, site, tables, user, useTestDb } from '../support/db'
-import { PHONE, launchChromium, newContext } from '../support/chromium'
+import { launchChromium, signInAt } from '../support/chromium'
 import { fittedTruck, pastCharge, putInTruck, qualify, readyBattery, roomCharger, tagFor } from '../support/battery-room'
 
 await setup(builtServer)
@@ -30,18 +30,8 @@ afterAll(async () => {
   await closeTestDb()
 })
 
-async function signedInContext(who: { email: string, password: string }, path: string): Promise<{ context: BrowserContext, page: Page }> {
-  const context = await newContext(browser, url('/'), PHONE)
-  const page = await context.newPage()
-  await page.goto(url(path))
-  await page.waitForURL(/\/sign-in/)
-  await page.getByLabel('E-mail').fill(who.email)
-  await page.getByLabel('Password').fill(who.password)
-  await page.getByRole('button', { name: 'Sign in' }).click()
-  await page.waitForURL(u => u.pathname === path)
-  await page.waitForLoadState('networkidle')
-  return { context, page }
-}
+const signedInContext = (who: { email: string, password: string }, path: string): Promise<{ context: BrowserContext, page: Page }> =>
+  signInAt(browser, who, path)
 
 const focusedLabel = (page: Page) => page.evaluate(() => document.activeElement?.closest('label')?.textContent ?? '')
 

@@ -1,4 +1,5 @@
-import { chromium, type Browser, type BrowserContext } from 'playwright-core'
+import { url } from '@nuxt/test-utils/e2e'
+import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core'
 
 // Debian's Chromium, headless, with the flags that keep it off the network.
 export const CHROMIUM_ARGS = [
@@ -19,4 +20,18 @@ export const DESKTOP = { width: 1366, height: 900 }
 
 export async function newContext(browser: Browser, baseURL: string, viewport = PHONE): Promise<BrowserContext> {
   return browser.newContext({ baseURL, viewport, deviceScaleFactor: 1, hasTouch: viewport === PHONE })
+}
+
+// A fresh context at `path` that goes through the sign-in page and lands back on `path`.
+export async function signInAt(browser: Browser, who: { email: string, password: string }, path: string, viewport = PHONE): Promise<{ context: BrowserContext, page: Page }> {
+  const context = await newContext(browser, url('/'), viewport)
+  const page = await context.newPage()
+  await page.goto(url(path))
+  await page.waitForURL(/\/sign-in/)
+  await page.getByLabel('E-mail').fill(who.email)
+  await page.getByLabel('Password').fill(who.password)
+  await page.getByRole('button', { name: 'Sign in' }).click()
+  await page.waitForURL(u => u.pathname === path.split('?')[0])
+  await page.waitForLoadState('networkidle')
+  return { context, page }
 }
