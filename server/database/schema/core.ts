@@ -1,4 +1,4 @@
-import { bigserial, boolean, date, index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid, doublePrecision } from 'drizzle-orm/pg-core'
+import { bigint, bigserial, boolean, primaryKey, smallint, date, index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid, doublePrecision } from 'drizzle-orm/pg-core'
 import { sql } from 'drizzle-orm'
 import type { SiteSettings } from '../../../shared/utils/site-settings'
 import { areaKindEnum, assetKindEnum, qualificationKindEnum, roleEnum, unitSystemEnum } from './enums'
@@ -108,3 +108,16 @@ export const tagCounters = pgTable('tag_counters', {
   prefix: text().primaryKey(),
   last: integer().notNull().default(0),
 })
+
+// Counters per site that every write to the site's records moves on (statement triggers in migration
+// 0004 keep them; nothing in the application writes them). A site's revision is the sum of its slots:
+// each database connection bumps its own slot, so concurrent writes at one site do not queue on one row.
+// Read models cached in a server process are keyed by the revision, so a change at the site is seen by
+// the next request, whichever process served the write.
+export const SITE_REVISION_SLOTS = 16
+export const siteRevisions = pgTable('site_revisions', {
+  siteId: uuid().notNull(),
+  slot: smallint().notNull(),
+  revision: bigint({ mode: 'number' }).notNull().default(0),
+  changedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+}, t => [primaryKey({ columns: [t.siteId, t.slot] })])
