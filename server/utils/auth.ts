@@ -1,36 +1,77 @@
 import type { H3Event } from 'h3'
+import { LRUCache } from 'lru-cache'
 import type { Role, SiteMembership } from '#shared/types/auth'
+import type { Database } from './db'
 
 export interface Actor {
   user: { id: string, email: string, name: string }
   memberships: SiteMembership[]
   siteIds: string[]
+  /** each member site's data revision (see read-cache.ts), read in the same statement */
+  revisions: Record<string, number>
+}
+
+// Opening a sealed session cookie costs more than the rest of a small request; the same cookie opens to
+// the same user, so the result is kept a minute. Nothing about rights is kept: memberships, roles and
+// whether the account is active are read fresh below on every request.
+const SESSION_COOKIE = 'bayward-session'
+const openedSessions = new LRUCache<string, string>({ max: 10_000, ttl: 60_000 })
+
+async function sessionUserId(event: H3Event): Promise<string> {
+  const sealed = getCookie(event, SESSION_COOKIE)
+  const known = sealed ? openedSessions.get(sealed) : undefined
+  if (known) return known
+  const session = await requireUserSession(event, { message: 'Sign in to continue.' })
+  if (sealed) openedSessions.set(sealed, session.user.id)
+  return session.user.id
+}
+
+/** After sign-out: the cookie is no longer taken as opened. */
+export function forgetOpenedSession(event: H3Event) {
+  const sealed = getCookie(event, SESSION_COOKIE)
+  if (sealed) openedSessions.delete(sealed)
+}
+
+// The one statement every request runs, built once per pool: drizzle's query building costs more than
+// PostgreSQL takes to answer it.
+function buildActorQuery(db: Database) {
+  return db
+    .select({
+      userId: tables.users.id, email: tables.users.email, name: tables.users.name, active: tables.users.active,
+      siteId: tables.memberships.siteId, siteName: tables.sites.name, role: tables.memberships.role,
+      revision: sql<number | null>`(SELECT sum(r.revision) FROM ${tables.siteRevisions} r WHERE r.site_id = ${tables.memberships.siteId})`.mapWith(Number),
+    })
+    .from(tables.users)
+    .leftJoin(tables.memberships, eq(tables.memberships.userId, tables.users.id))
+    .leftJoin(tables.sites, eq(tables.sites.id, tables.memberships.siteId))
+    .where(eq(tables.users.id, sql.placeholder('userId')))
+    .orderBy(asc(tables.memberships.createdAt))
+    .prepare('bayward_actor')
+}
+const actorQueries = new WeakMap<Database, ReturnType<typeof buildActorQuery>>()
+function actorQuery(db: Database) {
+  let query = actorQueries.get(db)
+  if (!query) actorQueries.set(db, query = buildActorQuery(db))
+  return query
 }
 
 // The signed-in user with their memberships, read fresh once per request. A deactivated user's
 // sealed cookie stops working here: the session is cleared and the request answers 401.
 export async function requireActor(event: H3Event): Promise<Actor> {
   if (event.context.actor) return event.context.actor as Actor
-  const session = await requireUserSession(event, { message: 'Sign in to continue.' })
-  const db = useDb()
-  const rows = await db
-    .select({
-      userId: tables.users.id, email: tables.users.email, name: tables.users.name, active: tables.users.active,
-      siteId: tables.memberships.siteId, siteName: tables.sites.name, role: tables.memberships.role,
-    })
-    .from(tables.users)
-    .leftJoin(tables.memberships, eq(tables.memberships.userId, tables.users.id))
-    .leftJoin(tables.sites, eq(tables.sites.id, tables.memberships.siteId))
-    .where(eq(tables.users.id, session.user.id))
-    .orderBy(asc(tables.memberships.createdAt))
+  const userId = await sessionUserId(event)
+  const rows = await actorQuery(useDb()).execute({ userId })
   const first = rows[0]
   if (!first || !first.active) {
+    forgetOpenedSession(event)
     await clearUserSession(event)
     throw createError({ statusCode: 401, message: 'Sign in to continue.' })
   }
   const bySite = new Map<string, SiteMembership>()
+  const revisions: Record<string, number> = {}
   for (const row of rows) {
     if (!row.siteId || !row.role) continue
+    revisions[row.siteId] = row.revision ?? 0
     const m = bySite.get(row.siteId) ?? { siteId: row.siteId, siteName: row.siteName ?? '', roles: [] }
     m.roles.push(row.role)
     bySite.set(row.siteId, m)
@@ -41,6 +82,7 @@ export async function requireActor(event: H3Event): Promise<Actor> {
     user: { id: first.userId, email: first.email, name: first.name },
     memberships,
     siteIds: memberships.map(m => m.siteId),
+    revisions,
   }
   event.context.actor = actor
   return actor

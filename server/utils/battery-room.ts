@@ -28,6 +28,11 @@ export async function batteryRoomSettings(db: DbOrTx, siteId: string): Promise<S
   return { ...settings, timeZone: row?.timeZone ?? 'UTC' }
 }
 
+/** The same, kept per site revision: settings only change by a write to the site, which moves the revision. */
+export function cachedBatteryRoomSettings(actor: Actor, siteId: string) {
+  return cachedForSite(actor, siteId, 'battery-room-settings', 60_000, () => batteryRoomSettings(useDb(), siteId))
+}
+
 function validSettingKeys(stored: unknown): Partial<SiteSettings> {
   if (!stored || typeof stored !== 'object') return {}
   const shape = siteSettingsSchema.shape as Record<string, z.ZodType>
@@ -106,23 +111,24 @@ export async function recordBatterySwap(event: H3Event) {
   const siteId = truckRow.siteId
   const actor = await requireSiteRole(event, siteId, EVERYONE)
   checkOverrideRole(actor, siteId, body.overrideReason)
-  const replay = await storedSwap(useDb(), body.idempotencyKey, actor)
-  if (replay) return { item: replay, replayed: true, warnings: [] as FitReason[] }
   const at = eventTime(body.at, 'at')
-  const settings = await batteryRoomSettings(useDb(), siteId)
+  const settings = await cachedBatteryRoomSettings(actor, siteId)
   const t = tables.batteries
   try {
     return await useDb().transaction(async (tx) => {
       const [truck] = await tx.select().from(tables.trucks)
         .where(and(eq(tables.trucks.id, body.truckId), eq(tables.trucks.siteId, siteId))).for('update')
       if (!truck) throw createError({ statusCode: 404, message: 'No such truck.' })
+      // both batteries and whichever battery the truck holds now, locked in id order
       const ids = [body.batteryInId, ...(body.batteryOutId ? [body.batteryOutId] : [])].sort()
-      const locked = await tx.select().from(t).where(and(inArray(t.id, ids), eq(t.siteId, siteId))).orderBy(asc(t.id)).for('update')
+      const locked = await tx.select().from(t)
+        .where(and(eq(t.siteId, siteId), or(inArray(t.id, ids), eq(t.currentTruckId, truck.id)))).orderBy(asc(t.id)).for('update')
       const batteryIn = locked.find(b => b.id === body.batteryInId)
       if (!batteryIn) throw createError({ statusCode: 404, message: 'No such battery at this site.', data: { fields: { batteryInId: 'Not a battery at this site.' } } })
       if (body.batteryOutId && !locked.some(b => b.id === body.batteryOutId)) {
         throw createError({ statusCode: 404, message: 'No such battery at this site.', data: { fields: { batteryOutId: 'Not a battery at this site.' } } })
       }
+      // a retry of a swap already stored (checked here, under the locks, so two copies in flight store one)
       const again = await storedSwap(tx, body.idempotencyKey, actor)
       if (again) return { item: again, replayed: true, warnings: [] as FitReason[] }
       if (truck.power !== 'electric') throw badField('truckId', `Truck ${truck.fleetNumber} is not electric; it takes no battery.`)
@@ -132,21 +138,25 @@ export async function recordBatterySwap(event: H3Event) {
 
       // Hard stops: nobody overrides a battery that is somewhere else or a truck holding another battery.
       const hard: FitReason[] = []
-      const [current] = await tx.select({ id: t.id, serial: t.serial }).from(t).where(eq(t.currentTruckId, truck.id))
+      const current = locked.find(b => b.currentTruckId === truck.id)
       if (body.batteryOutId && current?.id !== body.batteryOutId) {
         hard.push({ code: 'battery_out_not_in_truck', message: current ? `Truck ${truck.fleetNumber} holds battery ${current.serial}, not the one scanned as coming out.` : `Truck ${truck.fleetNumber} has no battery recorded in it; leave "battery out" empty.` })
       }
       if (!body.batteryOutId && current) {
         hard.push({ code: 'truck_has_battery', message: `Truck ${truck.fleetNumber} holds battery ${current.serial}; scan it as the battery coming out.` })
       }
-      const facts = await oneBatteryFacts(tx, siteId, batteryIn.id)
+      // sent together: postgres.js pipelines them on the transaction's connection
+      const [facts, qualified] = await Promise.all([
+        oneBatteryFacts(tx, siteId, batteryIn.id),
+        hasBatteryChangingQualification(tx, actor.user.id, at, settings.timeZone),
+      ])
       if (batteryIn.currentTruckId) {
         hard.push(batteryIn.currentTruckId === truck.id
           ? { code: 'already_in_this_truck', message: `Battery ${batteryIn.serial} is already in truck ${truck.fleetNumber}.` }
           : { code: 'in_another_truck', message: `Battery ${batteryIn.serial} is already in truck ${facts.truckFleetNumber ?? 'another truck'}; someone has just taken it. Pick another battery.` })
       }
       const warnings: FitReason[] = []
-      if (!(await hasBatteryChangingQualification(tx, actor.user.id, at, settings.timeZone))) {
+      if (!qualified) {
         const q = { code: 'qualification_missing', message: 'You hold no current battery-changing qualification; ask a lead to record it.' }
         if (settings.qualificationPolicy === 'block') hard.push(q)
         else warnings.push(q)
@@ -164,16 +174,20 @@ export async function recordBatterySwap(event: H3Event) {
       }
       const overridden = soft.length ? soft : []
 
-      if (body.batteryOutId) await tx.update(t).set({ currentTruckId: null }).where(eq(t.id, body.batteryOutId))
-      await tx.update(t).set({ currentTruckId: truck.id }).where(eq(t.id, batteryIn.id))
-      await tx.update(tables.trucks).set({ hourMeter: body.hourMeter }).where(eq(tables.trucks.id, truck.id))
       const recorded = [...overridden, ...warnings]
-      const [swap] = await tx.insert(tables.batterySwaps).values({
-        siteId, userId: actor.user.id, at, idempotencyKey: body.idempotencyKey, note: body.note,
-        truckId: truck.id, batteryOutId: body.batteryOutId, batteryInId: batteryIn.id, hourMeter: body.hourMeter,
-        overrideReason: overridden.length ? body.overrideReason : null,
-        overriddenChecks: recorded.length ? recorded : null,
-      }).returning()
+      // the moves and the record, pipelined in this order (the battery coming out leaves first, so the
+      // one-battery-per-truck index never sees two)
+      const [, , , [swap]] = await Promise.all([
+        body.batteryOutId ? tx.update(t).set({ currentTruckId: null }).where(eq(t.id, body.batteryOutId)) : null,
+        tx.update(t).set({ currentTruckId: truck.id }).where(eq(t.id, batteryIn.id)),
+        tx.update(tables.trucks).set({ hourMeter: body.hourMeter }).where(eq(tables.trucks.id, truck.id)),
+        tx.insert(tables.batterySwaps).values({
+          siteId, userId: actor.user.id, at, idempotencyKey: body.idempotencyKey, note: body.note,
+          truckId: truck.id, batteryOutId: body.batteryOutId, batteryInId: batteryIn.id, hourMeter: body.hourMeter,
+          overrideReason: overridden.length ? body.overrideReason : null,
+          overriddenChecks: recorded.length ? recorded : null,
+        }).returning(),
+      ])
       await writeAudit(tx, {
         actor, siteId, action: overridden.length ? 'swap_override' : 'swap', entity: 'battery_swap', entityId: swap!.id,
         after: swap, note: overridden.length ? body.overrideReason : warnings.map(w => w.message).join(' ') || undefined,
@@ -390,9 +404,17 @@ export type BatteryCard = ReturnType<typeof batteryCard>
 
 // The Bay board: every battery of an area (or the site) grouped by state, the electric trucks to
 // pick from, and for a chosen truck the batteries in the order to take them.
+// Wall screens and phones poll the board; one computation per site revision serves them all for a few
+// seconds (the cooling countdown moves with the clock alone, so the time limit is short).
+const BOARD_CACHE_MS = 5_000
+
 export async function batteryBoard(event: H3Event) {
   const query = validateQuery(event, boardQuerySchema)
-  await requireSiteRole(event, query.siteId)
+  const actor = await requireSiteRole(event, query.siteId)
+  return cachedJsonForSite(event, actor, query.siteId, `board:${query.areaId ?? ''}:${query.truckId ?? ''}`, BOARD_CACHE_MS, () => computeBoard(query))
+}
+
+async function computeBoard(query: z.output<typeof boardQuerySchema>) {
   const db = useDb()
   const now = new Date()
   const [settings, areas, facts, trucks] = await Promise.all([

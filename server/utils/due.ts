@@ -8,6 +8,8 @@ import {
 import { CHARGER_ITEM_KEY, EXTINGUISHER_ITEM_KEY, EYEWASH_ITEM_KEY } from '#shared/utils/area-checklists'
 import { siteSettingsSchema, type SiteSettings } from '#shared/utils/site-settings'
 import type { DbOrTx } from './db'
+import type { H3Event } from 'h3'
+import type { Actor } from './auth'
 
 /** How far back a completed obligation still shows as Done. */
 export const DONE_WINDOW_DAYS = 7
@@ -385,6 +387,24 @@ export function dueScopeFor(actor: Actor, siteId: string, role: DueQuery['role']
     return { roles: [role], personId: actor.user.id }
   }
   return { roles: held, personId: actor.user.id }
+}
+
+// A site's due list changes with its records (the site revision) and with the date; one computation of
+// the whole list per filter serves every request for half a minute, and each request takes its page.
+const DUE_CACHE_MS = 30_000
+
+/** The due list the API answers: computed once per site revision and filter, then cut to `opts.limit`. */
+export async function cachedDueList(actor: Actor, siteId: string, opts: DueOptions): Promise<DueList> {
+  const { limit, ...filter } = opts
+  const key = `due:${JSON.stringify(filter)}`
+  const whole = await cachedForSite(actor, siteId, key, DUE_CACHE_MS,
+    () => computeDueList(useDb(), siteId, { ...filter, limit: Number.MAX_SAFE_INTEGER }), list => 1024 + list.items.length * 700)
+  return { ...whole, items: whole.items.slice(0, limit) }
+}
+
+/** The due list as the API sends it: the page serialised once per site revision, filter and length. */
+export function cachedDueListJson(event: H3Event, actor: Actor, siteId: string, opts: DueOptions): Promise<Buffer> {
+  return cachedJsonForSite(event, actor, siteId, `due:${JSON.stringify(opts)}`, DUE_CACHE_MS, () => cachedDueList(actor, siteId, opts))
 }
 
 export function dueOptionsFrom(query: DueQuery, scope: { roles: Role[] | null, personId: string }): DueOptions {

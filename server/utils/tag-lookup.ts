@@ -1,4 +1,6 @@
 import type { H3Event } from 'h3'
+import { LRUCache } from 'lru-cache'
+import type { Actor } from './auth'
 
 const NOT_FOUND = 'No tag with that code at your sites. Check the code on the label and type it again.'
 
@@ -13,4 +15,26 @@ export async function resolveTagForActor(event: H3Event, raw: string) {
   if (!tag || !actor.siteIds.includes(tag.siteId)) throw createError({ statusCode: 404, message: NOT_FOUND })
   const { row, tagCode } = await findAssetForActor(event, tag.assetKind, tag.assetId)
   return { actor, tag, kind: tag.assetKind, row, liveCode: tagCode }
+}
+
+// Which site a code belongs to, learnt from earlier look-ups: a tag keeps its site for life. It only picks
+// the cache entry; the entry is used when the user is a member of that site and it answers for that site.
+const TAG_CACHE_MS = 5_000
+const codeSites = new LRUCache<string, string>({ max: 20_000 })
+
+/**
+ * A tag's view (asset and state, no one's roles), shared between the users of its site for a few seconds
+ * and recomputed after any write there. `resolve` does the full look-up and its checks.
+ */
+export async function tagViewForActor<T extends { asset: { siteId: string } }>(event: H3Event, raw: string, resolve: () => Promise<T>): Promise<{ actor: Actor, view: T }> {
+  const actor = await requireActor(event)
+  const code = normalizeTagCode(raw)
+  const siteId = code ? codeSites.get(code) : undefined
+  if (code && siteId && actor.siteIds.includes(siteId)) {
+    const view = await cachedForSite(actor, siteId, `tag:${code}`, TAG_CACHE_MS, resolve)
+    if (view.asset.siteId === siteId) return { actor, view }
+  }
+  const view = await resolve()
+  if (code) codeSites.set(code, view.asset.siteId)
+  return { actor, view }
 }

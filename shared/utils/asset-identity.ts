@@ -6,7 +6,9 @@ export const ASSET_KIND_LABELS: Record<AssetKind, string> = {
 }
 
 type Row = Record<string, unknown>
-const n = (v: unknown) => (typeof v === 'number' ? v.toLocaleString('en-US', { maximumFractionDigits: 1 }) : '?')
+// one formatter for every call: toLocaleString with options builds a new one each time
+const oneDecimal = new Intl.NumberFormat('en-US', { maximumFractionDigits: 1 })
+const n = (v: unknown) => (typeof v === 'number' ? oneDecimal.format(v) : '?')
 
 /** The name people use for the asset: serial, fleet number or name. */
 export function assetTitle(kind: AssetKind, row: Row): string {

@@ -6,16 +6,18 @@ const ParamsSchema = z.object({ code: z.string().min(1).max(200) })
 // come from the history route, so the state and actions answer first.
 export default defineEventHandler(async (event) => {
   const { code } = validateParams(event, ParamsSchema)
-  const { actor, tag, kind, row, liveCode } = await resolveTagForActor(event, code)
-  const status = await assetStatus(kind, row)
-  return {
-    code: tag.code,
-    retired: tag.retiredAt !== null,
-    replacedBy: tag.retiredAt ? liveCode : null,
-    liveCode,
-    kind,
-    asset: { id: row.id, siteId: row.siteId, title: assetTitle(kind, row), identity: assetIdentity(kind, row), outOfService: !!row.outOfService, outOfServiceReason: row.outOfServiceReason ?? null },
-    status,
-    roles: rolesAt(actor, row.siteId),
-  }
+  const { actor, view } = await tagViewForActor(event, code, async () => {
+    const { tag, kind, row, liveCode } = await resolveTagForActor(event, code)
+    const status = await assetStatus(kind, row)
+    return {
+      code: tag.code,
+      retired: tag.retiredAt !== null,
+      replacedBy: tag.retiredAt ? liveCode : null,
+      liveCode,
+      kind,
+      asset: { id: row.id, siteId: row.siteId, title: assetTitle(kind, row), identity: assetIdentity(kind, row), outOfService: !!row.outOfService, outOfServiceReason: row.outOfServiceReason ?? null },
+      status,
+    }
+  })
+  return { ...view, roles: rolesAt(actor, view.asset.siteId) }
 })

@@ -1,0 +1,64 @@
+import { LRUCache } from 'lru-cache'
+import type { H3Event } from 'h3'
+import type { Actor } from './auth'
+
+// Read models (the Bay board, due lists, a tag's state) computed once per site revision and kept in
+// this server process for a few seconds. The revision comes with the actor's memberships (one
+// statement, read fresh every request) and moves on with every write at the site, by a trigger in
+// the same transaction, so the request after a write never sees the list from before it. The time
+// limit is for what changes with the clock alone (cooling minutes, "due soon" turning "overdue").
+// Callers add the actor's own view (roles, actions) after the cache: a cached value holds no one's rights.
+// BAYWARD_READ_CACHE=false turns it off (the benchmark measures both).
+
+const enabled = () => process.env.BAYWARD_READ_CACHE !== 'false'
+
+// Bounded by an estimate of bytes (BAYWARD_READ_CACHE_MB, 32 by default): an entry counts 1 kB while it
+// is being computed, then what `sizeOf` says of its value.
+const cache = new LRUCache<string, { value: Promise<unknown> }>({
+  maxSize: Number(process.env.BAYWARD_READ_CACHE_MB ?? 32) * 1024 * 1024,
+  sizeCalculation: () => 1024,
+  ttlAutopurge: false,
+})
+const DEFAULT_SIZE = (value: unknown) => (Buffer.isBuffer(value) ? value.length : 4096)
+
+export function siteRevision(actor: Actor, siteId: string): number | undefined {
+  return actor.revisions[siteId]
+}
+
+/**
+ * The value of `compute` for this site at its current revision, shared by every request that asks within
+ * `ttlMs`. Requests arriving while it is being computed wait for the same promise. A failure is not kept.
+ */
+export async function cachedForSite<T>(actor: Actor, siteId: string, key: string, ttlMs: number, compute: () => Promise<T>, sizeOf: (value: T) => number = DEFAULT_SIZE): Promise<T> {
+  const revision = siteRevision(actor, siteId)
+  if (!enabled() || revision === undefined) return compute()
+  const fullKey = `${siteId}@${revision}:${key}`
+  const hit = cache.get(fullKey)
+  if (hit) return hit.value as Promise<T>
+  const value = compute()
+  const entry = { value }
+  const started = Date.now()
+  cache.set(fullKey, entry, { ttl: ttlMs })
+  value.then((v) => {
+    const left = ttlMs - (Date.now() - started)
+    if (cache.get(fullKey) === entry && left > 0) cache.set(fullKey, entry, { ttl: left, size: Math.max(1, sizeOf(v)) })
+  }, () => {
+    if (cache.get(fullKey) === entry) cache.delete(fullKey)
+  })
+  return value
+}
+
+/**
+ * The same for a whole JSON answer: serialised and encoded once and sent as those bytes, so a large read
+ * model polled by many screens is not turned into a string and a buffer again for every request.
+ */
+export async function cachedJsonForSite(event: H3Event, actor: Actor, siteId: string, key: string, ttlMs: number, compute: () => Promise<unknown>): Promise<Buffer> {
+  const json = await cachedForSite(actor, siteId, `json:${key}`, ttlMs, async () => Buffer.from(JSON.stringify(await compute())))
+  setResponseHeader(event, 'content-type', 'application/json; charset=utf-8')
+  return json
+}
+
+/** Drops everything (tests, and after the database was replaced). */
+export function clearReadCache() {
+  cache.clear()
+}
