@@ -31,9 +31,11 @@ export interface DueFilter {
   state?: string
   kind?: string
   sort?: 'due' | 'kind' | 'subject' | 'role'
+  /** how many obligations to load (the server's page size when absent) */
+  limit?: number
 }
 
-const keyOf = (siteId: string, filter: DueFilter) => `${siteId}|${filter.role ?? ''}|${filter.state ?? ''}|${filter.kind ?? ''}|${filter.sort ?? ''}`
+const keyOf = (siteId: string, filter: DueFilter) => `${siteId}|${filter.role ?? ''}|${filter.state ?? ''}|${filter.kind ?? ''}|${filter.sort ?? ''}|${filter.limit ?? ''}`
 
 // The user's due lists, one per site and filter, refreshed after anything is recorded.
 export const useDueStore = defineStore('due', () => {

@@ -196,13 +196,16 @@ const csv = <T extends string>(values: readonly T[]) => z.string().optional().tr
   return parts as T[]
 })
 
+/** How many obligations the due list answers at first; the page asks for more as the user scrolls on. */
+export const DUE_PAGE_SIZE = 200
+
 export const dueQuerySchema = z.object({
   siteId: z.uuid({ error: 'Pick a site.' }),
   role: z.enum(['operator', 'technician', 'facilities_lead', 'safety_lead', 'admin', 'all']).optional(),
   state: csv(OBLIGATION_STATES),
   kind: csv(DUE_KINDS),
   sort: z.enum(DUE_SORTS).default('due'),
-  limit: z.coerce.number().int().min(1).max(20_000).default(2000),
+  limit: z.coerce.number().int().min(1).max(20_000).default(DUE_PAGE_SIZE),
 })
 export type DueQuery = z.output<typeof dueQuerySchema>
 
