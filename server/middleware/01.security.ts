@@ -11,30 +11,43 @@ const DEFAULT_LIMIT = 256 * 1024
 
 // Security headers on every response, a per-request script nonce for the content security policy,
 // cross-site refusal for state-changing routes, and early refusal of oversized bodies.
+const PAGE_POLICY = (nonce: string) => [
+  `default-src 'self'`,
+  `script-src 'self' 'nonce-${nonce}'`,
+  `style-src 'self' 'unsafe-inline'`,
+  `img-src 'self' data: blob:`,
+  `font-src 'self' data:`,
+  `connect-src 'self'`,
+  `media-src 'self' blob:`,
+  `worker-src 'self' blob:`,
+  `object-src 'none'`,
+  `base-uri 'self'`,
+  `form-action 'self'`,
+  `frame-ancestors 'none'`,
+].join('; ')
+// JSON and CSV answers run nothing and embed nothing; uploaded files keep the page policy, so a PDF
+// certificate still opens in the browser's viewer.
+const API_POLICY = `default-src 'none'; script-src 'none'; base-uri 'none'; form-action 'none'; frame-ancestors 'none'`
+const COMMON_HEADERS = {
+  'x-content-type-options': 'nosniff',
+  'x-frame-options': 'DENY',
+  'referrer-policy': 'same-origin',
+  'permissions-policy': 'camera=(self), microphone=(), geolocation=()',
+  'cross-origin-opener-policy': 'same-origin',
+}
+
 export default defineEventHandler((event) => {
-  const nonce = randomBytes(16).toString('base64')
-  event.context.cspNonce = nonce
+  const api = event.path.startsWith('/api/') && !event.path.startsWith('/api/uploads/')
+  let policy = API_POLICY
+  if (!api) {
+    const nonce = randomBytes(16).toString('base64')
+    event.context.cspNonce = nonce
+    policy = PAGE_POLICY(nonce)
+  }
   const secure = getRequestProtocol(event, { xForwardedProto: process.env.BAYWARD_TRUST_PROXY === '1' }) === 'https'
   setResponseHeaders(event, {
-    'content-security-policy': [
-      `default-src 'self'`,
-      `script-src 'self' 'nonce-${nonce}'`,
-      `style-src 'self' 'unsafe-inline'`,
-      `img-src 'self' data: blob:`,
-      `font-src 'self' data:`,
-      `connect-src 'self'`,
-      `media-src 'self' blob:`,
-      `worker-src 'self' blob:`,
-      `object-src 'none'`,
-      `base-uri 'self'`,
-      `form-action 'self'`,
-      `frame-ancestors 'none'`,
-    ].join('; '),
-    'x-content-type-options': 'nosniff',
-    'x-frame-options': 'DENY',
-    'referrer-policy': 'same-origin',
-    'permissions-policy': 'camera=(self), microphone=(), geolocation=()',
-    'cross-origin-opener-policy': 'same-origin',
+    'content-security-policy': policy,
+    ...COMMON_HEADERS,
     ...(secure ? { 'strict-transport-security': 'max-age=31536000; includeSubDomains' } : {}),
   })
 
