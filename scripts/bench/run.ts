@@ -37,6 +37,10 @@ const WARMUP_S = 2
 const SWAP_LIMIT = 1500
 const SWAP_WARMUP = 100
 
+// BAYWARD_BENCH_ONLY=tag,board runs only those routes (and the trivial one): tag, board, due, list, swap.
+const ONLY = process.env.BAYWARD_BENCH_ONLY?.split(',').map(s => s.trim()).filter(Boolean)
+const wanted = (key: string) => !ONLY || ONLY.includes(key)
+
 const TARGETS = {
   tagP95: 20, tagRatio: 0.4, swapP95: 50, dueP95: 100, boardP95: 100, memoryMb: 300, scanJsKb: 150,
 }
@@ -124,7 +128,9 @@ async function main() {
 
   const port = await freePort()
   const base = `http://127.0.0.1:${port}`
-  const server: ChildProcess = spawn(process.execPath, [`${outputDir}/server/index.mjs`], {
+  // BAYWARD_BENCH_NODE_ARGS="--cpu-prof --cpu-prof-dir=/tmp/prof" profiles the server during the run
+  const nodeArgs = process.env.BAYWARD_BENCH_NODE_ARGS?.split(' ').filter(Boolean) ?? []
+  const server: ChildProcess = spawn(process.execPath, [...nodeArgs, `${outputDir}/server/index.mjs`], {
     cwd: root,
     env: {
       ...process.env, NODE_ENV: 'production', HOST: '127.0.0.1', PORT: String(port), NITRO_HOST: '127.0.0.1', NITRO_PORT: String(port),
@@ -174,7 +180,8 @@ async function main() {
     }
 
     const figures: RouteFigures[] = []
-    const measureGet = async (name: string, connections: number, request: () => CannonOptions['requests']) => {
+    const measureGet = async (name: string, connections: number, request: () => CannonOptions['requests'], key = '') => {
+      if (key && !wanted(key)) return undefined
       await new Promise(r => setTimeout(r, 2000))
       await drive(name, base, { connections, duration: WARMUP_S, requests: request() })
       const f = await drive(name, base, { connections, duration: DURATION_S, requests: request() })
@@ -184,7 +191,7 @@ async function main() {
     }
 
     console.log(`Driving ${base} (${DURATION_S} s per route after ${WARMUP_S} s warm-up)…`)
-    const trivial = await measureGet('GET /api/health', 16, () => [get('/api/health', leadCookie)])
+    const trivial = (await measureGet('GET /api/health', 16, () => [get('/api/health', leadCookie)]))!
 
     // Tag look-up: the battery tags of site 1 in turn (B-00001 … B-00500).
     let tagTurn = 0
@@ -192,76 +199,79 @@ async function main() {
     const tag = await measureGet('GET /api/tags/<code>', 32, () => [{
       ...get(tagPaths[0]!, floorCookie),
       setupRequest: req => ({ ...req, path: tagPaths[tagTurn++ % tagPaths.length] }),
-    }])
+    }], 'tag')
 
     const board = await measureGet('GET /api/battery-room/board (200 batteries)', 16,
-      () => [get(`/api/battery-room/board?siteId=${site1}&areaId=${area1}`, leadCookie)])
+      () => [get(`/api/battery-room/board?siteId=${site1}&areaId=${area1}`, leadCookie)], 'board')
 
     // TODO(GET /api/due): measured once the route exists; until then the table says "not yet".
     const duePath = `/api/due?siteId=${site1}`
     let due: RouteFigures | undefined
-    if (await routeExists(duePath)) due = await measureGet('GET /api/due', 16, () => [get(duePath, leadCookie)])
+    if (await routeExists(duePath)) due = await measureGet('GET /api/due', 16, () => [get(duePath, leadCookie)], 'due')
     else figures.push({ route: 'GET /api/due', connections: 16, requests: 0, rps: 0, p50: 0, p95: 0, p99: 0, errors: 0, missing: true })
 
     await measureGet('GET /api/batteries (page 3 of 50, by Ah)', 16,
-      () => [get(`/api/batteries?siteId=${site1}&page=3&pageSize=50&sort=capacityAh`, leadCookie)])
+      () => [get(`/api/batteries?siteId=${site1}&page=3&pageSize=50&sort=capacityAh`, leadCookie)], 'list')
 
     // Swaps: every electric truck of the lead's sites takes a Ready battery of its site in turn; a truck
     // is never in two requests at once, and each Ready battery goes in once.
-    const swapStart = new Date()
-    const trucks = await sql<{ id: string, siteId: string, hourMeter: number, batteryId: string }[]>`
-      SELECT t.id, t.site_id AS "siteId", t.hour_meter AS "hourMeter", b.id AS "batteryId"
-      FROM trucks t JOIN batteries b ON b.current_truck_id = t.id
-      WHERE t.site_id IN (SELECT site_id FROM memberships m JOIN users u ON u.id = m.user_id WHERE u.email = ${BENCH.leadEmail})
-      ORDER BY t.fleet_number`
-    const ready = new Map<string, string[]>()
-    for (const siteNo of Array.from({ length: BENCH.leadSites }, (_, i) => i + 1)) {
-      const res = await fetch(`${base}/api/battery-room/board?siteId=${benchId(`site:${siteNo}`)}`, { headers: { cookie: leadCookie } })
-      const body = await res.json() as { batteries: { id: string, readiness: unknown[], state: string }[] }
-      ready.set(benchId(`site:${siteNo}`), body.batteries.filter(b => b.state === 'ready' && b.readiness.length === 0).map(b => b.id))
-    }
-    const readyTotal = [...ready.values()].reduce((n, l) => n + l.length, 0)
-    const idle = trucks.map(t => ({ ...t }))
-    type TruckState = typeof idle[number]
-    const swapRequest = () => [{
-      method: 'POST', path: '/api/battery-room/swaps',
-      headers: { 'cookie': leadCookie, 'content-type': 'application/json', 'accept': 'application/json' },
-      setupRequest: (req: CannonRequest, context: Record<string, unknown>) => {
-        for (let tries = 0; tries < idle.length; tries++) {
-          const truck = idle.shift()
-          if (!truck) break
-          const batteryIn = ready.get(truck.siteId)?.shift()
-          if (!batteryIn) continue
-          truck.hourMeter += 1
-          context.job = { truck, batteryIn }
-          return { ...req, body: JSON.stringify({ truckId: truck.id, batteryOutId: truck.batteryId, batteryInId: batteryIn, hourMeter: truck.hourMeter, idempotencyKey: randomUUID() }) }
-        }
-        throw new Error('the bench ran out of Ready batteries; lower SWAP_LIMIT or regenerate the data')
-      },
-      onResponse: (status: number, _body: string, context: Record<string, unknown>) => {
-        const job = context.job as { truck: TruckState, batteryIn: string }
-        if (status === 201 || status === 200) job.truck.batteryId = job.batteryIn
-        idle.push(job.truck)
-      },
-    }]
-    const swapAmount = Math.min(SWAP_LIMIT, readyTotal - SWAP_WARMUP - 16)
-    await drive('swap', base, { connections: 16, amount: SWAP_WARMUP, requests: swapRequest() })
-    const swap = await drive('POST /api/battery-room/swaps', base, { connections: 16, amount: swapAmount, requests: swapRequest() })
-    figures.push(swap)
-    console.log(`  swaps: ${swap.requests} (of ${readyTotal} Ready batteries), p95 ${swap.p95.toFixed(1)} ms, ${swap.errors} errors`)
-    const mem = memory.stop()
+    const runSwaps = async () => {
+      const swapStart = new Date()
+      const trucks = await sql<{ id: string, siteId: string, hourMeter: number, batteryId: string }[]>`
+        SELECT t.id, t.site_id AS "siteId", t.hour_meter AS "hourMeter", b.id AS "batteryId"
+        FROM trucks t JOIN batteries b ON b.current_truck_id = t.id
+        WHERE t.site_id IN (SELECT site_id FROM memberships m JOIN users u ON u.id = m.user_id WHERE u.email = ${BENCH.leadEmail})
+        ORDER BY t.fleet_number`
+      const ready = new Map<string, string[]>()
+      for (const siteNo of Array.from({ length: BENCH.leadSites }, (_, i) => i + 1)) {
+        const res = await fetch(`${base}/api/battery-room/board?siteId=${benchId(`site:${siteNo}`)}`, { headers: { cookie: leadCookie } })
+        const body = await res.json() as { batteries: { id: string, readiness: unknown[], state: string }[] }
+        ready.set(benchId(`site:${siteNo}`), body.batteries.filter(b => b.state === 'ready' && b.readiness.length === 0).map(b => b.id))
+      }
+      const readyTotal = [...ready.values()].reduce((n, l) => n + l.length, 0)
+      const idle = trucks.map(t => ({ ...t }))
+      type TruckState = typeof idle[number]
+      const swapRequest = () => [{
+        method: 'POST', path: '/api/battery-room/swaps',
+        headers: { 'cookie': leadCookie, 'content-type': 'application/json', 'accept': 'application/json' },
+        setupRequest: (req: CannonRequest, context: Record<string, unknown>) => {
+          for (let tries = 0; tries < idle.length; tries++) {
+            const truck = idle.shift()
+            if (!truck) break
+            const batteryIn = ready.get(truck.siteId)?.shift()
+            if (!batteryIn) continue
+            truck.hourMeter += 1
+            context.job = { truck, batteryIn }
+            return { ...req, body: JSON.stringify({ truckId: truck.id, batteryOutId: truck.batteryId, batteryInId: batteryIn, hourMeter: truck.hourMeter, idempotencyKey: randomUUID() }) }
+          }
+          throw new Error('the bench ran out of Ready batteries; lower SWAP_LIMIT or regenerate the data')
+        },
+        onResponse: (status: number, _body: string, context: Record<string, unknown>) => {
+          const job = context.job as { truck: TruckState, batteryIn: string }
+          if (status === 201 || status === 200) job.truck.batteryId = job.batteryIn
+          idle.push(job.truck)
+        },
+      }]
+      const swapAmount = Math.min(SWAP_LIMIT, readyTotal - SWAP_WARMUP - 16)
+      await drive('swap', base, { connections: 16, amount: SWAP_WARMUP, requests: swapRequest() })
+      const swap = await drive('POST /api/battery-room/swaps', base, { connections: 16, amount: swapAmount, requests: swapRequest() })
+      figures.push(swap)
+      console.log(`  swaps: ${swap.requests} (of ${readyTotal} Ready batteries), p95 ${swap.p95.toFixed(1)} ms, ${swap.errors} errors`)
 
-    // No battery in two trucks: by the projection, and by the swap log (each truck's latest swap).
-    const [check] = await sql<{ projection: number, log: number, twice: number, mismatch: number }[]>`
-      WITH latest AS (
-        SELECT DISTINCT ON (truck_id) truck_id, battery_in_id FROM battery_swaps ORDER BY truck_id, at DESC, recorded_at DESC
-      )
-      SELECT
-        (SELECT count(*) FROM (SELECT current_truck_id FROM batteries WHERE current_truck_id IS NOT NULL GROUP BY 1 HAVING count(*) > 1) x)::int AS projection,
-        (SELECT count(*) FROM (SELECT battery_in_id FROM latest GROUP BY 1 HAVING count(*) > 1) x)::int AS log,
-        (SELECT count(*) FROM (SELECT battery_in_id FROM battery_swaps WHERE recorded_at >= ${swapStart} GROUP BY 1 HAVING count(*) > 1) x)::int AS twice,
-        (SELECT count(*) FROM latest l LEFT JOIN batteries b ON b.current_truck_id = l.truck_id WHERE b.id IS DISTINCT FROM l.battery_in_id)::int AS mismatch`
-    const twoTrucks = check!.projection + check!.log + check!.twice + check!.mismatch
+      // No battery in two trucks: by the projection, and by the swap log (each truck's latest swap).
+      const [check] = await sql<{ projection: number, log: number, twice: number, mismatch: number }[]>`
+        WITH latest AS (
+          SELECT DISTINCT ON (truck_id) truck_id, battery_in_id FROM battery_swaps ORDER BY truck_id, at DESC, recorded_at DESC
+        )
+        SELECT
+          (SELECT count(*) FROM (SELECT current_truck_id FROM batteries WHERE current_truck_id IS NOT NULL GROUP BY 1 HAVING count(*) > 1) x)::int AS projection,
+          (SELECT count(*) FROM (SELECT battery_in_id FROM latest GROUP BY 1 HAVING count(*) > 1) x)::int AS log,
+          (SELECT count(*) FROM (SELECT battery_in_id FROM battery_swaps WHERE recorded_at >= ${swapStart} GROUP BY 1 HAVING count(*) > 1) x)::int AS twice,
+          (SELECT count(*) FROM latest l LEFT JOIN batteries b ON b.current_truck_id = l.truck_id WHERE b.id IS DISTINCT FROM l.battery_in_id)::int AS mismatch`
+      return { swap, twoTrucks: check!.projection + check!.log + check!.twice + check!.mismatch }
+    }
+    const { swap, twoTrucks } = wanted('swap') ? await runSwaps() : { swap: undefined, twoTrucks: undefined }
+    const mem = memory.stop()
 
     // The Scan page's first load: the scripts and module preloads its HTML names, gzipped at level 9.
     const html = await (await fetch(`${base}/scan`, { headers: { cookie: floorCookie } })).text()
@@ -303,7 +313,7 @@ async function main() {
         ? [f.route, String(f.connections), 'not yet', '—', '—', '—', '—', '—', target, result]
         : [f.route, String(f.connections), f.rps.toFixed(0), ms(f.p50), ms(f.p95), ms(f.p99), String(f.errors), (f.rps / trivial.rps).toFixed(2), target, result]
     })
-    rows.push(['battery in two trucks (SQL after the swaps)', '', '', '', '', '', String(twoTrucks), '', 'none', pass(twoTrucks === 0)])
+    if (twoTrucks !== undefined) rows.push(['battery in two trucks (SQL after the swaps)', '', '', '', '', '', String(twoTrucks), '', 'none', pass(twoTrucks === 0)])
     rows.push([`server peak memory (VmHWM; sampled RSS ${mem.peakRssMb.toFixed(0)} MB)`, '', '', '', '', '', '', '', `< ${TARGETS.memoryMb} MB`, `${mem.hwmMb.toFixed(0)} MB ${pass(mem.hwmMb < TARGETS.memoryMb)}`])
     rows.push([`Scan page first-load JS (${scripts.size} files, gzip -9; ${(scanRaw / 1024).toFixed(0)} kB raw, served ${servedEncoding})`, '', '', '', '', '', '', '', `< ${TARGETS.scanJsKb} kB`, `${scanKb.toFixed(1)} kB ${pass(scanKb < TARGETS.scanJsKb)}`])
     const widths = head.map((h, i) => Math.max(h.length, ...rows.map(r => r[i]!.length)))
@@ -325,13 +335,18 @@ async function main() {
         return '?'
       }
     })()
-    const footer = `commit ${commit} · ${cores} cores · node ${process.version} · ${new Date().toISOString()} · ${DURATION_S} s per route, swaps ${swap.requests} · build ${outputDir}`
+    const footer = `commit ${commit} · ${cores} cores · node ${process.version} · ${new Date().toISOString()} · ${DURATION_S} s per route, swaps ${swap?.requests ?? 'not run'} · build ${outputDir}`
     console.log(`\n${table}\n\n${footer}`)
     mkdirSync(`${root}.data/bench`, { recursive: true })
     writeFileSync(`${root}.data/bench/last.md`, `${table}\n\n${footer}\n`)
     console.log('\nwritten to .data/bench/last.md')
   }
   finally {
+    // SIGINT lets the server finish (and write a --cpu-prof profile when NODE_OPTIONS asked for one)
+    if (server.exitCode === null) {
+      server.kill('SIGINT')
+      await Promise.race([new Promise(r => server.once('exit', r)), new Promise(r => setTimeout(r, 5000))])
+    }
     stopServer()
     await sql.end()
   }
