@@ -1,4 +1,5 @@
 import { randomBytes } from 'node:crypto'
+import type { IncomingMessage } from 'node:http'
 
 const STATE_CHANGING = new Set(['POST', 'PUT', 'PATCH', 'DELETE'])
 // Request bodies over these sizes are refused before they are read (bytes).
@@ -36,7 +37,7 @@ const COMMON_HEADERS = {
   'cross-origin-opener-policy': 'same-origin',
 }
 
-export default defineEventHandler((event) => {
+export default defineEventHandler(async (event) => {
   const api = event.path.startsWith('/api/') && !event.path.startsWith('/api/uploads/')
   let policy = API_POLICY
   if (!api) {
@@ -72,5 +73,37 @@ export default defineEventHandler((event) => {
   const length = Number(getRequestHeader(event, 'content-length') ?? 0)
   const multipart = (getRequestHeader(event, 'content-type') ?? '').startsWith('multipart/form-data')
   const limit = multipart ? UPLOAD_LIMIT : BODY_LIMITS.find(([re]) => re.test(path))?.[1] ?? DEFAULT_LIMIT
-  if (length > limit) throw createError({ statusCode: 413, message: `The request is too large (limit ${Math.round(limit / 1024)} kB).` })
+  const tooLarge = () => createError({ statusCode: 413, message: `The request is too large (limit ${Math.round(limit / 1024)} kB).` })
+  if (length > limit) throw tooLarge()
+  // A chunked body says no length up front: it is read here, counting, and refused as soon as it passes the
+  // limit; the route then reads the bytes kept here (h3 looks for them under this symbol).
+  if (!getRequestHeader(event, 'content-length') && /\bchunked\b/i.test(getRequestHeader(event, 'transfer-encoding') ?? '')) {
+    const body = await readWithin(event.node.req, limit).catch((error: unknown) => {
+      if (error === OVER_LIMIT) {
+        setResponseHeader(event, 'connection', 'close')
+        throw tooLarge()
+      }
+      throw createError({ statusCode: 400, message: 'The request body could not be read.' })
+    })
+    ;(event.node.req as unknown as Record<symbol, unknown>)[Symbol.for('h3RawBody')] = Promise.resolve(body)
+  }
 })
+
+const OVER_LIMIT = Symbol('over limit')
+
+function readWithin(req: IncomingMessage, limit: number): Promise<Buffer> {
+  return new Promise((resolve, reject) => {
+    const chunks: Buffer[] = []
+    let size = 0
+    const onData = (chunk: Buffer) => {
+      size += chunk.length
+      if (size <= limit) return chunks.push(chunk)
+      req.off('data', onData)
+      req.resume() // the rest is read and dropped while the 413 goes out
+      reject(OVER_LIMIT)
+    }
+    req.on('data', onData)
+    req.once('end', () => resolve(Buffer.concat(chunks)))
+    req.once('error', reject)
+  })
+}

@@ -86,6 +86,21 @@ describe('headers', () => {
     expect(res.status).toBe(413)
   })
 
+  it('a chunked body with no length is counted as it arrives and refused past the limit; a small one still works', async () => {
+    const chunkedBody = (text: string) => new ReadableStream<Uint8Array>({
+      start(controller) {
+        const bytes = new TextEncoder().encode(text)
+        for (let i = 0; i < bytes.length; i += 16 * 1024) controller.enqueue(bytes.slice(i, i + 16 * 1024))
+        controller.close()
+      },
+    })
+    const send = (text: string) => fetch(url('/api/auth/sign-in'), { method: 'POST', headers: { 'content-type': 'application/json' }, body: chunkedBody(text), duplex: 'half' } as RequestInit)
+    const big = await send(JSON.stringify({ email: 'x@example.test', password: 'y'.repeat(400 * 1024) }))
+    expect(big.status).toBe(413)
+    const small = await send(JSON.stringify({ email: admin.email, password: admin.password }))
+    expect(small.status).toBe(200)
+  })
+
   it('the session cookie is HttpOnly, SameSite=Lax, path /, and not readable by scripts', async () => {
     const res = await fetch(url('/api/auth/sign-in'), { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: admin.email, password: admin.password }) })
     const cookie = res.headers.getSetCookie().find(c => c.startsWith('bayward-session='))!
