@@ -56,7 +56,8 @@ export interface BatteryFactsRow {
 }
 
 export interface BatteryFactsFilter {
-  siteId: string
+  /** the site, or any of these sites (with batteryIds: the caller then checks each row's siteId) */
+  siteId: string | string[]
   /** batteries whose home is this charging area, or that sit on one of its chargers */
   areaId?: string
   batteryIds?: string[]
@@ -68,7 +69,10 @@ const ms = (column: SQL) => sql`(EXTRACT(EPOCH FROM ${column}) * 1000)::float8`
 // one statement: LATERAL subqueries pick each battery's latest rows, so the count of statements does
 // not grow with the number of batteries.
 export async function loadBatteryFacts(db: SqlRunner, filter: BatteryFactsFilter): Promise<BatteryFactsRow[]> {
-  const where: SQL[] = [sql`b.site_id = ${filter.siteId}`]
+  const where: SQL[] = [typeof filter.siteId === 'string'
+    ? sql`b.site_id = ${filter.siteId}`
+    : sql`b.site_id IN (${sql.join(filter.siteId.map(id => sql`${id}::uuid`), sql`, `)})`]
+  if (typeof filter.siteId !== 'string' && filter.siteId.length === 0) return []
   if (filter.areaId) where.push(sql`(b.home_area_id = ${filter.areaId} OR oc.charger_area_id = ${filter.areaId})`)
   if (filter.batteryIds) {
     if (filter.batteryIds.length === 0) return []

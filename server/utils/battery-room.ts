@@ -1,4 +1,5 @@
 import type { H3Event } from 'h3'
+import { randomUUID } from 'node:crypto'
 import type { Role } from '#shared/types/auth'
 import type { FitReason } from '#shared/utils/battery-fit'
 import { batteryTruckFit, chargerBatteryMatch, rankBatteriesForTruck, isIssuableBattery } from '#shared/utils/battery-fit'
@@ -83,11 +84,13 @@ const truckSpec = (t: typeof tables.trucks.$inferSelect) => ({
   maxBatteryWeightLb: nullable(t.maxBatteryWeightLb),
 })
 
-async function hasBatteryChangingQualification(db: DbOrTx, userId: string, at: Date, timeZone: string): Promise<boolean> {
+/** Whether the person holds a battery-changing qualification current on the day of `at` where the truck is. */
+async function holdsBatteryChangingQualification(db: DbOrTx, userId: string, at: Date, truckId: string): Promise<boolean> {
   const rows = await db.execute(sql`
     SELECT 1 FROM qualifications
     WHERE user_id = ${userId} AND kind = 'battery_changing'
-      AND expires_on >= (${at.toISOString()}::timestamptz AT TIME ZONE ${timeZone})::date
+      AND expires_on >= (${at.toISOString()}::timestamptz AT TIME ZONE (
+        SELECT s.time_zone FROM trucks t JOIN sites s ON s.id = t.site_id WHERE t.id = ${truckId}))::date
     LIMIT 1`)
   return (rows as unknown[]).length > 0
 }
@@ -104,33 +107,53 @@ async function storedSwap(db: DbOrTx, key: string, actor: Actor) {
 }
 
 // A battery swap: one transaction that locks the truck and the batteries, checks fit, readiness,
-// place and qualification, then moves the batteries and records the swap.
+// place and qualification, then moves the batteries and records the swap. Statements that do not need
+// each other's answers go together (postgres.js pipelines them on the transaction's connection, and
+// PostgreSQL runs them in order), so a swap costs five round trips to the database: the actor, BEGIN,
+// the locked reads, the writes, COMMIT.
 export async function recordBatterySwap(event: H3Event) {
   const body = await validateBody(event, swapBodySchema)
-  const { row: truckRow } = await findAssetForActor(event, 'truck', body.truckId)
-  const siteId = truckRow.siteId
-  const actor = await requireSiteRole(event, siteId, EVERYONE)
-  checkOverrideRole(actor, siteId, body.overrideReason)
-  const at = eventTime(body.at, 'at')
-  const settings = await cachedBatteryRoomSettings(actor, siteId)
+  const actor = await requireActor(event)
+  if (actor.siteIds.length === 0) throw createError({ statusCode: 404, message: 'No such truck.' })
+  // a late copy of a stored swap is answered with the record however old it is, so the time is checked after the replay
+  let at = new Date()
+  let atError: unknown
+  try {
+    at = eventTime(body.at, 'at')
+  }
+  catch (error) {
+    atError = error
+  }
   const t = tables.batteries
+  const s = tables.batterySwaps
   try {
     return await useDb().transaction(async (tx) => {
-      const [truck] = await tx.select().from(tables.trucks)
-        .where(and(eq(tables.trucks.id, body.truckId), eq(tables.trucks.siteId, siteId))).for('update')
-      if (!truck) throw createError({ statusCode: 404, message: 'No such truck.' })
-      // both batteries and whichever battery the truck holds now, locked in id order
+      // the truck, then both batteries and whichever battery the truck holds now (in id order), all locked
       const ids = [body.batteryInId, ...(body.batteryOutId ? [body.batteryOutId] : [])].sort()
-      const locked = await tx.select().from(t)
-        .where(and(eq(t.siteId, siteId), or(inArray(t.id, ids), eq(t.currentTruckId, truck.id)))).orderBy(asc(t.id)).for('update')
+      const [[truck], lockedAnywhere, [stored], factsRows, qualified] = await Promise.all([
+        tx.select().from(tables.trucks)
+          .where(and(eq(tables.trucks.id, body.truckId), inArray(tables.trucks.siteId, actor.siteIds))).for('update'),
+        tx.select().from(t)
+          .where(and(inArray(t.siteId, actor.siteIds), or(inArray(t.id, ids), eq(t.currentTruckId, body.truckId)))).orderBy(asc(t.id)).for('update'),
+        tx.select().from(s).where(eq(s.idempotencyKey, body.idempotencyKey)),
+        loadBatteryFacts(tx, { siteId: actor.siteIds, batteryIds: [body.batteryInId] }),
+        holdsBatteryChangingQualification(tx, actor.user.id, at, body.truckId),
+      ])
+      if (!truck) throw createError({ statusCode: 404, message: 'No such truck.' })
+      const siteId = truck.siteId
+      await requireSiteRole(event, siteId, EVERYONE)
+      checkOverrideRole(actor, siteId, body.overrideReason)
+      const locked = lockedAnywhere.filter(b => b.siteId === siteId)
       const batteryIn = locked.find(b => b.id === body.batteryInId)
       if (!batteryIn) throw createError({ statusCode: 404, message: 'No such battery at this site.', data: { fields: { batteryInId: 'Not a battery at this site.' } } })
       if (body.batteryOutId && !locked.some(b => b.id === body.batteryOutId)) {
         throw createError({ statusCode: 404, message: 'No such battery at this site.', data: { fields: { batteryOutId: 'Not a battery at this site.' } } })
       }
-      // a retry of a swap already stored (checked here, under the locks, so two copies in flight store one)
-      const again = await storedSwap(tx, body.idempotencyKey, actor)
+      // a retry of a swap already stored (read under the locks, so two copies in flight store one)
+      const again = ownRecord(stored, actor)
       if (again) return { item: again, replayed: true, warnings: [] as FitReason[] }
+      if (atError) throw atError
+      const settings = await cachedBatteryRoomSettings(actor, siteId)
       if (truck.power !== 'electric') throw badField('truckId', `Truck ${truck.fleetNumber} is not electric; it takes no battery.`)
       if (body.hourMeter < truck.hourMeter) {
         throw badField('hourMeter', `The hour meter last read ${truck.hourMeter} h; check the reading.`)
@@ -145,11 +168,8 @@ export async function recordBatterySwap(event: H3Event) {
       if (!body.batteryOutId && current) {
         hard.push({ code: 'truck_has_battery', message: `Truck ${truck.fleetNumber} holds battery ${current.serial}; scan it as the battery coming out.` })
       }
-      // sent together: postgres.js pipelines them on the transaction's connection
-      const [facts, qualified] = await Promise.all([
-        oneBatteryFacts(tx, siteId, batteryIn.id),
-        hasBatteryChangingQualification(tx, actor.user.id, at, settings.timeZone),
-      ])
+      const facts = factsRows.find(f => f.id === batteryIn.id)
+      if (!facts) throw createError({ statusCode: 404, message: 'No such battery at this site.' })
       if (batteryIn.currentTruckId) {
         hard.push(batteryIn.currentTruckId === truck.id
           ? { code: 'already_in_this_truck', message: `Battery ${batteryIn.serial} is already in truck ${truck.fleetNumber}.` }
@@ -173,25 +193,27 @@ export async function recordBatterySwap(event: H3Event) {
         throw refusal(soft, { overridable: mayOverride, overrideReasonMinLength: OVERRIDE_REASON_MIN_LENGTH })
       }
       const overridden = soft.length ? soft : []
-
       const recorded = [...overridden, ...warnings]
-      // the moves and the record, pipelined in this order (the battery coming out leaves first, so the
-      // one-battery-per-truck index never sees two)
+      // The moves, the record and its audit row, in this order (the battery coming out leaves first, so
+      // the one-battery-per-truck index never sees two). The record's id and time are made here so the
+      // audit row can go in the same batch.
+      const values = {
+        id: randomUUID(), siteId, userId: actor.user.id, at, recordedAt: new Date(), idempotencyKey: body.idempotencyKey, note: body.note,
+        truckId: truck.id, batteryOutId: body.batteryOutId ?? null, batteryInId: batteryIn.id, hourMeter: body.hourMeter,
+        overrideReason: overridden.length ? body.overrideReason ?? null : null,
+        overriddenChecks: recorded.length ? recorded : null,
+        correctsId: null,
+      }
       const [, , , [swap]] = await Promise.all([
         body.batteryOutId ? tx.update(t).set({ currentTruckId: null }).where(eq(t.id, body.batteryOutId)) : null,
         tx.update(t).set({ currentTruckId: truck.id }).where(eq(t.id, batteryIn.id)),
         tx.update(tables.trucks).set({ hourMeter: body.hourMeter }).where(eq(tables.trucks.id, truck.id)),
-        tx.insert(tables.batterySwaps).values({
-          siteId, userId: actor.user.id, at, idempotencyKey: body.idempotencyKey, note: body.note,
-          truckId: truck.id, batteryOutId: body.batteryOutId, batteryInId: batteryIn.id, hourMeter: body.hourMeter,
-          overrideReason: overridden.length ? body.overrideReason : null,
-          overriddenChecks: recorded.length ? recorded : null,
-        }).returning(),
+        tx.insert(s).values(values).returning(),
+        writeAudit(tx, {
+          actor, siteId, action: overridden.length ? 'swap_override' : 'swap', entity: 'battery_swap', entityId: values.id,
+          after: values, note: overridden.length ? body.overrideReason : warnings.map(w => w.message).join(' ') || undefined,
+        }),
       ])
-      await writeAudit(tx, {
-        actor, siteId, action: overridden.length ? 'swap_override' : 'swap', entity: 'battery_swap', entityId: swap!.id,
-        after: swap, note: overridden.length ? body.overrideReason : warnings.map(w => w.message).join(' ') || undefined,
-      })
       setResponseStatus(event, 201)
       return { item: swap!, replayed: false, warnings, overridden }
     })
