@@ -12,18 +12,30 @@ export interface Actor {
 }
 
 // Opening a sealed session cookie costs more than the rest of a small request; the same cookie opens to
-// the same user, so the result is kept a minute. Nothing about rights is kept: memberships, roles and
-// whether the account is active are read fresh below on every request.
+// the same user and sign-in time, so the result is kept a minute. Nothing about rights is kept: memberships,
+// roles, whether the account is active and when its password last changed are read fresh below on every request.
 const SESSION_COOKIE = 'bayward-session'
-const openedSessions = new LRUCache<string, string>({ max: 10_000, ttl: 60_000 })
+interface OpenedSession { userId: string, signedInAt: number }
+const openedSessions = new LRUCache<string, OpenedSession>({ max: 10_000, ttl: 60_000 })
 
-async function sessionUserId(event: H3Event): Promise<string> {
+async function openSession(event: H3Event): Promise<OpenedSession> {
+  // a session started during this request (sign-in, a new password) wins over the cookie it came with
+  if (event.context.startedSession) return event.context.startedSession as OpenedSession
   const sealed = getCookie(event, SESSION_COOKIE)
   const known = sealed ? openedSessions.get(sealed) : undefined
   if (known) return known
   const session = await requireUserSession(event, { message: 'Sign in to continue.' })
-  if (sealed) openedSessions.set(sealed, session.user.id)
-  return session.user.id
+  const opened = { userId: session.user.id, signedInAt: Number(session.signedInAt) || 0 }
+  if (sealed) openedSessions.set(sealed, opened)
+  return opened
+}
+
+/** Seals a new session for the user into the cookie; the rest of this request runs as that session. */
+export async function startSession(event: H3Event, user: { id: string, email: string, name: string }, signedInAt = Date.now()) {
+  forgetOpenedSession(event)
+  await setUserSession(event, { user: { id: user.id, email: user.email, name: user.name }, signedInAt })
+  event.context.startedSession = { userId: user.id, signedInAt } satisfies OpenedSession
+  delete event.context.actor
 }
 
 /** After sign-out: the cookie is no longer taken as opened. */
@@ -38,6 +50,7 @@ function buildActorQuery(db: Database) {
   return db
     .select({
       userId: tables.users.id, email: tables.users.email, name: tables.users.name, active: tables.users.active,
+      passwordChangedAt: tables.users.passwordChangedAt,
       siteId: tables.memberships.siteId, siteName: tables.sites.name, role: tables.memberships.role,
       revision: sql<number | null>`(SELECT sum(r.revision) FROM ${tables.siteRevisions} r WHERE r.site_id = ${tables.memberships.siteId})`.mapWith(Number),
     })
@@ -55,15 +68,17 @@ function actorQuery(db: Database) {
   return query
 }
 
-// The signed-in user with their memberships, read fresh once per request. A deactivated user's
-// sealed cookie stops working here: the session is cleared and the request answers 401.
+// The signed-in user with their memberships, read fresh once per request. A deactivated user's sealed
+// cookie stops working here, and so does one signed in before the password last changed: the session is
+// cleared and the request answers 401.
 export async function requireActor(event: H3Event): Promise<Actor> {
   if (event.context.actor) return event.context.actor as Actor
-  const userId = await sessionUserId(event)
+  const { userId, signedInAt } = await openSession(event)
   const rows = await actorQuery(useDb()).execute({ userId })
   const first = rows[0]
-  if (!first || !first.active) {
+  if (!first || !first.active || (first.passwordChangedAt && signedInAt < first.passwordChangedAt.getTime())) {
     forgetOpenedSession(event)
+    delete event.context.startedSession
     await clearUserSession(event)
     throw createError({ statusCode: 401, message: 'Sign in to continue.' })
   }

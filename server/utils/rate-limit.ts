@@ -25,3 +25,25 @@ export async function recordFailure(keys: string[]) {
 export async function clearFailures(keys: string[]) {
   await useDb().delete(tables.signInFailures).where(inArray(tables.signInFailures.key, keys.filter(k => k.startsWith('email:'))))
 }
+
+// Requests for a password link, counted in the same table under their own keys: a few per e-mail and
+// more per client address in 15 minutes. Over the limit the request gets the usual answer and sends nothing.
+const PASSWORD_LINK_LIMIT = { perEmail: 3, perAddress: 30, windowSeconds: 900 }
+
+export function passwordLinkKeys(event: H3Event, email: string) {
+  return signInKeys(event, email).map(key => `reset-${key}`)
+}
+
+/** True when the request is within the limit; it is then counted. */
+export async function countPasswordLinkRequest(keys: string[]): Promise<boolean> {
+  const { perEmail, perAddress, windowSeconds } = PASSWORD_LINK_LIMIT
+  const since = new Date(Date.now() - windowSeconds * 1000)
+  const rows = await useDb()
+    .select({ key: tables.signInFailures.key, n: count() })
+    .from(tables.signInFailures)
+    .where(and(inArray(tables.signInFailures.key, keys), gte(tables.signInFailures.at, since)))
+    .groupBy(tables.signInFailures.key)
+  if (rows.some(r => Number(r.n) >= (r.key.startsWith('reset-email:') ? perEmail : perAddress))) return false
+  await recordFailure(keys)
+  return true
+}

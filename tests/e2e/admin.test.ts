@@ -186,9 +186,20 @@ describe('user administration', () => {
 
     it('a new password set by an admin replaces the old one', async () => {
       const who = await user({ siteId: siteA, roles: ['operator'] })
+      const before = await signIn(who)
+      expect((await before.get('/api/me')).status).toBe(200)
       expect((await adminA.patch(`/api/users/${who.id}`, { password: 'fresh-password-9090' })).status).toBe(200)
       expect((await client().post('/api/auth/sign-in', { email: who.email, password: who.password })).status).toBe(401)
       await expect(signIn({ email: who.email, password: 'fresh-password-9090' })).resolves.toBeTruthy()
+      // the session from before the new password stops working
+      expect((await before.get('/api/me')).status).toBe(401)
+    })
+
+    it('an admin who sets their own password stays signed in', async () => {
+      const self = await user({ siteId: siteA, roles: ['admin'] })
+      const c = await signIn(self)
+      expect((await c.patch(`/api/users/${self.id}`, { password: 'my-own-new-password-77' })).status).toBe(200)
+      expect((await c.get('/api/me')).status).toBe(200)
     })
   })
 

@@ -20,7 +20,7 @@ export default defineEventHandler(async (event) => {
     throw createError({ statusCode: 401, message: VAGUE })
   }
   await clearFailures(keys)
-  await setUserSession(event, { user: { id: user.id, email: user.email, name: user.name }, signedInAt: Date.now() })
+  await startSession(event, user)
   const actor = await requireActor(event)
   return { user: actor.user, memberships: actor.memberships }
 })

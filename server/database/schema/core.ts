@@ -41,6 +41,8 @@ export const users = pgTable('users', {
   name: text().notNull(),
   passwordHash: text().notNull(),
   active: boolean().notNull().default(true),
+  /** sessions signed in before this stop working */
+  passwordChangedAt: timestamp({ withTimezone: true }),
   ...timestamps,
 }, t => [uniqueIndex('users_email_lower_idx').on(sql`lower(${t.email})`)])
 
@@ -71,6 +73,16 @@ export const signInFailures = pgTable('sign_in_failures', {
   key: text().notNull(),
   at: timestamp({ withTimezone: true }).notNull().defaultNow(),
 }, t => [index().on(t.key, t.at)])
+
+// Links to set a new password: only the SHA-256 of the token is kept; each works once, until expires_at.
+export const passwordResets = pgTable('password_resets', {
+  id: id(),
+  userId: uuid().notNull().references(() => users.id),
+  tokenHash: text().notNull(),
+  expiresAt: timestamp({ withTimezone: true }).notNull(),
+  usedAt: timestamp({ withTimezone: true }),
+  createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+}, t => [index().on(t.userId), uniqueIndex().on(t.tokenHash)])
 
 export const auditLog = pgTable('audit_log', {
   id: bigserial({ mode: 'number' }).primaryKey(),
