@@ -18,7 +18,6 @@ const revisionOf = async (siteId: string) => {
 }
 
 describe('site revisions', () => {
-
   it('every table with a site_id moves the site revision on insert, update and delete', async () => {
     // Kept out on purpose: the audit trail and the mail outbox feed no cached read model, and
     // sign-in failures and calendar feeds belong to people, not to a site's records.
