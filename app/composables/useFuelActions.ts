@@ -44,7 +44,7 @@ export function useFuelActions() {
 
   // through the device outbox: `keptKey` is set when the record is kept on the device to send later
   async function refill(cylinderId: string, body: Partial<RefillInput>, words: FloorRecordWords = { label: 'Cylinder refill' }) {
-    const outcome = await submitFloorRecord<{ item: { id: string, netAddedLb: number | null, gallonsAt60F: number | null } }>({ kind: 'refill', url: `/api/cylinders/${cylinderId}/refills`, body, atField: null, ...words })
+    const outcome = await submitFloorRecord<{ item: { id: string, netAddedLb: number | null, gallonsAt60F: number | null } }>({ kind: 'refill', url: `/api/cylinders/${cylinderId}/refills`, body, atField: 'at', ...words })
     if (outcome.state === 'kept') {
       return { id: null, netAddedLb: null, gallonsAt60F: null, keptKey: outcome.key }
     }
@@ -61,7 +61,7 @@ export function useFuelActions() {
 
   // through the device outbox: `keptKey` is set when the record is kept on the device to send later
   async function exchange(truckId: string, body: { cylinderOnCode: string, cylinderOffId: string | null, idempotencyKey: string, note?: string }, words: FloorRecordWords = { label: 'Cylinder change' }) {
-    const outcome = await submitFloorRecord<{ item: { id: string } }>({ kind: 'exchange', url: `/api/trucks/${truckId}/cylinder-exchanges`, body, atField: null, ...words })
+    const outcome = await submitFloorRecord<{ item: { id: string } }>({ kind: 'exchange', url: `/api/trucks/${truckId}/cylinder-exchanges`, body, atField: 'at', ...words })
     if (outcome.state === 'kept') {
       return { id: null, keptKey: outcome.key }
     }

@@ -6,7 +6,7 @@ import { batteryTruckFit, chargerBatteryMatch, rankBatteriesForTruck, isIssuable
 import { siteSettingsSchema, defaultSiteSettings, type SiteSettings } from '#shared/utils/site-settings'
 import { gridEnergyKwh, energyCost, isCountedCycle, ranHot } from '#shared/utils/charging'
 import {
-  BACKDATE_LIMIT_HOURS, OVERRIDE_REASON_MIN_LENGTH, WATER_AFTER_CHARGE_CAUTION,
+  OVERRIDE_REASON_MIN_LENGTH, WATER_AFTER_CHARGE_CAUTION,
   boardQuerySchema, chargeEndSchema, chargeStartSchema, electrolyteCheckSchema, lookupQuerySchema, siteQuerySchema, swapBodySchema,
   justFinishedCharge, summarizeElectrolyteReadings, wateringBeforeChargeCaution,
 } from '#shared/utils/battery-room-schemas'
@@ -47,17 +47,6 @@ function refusal(reasons: FitReason[], extra: Record<string, unknown> = {}, stat
 
 function badField(field: string, message: string) {
   return createError({ statusCode: 400, message, data: { fields: { [field]: message } } })
-}
-
-/** When it happened: now, or a time sent late from the floor within the back-dating window. */
-function eventTime(at: string | undefined, field: string, now = new Date()): Date {
-  if (!at) return now
-  const when = new Date(at)
-  if (when.getTime() > now.getTime() + 5 * 60_000) throw badField(field, 'That time is in the future.')
-  if (when.getTime() < now.getTime() - BACKDATE_LIMIT_HOURS * 3_600_000) {
-    throw badField(field, `More than ${BACKDATE_LIMIT_HOURS} h ago; ask a lead to enter a correction instead.`)
-  }
-  return when
 }
 
 function checkOverrideRole(actor: Actor, siteId: string, overrideReason: string | undefined) {

@@ -154,6 +154,7 @@ export async function recordRefill(actor: Actor, cylinderId: string, input: Refi
         return { refill: earlier, cylinder, status: 200 as const, reasons: earlier.refusalReasons, offerQuarantine: false }
       }
     }
+    const at = eventTime(input.at, 'at')
     const facts = await fuelSiteFacts(tx, cylinder.siteId)
     const stateReasons = await cylinderFillBlocks(tx, cylinder, facts)
     const failed = inspectionFailures(input.inspection)
@@ -189,6 +190,7 @@ export async function recordRefill(actor: Actor, cylinderId: string, input: Refi
       siteId: cylinder.siteId,
       userId: actor.user.id,
       cylinderId,
+      at,
       idempotencyKey: input.idempotencyKey ?? null,
       note: input.note,
       inspection: input.inspection,
@@ -267,6 +269,8 @@ interface ExchangeRequest {
   truck: FuelTruckRow
   cylinderOnId: string
   cylinderOffId: string | null
+  /** when Save was pressed, for a record sent late */
+  at?: string
   idempotencyKey?: string
   note: string
 }
@@ -285,6 +289,7 @@ export async function recordExchange(actor: Actor, req: ExchangeRequest) {
         return { exchange: earlier, repeated: true }
       }
     }
+    const at = eventTime(req.at, 'at')
     const ids = [...new Set([req.cylinderOnId, req.cylinderOffId].filter((v): v is string => !!v))].sort()
     const locked = await tx.select().from(tables.lpCylinders)
       .where(and(inArray(tables.lpCylinders.id, ids), eq(tables.lpCylinders.siteId, truck.siteId)))
@@ -311,7 +316,7 @@ export async function recordExchange(actor: Actor, req: ExchangeRequest) {
     }
     await tx.update(tables.lpCylinders).set({ status: 'in_use', currentTruckId: truck.id, statusChangedAt: now }).where(eq(tables.lpCylinders.id, on.id))
     const [exchange] = await tx.insert(tables.cylinderExchanges).values({
-      siteId: truck.siteId, userId: actor.user.id, truckId: truck.id, cylinderOffId: current?.id ?? null, cylinderOnId: on.id,
+      siteId: truck.siteId, userId: actor.user.id, at, truckId: truck.id, cylinderOffId: current?.id ?? null, cylinderOnId: on.id,
       idempotencyKey: req.idempotencyKey ?? null, note: req.note,
     }).returning()
     await writeAudit(tx, { actor, siteId: truck.siteId, action: 'exchange', entity: 'cylinder_exchange', entityId: exchange!.id, after: exchange })

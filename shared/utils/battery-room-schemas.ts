@@ -22,7 +22,8 @@ export const WATER_AFTER_CHARGE_CAUTION = 'Water after charging, not before, unl
 
 const uuid = (what: string) => z.uuid(`Pick the ${what}.`)
 const idempotencyKey = z.uuid('A retry key from the form is missing.')
-const eventTime = z.iso.datetime({ offset: true, message: 'Use a date and time like 2026-03-31T06:00:00Z.' }).optional()
+/** A floor record's time as the device saw it (sent by the outbox for records kept while offline). */
+export const eventTimeField = z.iso.datetime({ offset: true, message: 'Use a date and time like 2026-03-31T06:00:00Z.' }).optional()
 const overrideReason = z.string().trim().max(1000, 'At most 1,000 characters.').optional()
   .refine(v => v === undefined || v === '' || v.length >= OVERRIDE_REASON_MIN_LENGTH, `Write the reason in at least ${OVERRIDE_REASON_MIN_LENGTH} characters.`)
   .transform(v => (v ? v : undefined))
@@ -34,7 +35,7 @@ export const swapBodySchema = z.object({
   hourMeter: z.number({ error: 'Hour meter must be a number.' }).min(0, 'Not below 0.').max(200000, 'Above 200,000 h looks wrong.'),
   overrideReason,
   idempotencyKey,
-  at: eventTime,
+  at: eventTimeField,
   note: z.string().trim().max(1000).default(''),
 }).refine(v => v.batteryOutId !== v.batteryInId, { path: ['batteryInId'], message: 'The battery going in is the one coming out.' })
 export type SwapBody = z.input<typeof swapBodySchema>
@@ -44,7 +45,7 @@ export const chargeStartSchema = z.object({
   chargerId: uuid('charger'),
   overrideReason,
   idempotencyKey,
-  at: eventTime,
+  at: eventTimeField,
   note: z.string().trim().max(1000).default(''),
 })
 
@@ -55,7 +56,7 @@ export const chargeEndSchema = z.object({
   outcome: z.enum(CHARGE_OUTCOMES, { error: 'Complete or interrupted?' }),
   /** Carried for the device outbox; a charge ends once, so a repeat is recognised by the same user and readings. */
   idempotencyKey: idempotencyKey.optional(),
-  endedAt: eventTime,
+  endedAt: eventTimeField,
   note: z.string().trim().max(1000).default(''),
 })
 
@@ -72,7 +73,7 @@ export const electrolyteCheckSchema = z.object({
   scope: z.enum(READING_SCOPES).nullable().default(null),
   cells: z.array(cellReadingSchema).max(60).default([]),
   idempotencyKey,
-  at: eventTime,
+  at: eventTimeField,
   note: z.string().trim().max(1000).default(''),
 }).superRefine((v, ctx) => {
   if (v.scope === null && v.cells.length) ctx.addIssue({ code: 'custom', path: ['scope'], message: 'Say whether these are the pilot cell or every cell.' })

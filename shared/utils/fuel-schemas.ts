@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { PREFILL_INSPECTION_ITEMS } from './lp-gas'
 import { REQUAL_METHODS } from './asset-schemas'
+import { eventTimeField } from './battery-room-schemas'
 
 // Payloads of the fuel-station routes, shared by the forms and the routes. Weights in lb (forms
 // convert metric input before sending), dates 'YYYY-MM-DD'.
@@ -24,6 +25,7 @@ export const refillSchema = z.object({
   grossAfterLb: weight('Weight after filling').nullable().default(null),
   measuredTareLb: weight('Measured tare').nullable().default(null),
   productSg: z.number({ error: 'Specific gravity must be a number.' }).min(0.4, 'Specific gravity between 0.400 and 0.700.').max(0.7, 'Specific gravity between 0.400 and 0.700.').nullable().default(null),
+  at: eventTimeField,
   idempotencyKey,
   note,
 }).superRefine((v, ctx) => {
@@ -44,6 +46,7 @@ export const exchangeSchema = z.object({
   cylinderOnCode: z.string().trim().min(1).max(60).optional(),
   /** The cylinder coming off; must be the truck's current one. Null when the truck has none. */
   cylinderOffId: z.uuid().nullable().default(null),
+  at: eventTimeField,
   idempotencyKey,
   note,
 }).refine(v => v.cylinderOnId || v.cylinderOnCode, { path: ['cylinderOnCode'], message: 'Scan or type the cylinder going on.' })
