@@ -32,6 +32,7 @@ export const NAV_ITEMS: NavItem[] = [
   { to: '/emissions', label: 'Emissions', icon: 'gauge', roles: leads, group: 'fuel' },
   { to: '/co', label: 'CO readings', icon: 'cloud', roles: ['technician', 'facilities_lead', 'safety_lead', 'admin'], group: 'fuel' },
   { to: '/due', label: 'Due list', icon: 'list', roles: leads, group: 'records' },
+  { to: '/schedules', label: 'Schedules', icon: 'calendar', roles: leads, group: 'records' },
   { to: '/logs', label: 'Area logs', icon: 'clipboard', roles: floor, group: 'records' },
   { to: '/incidents', label: 'Incidents', icon: 'flag', roles: everyone, group: 'records' },
   { to: '/ventilation', label: 'Ventilation check', icon: 'fan', roles: ['safety_lead', 'facilities_lead', 'admin'], group: 'records' },

@@ -47,12 +47,13 @@ describe('navigation by role', () => {
     expect(labels).not.toContain('Areas')
     expect(labels).not.toContain('People')
     expect(labels).not.toContain('Site settings')
+    expect(labels).not.toContain('Schedules')
     await context.close()
   })
 
   it('a facilities lead at desktop width sees the registry and people', async () => {
     const { context, labels } = await signInAndOpenMenu(people.facilities!, DESKTOP)
-    expect(labels).toEqual(expect.arrayContaining(['Home', 'Trucks', 'Batteries', 'Chargers', 'LP cylinders', 'Areas', 'People']))
+    expect(labels).toEqual(expect.arrayContaining(['Home', 'Trucks', 'Batteries', 'Chargers', 'LP cylinders', 'Areas', 'People', 'Due list', 'Schedules']))
     expect(labels).not.toContain('Site settings')
     await context.close()
   })

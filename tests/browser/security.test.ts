@@ -22,7 +22,7 @@ afterAll(async () => {
 
 const PAGES = ['/', '/scan', '/bay', '/swap', '/charge', '/check', '/cage', '/refill', '/exchange', '/emissions', '/co',
   '/trucks', '/batteries', '/batteries/new', '/cylinders', '/labels', '/people', '/site',
-  '/due', '/logs', '/incidents', '/ventilation', '/calendar']
+  '/due', '/schedules', '/logs', '/incidents', '/ventilation', '/calendar', '/account']
 
 describe('content security policy', () => {
   it('every main page loads in Chromium with no policy violation', async () => {

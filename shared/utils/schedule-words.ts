@@ -1,0 +1,67 @@
+import type { IntervalUnit } from './due-dates'
+import { DUE_KIND_SUBJECTS, type DueKind, type DueSubjectKind, type ScheduleDefinition } from './due-schedules'
+
+// Schedules in words for the schedule editor: the interval, the due-soon window, the subject groups.
+
+/** The calendar units a day rule can count in, in the order the editor offers them. */
+export const SCHEDULE_UNIT_CHOICES: readonly { value: IntervalUnit, label: string }[] = [
+  { value: 'day', label: 'Days' },
+  { value: 'week', label: 'Weeks' },
+  { value: 'month', label: 'Months' },
+  { value: 'year', label: 'Years' },
+]
+
+const ONCE_A: Readonly<Record<IntervalUnit, string>> = { day: 'daily', week: 'weekly', month: 'monthly', year: 'yearly' }
+
+const plural = (n: number, one: string, many = `${one}s`) => `${n} ${n === 1 ? one : many}`
+
+/** "daily", "every 31 days", "every 3 months", "every 5 charges or 7 days", "on the date its rule gives". */
+export function scheduleIntervalWords(s: Pick<ScheduleDefinition, 'rule' | 'every' | 'everyUnit' | 'withinDays'>): string {
+  if (s.rule === 'date_rule') return 'on the date its rule gives'
+  if (s.every === null || s.every < 1) return 'no interval set'
+  if (s.rule === 'days') {
+    const unit = s.everyUnit ?? 'day'
+    return s.every === 1 ? ONCE_A[unit] : `every ${plural(s.every, unit)}`
+  }
+  const count = s.rule === 'charges'
+    ? (s.every === 1 ? 'every charge' : `every ${plural(s.every, 'charge')}`)
+    : (s.every === 1 ? 'every hour of use' : `every ${plural(s.every, 'hour')}`)
+  return s.withinDays ? `${count} or ${plural(s.withinDays, 'day')}` : count
+}
+
+/** When the due list starts showing it as due soon: "on the day", "1 day before", "30 days before". */
+export function dueSoonWords(days: number): string {
+  return days <= 0 ? 'on the day' : `${plural(days, 'day')} before`
+}
+
+/** What the count of a count rule is in: "charges", "hours"; null for day and date rules. */
+export function scheduleCountUnit(rule: ScheduleDefinition['rule']): string | null {
+  return rule === 'charges' ? 'charges' : rule === 'hours' ? 'hours' : null
+}
+
+export type ScheduleGroupKey = 'battery' | 'charger' | 'truck' | 'cylinder' | 'area' | 'person'
+
+export const SCHEDULE_GROUP_LABELS: Readonly<Record<ScheduleGroupKey, string>> = {
+  battery: 'Batteries',
+  charger: 'Chargers',
+  truck: 'Trucks',
+  cylinder: 'LP cylinders',
+  area: 'Areas and logs',
+  person: 'People',
+}
+
+const GROUP_OF_SUBJECT: Readonly<Record<DueSubjectKind, ScheduleGroupKey>> = {
+  battery: 'battery', charger: 'charger', truck: 'truck', cylinder: 'cylinder',
+  area: 'area', log: 'area', follow_up: 'area', person: 'person',
+}
+
+export function scheduleGroupOf(kind: DueKind): ScheduleGroupKey {
+  return GROUP_OF_SUBJECT[DUE_KIND_SUBJECTS[kind]]
+}
+
+/** Schedules by subject, in the group order above, each group keeping the order it was given; empty groups left out. */
+export function groupSchedules<T extends { kind: DueKind }>(items: readonly T[]): { key: ScheduleGroupKey, label: string, items: T[] }[] {
+  return (Object.keys(SCHEDULE_GROUP_LABELS) as ScheduleGroupKey[])
+    .map(key => ({ key, label: SCHEDULE_GROUP_LABELS[key], items: items.filter(i => scheduleGroupOf(i.kind) === key) }))
+    .filter(g => g.items.length > 0)
+}
