@@ -7,15 +7,20 @@ export function signInKeys(event: H3Event, email: string) {
   return [`email:${email.toLowerCase()}`, `ip:${address}`]
 }
 
-export async function tooManyFailures(keys: string[]): Promise<boolean> {
-  const { perEmail, perAddress, windowSeconds } = useRuntimeConfig().signInLimit as { perEmail: number, perAddress: number, windowSeconds: number }
-  const since = new Date(Date.now() - windowSeconds * 1000)
+// Whether any of the keys has reached its limit in the window: e-mail keys (`…email:`) count against
+// perEmail, address keys against perAddress.
+async function overLimit(keys: string[], limit: { perEmail: number, perAddress: number, windowSeconds: number }): Promise<boolean> {
+  const since = new Date(Date.now() - limit.windowSeconds * 1000)
   const rows = await useDb()
     .select({ key: tables.signInFailures.key, n: count() })
     .from(tables.signInFailures)
     .where(and(inArray(tables.signInFailures.key, keys), gte(tables.signInFailures.at, since)))
     .groupBy(tables.signInFailures.key)
-  return rows.some(r => Number(r.n) >= Number(r.key.startsWith('email:') ? perEmail : perAddress))
+  return rows.some(r => Number(r.n) >= Number(/(^|-)email:/.test(r.key) ? limit.perEmail : limit.perAddress))
+}
+
+export function tooManyFailures(keys: string[]): Promise<boolean> {
+  return overLimit(keys, useRuntimeConfig().signInLimit as { perEmail: number, perAddress: number, windowSeconds: number })
 }
 
 export async function recordFailure(keys: string[]) {
@@ -36,14 +41,7 @@ export function passwordLinkKeys(event: H3Event, email: string) {
 
 /** True when the request is within the limit; it is then counted. */
 export async function countPasswordLinkRequest(keys: string[]): Promise<boolean> {
-  const { perEmail, perAddress, windowSeconds } = PASSWORD_LINK_LIMIT
-  const since = new Date(Date.now() - windowSeconds * 1000)
-  const rows = await useDb()
-    .select({ key: tables.signInFailures.key, n: count() })
-    .from(tables.signInFailures)
-    .where(and(inArray(tables.signInFailures.key, keys), gte(tables.signInFailures.at, since)))
-    .groupBy(tables.signInFailures.key)
-  if (rows.some(r => Number(r.n) >= (r.key.startsWith('reset-email:') ? perEmail : perAddress))) return false
+  if (await overLimit(keys, PASSWORD_LINK_LIMIT)) return false
   await recordFailure(keys)
   return true
 }

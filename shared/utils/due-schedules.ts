@@ -88,7 +88,7 @@ export interface StoredSchedule {
   active: boolean
 }
 
-const INTERVAL_UNITS = ['day', 'week', 'month', 'year'] as const
+export const INTERVAL_UNITS = ['day', 'week', 'month', 'year'] as const
 
 // The site's schedules: the defaults, each replaced by the site's own row of the same kind.
 export function effectiveSchedules(defaults: readonly ScheduleDefinition[], stored: readonly StoredSchedule[]): ScheduleDefinition[] {

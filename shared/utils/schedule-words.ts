@@ -1,15 +1,11 @@
 import type { IntervalUnit } from './due-dates'
-import { DUE_KIND_SUBJECTS, type DueKind, type DueSubjectKind, type ScheduleDefinition } from './due-schedules'
+import { DUE_KIND_SUBJECTS, INTERVAL_UNITS, type DueKind, type DueSubjectKind, type ScheduleDefinition } from './due-schedules'
 
 // Schedules in words for the schedule editor: the interval, the due-soon window, the subject groups.
 
 /** The calendar units a day rule can count in, in the order the editor offers them. */
-export const SCHEDULE_UNIT_CHOICES: readonly { value: IntervalUnit, label: string }[] = [
-  { value: 'day', label: 'Days' },
-  { value: 'week', label: 'Weeks' },
-  { value: 'month', label: 'Months' },
-  { value: 'year', label: 'Years' },
-]
+const UNIT_LABELS: Readonly<Record<IntervalUnit, string>> = { day: 'Days', week: 'Weeks', month: 'Months', year: 'Years' }
+export const SCHEDULE_UNIT_CHOICES: readonly { value: IntervalUnit, label: string }[] = INTERVAL_UNITS.map(value => ({ value, label: UNIT_LABELS[value] }))
 
 const ONCE_A: Readonly<Record<IntervalUnit, string>> = { day: 'daily', week: 'weekly', month: 'monthly', year: 'yearly' }
 
