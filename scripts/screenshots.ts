@@ -1,6 +1,6 @@
 // Screenshots of the main pages for each demo role at phone and desktop widths, into screenshots/.
 // Uses the running demo (BASE_URL, default http://localhost:3000), or starts the built server on
-// port 3100 against the demo database when nothing answers there.
+// port 3100 (BAYWARD_SCREENSHOT_PORT) against the demo database when nothing answers there.
 import { spawn, type ChildProcess } from 'node:child_process'
 import { mkdirSync } from 'node:fs'
 import { chromium } from 'playwright-core'
@@ -26,12 +26,13 @@ async function reachable(url: string) {
 }
 
 async function main() {
-  let base = process.env.BASE_URL ?? 'http://localhost:3000'
+  let base = process.env.BASE_URL ?? `http://localhost:${process.env.PORT ?? 3000}`
   let server: ChildProcess | undefined
   if (!(await reachable(`${base}/sign-in`))) {
-    base = 'http://localhost:3100'
+    const port = process.env.BAYWARD_SCREENSHOT_PORT ?? '3100'
+    base = `http://localhost:${port}`
     server = spawn('node', ['.output/server/index.mjs'], {
-      env: { ...process.env, PORT: '3100', NUXT_SESSION_PASSWORD: process.env.NUXT_SESSION_PASSWORD ?? 'screenshot-session-password-0123456789-abcdef' },
+      env: { ...process.env, PORT: port, NUXT_SESSION_PASSWORD: process.env.NUXT_SESSION_PASSWORD ?? 'screenshot-session-password-0123456789-abcdef' },
       stdio: 'ignore',
     })
     for (let i = 0; i < 60 && !(await reachable(`${base}/sign-in`)); i++) await new Promise(r => setTimeout(r, 250))

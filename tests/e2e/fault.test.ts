@@ -9,11 +9,11 @@ import { Scrypt } from '@adonisjs/hash/drivers/scrypt'
 import { defaultSiteSettings } from '../../shared/utils/site-settings'
 import { batteryInput } from '../support/db'
 
-// PostgreSQL stopped in the middle of a run of writes, on a private cluster (.data/pg-fault, port 54339)
+// PostgreSQL stopped in the middle of a run of writes, on a private cluster (.data/pg-fault, port 54339 or BAYWARD_FAULT_PG_PORT)
 // with its own built server, so nobody else's database is touched.
 const root = fileURLToPath(new URL('../..', import.meta.url))
 const outputDir = process.env.BAYWARD_BUILD_NAME ? `.output-${process.env.BAYWARD_BUILD_NAME}` : '.output'
-const PG_PORT = '54339'
+const PG_PORT = process.env.BAYWARD_FAULT_PG_PORT ?? '54339'
 const DATABASE = 'bayward_fault'
 const DB_URL = `postgres://bayward@127.0.0.1:${PG_PORT}/${DATABASE}`
 const pgEnv = { ...process.env, BAYWARD_PG_DATA: '.data/pg-fault', BAYWARD_PG_PORT: PG_PORT, BAYWARD_DATABASES: DATABASE }
