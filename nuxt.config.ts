@@ -41,6 +41,8 @@ export default defineNuxtConfig({
   compatibilityDate: '2026-11-01',
   nitro: {
     experimental: { tasks: false },
+    // scripts, styles, fonts and icons are written .br and .gz at build and served as the browser asks
+    compressPublicAssets: { gzip: true, brotli: true },
     storage: {
       // background jobs (label sheets, CSV imports): progress and results, shared by app servers
       jobs: { driver: 'fs', base: './.data/jobs' },
