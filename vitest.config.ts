@@ -12,7 +12,8 @@ export default defineConfig({
     projects: [
       { resolve: { alias }, test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node' } },
       await defineVitestProject({
-        test: { name: 'nuxt', include: ['tests/nuxt/**/*.test.ts'], environment: 'nuxt' },
+        // IndexedDB (the device outbox) from a general-purpose in-memory implementation
+        test: { name: 'nuxt', include: ['tests/nuxt/**/*.test.ts'], environment: 'nuxt', setupFiles: ['fake-indexeddb/auto'] },
       }),
       {
         resolve: { alias },

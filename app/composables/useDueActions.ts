@@ -1,4 +1,8 @@
-import type { FloorRecordWords } from '~/composables/useBatteryRoomActions'
+import type { z } from 'zod'
+import type { logEntriesSchema } from '#shared/utils/area-checklists'
+import type { incidentCreateSchema } from '#shared/utils/incidents'
+import type { IncidentAnswer, LogEntriesAnswer } from '#shared/types/floor'
+import type { FloorOutcome, FloorRecordWords } from '~/composables/useFloorForm'
 
 // Area logs, follow-ups, incidents, calendar feeds: $fetch → toast → refresh the views and the due list.
 export function useDueActions() {
@@ -12,13 +16,13 @@ export function useDueActions() {
     toast.show(message, tone)
   }
 
-  // through the device outbox: `keptKey` is set when the entries are kept on the device to send later
-  async function recordLog(body: { areaId: string, date: string, cadence?: string, entries: { itemKey: string, result: string, note: string }[], idempotencyKey: string }, words: FloorRecordWords = { label: 'Checklist items' }) {
-    const outcome = await submitFloorRecord<{ followUps: string[] }>({ kind: 'log_entries', url: '/api/logs/entries', body: { ...body, siteId: session.siteId }, atField: null, ...words })
-    if (outcome.state === 'kept') return { followUps: [] as string[], keptKey: outcome.key }
-    const result = { ...outcome.data, keptKey: null }
-    await done(logKeys, result.followUps.length ? `Saved. ${result.followUps.length} failed item${result.followUps.length === 1 ? '' : 's'}: the safety lead has been told and a follow-up is open.` : 'Checklist saved.', result.followUps.length ? 'danger' : 'safe')
-    return result
+  // through the device outbox: kept on the device when the connection drops
+  async function recordLog(body: z.input<typeof logEntriesSchema> & { idempotencyKey: string }, words: FloorRecordWords): Promise<FloorOutcome<LogEntriesAnswer>> {
+    const outcome = await submitFloorRecord<LogEntriesAnswer>({ kind: 'log_entries', url: '/api/logs/entries', body, atField: null, ...words })
+    if (outcome.state === 'kept') return outcome
+    const failed = outcome.data.followUps.length
+    await done(logKeys, failed ? `Saved. ${failed} failed item${failed === 1 ? '' : 's'}: the safety lead has been told and a follow-up is open.` : 'Checklist saved.', failed ? 'danger' : 'safe')
+    return outcome
   }
 
   async function correctEntry(entryId: string, body: { result: string, note: string, reason: string }) {
@@ -50,8 +54,8 @@ export function useDueActions() {
     return (await $fetch<{ item: { id: string, displayName: string } }>('/api/uploads', { method: 'POST', query: { siteId: session.siteId }, body: form })).item
   }
 
-  async function reportIncident(body: Record<string, unknown>) {
-    const result = await $fetch<{ alerted: number }>('/api/incidents', { method: 'POST', body: { ...body, siteId: session.siteId } })
+  async function reportIncident(body: z.input<typeof incidentCreateSchema>) {
+    const result = await $fetch<IncidentAnswer>('/api/incidents', { method: 'POST', body })
     await done(['incidents'], `Incident reported. ${result.alerted} safety lead${result.alerted === 1 ? ' has' : 's have'} been told.`, 'safe')
     return result
   }

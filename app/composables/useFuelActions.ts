@@ -1,35 +1,10 @@
-import type { RefillInput } from '#shared/utils/fuel-schemas'
-import type { FloorRecordWords } from '~/composables/useBatteryRoomActions'
+import type { z } from 'zod'
+import type { coReadingsSchema, emissionsTestSchema, exchangeSchema, refillSchema, requalificationSchema } from '#shared/utils/fuel-schemas'
+import type { CoReadingsAnswer, CylinderLookup, EmissionsTestAnswer, ExchangeAnswer, RefillAnswer, RequalificationAnswer } from '#shared/types/floor'
+import type { FloorOutcome, FloorRecordWords } from '~/composables/useFloorForm'
 
-export interface CylinderLookup {
-  item: Record<string, unknown> & { id: string, serial: string, tagCode: string | null, status: string, waterCapacityLb: number, tareLb: number, nominalPropaneLb: number, outOfService: boolean }
-  truck: { id: string, fleetNumber: string } | null
-  requalification: { dueOn: string, status: 'current' | 'due_soon' | 'overdue', daysLeft: number }
-  fillBlocks: string[]
-  mountBlocks: string[]
-  fillLimitLb: number | null
-  lpTransfer: { current: boolean, expiresOn: string | null }
-  roles: string[]
-}
-
-export interface Refusal {
-  status: number
-  message: string
-  reasons: string[]
-  offerQuarantine: boolean
-}
-
-// Refusals come back as 403/409/422 with data.reasons; this turns them into something to show.
-export function refusalFrom(error: unknown): Refusal | null {
-  const e = error as { statusCode?: number, data?: { message?: string, data?: { reasons?: string[], offerQuarantine?: boolean } } }
-  if (!e?.statusCode || ![403, 409, 422].includes(e.statusCode)) return null
-  return {
-    status: e.statusCode,
-    message: e.data?.message ?? 'Refused.',
-    reasons: e.data?.data?.reasons ?? [e.data?.message ?? 'Refused.'],
-    offerQuarantine: !!e.data?.data?.offerQuarantine,
-  }
-}
+export type { CylinderLookup } from '#shared/types/floor'
+type Keyed<S extends z.ZodType> = z.input<S> & { idempotencyKey: string }
 
 // Fuel-station flows: refill, quarantine, cylinder change, requalification, emissions test, CO readings.
 export function useFuelActions() {
@@ -38,19 +13,19 @@ export function useFuelActions() {
   const { submitFloorRecord } = useFloorSubmit()
   const cylinderKeys = (id: string) => ['fuel-cage', 'cylinder-list', `cylinder-${id}`, `history-cylinder-${id}`]
 
+  /** A scanned or typed cylinder code; with no signal, the device's copy from the last look-up. */
   function lookupCylinder(code: string) {
-    return $fetch<CylinderLookup>('/api/fuel/cylinders/lookup', { query: { siteId: session.siteId, code } })
+    return lookupOrSeen('cylinder', code, () => $fetch<CylinderLookup>('/api/fuel/cylinders/lookup', { query: { siteId: session.siteId, code } }), f => f.item.tagCode)
   }
 
-  // through the device outbox: `keptKey` is set when the record is kept on the device to send later
-  async function refill(cylinderId: string, body: Partial<RefillInput>, words: FloorRecordWords = { label: 'Cylinder refill' }) {
-    const outcome = await submitFloorRecord<{ item: { id: string, netAddedLb: number | null, gallonsAt60F: number | null } }>({ kind: 'refill', url: `/api/cylinders/${cylinderId}/refills`, body, atField: 'at', ...words })
-    if (outcome.state === 'kept') {
-      return { id: null, netAddedLb: null, gallonsAt60F: null, keptKey: outcome.key }
+  // through the device outbox: kept on the device when the connection drops
+  async function refill(cylinderId: string, body: Keyed<typeof refillSchema>, words: FloorRecordWords): Promise<FloorOutcome<RefillAnswer>> {
+    const outcome = await submitFloorRecord<RefillAnswer>({ kind: 'refill', url: `/api/cylinders/${cylinderId}/refills`, body, atField: 'at', ...words })
+    if (outcome.state === 'saved') {
+      await Promise.all([refreshNuxtData(cylinderKeys(cylinderId)), refreshDue()])
+      toast.show('Refill recorded: the cylinder is full.')
     }
-    await Promise.all([refreshNuxtData(cylinderKeys(cylinderId)), refreshDue()])
-    toast.show('Refill recorded: the cylinder is full.')
-    return { ...outcome.data.item, keptKey: null }
+    return outcome
   }
 
   async function quarantine(cylinderId: string, reason: string) {
@@ -59,19 +34,18 @@ export function useFuelActions() {
     toast.show('Cylinder quarantined in the cage.')
   }
 
-  // through the device outbox: `keptKey` is set when the record is kept on the device to send later
-  async function exchange(truckId: string, body: { cylinderOnCode: string, cylinderOffId: string | null, idempotencyKey: string, note?: string }, words: FloorRecordWords = { label: 'Cylinder change' }) {
-    const outcome = await submitFloorRecord<{ item: { id: string } }>({ kind: 'exchange', url: `/api/trucks/${truckId}/cylinder-exchanges`, body, atField: 'at', ...words })
-    if (outcome.state === 'kept') {
-      return { id: null, keptKey: outcome.key }
+  // through the device outbox: kept on the device when the connection drops
+  async function exchange(truckId: string, body: Keyed<typeof exchangeSchema>, words: FloorRecordWords): Promise<FloorOutcome<ExchangeAnswer>> {
+    const outcome = await submitFloorRecord<ExchangeAnswer>({ kind: 'exchange', url: `/api/trucks/${truckId}/cylinder-exchanges`, body, atField: 'at', ...words })
+    if (outcome.state === 'saved') {
+      await refreshNuxtData(['fuel-cage', 'fuel-lp-trucks', `truck-${truckId}`, `history-truck-${truckId}`])
+      toast.show('Cylinder change recorded.')
     }
-    await refreshNuxtData(['fuel-cage', 'fuel-lp-trucks', `truck-${truckId}`, `history-truck-${truckId}`])
-    toast.show('Cylinder change recorded.')
-    return { ...outcome.data.item, keptKey: null }
+    return outcome
   }
 
-  async function recordRequalification(cylinderId: string, body: Record<string, unknown>) {
-    const result = await $fetch<{ requalification: { dueOn: string } }>(`/api/cylinders/${cylinderId}/requalifications`, { method: 'POST', body })
+  async function recordRequalification(cylinderId: string, body: z.input<typeof requalificationSchema>) {
+    const result = await $fetch<RequalificationAnswer>(`/api/cylinders/${cylinderId}/requalifications`, { method: 'POST', body })
     await Promise.all([refreshNuxtData([...cylinderKeys(cylinderId), `requalifications-${cylinderId}`]), refreshDue()])
     toast.show(`Requalification recorded. Next due ${result.requalification.dueOn}.`)
     return result
@@ -84,15 +58,15 @@ export function useFuelActions() {
     return result.item
   }
 
-  async function recordEmissionsTest(truckId: string, body: Record<string, unknown>) {
-    const result = await $fetch<{ item: { passed: boolean, nextDueOn: string }, verdict: { reasons: string[] } }>(`/api/trucks/${truckId}/emissions-tests`, { method: 'POST', body })
+  async function recordEmissionsTest(truckId: string, body: z.input<typeof emissionsTestSchema>) {
+    const result = await $fetch<EmissionsTestAnswer>(`/api/trucks/${truckId}/emissions-tests`, { method: 'POST', body })
     await Promise.all([refreshNuxtData(['fuel-emissions', `emissions-tests-${truckId}`, `truck-${truckId}`, `history-truck-${truckId}`]), refreshDue()])
     toast.show(result.item.passed ? `Passed. Next test due ${result.item.nextDueOn}.` : `Failed. Retest due ${result.item.nextDueOn}.`, result.item.passed ? 'safe' : 'danger')
     return result
   }
 
-  async function recordCoReadings(body: Record<string, unknown>) {
-    const result = await $fetch<{ alert: boolean, assessment: { twaPpm: number } }>('/api/fuel/co-readings', { method: 'POST', body: { ...body, siteId: session.siteId } })
+  async function recordCoReadings(body: z.input<typeof coReadingsSchema>) {
+    const result = await $fetch<CoReadingsAnswer>('/api/fuel/co-readings', { method: 'POST', body })
     await Promise.all([refreshNuxtData('fuel-co'), refreshDue()])
     toast.show(result.alert ? 'Saved. A reading is above the 200 ppm ceiling: clear the area and ventilate.' : 'CO readings saved.', result.alert ? 'danger' : 'safe')
     return result

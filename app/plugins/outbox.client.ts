@@ -1,18 +1,18 @@
-import { OUTBOX_RETRY_MS, OUTBOX_STORAGE_PREFIX } from '~/stores/outbox'
+import { OUTBOX_CHANNEL, OUTBOX_RETRY_MS } from '~/stores/outbox'
 
 // Sends kept floor records at start, when the connection comes back, when the page is shown again,
-// and every half minute while something is kept; other tabs' changes are picked up from storage.
+// and every half minute while something is kept; other tabs' changes arrive on a broadcast channel.
 export default defineNuxtPlugin(() => {
   const outbox = useOutboxStore()
   const session = useSessionStore()
   const flush = () => {
     outbox.flush().catch(() => undefined)
   }
-  outbox.load()
+  outbox.load().catch(() => undefined)
   window.addEventListener('online', flush)
-  window.addEventListener('storage', (e) => {
-    if (e.key === null || e.key.startsWith(OUTBOX_STORAGE_PREFIX)) outbox.load()
-  })
+  if (typeof BroadcastChannel !== 'undefined') {
+    new BroadcastChannel(OUTBOX_CHANNEL).onmessage = () => outbox.load().catch(() => undefined)
+  }
   document.addEventListener('visibilitychange', () => {
     if (document.visibilityState === 'visible') flush()
   })

@@ -1,4 +1,5 @@
 import { defineStore } from 'pinia'
+import { del, get, set, values } from 'idb-keyval'
 
 export type OutboxStatus = 'kept' | 'sending' | 'saved' | 'refused'
 
@@ -34,7 +35,10 @@ export type OutboxRecordInput = Pick<OutboxRecord, 'kind' | 'label' | 'url' | 'b
 /** What the server's answer means for a record: stored, try later, sign in first, or refused for good. */
 export type OutboxVerdict = 'saved' | 'network' | 'signin' | 'refused'
 
+/** Where earlier versions kept records (one localStorage entry each); carried over to IndexedDB on load. */
 export const OUTBOX_STORAGE_PREFIX = 'bayward-outbox:'
+/** Tabs of the app tell each other here that the outbox changed. */
+export const OUTBOX_CHANNEL = 'bayward-outbox'
 export const OUTBOX_RETRY_MS = 30_000
 const LEASE_MS = 45_000
 const SEND_TIMEOUT_MS = 20_000
@@ -43,7 +47,7 @@ const SAVED_SHOWN_MS = 10_000
 export const KEPT_MESSAGE = 'Kept on this device — will send when the connection is back.'
 export const SIGN_IN_MESSAGE = 'Kept on this device — sign in again to send it.'
 
-interface FetchFailure { statusCode?: number, status?: number, data?: { message?: string, data?: { reasons?: unknown[] } }, message?: string }
+interface FetchFailure { statusCode?: number, status?: number }
 
 // No answer at all, a gateway or an unavailable database (503 from the error handler) is a dropped connection.
 export function outboxVerdictOf(error: unknown): OutboxVerdict {
@@ -53,28 +57,39 @@ export function outboxVerdictOf(error: unknown): OutboxVerdict {
   return 'refused'
 }
 
-/** The server's message and reasons (strings, or objects with a message) as plain lines. */
+/** The server's message and reasons as plain lines (the one refusal parser, parseRefusal). */
 export function outboxRefusalOf(error: unknown): { message: string, reasons: string[] } {
-  const e = error as FetchFailure
-  const reasons = (e?.data?.data?.reasons ?? []).map(r => (typeof r === 'string' ? r : String((r as { message?: string })?.message ?? ''))).filter(Boolean)
-  const message = e?.data?.message || reasons[0] || `Bayward refused it (${e?.statusCode ?? 'no status'}).`
+  const refusal = parseRefusal(error)
+  const reasons = refusal?.reasons.map(r => r.message) ?? []
+  const message = refusal?.message ?? reasons[0] ?? 'Bayward refused it.'
   return { message, reasons: reasons.length === 1 && reasons[0] === message ? [] : reasons }
 }
 
-function readStored(): OutboxRecord[] {
-  const found: OutboxRecord[] = []
+const byPressed = (a: OutboxRecord, b: OutboxRecord) => a.createdAt.localeCompare(b.createdAt) || a.key.localeCompare(b.key)
+
+// Records kept by an earlier version in localStorage move to IndexedDB once, keeping their keys.
+async function carryOverLocalStorage() {
+  const names: string[] = []
   for (let i = 0; i < localStorage.length; i++) {
     const name = localStorage.key(i)
-    if (!name?.startsWith(OUTBOX_STORAGE_PREFIX)) continue
+    if (name?.startsWith(OUTBOX_STORAGE_PREFIX)) names.push(name)
+  }
+  for (const name of names) {
     try {
-      found.push(JSON.parse(localStorage.getItem(name) ?? '') as OutboxRecord)
+      const record = JSON.parse(localStorage.getItem(name) ?? '') as OutboxRecord
+      if (!await get(record.key, outboxDb())) await set(record.key, record, outboxDb())
+      localStorage.removeItem(name)
     }
     catch { /* a damaged entry is left for a person to see in the browser's storage */ }
   }
-  return found.sort((a, b) => a.createdAt.localeCompare(b.createdAt) || a.key.localeCompare(b.key))
 }
 
-// The device outbox: every floor record is written to localStorage before it is sent, sent one at a
+async function readStored(): Promise<OutboxRecord[]> {
+  if (typeof localStorage !== 'undefined') await carryOverLocalStorage()
+  return (await values<OutboxRecord>(outboxDb())).sort(byPressed)
+}
+
+// The device outbox: every floor record is written to IndexedDB before it is sent, sent one at a
 // time in the order Save was pressed, and removed once the server has stored it.
 export const useOutboxStore = defineStore('outbox', () => {
   const records = ref<OutboxRecord[]>([])
@@ -88,36 +103,37 @@ export const useOutboxStore = defineStore('outbox', () => {
   const online = ref(true)
   let busy = false
   let tail: Promise<unknown> = Promise.resolve()
+  const channel = import.meta.client && typeof BroadcastChannel !== 'undefined' ? new BroadcastChannel(OUTBOX_CHANNEL) : null
+  const tellOtherTabs = () => channel?.postMessage('changed')
 
-  function load() {
+  async function load() {
     if (!import.meta.client) return
     const now = Date.now()
-    records.value = readStored().filter((r) => {
-      const stale = r.status === 'saved' && now - Date.parse(r.settledAt ?? r.createdAt) > SAVED_SHOWN_MS
-      if (stale) localStorage.removeItem(OUTBOX_STORAGE_PREFIX + r.key)
-      return !stale
-    })
+    const stored = await readStored()
+    for (const r of stored.filter(r => r.status === 'saved' && now - Date.parse(r.settledAt ?? r.createdAt) > SAVED_SHOWN_MS)) await del(r.key, outboxDb())
+    records.value = stored.filter(r => !(r.status === 'saved' && now - Date.parse(r.settledAt ?? r.createdAt) > SAVED_SHOWN_MS))
   }
 
-  function put(record: OutboxRecord) {
-    localStorage.setItem(OUTBOX_STORAGE_PREFIX + record.key, JSON.stringify(record))
+  async function put(record: OutboxRecord) {
+    await set(record.key, JSON.parse(JSON.stringify(record)), outboxDb())
     if (record.status === 'saved') setTimeout(pruneSaved, SAVED_SHOWN_MS + 100)
     const i = records.value.findIndex(r => r.key === record.key)
     if (i >= 0) records.value.splice(i, 1, record)
-    else records.value = [...records.value, record].sort((a, b) => a.createdAt.localeCompare(b.createdAt) || a.key.localeCompare(b.key))
+    else records.value = [...records.value, record].sort(byPressed)
+    tellOtherTabs()
   }
 
-  function remove(key: string) {
-    localStorage.removeItem(OUTBOX_STORAGE_PREFIX + key)
+  async function remove(key: string) {
+    await del(key, outboxDb())
     records.value = records.value.filter(r => r.key !== key)
+    tellOtherTabs()
   }
 
   const find = (key: string) => records.value.find(r => r.key === key)
 
   /** The latest copy on the device (another tab may have sent or dismissed it meanwhile). */
-  function fresh(key: string): OutboxRecord | null {
-    const text = localStorage.getItem(OUTBOX_STORAGE_PREFIX + key)
-    return text ? JSON.parse(text) as OutboxRecord : null
+  async function fresh(key: string): Promise<OutboxRecord | null> {
+    return (await get<OutboxRecord>(key, outboxDb())) ?? null
   }
 
   // One sender at a time: in this tab a promise chain, across tabs a Web Lock where the browser has one
@@ -141,42 +157,42 @@ export const useOutboxStore = defineStore('outbox', () => {
 
   // Sends one record; with `immediate` a refusal goes back to the form that is still open instead of into the outbox.
   async function sendOne(key: string, immediate: boolean): Promise<{ verdict: OutboxVerdict | 'skipped', data?: unknown, error?: unknown }> {
-    const record = fresh(key)
+    const record = await fresh(key)
     if (!record) {
-      remove(key)
+      await remove(key)
       return { verdict: 'skipped' }
     }
     if (record.status === 'saved' || record.status === 'refused' || (record.status === 'sending' && record.leaseUntil > Date.now() && !immediate)) {
-      put(record)
+      await put(record)
       return { verdict: 'skipped' }
     }
     // sent later than the moment Save was pressed: the record carries that moment
     const late = !immediate && record.atField
     const body = late ? { ...record.body, [record.atField!]: record.createdAt } : record.body
-    put({ ...record, status: 'sending', attempts: record.attempts + 1, leaseUntil: Date.now() + LEASE_MS })
+    await put({ ...record, status: 'sending', attempts: record.attempts + 1, leaseUntil: Date.now() + LEASE_MS })
     try {
       const data = await $fetch(record.url, { method: record.method, body, timeout: SEND_TIMEOUT_MS, retry: 0 })
       online.value = true
       const storedRefusal = (data as { item?: { refused?: boolean, refusalReasons?: string[] } })?.item
       if (storedRefusal?.refused && !immediate) {
         const reasons = storedRefusal.refusalReasons ?? []
-        put({ ...record, status: 'refused', message: reasons[0] ?? 'Refused.', reasons: reasons.slice(1), settledAt: new Date().toISOString(), attempts: record.attempts + 1 })
+        await put({ ...record, status: 'refused', message: reasons[0] ?? 'Refused.', reasons: reasons.slice(1), settledAt: new Date().toISOString(), attempts: record.attempts + 1 })
         return { verdict: 'refused', data }
       }
-      if (immediate) remove(key)
-      else put({ ...record, status: 'saved', message: 'Saved', reasons: [], settledAt: new Date().toISOString(), attempts: record.attempts + 1 })
+      if (immediate) await remove(key)
+      else await put({ ...record, status: 'saved', message: 'Saved', reasons: [], settledAt: new Date().toISOString(), attempts: record.attempts + 1 })
       return { verdict: 'saved', data }
     }
     catch (error) {
       const verdict = outboxVerdictOf(error)
       if (verdict === 'network' || verdict === 'signin') {
         if (verdict === 'network') online.value = false
-        put({ ...record, status: 'kept', message: verdict === 'network' ? KEPT_MESSAGE : SIGN_IN_MESSAGE, attempts: record.attempts + 1, leaseUntil: 0 })
+        await put({ ...record, status: 'kept', message: verdict === 'network' ? KEPT_MESSAGE : SIGN_IN_MESSAGE, attempts: record.attempts + 1, leaseUntil: 0 })
       }
-      else if (immediate) remove(key)
+      else if (immediate) await remove(key)
       else {
         const { message, reasons } = outboxRefusalOf(error)
-        put({ ...record, status: 'refused', message, reasons, settledAt: new Date().toISOString(), attempts: record.attempts + 1, leaseUntil: 0 })
+        await put({ ...record, status: 'refused', message, reasons, settledAt: new Date().toISOString(), attempts: record.attempts + 1, leaseUntil: 0 })
       }
       return { verdict, error }
     }
@@ -198,7 +214,7 @@ export const useOutboxStore = defineStore('outbox', () => {
   /** Sends what is kept, unless another sender is at it; refreshes the pages' data when something went through. */
   async function flush() {
     if (!import.meta.client || !userId.value) return
-    load()
+    await load()
     if (!queue().length) return
     const result = await exclusive(false, sendQueued)
     if (result?.sent) await refreshNuxtData()
@@ -211,7 +227,7 @@ export const useOutboxStore = defineStore('outbox', () => {
   async function submit<T>(input: OutboxRecordInput): Promise<{ state: 'saved', data: T, key: string } | { state: 'kept', key: string }> {
     if (!userId.value) throw Object.assign(new Error(SIGN_IN_MESSAGE), { statusCode: 401, data: { message: 'Sign in again to record this.' } })
     const key = typeof input.body.idempotencyKey === 'string' ? input.body.idempotencyKey : newIdempotencyKey()
-    put({
+    await put({
       key, kind: input.kind, label: input.label, details: input.details ?? [], url: input.url, method: 'POST',
       body: { ...input.body, idempotencyKey: key }, atField: input.atField === undefined ? 'at' : input.atField,
       createdAt: new Date().toISOString(), userId: userId.value, userName: session.me?.user.name ?? '',
@@ -237,20 +253,20 @@ export const useOutboxStore = defineStore('outbox', () => {
   }
 
   /** A refused record goes back in the queue (after the cause was put right, or after a server error). */
-  function sendAgain(key: string) {
+  async function sendAgain(key: string) {
     const record = find(key)
     if (!record) return
-    put({ ...record, status: 'kept', message: KEPT_MESSAGE, reasons: [], settledAt: null })
+    await put({ ...record, status: 'kept', message: KEPT_MESSAGE, reasons: [], settledAt: null })
     return flush()
   }
 
   function dismiss(key: string) {
-    remove(key)
+    return remove(key)
   }
 
-  function pruneSaved() {
+  async function pruneSaved() {
     const now = Date.now()
-    for (const r of records.value.filter(r => r.status === 'saved' && now - Date.parse(r.settledAt ?? r.createdAt) >= SAVED_SHOWN_MS)) remove(r.key)
+    for (const r of records.value.filter(r => r.status === 'saved' && now - Date.parse(r.settledAt ?? r.createdAt) >= SAVED_SHOWN_MS)) await remove(r.key)
   }
 
   return { records, mine, waiting, refused, saved, othersWaiting, online, load, find, flush, submit, sendAgain, dismiss, pruneSaved }

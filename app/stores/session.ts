@@ -1,4 +1,5 @@
 import { defineStore } from 'pinia'
+import { del, get, set } from 'idb-keyval'
 import type { Role, SiteMembership } from '#shared/types/auth'
 import type { UnitSystem } from '#shared/utils/units'
 
@@ -30,12 +31,17 @@ export const useSessionStore = defineStore('session', () => {
     return roles.value.some(r => wanted.includes(r))
   }
 
+  // With no signal at all, the app opened from the service worker still knows who was signed in on this
+  // device (kept in IndexedDB at the last answer); a 401 or a sign-out forgets it.
   async function load() {
     try {
       me.value = await useRequestFetch()<MeResponse>('/api/me')
+      if (import.meta.client) await set('me', JSON.parse(JSON.stringify(me.value)), deviceDb()).catch(() => undefined)
     }
-    catch {
-      me.value = null
+    catch (error) {
+      const offline = import.meta.client && !parseRefusal(error)
+      me.value = offline ? (await get<MeResponse>('me', deviceDb()).catch(() => undefined)) ?? null : null
+      if (import.meta.client && !offline) await del('me', deviceDb()).catch(() => undefined)
     }
   }
 
@@ -46,6 +52,7 @@ export const useSessionStore = defineStore('session', () => {
   async function signOut() {
     await $fetch('/api/auth/sign-out', { method: 'POST' })
     me.value = null
+    await del('me', deviceDb()).catch(() => undefined)
   }
 
   return { me, signedIn, sites, currentSite, siteId, roles, units, isLead, primaryRole, can, load, chooseSite, signOut }

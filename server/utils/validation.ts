@@ -1,16 +1,7 @@
 import type { H3Event } from 'h3'
 import type { z } from 'zod'
 
-// Field messages keyed by dotted path, the shape every 400 answer carries in `data.fields`.
-export function fieldMessages(error: z.ZodError): Record<string, string> {
-  const fields: Record<string, string> = {}
-  for (const issue of error.issues) {
-    const key = issue.path.join('.') || '_'
-    fields[key] ??= issue.message
-  }
-  return fields
-}
-
+// Every 400 answer carries its field messages in `data.fields` (fieldMessages, shared/utils/field-messages.ts).
 function invalid(error: z.ZodError, what: string) {
   const fields = fieldMessages(error)
   const first = Object.entries(fields)[0]

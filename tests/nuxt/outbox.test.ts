@@ -1,10 +1,12 @@
 import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it, vi } from 'vitest'
+import { clear, get, keys } from 'idb-keyval'
 import { createPinia, setActivePinia } from 'pinia'
 import { createFetch } from 'ofetch'
 import { http, HttpResponse } from 'msw'
 import { setupServer } from 'msw/node'
 import { KEPT_MESSAGE, OUTBOX_STORAGE_PREFIX, SIGN_IN_MESSAGE, outboxVerdictOf, useOutboxStore } from '../../app/stores/outbox'
 import { useSessionStore } from '../../app/stores/session'
+import { outboxDb } from '../../app/utils/device-store'
 
 // The device outbox's states: kept → sending → saved | refused, in the order Save was pressed.
 const ORIGIN = 'http://bayward.test'
@@ -25,8 +27,9 @@ afterAll(() => {
   server.close()
   vi.unstubAllGlobals()
 })
-beforeEach(() => {
+beforeEach(async () => {
   localStorage.clear()
+  await clear(outboxDb())
   arrived.length = 0
   setActivePinia(createPinia())
   useSessionStore().me = { user: { id: 'user-1', email: 'ines@example.test', name: 'Ines' }, memberships: [], sites: [] }
@@ -36,7 +39,7 @@ afterEach(() => {
 })
 
 const swap = (n: number) => ({ kind: 'swap', label: `Swap ${n}`, url: '/api/battery-room/swaps', body: { truckId: `truck-${n}` } })
-const stored = () => Object.keys(localStorage).filter(k => k.startsWith(OUTBOX_STORAGE_PREFIX))
+const stored = () => keys<string>(outboxDb())
 
 describe('device outbox', () => {
   it('a record the server stores is saved and leaves nothing on the device', async () => {
@@ -45,7 +48,7 @@ describe('device outbox', () => {
     expect(result).toMatchObject({ state: 'saved', data: { item: { id: 'stored' } } })
     expect(arrived[0]!.body.idempotencyKey).toBe(result.key)
     expect(arrived[0]!.body.at).toBeUndefined()
-    expect(stored()).toEqual([])
+    expect(await stored()).toEqual([])
   })
 
   it('no connection: kept on the device; sent later with the same key and the time Save was pressed', async () => {
@@ -55,7 +58,7 @@ describe('device outbox', () => {
     expect(result.state).toBe('kept')
     const [kept] = outbox.waiting
     expect(kept).toMatchObject({ status: 'kept', message: KEPT_MESSAGE })
-    expect(stored()).toEqual([OUTBOX_STORAGE_PREFIX + result.key])
+    expect(await stored()).toEqual([result.key])
 
     answer = () => HttpResponse.json({ item: { id: 'stored' } }, { status: 201 })
     await outbox.flush()
@@ -70,7 +73,7 @@ describe('device outbox', () => {
     setActivePinia(createPinia())
     useSessionStore().me = { user: { id: 'user-1', email: 'ines@example.test', name: 'Ines' }, memberships: [], sites: [] }
     const reloaded = useOutboxStore()
-    reloaded.load()
+    await reloaded.load()
     expect(reloaded.waiting.map(r => r.key)).toEqual([key])
   })
 
@@ -82,15 +85,15 @@ describe('device outbox', () => {
     await outbox.flush()
     expect(outbox.find(key)).toMatchObject({ status: 'refused', message: expect.stringContaining('someone has just taken it'), reasons: expect.arrayContaining(['Second reason.']) })
     expect(outbox.refused).toHaveLength(1)
-    outbox.dismiss(key)
+    await outbox.dismiss(key)
     expect(outbox.refused).toHaveLength(0)
-    expect(stored()).toEqual([])
+    expect(await stored()).toEqual([])
   })
 
   it('a refusal while the form is still open goes back to the form and is not kept', async () => {
     answer = () => HttpResponse.json({ statusCode: 409, message: 'Not allowed yet.', data: { reasons: [] } }, { status: 409 })
     await expect(useOutboxStore().submit(swap(1))).rejects.toMatchObject({ statusCode: 409 })
-    expect(stored()).toEqual([])
+    expect(await stored()).toEqual([])
   })
 
   it('kept records go one at a time in the order Save was pressed; a new one waits behind them', async () => {
@@ -127,6 +130,18 @@ describe('device outbox', () => {
     await outbox.flush()
     expect(arrived).toHaveLength(0)
     expect(outbox.othersWaiting.map(r => r.userName)).toEqual(['Ines'])
+  })
+
+  it('records kept in localStorage by an earlier version move to IndexedDB once, and are sent', async () => {
+    const record = { key: '9b2f0c1e-5d4a-4c3b-8a7e-0f1e2d3c4b5a', kind: 'swap', label: 'Swap 7', details: [], url: '/api/battery-room/swaps', method: 'POST', body: { truckId: 'truck-7', idempotencyKey: '9b2f0c1e-5d4a-4c3b-8a7e-0f1e2d3c4b5a' }, atField: 'at', createdAt: '2026-03-31T06:00:00.000Z', userId: 'user-1', userName: 'Ines', status: 'kept', message: KEPT_MESSAGE, reasons: [], attempts: 1, leaseUntil: 0, settledAt: null }
+    localStorage.setItem(OUTBOX_STORAGE_PREFIX + record.key, JSON.stringify(record))
+    const outbox = useOutboxStore()
+    await outbox.load()
+    expect(outbox.waiting.map(r => r.key)).toEqual([record.key])
+    expect(Object.keys(localStorage).filter(k => k.startsWith(OUTBOX_STORAGE_PREFIX))).toEqual([])
+    expect(await get(record.key, outboxDb())).toMatchObject({ label: 'Swap 7' })
+    await outbox.flush()
+    expect(arrived.map(a => [a.body.idempotencyKey, a.body.at])).toEqual([[record.key, record.createdAt]])
   })
 
   it('what counts as a dropped connection', () => {

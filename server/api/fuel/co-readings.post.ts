@@ -3,7 +3,7 @@ import { coReadingsSchema } from '#shared/utils/fuel-schemas'
 // Record a day's indoor CO readings in one area (safety leads, technicians, admins). The answer
 // carries that day's 8-hour TWA against the OSHA PEL, the site limit and the NIOSH ceiling; a reading
 // above the ceiling is stored as an alert (audit row) and passed to the alert hook.
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<CoReadingsAnswer> => {
   const body = await validateBody(event, coReadingsSchema)
   const actor = await requireSiteRole(event, body.siteId, CO_RECORD_ROLES)
   const db = useDb()

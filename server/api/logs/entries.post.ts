@@ -1,7 +1,7 @@
 import { logEntriesSchema } from '#shared/utils/area-checklists'
 
 // Technicians (and leads) fill in an area's checklist; a signed log answers 409.
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<LogEntriesAnswer> => {
   const body = await validateBody(event, logEntriesSchema)
   const actor = await requireSiteRole(event, body.siteId, LOG_RECORD_ROLES)
   const site = await loadDueSite(useDb(), body.siteId)

@@ -3,7 +3,7 @@ import { refillSchema } from '#shared/utils/fuel-schemas'
 // Record a refill by weight (technicians and leads with a current LP-gas transfer qualification).
 // Filled: 201. Refused, and stored as refused: 409 when the cylinder's state forbids filling,
 // 422 when this fill failed its checks (inspection, overfill, tare loss), with data.reasons.
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<RefillAnswer> => {
   const { id } = validateParams(event, idParamsSchema)
   const body = await validateBody(event, refillSchema)
   const { actor, row } = await findAssetForActor(event, 'cylinder', id)

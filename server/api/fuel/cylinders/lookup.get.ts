@@ -2,7 +2,7 @@ import { cylinderLookupQuerySchema } from '#shared/utils/fuel-schemas'
 
 // A scanned or typed cylinder code at the site, with what a refill or a cylinder change would meet:
 // its requalification date, the reasons it may not be filled or fitted, and the user's LP-gas standing.
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<CylinderLookup> => {
   const { siteId, code } = validateQuery(event, cylinderLookupQuerySchema)
   const actor = await requireSiteRole(event, siteId)
   const db = useDb()

@@ -2,7 +2,7 @@ import { exchangeSchema } from '#shared/utils/fuel-schemas'
 
 // Change the LP cylinder on a truck (everyone at the site): the one coming off goes to the cage as
 // empty, the one going on must be full, in service and in date for requalification.
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<ExchangeAnswer> => {
   const { id } = validateParams(event, idParamsSchema)
   const body = await validateBody(event, exchangeSchema)
   const { actor, row } = await findAssetForActor(event, 'truck', id)

@@ -3,7 +3,7 @@ import { emissionsTestSchema } from '#shared/utils/fuel-schemas'
 
 // Record a yearly tailpipe test of a combustion truck (facilities leads and admins): pass or fail
 // against the site's policy, the next date one interval on, or the retest date after a fail.
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<EmissionsTestAnswer> => {
   const { id } = validateParams(event, idParamsSchema)
   const body = await validateBody(event, emissionsTestSchema)
   const { actor, truck } = await requireCombustionTruck(event, id)
@@ -34,7 +34,7 @@ export default defineEventHandler(async (event) => {
       await notifyFailedEmissionsTest(tx, { siteId: truck.siteId, truckId: truck.id, fleetNumber: truck.fleetNumber, testedOn: body.testedOn, reasons: verdict.reasons, retestBy: nextDueOn })
     }
     setResponseStatus(event, 201)
-    return { item, verdict, policy, source: EMISSIONS_POLICY_SOURCE }
+    return { item: item!, verdict, policy, source: EMISSIONS_POLICY_SOURCE }
   })
   if (!verdict.pass) deliverMailSoon()
   return result

@@ -1,0 +1,33 @@
+/** One reason the server gave, with its code when it sent one ({ code, message } objects). */
+export interface RefusalReason { code: string | null, message: string }
+
+/** A refusal as the client shows it, whatever shape the route answered with. */
+export interface Refusal {
+  status: number
+  message: string
+  reasons: RefusalReason[]
+  /** field messages of a 400 (`data.fields`), keyed by dotted path */
+  fields: Record<string, string>
+  overridable: boolean
+  offerQuarantine: boolean
+  /** everything else the route put in `data` */
+  data: Record<string, unknown>
+}
+
+interface FetchFailure { statusCode?: number, status?: number, data?: { message?: string, statusMessage?: string, data?: Record<string, unknown> } }
+
+// The one parser of the server's refusals: `data.fields`, `data.reasons` (strings or { code, message }),
+// and `message`. Null when no answer came back at all (no connection, timeout).
+export function parseRefusal(error: unknown): Refusal | null {
+  const e = error as FetchFailure | null
+  const status = e?.statusCode ?? e?.status ?? 0
+  if (!status) return null
+  const data = (e?.data?.data ?? {}) as Record<string, unknown>
+  const reasons = (Array.isArray(data.reasons) ? data.reasons : []).map((r: unknown): RefusalReason => (typeof r === 'string'
+    ? { code: null, message: r }
+    : { code: typeof (r as RefusalReason)?.code === 'string' ? (r as RefusalReason).code : null, message: String((r as RefusalReason)?.message ?? '') }))
+    .filter(r => r.message)
+  const fields = data.fields && typeof data.fields === 'object' ? data.fields as Record<string, string> : {}
+  const message = e?.data?.message || reasons[0]?.message || e?.data?.statusMessage || `Bayward refused it (${status}).`
+  return { status, message, reasons, fields, overridable: data.overridable === true, offerQuarantine: data.offerQuarantine === true, data }
+}

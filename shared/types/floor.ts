@@ -1,0 +1,77 @@
+import type { FitReason } from '../utils/battery-fit'
+import type { BatteryState } from '../utils/battery-state'
+import type { EmissionsPolicy } from '../utils/emissions'
+
+// What the floor routes answer, written once: the route declares it as its return type and the floor
+// forms read it. Only the fields the forms use are named; the routes may send more.
+
+/** A battery as the Bay board and the floor forms show it. */
+export interface BayCardData {
+  id: string
+  serial: string
+  tagCode: string | null
+  chemistry: string
+  voltage: number
+  cellCount: number
+  capacityAh: number
+  cycleCount: number
+  ratedCycles: number
+  outOfServiceReason: string | null
+  state: BatteryState
+  label: string
+  coolingMinutesLeft: number
+  readyAt: string | null
+  flags: { key: string, label: string }[]
+  readiness: FitReason[]
+  truck: { id: string, fleetNumber: string | null, tagCode: string | null } | null
+  charge: { id: string, chargerId: string | null, chargerName: string | null, since: string } | null
+  lastChargeEndedAt: string | null
+  justCharged: boolean
+  lastStateOfChargePct: number | null
+}
+
+/** GET /api/battery-room/lookup: a scanned or typed code with what the swap, charge and check forms need. */
+export interface FloorLookup {
+  kind: 'battery' | 'truck' | 'charger'
+  id: string
+  code: string | null
+  label: string
+  battery?: BayCardData
+  truck?: { fleetNumber: string, power: string, systemVoltage: number | null, hourMeter: number, outOfService: boolean, currentBattery: { id: string, serial: string, tagCode: string | null } | null }
+  charger?: { name: string, outputVoltage: number, outOfService: boolean, chemistryProfiles: string[], minCapacityAh: number, maxCapacityAh: number, openSession: { id: string, batteryId: string, at: string | Date, serial: string } | null }
+}
+
+/** GET /api/fuel/cylinders/lookup */
+export interface CylinderLookup {
+  item: { id: string, serial: string, tagCode: string | null, status: string, waterCapacityLb: number, tareLb: number, nominalPropaneLb: number, outOfService: boolean }
+  truck: { id: string, fleetNumber: string } | null
+  requalification: { dueOn: string, status: 'current' | 'due_soon' | 'overdue', daysLeft: number }
+  fillBlocks: string[]
+  mountBlocks: string[]
+  fillLimitLb: number | null
+  lpTransfer: { current: boolean, expiresOn: string | null }
+  roles: string[]
+}
+
+/** POST /api/battery-room/swaps */
+export interface SwapAnswer { item: { id: string }, replayed: boolean, warnings: FitReason[], overridden?: FitReason[] }
+/** POST /api/battery-room/charges */
+export interface ChargeOnAnswer { item: { id: string }, replayed: boolean }
+/** POST /api/battery-room/charges/:id/end */
+export interface ChargeOffAnswer { item: { gridKwh: number | null, energyCost: number | null, countedCycle: boolean, ranHot: boolean }, currency: string }
+/** POST /api/battery-room/checks (a repeated key answers the stored check without the cell list) */
+export interface CheckAnswer { item: { id: string, meanCorrectedSg: number | null, spread: number | null, stateOfChargePct: number | null }, lowCells?: number[], warnings: FitReason[] }
+/** POST /api/cylinders/:id/refills */
+export interface RefillAnswer { item: { id: string, netAddedLb: number | null, gallonsAt60F: number | null }, cylinder: { id: string, status: string }, repeated: boolean }
+/** POST /api/trucks/:id/cylinder-exchanges */
+export interface ExchangeAnswer { item: { id: string }, repeated: boolean }
+/** POST /api/cylinders/:id/requalifications */
+export interface RequalificationAnswer { requalification: { dueOn: string } }
+/** POST /api/trucks/:id/emissions-tests */
+export interface EmissionsTestAnswer { item: { id: string, passed: boolean, nextDueOn: string }, verdict: { pass: boolean, reasons: string[] }, policy: EmissionsPolicy, source: string }
+/** POST /api/fuel/co-readings */
+export interface CoReadingsAnswer { items: { id: string, ppm: number, durationHours: number }[], alert: boolean, assessment: { twaPpm: number }, limits: object }
+/** POST /api/incidents */
+export interface IncidentAnswer { alerted: number }
+/** POST /api/logs/entries */
+export interface LogEntriesAnswer { followUps: string[] }

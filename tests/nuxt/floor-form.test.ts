@@ -1,0 +1,71 @@
+import { describe, expect, it } from 'vitest'
+import { swapBodySchema } from '../../shared/utils/battery-room-schemas'
+import { parseRefusal } from '../../app/utils/refusal'
+import { newIdempotencyKey } from '../../app/utils/idempotency'
+import { useFloorForm } from '../../app/composables/useFloorForm'
+
+// The floor-form kit: one refusal parser for every shape the routes answer, the shared schema before
+// sending, and the states a form goes through.
+const fetchError = (status: number, data: Record<string, unknown>) => ({ statusCode: status, data })
+
+describe('parseRefusal', () => {
+  it('reads reasons as strings or { code, message }, field messages and the message', () => {
+    expect(parseRefusal(fetchError(409, { message: 'Not allowed yet.', data: { reasons: ['Past its requalification date.'], offerQuarantine: true } }))).toMatchObject({
+      status: 409, message: 'Not allowed yet.', reasons: [{ code: null, message: 'Past its requalification date.' }], offerQuarantine: true, overridable: false,
+    })
+    expect(parseRefusal(fetchError(409, { message: '', data: { reasons: [{ code: 'not_cooled', message: 'Still cooling.' }], overridable: true } }))).toMatchObject({
+      message: 'Still cooling.', reasons: [{ code: 'not_cooled', message: 'Still cooling.' }], overridable: true,
+    })
+    expect(parseRefusal(fetchError(400, { message: 'Check the form.', data: { fields: { hourMeter: 'Not below 0.' } } }))).toMatchObject({
+      reasons: [], fields: { hourMeter: 'Not below 0.' }, message: 'Check the form.',
+    })
+    expect(parseRefusal(fetchError(403, {}))?.message).toBe('Bayward refused it (403).')
+  })
+
+  it('no answer at all is no refusal', () => {
+    expect(parseRefusal(new TypeError('Failed to fetch'))).toBeNull()
+    expect(parseRefusal(undefined)).toBeNull()
+  })
+})
+
+describe('useFloorForm', () => {
+  it('makes version-4 UUIDs without crypto.randomUUID', () => {
+    const keys = new Set(Array.from({ length: 50 }, newIdempotencyKey))
+    expect(keys.size).toBe(50)
+    for (const k of keys) expect(k).toMatch(/^[0-9a-f]{8}-[0-9a-f]{4}-4[0-9a-f]{3}-[89ab][0-9a-f]{3}-[0-9a-f]{12}$/)
+  })
+
+  it('runs the shared schema first: field messages at the field, nothing sent', async () => {
+    let sent = 0
+    const form = useFloorForm({ schema: swapBodySchema, send: async () => (sent++, { state: 'saved' as const, data: {}, key: 'k' }) })
+    expect(await form.submit({ truckId: '', batteryInId: '', hourMeter: Number.NaN })).toBeNull()
+    expect(sent).toBe(0)
+    expect(form.fields.value).toMatchObject({ truckId: 'Pick the truck.', batteryInId: 'Pick the battery going in.', hourMeter: 'Hour meter must be a number.' })
+    expect(form.state.value).toBe('editing')
+  })
+
+  it('sends with the form\'s key, then takes a new key for the next record; a kept record is "kept"', async () => {
+    const bodies: { idempotencyKey: string }[] = []
+    const form = useFloorForm<{ n: number }, unknown>({ send: async body => (bodies.push(body), { state: 'kept' as const, key: body.idempotencyKey }) })
+    const first = form.key.value
+    await form.submit({ n: 1 })
+    expect(bodies[0]!.idempotencyKey).toBe(first)
+    expect(form.state.value).toBe('kept')
+    expect(form.key.value).not.toBe(first)
+    form.again()
+    expect(form.state.value).toBe('editing')
+  })
+
+  it('a refusal with reasons is "refused"; a 400 puts its field messages at the fields; no answer says nothing was saved', async () => {
+    const refused = useFloorForm<object, unknown>({ sendNow: async () => Promise.reject(fetchError(409, { message: 'No.', data: { reasons: ['Charger busy.'] } })) })
+    await refused.submit({})
+    expect(refused.state.value).toBe('refused')
+    expect(refused.refusal.value?.reasons[0]?.message).toBe('Charger busy.')
+    const invalid = useFloorForm<object, unknown>({ sendNow: async () => Promise.reject(fetchError(400, { message: 'Check the form.', data: { fields: { testedOn: 'Not after today.' } } })) })
+    await invalid.submit({})
+    expect(invalid.fields.value).toEqual({ testedOn: 'Not after today.' })
+    const offline = useFloorForm<object, unknown>({ sendNow: async () => Promise.reject(new TypeError('Failed to fetch')) })
+    await offline.submit({})
+    expect(offline.problem.value).toMatch(/nothing was saved/)
+  })
+})
