@@ -2,7 +2,7 @@ import { fileURLToPath } from 'node:url'
 
 // Bayward: Nuxt 4 app (app/, server/, shared/), PostgreSQL through Drizzle, sealed-cookie sessions.
 export default defineNuxtConfig({
-  modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', '@vueuse/nuxt', 'nuxt-auth-utils', '@nuxt/eslint'],
+  modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', '@vueuse/nuxt', 'nuxt-auth-utils', '@nuxt/eslint', '@vite-pwa/nuxt'],
   devtools: { enabled: false },
   app: {
     head: {
@@ -13,7 +13,11 @@ export default defineNuxtConfig({
         { name: 'theme-color', content: '#1e293b' },
         { name: 'description', content: 'Battery room and fuel station logbook and due list.' },
       ],
-      link: [{ rel: 'icon', type: 'image/svg+xml', href: '/favicon.svg' }],
+      link: [
+        { rel: 'icon', type: 'image/svg+xml', href: '/favicon.svg' },
+        { rel: 'manifest', href: '/manifest.webmanifest' },
+        { rel: 'apple-touch-icon', href: '/icons/apple-touch-icon.png' },
+      ],
       // zod probes for eval (new Function) when its first schema is built; the content security policy
       // forbids eval and would report the probe, so zod is told to parse without it before the app loads.
       script: [{ innerHTML: 'globalThis.__zod_globalConfig={jitless:true}', tagPosition: 'head' }],
@@ -38,6 +42,9 @@ export default defineNuxtConfig({
   },
   // Separate build and output folders let several builds of one checkout coexist (BAYWARD_BUILD_NAME=x).
   buildDir: process.env.BAYWARD_BUILD_NAME ? `.nuxt-${process.env.BAYWARD_BUILD_NAME}` : '.nuxt',
+  // The app shell the service worker keeps: the page rendered without data (no user, no nonce-free script), so the
+  // app opens with no signal and draws whatever page was asked for on the device.
+  routeRules: { '/offline-shell': { ssr: false } },
   compatibilityDate: '2026-11-01',
   nitro: {
     experimental: { tasks: false },
@@ -63,5 +70,34 @@ export default defineNuxtConfig({
     },
   },
   eslint: { config: { stylistic: true } },
+  pwa: {
+    strategies: 'injectManifest',
+    srcDir: fileURLToPath(new URL('./service-worker', import.meta.url)),
+    filename: 'sw.ts',
+    // registered by app/plugins/service-worker.client.ts (bundled): no inline script, so the nonce CSP stays strict
+    injectRegister: false,
+    client: { registerPlugin: false },
+    registerWebManifestInRouteRules: true,
+    manifest: {
+      name: 'Bayward',
+      short_name: 'Bayward',
+      description: 'Battery room and fuel station logbook and due list.',
+      start_url: '/',
+      scope: '/',
+      display: 'standalone',
+      background_color: '#1e293b',
+      theme_color: '#1e293b',
+      icons: [
+        { src: '/icons/bayward-192.png', sizes: '192x192', type: 'image/png' },
+        { src: '/icons/bayward-512.png', sizes: '512x512', type: 'image/png' },
+        { src: '/icons/bayward-maskable-512.png', sizes: '512x512', type: 'image/png', purpose: 'maskable' },
+        { src: '/icons/bayward.svg', sizes: 'any', type: 'image/svg+xml' },
+      ],
+    },
+    injectManifest: {
+      globPatterns: ['_nuxt/**/*.{js,css,woff2,json}', 'icons/*.{png,svg}', 'favicon.svg', 'manifest.webmanifest'],
+      maximumFileSizeToCacheInBytes: 4 * 1024 * 1024,
+    },
+  },
   tailwindcss: { cssPath: false, viewer: false },
 })

@@ -102,6 +102,7 @@ export const useOutboxStore = defineStore('outbox', () => {
   const othersWaiting = computed(() => records.value.filter(r => r.userId !== userId.value && r.status !== 'saved'))
   const online = ref(true)
   let busy = false
+  let lockHeld = false
   let tail: Promise<unknown> = Promise.resolve()
   const channel = import.meta.client && typeof BroadcastChannel !== 'undefined' ? new BroadcastChannel(OUTBOX_CHANNEL) : null
   const tellOtherTabs = () => channel?.postMessage('changed')
@@ -145,7 +146,17 @@ export const useOutboxStore = defineStore('outbox', () => {
       busy = true
       try {
         if (!locks) return await work()
-        return await locks.request('bayward-outbox', { ifAvailable: !wait }, lock => (lock ? work() : undefined))
+        return await locks.request('bayward-outbox', { ifAvailable: !wait }, async (lock) => {
+          if (!lock) return undefined
+          // only the holder of the lock sends: a record left "sending" was cut off (a tab closed mid-send)
+          lockHeld = true
+          try {
+            return await work()
+          }
+          finally {
+            lockHeld = false
+          }
+        })
       }
       finally {
         busy = false
@@ -162,7 +173,7 @@ export const useOutboxStore = defineStore('outbox', () => {
       await remove(key)
       return { verdict: 'skipped' }
     }
-    if (record.status === 'saved' || record.status === 'refused' || (record.status === 'sending' && record.leaseUntil > Date.now() && !immediate)) {
+    if (record.status === 'saved' || record.status === 'refused' || (record.status === 'sending' && record.leaseUntil > Date.now() && !immediate && !lockHeld)) {
       await put(record)
       return { verdict: 'skipped' }
     }
@@ -199,7 +210,7 @@ export const useOutboxStore = defineStore('outbox', () => {
   }
 
   /** Records of the signed-in user still to send, oldest first. */
-  const queue = () => mine.value.filter(r => r.status === 'kept' || (r.status === 'sending' && r.leaseUntil <= Date.now())).map(r => r.key)
+  const queue = () => mine.value.filter(r => r.status === 'kept' || (r.status === 'sending' && (lockHeld || r.leaseUntil <= Date.now()))).map(r => r.key)
 
   async function sendQueued(): Promise<{ blocked: boolean, sent: number }> {
     let sent = 0
@@ -215,7 +226,7 @@ export const useOutboxStore = defineStore('outbox', () => {
   async function flush() {
     if (!import.meta.client || !userId.value) return
     await load()
-    if (!queue().length) return
+    if (!waiting.value.length) return
     const result = await exclusive(false, sendQueued)
     if (result?.sent) await refreshNuxtData()
   }

@@ -36,13 +36,19 @@ export const useSessionStore = defineStore('session', () => {
   async function load() {
     try {
       me.value = await useRequestFetch()<MeResponse>('/api/me')
-      if (import.meta.client) await set('me', JSON.parse(JSON.stringify(me.value)), deviceDb()).catch(() => undefined)
     }
     catch (error) {
       const offline = import.meta.client && !parseRefusal(error)
       me.value = offline ? (await get<MeResponse>('me', deviceDb()).catch(() => undefined)) ?? null : null
       if (import.meta.client && !offline) await del('me', deviceDb()).catch(() => undefined)
     }
+  }
+
+  // whoever is signed in (from the server's page or a later answer) is kept on the device for the next start
+  if (import.meta.client) {
+    watch(me, (value) => {
+      if (value) set('me', JSON.parse(JSON.stringify(value)), deviceDb()).catch(() => undefined)
+    }, { immediate: true })
   }
 
   function chooseSite(id: string) {

@@ -135,7 +135,14 @@ describe('records that survive a dropped connection', () => {
     expect(checks[0]!.recordedAt.getTime()).toBeGreaterThan(unrouted)
     const [inTruck] = await useTestDb().select().from(tables.batteries).where(eq(tables.batteries.id, swap.fresh.id))
     expect(inTruck!.currentTruckId).toBe(swap.truck.id)
-    expect(await page.evaluate(() => Object.keys(localStorage).filter(k => k.startsWith('bayward-outbox:')))).toEqual([])
+    // nothing left in the device outbox (IndexedDB bayward-outbox/records) but the saved records shown for a moment
+    await expect.poll(() => page.evaluate(() => new Promise<string[]>((resolve) => {
+      const open = indexedDB.open('bayward-outbox')
+      open.onsuccess = () => {
+        const req = open.result.transaction('records').objectStore('records').getAll()
+        req.onsuccess = () => resolve(req.result.filter((r: { status: string }) => r.status !== 'saved').map((r: { key: string }) => r.key))
+      }
+    }))).toEqual([])
     await context.close()
   })
 

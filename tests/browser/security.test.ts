@@ -4,6 +4,7 @@ import type { Browser } from 'playwright-core'
 import { builtServer } from '../support/http'
 import { closeTestDb, site, user } from '../support/db'
 import { DESKTOP, PHONE, launchChromium, newContext } from '../support/chromium'
+import { MAIN_PAGES } from '../support/pages'
 
 await setup(builtServer)
 
@@ -19,10 +20,6 @@ afterAll(async () => {
   await browser?.close()
   await closeTestDb()
 })
-
-const PAGES = ['/', '/scan', '/bay', '/swap', '/charge', '/check', '/cage', '/refill', '/exchange', '/emissions', '/co',
-  '/trucks', '/batteries', '/batteries/new', '/cylinders', '/labels', '/people', '/site',
-  '/due', '/schedules', '/logs', '/incidents', '/ventilation', '/calendar', '/account']
 
 describe('content security policy', () => {
   it('every main page loads in Chromium with no policy violation', async () => {
@@ -44,7 +41,7 @@ describe('content security policy', () => {
       await page.getByLabel('Password').fill(admin.password)
       await page.getByRole('button', { name: 'Sign in' }).click()
       await page.waitForURL(u => !u.pathname.startsWith('/sign-in'))
-      for (const path of PAGES) {
+      for (const path of MAIN_PAGES) {
         await page.goto(url(path))
         await page.waitForLoadState('networkidle')
         const violations = await page.evaluate(() => (window as unknown as { __cspViolations: string[] }).__cspViolations)

@@ -18,13 +18,17 @@ export async function launchChromium(): Promise<Browser> {
 export const PHONE = { width: 390, height: 844 }
 export const DESKTOP = { width: 1366, height: 900 }
 
-export async function newContext(browser: Browser, baseURL: string, viewport = PHONE): Promise<BrowserContext> {
-  return browser.newContext({ baseURL, viewport, deviceScaleFactor: 1, hasTouch: viewport === PHONE })
+/**
+ * A fresh browser profile. The service worker is blocked unless asked for (`serviceWorkers: 'allow'`): pages
+ * then load from the server as in a first visit, and request routing in tests sees every request.
+ */
+export async function newContext(browser: Browser, baseURL: string, viewport = PHONE, serviceWorkers: 'allow' | 'block' = 'block'): Promise<BrowserContext> {
+  return browser.newContext({ baseURL, viewport, deviceScaleFactor: 1, hasTouch: viewport === PHONE, serviceWorkers })
 }
 
 // A fresh context at `path` that goes through the sign-in page and lands back on `path`.
-export async function signInAt(browser: Browser, who: { email: string, password: string }, path: string, viewport = PHONE): Promise<{ context: BrowserContext, page: Page }> {
-  const context = await newContext(browser, url('/'), viewport)
+export async function signInAt(browser: Browser, who: { email: string, password: string }, path: string, viewport = PHONE, serviceWorkers: 'allow' | 'block' = 'block'): Promise<{ context: BrowserContext, page: Page }> {
+  const context = await newContext(browser, url('/'), viewport, serviceWorkers)
   const page = await context.newPage()
   await page.goto(url(path))
   await page.waitForURL(/\/sign-in/)
