@@ -1,9 +1,10 @@
-// Screenshots of the main pages for each demo role at phone and desktop widths, into screenshots/.
+// Screenshots of the main pages for each demo role at phone and desktop widths, and of every floor form at
+// phone width, into screenshots/.
 // Uses the running demo (BASE_URL, default http://localhost:3000), or starts the built server on
 // port 3100 (BAYWARD_SCREENSHOT_PORT) against the demo database when nothing answers there.
 import { spawn, type ChildProcess } from 'node:child_process'
 import { mkdirSync } from 'node:fs'
-import { chromium } from 'playwright-core'
+import { chromium, type Browser, type Page } from 'playwright-core'
 import { CHROMIUM_ARGS } from '../tests/support/chromium'
 
 const PASSWORD = 'bayward-demo'
@@ -15,6 +16,71 @@ const shots: { who: string, email: string, paths: string[] }[] = [
   { who: 'admin', email: 'admin@quillmere.example', paths: ['/', '/people', '/site'] },
 ]
 const viewports = { phone: { width: 390, height: 844 }, desktop: { width: 1366, height: 900 } }
+
+type Row = Record<string, unknown> & { id: string, tagCode: string | null }
+interface FloorShot { name: string, path: (a: DemoAssets) => string, ready: string, act?: (page: Page) => Promise<void> }
+interface DemoAssets { truck: Row, lpTruck: Row, battery: Row, cylinder: Row }
+
+// Every floor form at phone width, as the technician (and the facilities lead for the emissions test) meets it,
+// filled from the demo's own assets where the form takes a code from the URL.
+const floorForms: { email: string, forms: FloorShot[] }[] = [
+  { email: 'technician@millbrook.example', forms: [
+    { name: 'swap', path: a => `/swap?truck=${a.truck.tagCode}`, ready: 'Hour meter (h)' },
+    { name: 'charge', path: a => `/charge?battery=${a.battery.tagCode}`, ready: 'Battery' },
+    { name: 'check', path: a => `/check?battery=${a.battery.tagCode}`, ready: 'Electrolyte level' },
+    { name: 'refill', path: a => `/refill?code=${a.cylinder.tagCode}`, ready: 'Cylinder code' },
+    { name: 'exchange', path: a => `/exchange?truck=${a.lpTruck.id}`, ready: 'Truck' },
+    { name: 'requalify', path: a => `/requalify?code=${a.cylinder.tagCode}`, ready: 'Performed on' },
+    { name: 'area-log', path: () => '/logs', ready: 'Area' },
+    { name: 'co-readings', path: () => '/co', ready: 'Date', act: async (page) => {
+      await page.getByLabel('CO (ppm) #1').fill('35')
+      await page.getByLabel('Hours #1').fill('4')
+    } },
+    { name: 'incident', path: () => '/incidents', ready: 'Where', act: async page => page.getByText('Electrolyte spill').click() },
+  ] },
+  { email: 'facilities@millbrook.example', forms: [
+    { name: 'emissions-test', path: a => `/emissions?truck=${a.lpTruck.id}`, ready: 'Tested on' },
+  ] },
+]
+
+async function demoAssets(page: Page): Promise<DemoAssets> {
+  const get = async <T>(path: string) => (await page.request.get(path)).json() as Promise<T>
+  const me = await get<{ memberships: { siteId: string }[] }>('/api/me')
+  const siteId = me.memberships[0]!.siteId
+  const list = (kind: string) => get<{ items: Row[] }>(`/api/${kind}?siteId=${siteId}&pageSize=200`).then(r => r.items)
+  const trucks = await list('trucks')
+  const batteries = await list('batteries')
+  const cylinders = await list('cylinders')
+  return {
+    truck: trucks.find(t => t.power === 'electric' && t.tagCode)!,
+    lpTruck: trucks.find(t => t.power === 'lp_gas')!,
+    battery: batteries.find(b => b.tagCode && b.chemistry === 'flooded_lead_acid' && !b.currentTruckId) ?? batteries[0]!,
+    cylinder: cylinders.find(c => c.tagCode && c.status === 'empty') ?? cylinders[0]!,
+  }
+}
+
+async function shootFloorForms(browser: Browser, base: string) {
+  for (const who of floorForms) {
+    const context = await browser.newContext({ viewport: viewports.phone, baseURL: base, serviceWorkers: 'block' })
+    const page = await context.newPage()
+    await page.goto('/sign-in')
+    await page.getByLabel('E-mail').fill(who.email)
+    await page.getByLabel('Password').fill(PASSWORD)
+    await page.getByRole('button', { name: 'Sign in' }).click()
+    await page.waitForURL(u => !u.pathname.startsWith('/sign-in'))
+    const assets = await demoAssets(page)
+    for (const form of who.forms) {
+      await page.goto(form.path(assets))
+      await page.waitForLoadState('networkidle')
+      await page.getByText(form.ready, { exact: true }).first().waitFor({ timeout: 10_000 }).catch(() => undefined)
+      await form.act?.(page)
+      const file = `screenshots/form-${form.name}-phone.png`
+      await page.screenshot({ path: file, fullPage: true })
+      console.log(file)
+    }
+    await context.close()
+  }
+}
 
 async function reachable(url: string) {
   try {
@@ -60,6 +126,7 @@ async function main() {
         await context.close()
       }
     }
+    await shootFloorForms(browser, base)
   }
   finally {
     await browser.close()
