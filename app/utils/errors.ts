@@ -5,8 +5,7 @@ export function errorMessage(error: unknown, fallback = 'Something went wrong. T
   return e?.data?.message || e?.statusMessage || fallback
 }
 
-// Field messages of a 400 answer, keyed by field name.
+// Field messages of a 400 answer, keyed by field name (read by the one refusal parser, refusal.ts).
 export function errorFields(error: unknown): Record<string, string> {
-  const data = (error as { data?: { data?: { fields?: Record<string, string> } } })?.data?.data
-  return data?.fields ?? {}
+  return parseRefusal(error)?.fields ?? {}
 }

@@ -123,5 +123,5 @@ describe('due list, area logs and the ventilation check in the browser', () => {
         await page.context().close()
       }
     }
-  })
+  }, 180_000)
 })
