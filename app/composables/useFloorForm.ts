@@ -123,7 +123,9 @@ export function useFloorForm<B extends object, A = unknown>(options: FloorFormOp
   if (options.prefill) {
     onMounted(async () => {
       const pairs = options.prefill!()
-      if (!await prefill(pairs)) pairs[0]?.[1].value?.focus()
+      // nothing in the URL: the first field takes the keyboard at once (a scanner may already be typing)
+      if (!pairs.some(([name]) => query(name))) return pairs[0]?.[1].value?.focus()
+      await prefill(pairs)
     })
   }
 

@@ -67,6 +67,7 @@ describe('battery room on the floor', () => {
     await pastCharge({ siteId, userId: people.technician!.id, batteryId: b.id, chargerId, endedHoursAgo: 1 })
     const code = await tagFor('battery', b.id, siteId)
     const page = await signedIn(people.technician!, '/check')
+    await expect.poll(() => page.evaluate(() => document.activeElement?.closest('label')?.textContent ?? '')).toContain('Battery')
     await page.keyboard.type(code)
     await page.keyboard.press('Enter')
     await expect.poll(() => page.evaluate(() => document.activeElement?.closest('label')?.textContent ?? '')).toContain('Electrolyte temperature')
