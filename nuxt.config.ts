@@ -50,6 +50,8 @@ export default defineNuxtConfig({
     // BAYWARD_UPLOADS_DRIVER=s3 at build time remounts 'uploads' on an S3-compatible bucket (needs the aws4fetch package).
     plugins: process.env.BAYWARD_UPLOADS_DRIVER === 's3' ? ['storage/uploads-s3.ts'] : [],
     output: { dir: process.env.BAYWARD_BUILD_NAME ? `.output-${process.env.BAYWARD_BUILD_NAME}` : '.output' },
+    // Domain folders under server/utils: one act or one read model per file, auto-imported like utils/.
+    imports: { dirs: ['battery-room', 'due', 'fuel', 'logs'].map(dir => fileURLToPath(new URL(`./server/utils/${dir}`, import.meta.url))) },
   },
   typescript: { strict: true },
   telemetry: false,

@@ -10,8 +10,8 @@ export interface AssetStatus {
   tone: StatusTone
   /** further flags in words, e.g. "Watering due" */
   flags: { key: string, label: string, tone: StatusTone }[]
-  /** what is due on the asset, soonest first */
-  due: { what: string, dueOn: string, state: 'upcoming' | 'due_soon' | 'overdue' }[]
+  /** what is due on the asset, soonest first (from its obligations; a count rule may have no date) */
+  due: { what: string, dueOn: string | null, state: 'upcoming' | 'due_soon' | 'overdue', detail?: string | null, action?: { label: string, to: string } }[]
 }
 
 type AssetRow = Record<string, unknown> & { id: string, siteId: string }
@@ -38,6 +38,6 @@ export async function assetStatus(kind: AssetKind, row: AssetRow): Promise<Asset
     const more = await provider(row)
     if (more) status = { ...status, ...more, flags: [...status.flags, ...(more.flags ?? [])], due: [...status.due, ...(more.due ?? [])] }
   }
-  status.due.sort((a, b) => a.dueOn.localeCompare(b.dueOn))
+  status.due.sort((a, b) => (a.dueOn ?? '0000').localeCompare(b.dueOn ?? '0000'))
   return status
 }

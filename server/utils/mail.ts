@@ -3,7 +3,7 @@ import { sql } from 'drizzle-orm'
 import type { Role } from '#shared/types/auth'
 import { MAIL_MAX_ATTEMPTS, mailRetryDelaySeconds, digestDue } from '#shared/utils/mail-schedule'
 import type { DbOrTx } from './db'
-import type { Obligation } from './due'
+import type { Obligation } from './due/list'
 
 // The outbox: every message is written to mail_messages inside the transaction of the record that
 // caused it, then delivered after the response; a failed delivery is kept and tried again later.
@@ -203,7 +203,7 @@ export async function sendDigests({ siteIds, force = false, now = new Date() }: 
       .from(tables.memberships).innerJoin(tables.users, eq(tables.users.id, tables.memberships.userId))
       .where(and(eq(tables.memberships.siteId, s.id), inArray(tables.memberships.role, DIGEST_ROLES), eq(tables.users.active, true)))
     if (leads.length === 0) continue
-    const list = await computeDueList(db, s.id, { roles: null, personId: null, states: ['overdue', 'due_soon'], kinds: null, sort: 'due', limit: 100_000 })
+    const list = await computeDueList(s.id, { roles: null, personId: null, states: ['overdue', 'due_soon'], kinds: null, sort: 'due', limit: 100_000 })
     const byUser = new Map<string, { email: string, name: string, roles: Role[] }>()
     for (const l of leads) {
       const u = byUser.get(l.id) ?? { email: l.email, name: l.name, roles: [] }

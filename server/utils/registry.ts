@@ -27,14 +27,16 @@ interface KindConfig {
   areaRefs: Record<string, (typeof AREA_KINDS)[number] | null>
   /** an asset kind that can be put out of service */
   holdable: boolean
+  /** its status read model, joined into the list: the columns it adds (they override the row's) */
+  status?: { table: PgTable, on: SQL, columns: Record<string, PgColumn> }
 }
 
 function kinds(): Record<AssetKind, KindConfig> {
-  const { trucks: t, batteries: b, chargers: c, lpCylinders: l, areas: a } = tables
+  const { trucks: t, batteries: b, chargers: c, lpCylinders: l, areas: a, batteryStatus: bs, truckStatus: ts } = tables
   return {
     truck: {
       table: t, noun: 'truck', identity: 'fleetNumber', defaultSort: 'fleetNumber',
-      sortable: { fleetNumber: t.fleetNumber, truckClass: t.truckClass, power: t.power, systemVoltage: t.systemVoltage, hourMeter: t.hourMeter, createdAt: t.createdAt },
+      sortable: { fleetNumber: t.fleetNumber, truckClass: t.truckClass, power: t.power, systemVoltage: t.systemVoltage, hourMeter: sql`COALESCE(${ts.hourMeter}, ${t.hourMeter})` as unknown as PgColumn, createdAt: t.createdAt },
       search: [t.fleetNumber, t.model],
       filters: {
         power: { schema: z.enum(TRUCK_POWERS), column: t.power },
@@ -43,10 +45,11 @@ function kinds(): Record<AssetKind, KindConfig> {
         outOfService: { schema: bool, column: t.outOfService },
       },
       areaRefs: { homeAreaId: null }, holdable: true,
+      status: { table: ts, on: eq(ts.truckId, t.id), columns: { hourMeter: ts.hourMeter } },
     },
     battery: {
       table: b, noun: 'battery', identity: 'serial', defaultSort: 'serial',
-      sortable: { serial: b.serial, voltage: b.voltage, capacityAh: b.capacityAh, chemistry: b.chemistry, weightLb: b.weightLb, cycleCount: b.cycleCount, inServiceOn: b.inServiceOn, createdAt: b.createdAt },
+      sortable: { serial: b.serial, voltage: b.voltage, capacityAh: b.capacityAh, chemistry: b.chemistry, weightLb: b.weightLb, cycleCount: bs.cycles, inServiceOn: b.inServiceOn, createdAt: b.createdAt },
       search: [b.serial, b.connector],
       filters: {
         chemistry: { schema: z.enum(BATTERY_CHEMISTRIES), column: b.chemistry },
@@ -55,6 +58,7 @@ function kinds(): Record<AssetKind, KindConfig> {
         outOfService: { schema: bool, column: b.outOfService },
       },
       areaRefs: { homeAreaId: 'charging_area' }, holdable: true,
+      status: { table: bs, on: eq(bs.batteryId, b.id), columns: { cycleCount: bs.cycles, state: bs.state, readyAt: bs.readyAt } },
     },
     charger: {
       table: c, noun: 'charger', identity: 'name', defaultSort: 'name',
@@ -118,6 +122,18 @@ function listConditions(event: H3Event, kind: AssetKind, query: ListQuery) {
   return { condition: and(...where), sortKey, order: [query.dir === 'desc' ? desc(sortCol) : asc(sortCol), asc(cfg.table.id)] }
 }
 
+// The kind's status read model (cycles and state of a battery, a truck's hour meter now) beside each row.
+// eslint-disable-next-line @typescript-eslint/no-explicit-any -- drizzle's builder types do not survive a conditional join
+function withStatus(cfg: KindConfig, query: any): any {
+  return cfg.status ? query.leftJoin(cfg.status.table, cfg.status.on) : query
+}
+
+type ListRow = { row: Record<string, unknown>, tagCode: string | null } & Record<string, unknown>
+function listItem({ row, tagCode, ...status }: ListRow) {
+  const given = Object.fromEntries(Object.entries(status).filter(([, v]) => v !== null && v !== undefined))
+  return { ...row, ...given, tagCode }
+}
+
 // Server-side paged, sorted, filtered list of one asset kind at one site.
 export async function listAssets(event: H3Event, kind: AssetKind) {
   const cfg = assetKinds()[kind]
@@ -126,8 +142,7 @@ export async function listAssets(event: H3Event, kind: AssetKind) {
   const { condition, sortKey, order } = listConditions(event, kind, query)
   const db = useDb()
   const [items, [{ total } = { total: 0 }]] = await Promise.all([
-    db.select({ row: cfg.table, tagCode: liveTagCode(kind, cfg.table) })
-      .from(cfg.table as PgTable)
+    withStatus(cfg, db.select({ row: cfg.table, tagCode: liveTagCode(kind, cfg.table), ...cfg.status?.columns }).from(cfg.table as PgTable))
       .where(condition)
       .orderBy(...order)
       .limit(query.pageSize)
@@ -135,7 +150,7 @@ export async function listAssets(event: H3Event, kind: AssetKind) {
     db.select({ total: count() }).from(cfg.table as PgTable).where(condition),
   ])
   return {
-    items: items.map(i => ({ ...(i.row as Record<string, unknown>), tagCode: i.tagCode })),
+    items: (items as ListRow[]).map(listItem),
     total: Number(total),
     page: query.page,
     pageSize: query.pageSize,
@@ -150,10 +165,10 @@ export async function exportAssets(event: H3Event, kind: AssetKind) {
   const query = validateQuery(event, listQuerySchema)
   await requireSiteRole(event, query.siteId)
   const { condition, order } = listConditions(event, kind, query)
-  const rows = await useDb().select({ row: cfg.table, tagCode: liveTagCode(kind, cfg.table) })
-    .from(cfg.table as PgTable).where(condition).orderBy(...order).limit(200_000)
+  const rows = await withStatus(cfg, useDb().select({ row: cfg.table, tagCode: liveTagCode(kind, cfg.table), ...cfg.status?.columns })
+    .from(cfg.table as PgTable)).where(condition).orderBy(...order).limit(200_000)
   const { byId } = await areaNames(query.siteId)
-  const csv = toCsv(kind, rows.map(r => ({ ...(r.row as Record<string, unknown>), tagCode: r.tagCode })), byId)
+  const csv = toCsv(kind, (rows as ListRow[]).map(listItem), byId)
   return sendCsv(event, `bayward-${kind}-list-${new Date().toISOString().slice(0, 10)}.csv`, csv)
 }
 
@@ -190,13 +205,19 @@ export async function importAssets(event: H3Event, kind: AssetKind) {
   }
   const job = await startJob('import', { siteId: body.siteId, userId: actor.user.id }, rows.length, async (progress) => {
     await useDb().transaction(async (tx) => {
+      const createdIds: string[] = []
       for (const [i, { _line, ...values }] of rows.entries()) {
         const [row] = await tx.insert(cfg.table).values({ ...values, siteId: body.siteId } as never).returning()
         const created = row as Record<string, unknown> & { id: string }
         await issueTag(tx, kind, created.id, body.siteId)
         await writeAudit(tx, { actor, siteId: body.siteId, action: 'import', entity: kind, entityId: created.id, after: created, note: `CSV line ${_line}` })
+        createdIds.push(created.id)
         if (i % 25 === 24) await progress(i + 1)
       }
+      const subjects = kind === 'truck' || kind === 'area'
+        ? (await Promise.all(createdIds.map(id => registrySubjects(tx, kind, { id, siteId: body.siteId })))).flat()
+        : createdIds.map(id => ({ kind, id }))
+      await recomputeSubjects(tx, body.siteId, subjects)
     })
     return { imported: rows.length }
   })
@@ -273,6 +294,7 @@ export async function createAsset(event: H3Event, kind: AssetKind) {
       const created = row as Record<string, unknown> & { id: string }
       const tagCode = await issueTag(tx, kind, created.id, siteId)
       await writeAudit(tx, { actor, siteId, action: 'create', entity: kind, entityId: created.id, after: created })
+      await recomputeSubjects(tx, siteId, await registrySubjects(tx, kind, { id: created.id, siteId }))
       setResponseStatus(event, 201)
       return { item: { ...created, tagCode } }
     })
@@ -305,6 +327,7 @@ export async function updateAsset(event: H3Event, kind: AssetKind) {
         .where(and(eq(cfg.table.id, id), eq(cfg.table.siteId, row.siteId))).returning()
       if (!updated) throw createError({ statusCode: 404, message: `No such ${cfg.noun}.` })
       await writeAudit(tx, { actor, siteId: row.siteId, action: 'update', entity: kind, entityId: id, before: row, after: updated })
+      await recomputeSubjects(tx, row.siteId, await registrySubjects(tx, kind, row))
       return { item: updated }
     })
   }
@@ -337,6 +360,7 @@ export async function setAssetOutOfService(event: H3Event, kind: AssetKind) {
       action: body.outOfService ? 'hold' : 'release', reason: body.reason || 'Released',
     })
     await writeAudit(tx, { actor, siteId: row.siteId, action: body.outOfService ? 'out_of_service' : 'return_to_service', entity: kind, entityId: id, before: { outOfService: row.outOfService }, after: { outOfService: body.outOfService, reason: body.reason }, note: body.reason })
+    await recomputeSubjects(tx, row.siteId, await registrySubjects(tx, kind, row))
     return { item: updated }
   })
 }

@@ -48,16 +48,18 @@ export const SCHEDULE_GROUP_LABELS: Readonly<Record<ScheduleGroupKey, string>> =
 
 const GROUP_OF_SUBJECT: Readonly<Record<DueSubjectKind, ScheduleGroupKey>> = {
   battery: 'battery', charger: 'charger', truck: 'truck', cylinder: 'cylinder',
-  area: 'area', log: 'area', follow_up: 'area', person: 'person',
+  area: 'area', log: 'area', follow_up: 'area', person: 'person', site: 'area',
 }
 
-export function scheduleGroupOf(kind: DueKind): ScheduleGroupKey {
-  return GROUP_OF_SUBJECT[DUE_KIND_SUBJECTS[kind]]
+/** The group a schedule shows in: by what it is about (a lead-added one by its subject kind). */
+export function scheduleGroupOf(s: { kind: DueKind, subjectKind?: DueSubjectKind }): ScheduleGroupKey {
+  const subject = s.kind === 'custom' ? s.subjectKind ?? 'site' : DUE_KIND_SUBJECTS[s.kind]
+  return GROUP_OF_SUBJECT[subject]
 }
 
 /** Schedules by subject, in the group order above, each group keeping the order it was given; empty groups left out. */
-export function groupSchedules<T extends { kind: DueKind }>(items: readonly T[]): { key: ScheduleGroupKey, label: string, items: T[] }[] {
+export function groupSchedules<T extends { kind: DueKind, subjectKind?: DueSubjectKind }>(items: readonly T[]): { key: ScheduleGroupKey, label: string, items: T[] }[] {
   return (Object.keys(SCHEDULE_GROUP_LABELS) as ScheduleGroupKey[])
-    .map(key => ({ key, label: SCHEDULE_GROUP_LABELS[key], items: items.filter(i => scheduleGroupOf(i.kind) === key) }))
+    .map(key => ({ key, label: SCHEDULE_GROUP_LABELS[key], items: items.filter(i => scheduleGroupOf(i) === key) }))
     .filter(g => g.items.length > 0)
 }

@@ -286,8 +286,8 @@ describe('user administration', () => {
 
       const tuned = await a.patch(`/api/sites/${s.id}`, { settings: { coolDownMinutes: 600 } })
       expect(tuned.status).toBe(200)
-      const first = await a.patch(`/api/sites/${s.id}`, { settings: { dueSoonDays: 21 } })
-      expect(first.body.item.settings).toMatchObject({ coolDownMinutes: 600, dueSoonDays: 21 })
+      const first = await a.patch(`/api/sites/${s.id}`, { settings: { digestHour: 5 } })
+      expect(first.body.item.settings).toMatchObject({ coolDownMinutes: 600, digestHour: 5 })
       expect(first.body.item.timeZone).toBe('America/Denver')
     })
 

@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { setup } from '@nuxt/test-utils/e2e'
 import { eq } from 'drizzle-orm'
 import { builtServer, type Client } from '../support/http'
-import { closeTestDb, cylinder, site, tables, useTestDb } from '../support/db'
+import { closeTestDb, cylinder, refreshReadModels, site, tables, useTestDb } from '../support/db'
 import {
   CHARGING_KEYS, allPass, chargingArea, charger, daysFrom, dueList, endedCharges, obligationOf, oldBattery, person, randomUUID, registeredDaysAgo, todayIn, truck,
 } from '../support/due'
@@ -93,6 +93,7 @@ describe('recording the work closes the obligation and opens the next', () => {
     const before = obligationOf(await dueList(facilities, { siteId, kind: 'cylinder_requalification' }), 'cylinder_requalification', c.id)
     expect(before!.dueOn).toBe('2026-03-31')
     await useTestDb().update(tables.lpCylinders).set({ lastRequalifiedOn: '2026-01-10', lastRequalificationMethod: 'external_visual' }).where(eq(tables.lpCylinders.id, c.id))
+    await refreshReadModels(siteId, [{ kind: 'cylinder', id: c.id }])
     const after = obligationOf(await dueList(facilities, { siteId, kind: 'cylinder_requalification' }), 'cylinder_requalification', c.id)
     expect(after).toMatchObject({ dueOn: '2031-01-31', lastDoneOn: '2026-01-10' })
   })

@@ -4,7 +4,7 @@ import { url } from '@nuxt/test-utils/e2e'
 import { eq } from 'drizzle-orm'
 import { PREFILL_INSPECTION_ITEMS } from '../../shared/utils/lp-gas'
 import type { Role } from '../../shared/types/auth'
-import { area, cylinder, tables, truck, user, useTestDb } from './db'
+import { area, cylinder, refreshReadModels, tables, truck, user, useTestDb } from './db'
 import { signIn, type Client, type Reply } from './http'
 
 const rootDir = fileURLToPath(new URL('../..', import.meta.url))
@@ -46,6 +46,7 @@ export async function freshCylinder(siteId: string, over: Record<string, unknown
   if (over.status) extra.status = over.status as typeof row.status
   if (over.currentTruckId) extra.currentTruckId = over.currentTruckId as string
   if (Object.keys(extra).length) await useTestDb().update(tables.lpCylinders).set(extra).where(eq(tables.lpCylinders.id, row.id))
+  if (Object.keys(extra).length) await refreshReadModels(siteId, [{ kind: 'cylinder', id: row.id }])
   return { ...row, ...extra }
 }
 

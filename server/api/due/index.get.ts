@@ -1,4 +1,4 @@
-import { dueQuerySchema } from '#shared/utils/due-schedules'
+import { dueQuerySchema } from '#shared/utils/schedule-schemas'
 
 // The due list of a site: the caller's roles by default; a lead may ask for any role, or all.
 // ?state=overdue,due_soon&kind=…&sort=due|kind|subject|role&limit= (the first 200 by default; `total` says how many)

@@ -14,6 +14,8 @@ export default defineEventHandler(async (event) => {
     }
     const [site] = await tx.update(tables.sites).set({ ...fields, settings: settings.data }).where(eq(tables.sites.id, id)).returning()
     await writeAudit(tx, { actor, siteId: id, action: 'update', entity: 'site', entityId: id, before, after: site })
+    // cool-down, thresholds, requalification years, time zone: every read model of the site follows
+    await rebuildSiteReadModels(tx, id)
     return { item: site }
   })
 })

@@ -22,6 +22,7 @@ export default defineEventHandler(async (event) => {
     const [user] = await tx.update(tables.users).set(set).where(eq(tables.users.id, id)).returning(publicUserColumns)
     if (!user) throw createError({ statusCode: 404, message: 'No such user.' })
     await writeAudit(tx, { actor, siteId: sharedSiteIds[0] ?? null, action: body.active === false ? 'deactivate' : 'update', entity: 'user', entityId: id, before, after: { ...user, passwordChanged: body.password !== undefined } })
+    if (body.name !== undefined || body.active !== undefined) await recomputePersonAtSites(tx, id)
     if (body.password !== undefined && id === actor.user.id) await startSession(event, actor.user, changedAt.getTime())
     return { item: user }
   })

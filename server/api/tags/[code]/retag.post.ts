@@ -19,6 +19,7 @@ export default defineEventHandler(async (event) => {
     if (!retired) throw createError({ statusCode: 409, message: 'Someone re-tagged this asset at the same moment; reload.' })
     const newCode = await issueTag(tx, kind, row.id, row.siteId)
     await tx.update(tables.tags).set({ replacedByCode: newCode }).where(eq(tables.tags.id, tag.id))
+    await recomputeSubjects(tx, row.siteId, [{ kind, id: row.id }])
     await writeAudit(tx, { actor, siteId: row.siteId, action: 'retag', entity: kind, entityId: row.id, before: { code: tag.code }, after: { code: newCode }, note: `${tag.code} → ${newCode}: ${body.reason}` })
     setResponseStatus(event, 201)
     return { code: newCode, retired: tag.code }

@@ -17,7 +17,7 @@ export default defineEventHandler(async (event) => {
     if (!found) throw createError({ statusCode: 400, message: `No cylinder "${body.cylinderOnCode}" at this site.`, data: { fields: { cylinderOnCode: 'No such cylinder at this site.' } } })
     cylinderOnId = found.id
   }
-  const request = { truck, cylinderOnId: cylinderOnId!, cylinderOffId: body.cylinderOffId, at: body.at, idempotencyKey: body.idempotencyKey, note: body.note }
+  const request = { truck, cylinderOnId: cylinderOnId!, cylinderOffId: body.cylinderOffId, at: body.at, idempotencyKey: body.idempotencyKey, note: body.note, hourMeter: body.hourMeter }
   let result: Awaited<ReturnType<typeof recordExchange>>
   try {
     result = await recordExchange(actor, request)

@@ -18,6 +18,7 @@ export default defineEventHandler(async (event) => {
     return await db.transaction(async (tx) => {
       const [q] = await tx.insert(tables.qualifications).values({ ...body, userId: id }).returning()
       await writeAudit(tx, { actor, siteId: shared[0]!.siteId, action: 'create', entity: 'qualification', entityId: q!.id, after: q })
+      await recomputePersonAtSites(tx, id)
       setResponseStatus(event, 201)
       return { item: q }
     })

@@ -18,6 +18,7 @@ export default defineEventHandler(async (event) => {
     const roles = [...new Set(body.roles)]
     if (roles.length) await tx.insert(tables.memberships).values(roles.map(role => ({ userId: id, siteId: body.siteId, role })))
     await writeAudit(tx, { actor, siteId: body.siteId, action: 'set_roles', entity: 'user', entityId: id, before: before.map(r => r.role), after: roles })
+    await recomputePersonAtSites(tx, id, [body.siteId])
     return { roles }
   })
 })

@@ -1,6 +1,6 @@
 import type { Role } from '#shared/types/auth'
 import { INCIDENT_KIND_LABELS, type IncidentInput } from '#shared/utils/incidents'
-import type { Actor } from './auth'
+import type { Actor } from '../auth'
 
 /** Everyone at a site may report an incident; leads read the list. */
 export const INCIDENT_REPORT_ROLES: Role[] = ['operator', 'technician', 'facilities_lead', 'safety_lead', 'admin']
@@ -48,8 +48,9 @@ export async function reportIncident(actor: Actor, input: IncidentInput) {
     }).returning()
     const [followUp] = await tx.insert(tables.followUps).values({
       siteId: input.siteId, source: 'incident', sourceId: row!.id, title: `${label} (${where})`.slice(0, 300), ownerUserId: input.followUpOwnerId,
-      dueOn: addCalendarInterval(localDate(at, (await siteZone(tx, input.siteId))), 3, 'day'),
+      openedOn: localDate(at, (await siteZone(tx, input.siteId))),
     }).returning()
+    await recomputeSubjects(tx, input.siteId, [{ kind: 'follow_up', id: followUp!.id }], { lock: false })
     await writeAudit(tx, { actor, siteId: input.siteId, action: 'create', entity: 'incident', entityId: row!.id, after: row })
     await writeAudit(tx, { actor, siteId: input.siteId, action: 'create', entity: 'follow_up', entityId: followUp!.id, after: followUp })
     const base = (useRuntimeConfig().public.baseUrl as string) || 'http://localhost:3000'

@@ -5,8 +5,8 @@ import {
   type ChecklistAreaKind, type ChecklistCadence, type ChecklistItem, type LogEntriesInput,
   type logCorrectionSchema, type logSignSchema, type templateSaveSchema,
 } from '#shared/utils/area-checklists'
-import type { DbOrTx } from './db'
-import type { Actor } from './auth'
+import type { DbOrTx } from '../db'
+import type { Actor } from '../auth'
 
 /** Who fills in area logs. */
 export const LOG_RECORD_ROLES: Role[] = ['technician', 'facilities_lead', 'safety_lead', 'admin']
@@ -186,24 +186,11 @@ export async function recordLogEntries(actor: Actor, input: LogEntriesInput, tod
       await writeAudit(tx, { actor, siteId: input.siteId, action: 'create', entity: 'area_log_entry', entityId: row.id, after: row })
       if (row.result === 'fail') followUps.push(await openChecklistFollowUp(tx, actor, area, row, items.get(row.itemKey)!, input.date))
     }
+    await recomputeLogSubjects(tx, area, log.id, followUps)
     return { logId: log.id, entries: rows, followUps, replayed: false }
   })
   if (result.followUps.length) deliverMailSoon()
   return result
-}
-
-async function openChecklistFollowUp(tx: DbOrTx, actor: Actor, area: AreaRow, entry: EntryRow, item: ChecklistItem, date: string): Promise<string> {
-  const title = `${area.name}: ${item.label} — failed on ${date}`
-  const [followUp] = await tx.insert(tables.followUps).values({
-    siteId: area.siteId, source: 'checklist', sourceId: entry.id, title: title.slice(0, 300), dueOn: addCalendarInterval(date, 3, 'day'),
-  }).returning()
-  await writeAudit(tx, { actor, siteId: area.siteId, action: 'create', entity: 'follow_up', entityId: followUp!.id, after: followUp })
-  await queueAlert(tx, {
-    siteId: area.siteId, kind: 'alert:checklist_failed', roles: ['safety_lead'],
-    subject: `${area.name}: "${item.label}" failed`,
-    body: `${actor.user.name} marked "${item.label}" as failed in ${area.name} on ${date}.\nNote: ${entry.note || '—'}\n\nA follow-up is open, due ${followUp!.dueOn}.\n${new URL(`/logs?area=${area.id}&date=${date}`, (useRuntimeConfig().public.baseUrl as string) || 'http://localhost:3000').toString()}`,
-  })
-  return followUp!.id
 }
 
 // A correction to an entry: a new row pointing at the one it replaces, with who and why. Allowed on
@@ -231,6 +218,7 @@ export async function correctLogEntry(actor: Actor, entryId: string, input: z.ou
       const item = template?.items.find(i => i.key === row!.itemKey) ?? { key: row!.itemKey, label: row!.itemKey }
       followUpId = await openChecklistFollowUp(tx, actor, found.area, row!, item, found.log.periodStart)
     }
+    await recomputeLogSubjects(tx, found.area, found.log.id, followUpId ? [followUpId] : [])
     return { item: row!, signed: !!found.log.signedAt, followUpId }
   })
   if (result.followUpId) deliverMailSoon()
@@ -264,6 +252,7 @@ export async function signAreaLogs(actor: Actor, input: z.output<typeof logSignS
     for (const row of signed) {
       await writeAudit(tx, { actor, siteId: input.siteId, action: 'sign', entity: 'area_log', entityId: row.id, before: { signedAt: null }, after: { signedBy: actor.user.id, signedAt }, note: input.note || undefined })
     }
+    await recomputeSubjects(tx, input.siteId, signed.map(l => ({ kind: 'log' as const, id: l.id })), { lock: false })
     return { signed: signed.map(s => ({ id: s.id, periodStart: s.periodStart, cadence: s.cadence })), from, to }
   })
 }
@@ -290,6 +279,16 @@ export async function saveChecklistTemplate(actor: Actor, input: z.output<typeof
     await writeAudit(tx, { actor, siteId: input.siteId, action: 'create', entity: 'checklist_template', entityId: row!.id, before: current ? { version: current.version, items: current.items } : null, after: { version: row!.version, items } })
     return row!
   })
+}
+
+// A log entry (or its correction) moves the area's checks, its chargers' inspection, the log's review
+// and the follow-ups it opened.
+async function recomputeLogSubjects(tx: DbOrTx, area: AreaRow, logId: string, followUpIds: string[]) {
+  const chargers = await tx.select({ id: tables.chargers.id }).from(tables.chargers).where(eq(tables.chargers.areaId, area.id))
+  await recomputeSubjects(tx, area.siteId, [
+    { kind: 'area', id: area.id }, ...chargers.map(c => ({ kind: 'charger' as const, id: c.id })),
+    { kind: 'log', id: logId }, ...followUpIds.map(id => ({ kind: 'follow_up' as const, id })),
+  ])
 }
 
 export function entryCsvRows(area: AreaRow, days: LogDay[]) {
