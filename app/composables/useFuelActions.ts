@@ -60,7 +60,7 @@ export function useFuelActions() {
   }
 
   // through the device outbox: `keptKey` is set when the record is kept on the device to send later
-  async function exchange(truckId: string, body: { cylinderOnCode: string, cylinderOffId: string | null, idempotencyKey: string, note?: string }, words: FloorRecordWords = { label: 'Cylinder change' }) {
+  async function exchange(truckId: string, body: { cylinderOnCode: string, cylinderOffId: string | null, hourMeter?: number | null, idempotencyKey: string, note?: string }, words: FloorRecordWords = { label: 'Cylinder change' }) {
     const outcome = await submitFloorRecord<{ item: { id: string } }>({ kind: 'exchange', url: `/api/trucks/${truckId}/cylinder-exchanges`, body, atField: 'at', ...words })
     if (outcome.state === 'kept') {
       return { id: null, keptKey: outcome.key }

@@ -8,6 +8,8 @@ import {
   assetCreateSchemas, assetFieldSchemas, idParamsSchema, listQuerySchema, outOfServiceSchema,
 } from '#shared/utils/asset-schemas'
 import type { Role } from '#shared/types/auth'
+import { batteryStateAt } from '#shared/utils/battery-state'
+import type { StoredBatteryState } from '#shared/utils/derived-battery'
 
 const EDITORS: Role[] = ['facilities_lead', 'safety_lead', 'admin']
 const HOLDERS: Role[] = ['technician', 'facilities_lead', 'safety_lead', 'admin']
@@ -131,6 +133,8 @@ function withStatus(cfg: KindConfig, query: any): any {
 type ListRow = { row: Record<string, unknown>, tagCode: string | null } & Record<string, unknown>
 function listItem({ row, tagCode, ...status }: ListRow) {
   const given = Object.fromEntries(Object.entries(status).filter(([, v]) => v !== null && v !== undefined))
+  // a battery's stored state reads as it stands now (a charged one is Cooling until ready-at, then Ready)
+  if (typeof given.state === 'string') given.state = batteryStateAt(given.state as StoredBatteryState, (given.readyAt as Date | undefined) ?? null, new Date()).state
   return { ...row, ...given, tagCode }
 }
 

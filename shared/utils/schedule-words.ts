@@ -1,5 +1,6 @@
 import type { IntervalUnit } from './due-dates'
-import { DUE_KIND_SUBJECTS, INTERVAL_UNITS, type DueKind, type DueSubjectKind, type ScheduleDefinition } from './due-schedules'
+import { DUE_KIND_SUBJECTS, INTERVAL_UNITS, type CustomSubjectKind, type DueKind, type DueSubjectKind, type ScheduleDefinition } from './due-schedules'
+import type { CustomIntervalUnit } from './schedule-schemas'
 
 // Schedules in words for the schedule editor: the interval, the due-soon window, the subject groups.
 
@@ -62,4 +63,18 @@ export function groupSchedules<T extends { kind: DueKind, subjectKind?: DueSubje
   return (Object.keys(SCHEDULE_GROUP_LABELS) as ScheduleGroupKey[])
     .map(key => ({ key, label: SCHEDULE_GROUP_LABELS[key], items: items.filter(i => scheduleGroupOf(i) === key) }))
     .filter(g => g.items.length > 0)
+}
+
+/** The units a lead-added schedule counts in, as the form offers them. */
+export const CUSTOM_UNIT_LABELS: Readonly<Record<CustomIntervalUnit, string>> = {
+  day: 'Days', week: 'Weeks', month: 'Months', year: 'Years', charges: 'Charges (batteries)', hours: 'Hours of use (trucks)',
+}
+
+export const CUSTOM_SUBJECT_LABELS: Readonly<Record<CustomSubjectKind, string>> = {
+  area: 'Each area', charger: 'Each charger', truck: 'Each truck', battery: 'Each battery', cylinder: 'Each LP cylinder', site: 'The site as a whole',
+}
+
+/** The "every N <unit>" of a lead-added schedule, as its form shows it. */
+export function customUnitOf(s: Pick<ScheduleDefinition, 'rule' | 'everyUnit'>): CustomIntervalUnit {
+  return s.rule === 'charges' || s.rule === 'hours' ? s.rule : s.everyUnit ?? 'day'
 }

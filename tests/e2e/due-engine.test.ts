@@ -55,7 +55,9 @@ describe('recording the work closes the obligation and opens the next', () => {
     expect(before!.state).toBe('overdue')
     await endedCharges(siteId, b.id, chargerId, techId, [1], true)
     const next = obligationOf(await dueList(tech, { siteId, kind: 'battery_equalize' }), 'battery_equalize', b.id)
-    expect(next).toMatchObject({ state: 'upcoming', remaining: 5, lastDoneOn: today })
+    // the site-local day the equalize charge ended, an hour ago (yesterday just after midnight)
+    const endedOn = new Intl.DateTimeFormat('en-CA', { timeZone: 'America/Chicago' }).format(new Date(Date.now() - 3_600_000))
+    expect(next).toMatchObject({ state: 'upcoming', remaining: 5, lastDoneOn: endedOn })
   })
 
   it('the area checklist, eyewash and extinguisher close from one complete log; the next eyewash is a week on', async () => {
