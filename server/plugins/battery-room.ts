@@ -14,13 +14,9 @@ const number = new Intl.NumberFormat('en-US', { maximumFractionDigits: 1 })
 // and electric trucks (the battery they hold), and adds swaps, charges and electrolyte checks to the timelines.
 export default defineNitroPlugin(() => {
   registerAssetStatus('battery', async (row) => {
-    const db = useDb()
-    const [settings, [facts]] = await Promise.all([
-      batteryRoomSettings(db, row.siteId),
-      loadBatteryRows(db, { siteId: row.siteId, batteryIds: [row.id] }),
-    ])
+    const [facts] = await loadBatteryRows(useDb(), { siteId: row.siteId, batteryIds: [row.id] })
     if (!facts) return null
-    const s = batteryRoomStatus(facts, settings.timeZone, new Date())
+    const s = batteryRoomStatus(facts, facts.timeZone, new Date())
     const where = s.state === 'in_truck' ? ` · truck ${facts.truckFleetNumber}` : s.state === 'on_charge' ? ` · charger ${facts.chargerName}` : ''
     const cooling = s.state === 'cooling' ? ` · ${s.coolingMinutesLeft} min left` : ''
     return {

@@ -5,11 +5,8 @@ import type { AssetKind } from '#shared/utils/asset-schemas'
 export default defineNitroPlugin(() => {
   for (const kind of ['battery', 'truck', 'charger', 'cylinder', 'area'] as AssetKind[]) {
     registerAssetStatus(kind, async (row) => {
-      const db = useDb()
-      const [site] = await db.select({ timeZone: tables.sites.timeZone }).from(tables.sites).where(eq(tables.sites.id, row.siteId))
-      const today = localDate(new Date(), site?.timeZone ?? 'UTC')
       const label = String(row.serial ?? row.fleetNumber ?? row.name ?? '')
-      const items = await obligationsOfSubject(db, row.siteId, { kind, id: row.id, label, tagCode: null }, today)
+      const items = await obligationsOfSubject(useDb(), row.siteId, { kind, id: row.id, label, tagCode: null })
       return { due: items.map(o => ({ what: o.what, dueOn: o.dueOn, state: o.state, detail: o.detail, action: o.action })) }
     })
   }

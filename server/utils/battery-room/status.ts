@@ -53,6 +53,7 @@ interface CardRow {
   eDueAt: number | null
   eNow: number | null
   eSoon: number | null
+  timeZone: string
 }
 
 export interface BatteryCardQuery {
@@ -67,8 +68,12 @@ const obligation = (alias: string, ruleKey: string) => sql.raw(`LEFT JOIN obliga
 export async function loadBatteryRows(db: SqlRunner, q: BatteryCardQuery): Promise<CardRow[]> {
   const sites = typeof q.siteId === 'string' ? [q.siteId] : q.siteId
   if (sites.length === 0 || q.batteryIds?.length === 0) return []
-  const where: SQL[] = [sites.length === 1 ? sql`b.site_id = ${sites[0]}` : sql`b.site_id = ANY(${uuidArray(sites)})`]
-  if (q.areaId) where.push(sql`(b.home_area_id = ${q.areaId} OR ch.area_id = ${q.areaId})`)
+  const siteIs = (column: string) => sites.length === 1 ? sql`${sql.raw(column)} = ${sites[0]}` : sql`${sql.raw(column)} = ANY(${uuidArray(sites)})`
+  const where: SQL[] = [siteIs('b.site_id')]
+  if (q.areaId) {
+    where.push(sql`(b.home_area_id = ${q.areaId} OR b.id IN (
+      SELECT s2.battery_id FROM battery_status s2 JOIN chargers c2 ON c2.id = s2.charger_id WHERE c2.area_id = ${q.areaId}))`)
+  }
   if (q.batteryIds) where.push(sql`b.id = ANY(${uuidArray(q.batteryIds)})`)
   return rowsOf<CardRow>(db, sql`
     SELECT b.id, b.site_id AS "siteId", b.serial, tg.code AS "tagCode", b.home_area_id AS "homeAreaId", b.chemistry, b.voltage,
@@ -79,10 +84,12 @@ export async function loadBatteryRows(db: SqlRunner, q: BatteryCardQuery): Promi
       tr.fleet_number AS "truckFleetNumber", ttg.code AS "truckTagCode", s.charge_session_id AS "chargeSessionId",
       s.charger_id AS "chargerId", ch.name AS "chargerName", s.cycles, ${epochMs('s.last_charge_ended_at')} AS "lastChargeEndedMs",
       ${epochMs('s.last_installed_at')} AS "lastInstalledMs", s.last_soc_pct AS "lastSocPct", s.weak_cell AS "weakCell", s.ran_hot AS "ranHot",
+      st.time_zone AS "timeZone",
       w.due_on::text AS "wDueOn", w.due_at_count AS "wDueAt", w.count_now AS "wNow", w.due_soon_days AS "wSoon",
       e.due_on::text AS "eDueOn", e.due_at_count AS "eDueAt", e.count_now AS "eNow", e.due_soon_days AS "eSoon"
     FROM batteries b
-    LEFT JOIN battery_status s ON s.battery_id = b.id
+    JOIN sites st ON st.id = b.site_id
+    LEFT JOIN battery_status s ON s.battery_id = b.id AND ${siteIs('s.site_id')}
     LEFT JOIN tags tg ON tg.asset_kind = 'battery' AND tg.asset_id = b.id AND tg.retired_at IS NULL
     LEFT JOIN trucks tr ON tr.id = s.truck_id
     LEFT JOIN tags ttg ON ttg.asset_kind = 'truck' AND ttg.asset_id = tr.id AND ttg.retired_at IS NULL

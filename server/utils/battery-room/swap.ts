@@ -5,6 +5,7 @@ import { batteryTruckFit } from '#shared/utils/battery-fit'
 import { OVERRIDE_REASON_MIN_LENGTH, type swapBodySchema } from '#shared/utils/battery-room-schemas'
 import type { DbOrTx } from '../db'
 import type { Actor } from '../auth'
+import type { SubjectRef } from '../due/rules'
 
 export type SwapInput = z.output<typeof swapBodySchema>
 
@@ -126,16 +127,19 @@ export async function recordBatterySwap(actor: Actor, body: SwapInput) {
         overriddenChecks: recorded.length ? recorded : null,
         correctsId: null,
       }
-      const [[swap]] = await Promise.all([
-        tx.insert(tables.batterySwaps).values(values).returning(),
-        writeAudit(tx, {
-          actor, siteId, action: overridden.length ? 'swap_override' : 'swap', entity: 'battery_swap', entityId: values.id,
-          after: values, note: overridden.length ? body.overrideReason : warnings.map(w => w.message).join(' ') || undefined,
-        }),
-      ])
-      await recomputeSubjects(tx, siteId, [
+      // Sent in this order on the transaction's connection (each call below sends its statement at once):
+      // the record, its audit row, then the facts the read models come from, which see the record.
+      const inserted = tx.insert(tables.batterySwaps).values(values).returning().then(rows => rows)
+      const audited = writeAudit(tx, {
+        actor, siteId, action: overridden.length ? 'swap_override' : 'swap', entity: 'battery_swap', entityId: values.id,
+        after: values, note: overridden.length ? body.overrideReason : warnings.map(w => w.message).join(' ') || undefined,
+      })
+      const subjects: SubjectRef[] = [
         { kind: 'battery', id: batteryIn.id }, ...(body.batteryOutId ? [{ kind: 'battery' as const, id: body.batteryOutId }] : []), { kind: 'truck', id: truck.id },
-      ], { lock: false, ctx })
+      ]
+      const computed = computeReadModels(tx, ctx, { battery: subjects.filter(x => x.kind === 'battery').map(x => x.id), truck: [truck.id] })
+      const [[swap], , models] = await Promise.all([inserted, audited, computed])
+      await writeReadModels(tx, { siteId, subjectIds: subjects.map(x => x.id) }, models)
       return { item: swap!, replayed: false, warnings, overridden }
     })
   }

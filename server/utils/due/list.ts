@@ -31,13 +31,14 @@ export interface DueOptions {
 
 export const OPEN_STATES: ObligationState[] = ['overdue', 'due_soon', 'upcoming']
 
-/** obligationStateAt (shared/utils/due-rules.ts) in SQL, for a row `o` of obligations on `today`. */
-export function obligationStateSql(today: string, o = 'o'): SQL {
+/** obligationStateAt (shared/utils/due-rules.ts) in SQL, for a row `o` of obligations on `today` (a date, or an SQL date). */
+export function obligationStateSql(on: string | SQL, o = 'o'): SQL {
   const c = (name: string) => sql.raw(`${o}.${name}`)
+  const today = typeof on === 'string' ? sql`${on}::date` : on
   return sql`CASE
     WHEN ${c('due_on')} IS NULL THEN CASE WHEN ${c('due_at_count')} IS NOT NULL AND ${c('count_now')} IS NOT NULL AND ${c('due_at_count')} - ${c('count_now')} <= 0 THEN 'due_soon' ELSE 'upcoming' END
-    WHEN ${c('due_on')} < ${today}::date THEN 'overdue'
-    WHEN ${c('due_on')} <= ${today}::date + ${c('due_soon_days')} THEN 'due_soon'
+    WHEN ${c('due_on')} < ${today} THEN 'overdue'
+    WHEN ${c('due_on')} <= ${today} + ${c('due_soon_days')} THEN 'due_soon'
     ELSE 'upcoming' END`
 }
 
@@ -156,13 +157,14 @@ export interface SubjectObligation {
   action: { label: string, to: string }
 }
 
-/** What is due on one subject (the tag page and the asset pages), soonest first. */
-export async function obligationsOfSubject(db: SqlRunner, siteId: string, subject: Pick<DueSubject, 'kind' | 'id' | 'label' | 'tagCode'>, today: string): Promise<SubjectObligation[]> {
+/** What is due on one subject (the tag page and the asset pages), soonest first, in its state on the site's today. */
+export async function obligationsOfSubject(db: SqlRunner, siteId: string, subject: Pick<DueSubject, 'kind' | 'id' | 'label' | 'tagCode'>): Promise<SubjectObligation[]> {
   const rows = await rowsOf<Row & { state: Exclude<ObligationState, 'done'>, dueOn: string | null }>(db, sql`
-    SELECT o.kind, o.schedule_id AS "scheduleId", o.what, o.due_on::text AS "dueOn", ${obligationStateSql(today)} AS state, o.area_id AS "areaId",
-      o.period_start::text AS "periodStart", o.last_done_on::text AS "lastDoneOn", o.detail,
+    SELECT o.kind, o.schedule_id AS "scheduleId", o.what, o.due_on::text AS "dueOn", ${obligationStateSql(sql`(now() AT TIME ZONE st.time_zone)::date`)} AS state,
+      o.area_id AS "areaId", o.period_start::text AS "periodStart", o.last_done_on::text AS "lastDoneOn", o.detail,
       CASE WHEN o.due_at_count IS NOT NULL AND o.count_now IS NOT NULL THEN round((o.due_at_count - o.count_now)::numeric, 1)::float8 END AS remaining
-    FROM obligations o WHERE o.site_id = ${siteId} AND o.subject_id = ${subject.id} AND o.subject_kind = ${subject.kind}
+    FROM obligations o JOIN sites st ON st.id = o.site_id
+    WHERE o.site_id = ${siteId} AND o.subject_id = ${subject.id} AND o.subject_kind = ${subject.kind}
     ORDER BY o.due_on NULLS LAST, o.what`)
   return rows.map(r => ({
     kind: r.kind, scheduleId: r.scheduleId, what: r.what, dueOn: r.dueOn, state: r.state, remaining: r.remaining === null ? null : Number(r.remaining),
