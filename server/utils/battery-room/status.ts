@@ -63,7 +63,12 @@ export interface BatteryCardQuery {
   batteryIds?: readonly string[]
 }
 
-const obligation = (alias: string, ruleKey: string) => sql.raw(`LEFT JOIN obligations ${alias} ON ${alias}.site_id = b.site_id AND ${alias}.rule_key = '${ruleKey}' AND ${alias}.subject_kind = 'battery' AND ${alias}.subject_id = b.id`)
+// Per battery, by index (LIMIT keeps the planner from turning these into hash joins over whole tables).
+const obligation = (alias: string, ruleKey: string) => sql.raw(`LEFT JOIN LATERAL (
+      SELECT o.due_on, o.due_at_count, o.count_now, o.due_soon_days FROM obligations o
+      WHERE o.site_id = b.site_id AND o.rule_key = '${ruleKey}' AND o.subject_kind = 'battery' AND o.subject_id = b.id LIMIT 1
+    ) ${alias} ON true`)
+const liveTag = (kind: string, idColumn: string) => sql.raw(`(SELECT t.code FROM tags t WHERE t.asset_kind = '${kind}' AND t.asset_id = ${idColumn} AND t.retired_at IS NULL LIMIT 1)`)
 
 export async function loadBatteryRows(db: SqlRunner, q: BatteryCardQuery): Promise<CardRow[]> {
   const sites = typeof q.siteId === 'string' ? [q.siteId] : q.siteId
@@ -76,13 +81,13 @@ export async function loadBatteryRows(db: SqlRunner, q: BatteryCardQuery): Promi
   }
   if (q.batteryIds) where.push(sql`b.id = ANY(${uuidArray(q.batteryIds)})`)
   return rowsOf<CardRow>(db, sql`
-    SELECT b.id, b.site_id AS "siteId", b.serial, tg.code AS "tagCode", b.home_area_id AS "homeAreaId", b.chemistry, b.voltage,
+    SELECT b.id, b.site_id AS "siteId", b.serial, ${liveTag('battery', 'b.id')} AS "tagCode", b.home_area_id AS "homeAreaId", b.chemistry, b.voltage,
       b.cell_count AS "cellCount", b.capacity_ah AS "capacityAh", b.weight_lb AS "weightLb", b.length_in AS "lengthIn",
       b.width_in AS "widthIn", b.height_in AS "heightIn", b.connector, b.rated_cycles AS "ratedCycles",
       b.out_of_service AS "outOfService", b.out_of_service_reason AS "outOfServiceReason",
       s.state, ${epochMs('s.state_since')} AS "sinceMs", ${epochMs('s.ready_at')} AS "readyMs", s.truck_id AS "truckId",
-      tr.fleet_number AS "truckFleetNumber", ttg.code AS "truckTagCode", s.charge_session_id AS "chargeSessionId",
-      s.charger_id AS "chargerId", ch.name AS "chargerName", s.cycles, ${epochMs('s.last_charge_ended_at')} AS "lastChargeEndedMs",
+      (SELECT tr.fleet_number FROM trucks tr WHERE tr.id = s.truck_id) AS "truckFleetNumber", ${liveTag('truck', 's.truck_id')} AS "truckTagCode",
+      s.charge_session_id AS "chargeSessionId", s.charger_id AS "chargerId", (SELECT ch.name FROM chargers ch WHERE ch.id = s.charger_id) AS "chargerName", s.cycles, ${epochMs('s.last_charge_ended_at')} AS "lastChargeEndedMs",
       ${epochMs('s.last_installed_at')} AS "lastInstalledMs", s.last_soc_pct AS "lastSocPct", s.weak_cell AS "weakCell", s.ran_hot AS "ranHot",
       st.time_zone AS "timeZone",
       w.due_on::text AS "wDueOn", w.due_at_count AS "wDueAt", w.count_now AS "wNow", w.due_soon_days AS "wSoon",
@@ -90,10 +95,6 @@ export async function loadBatteryRows(db: SqlRunner, q: BatteryCardQuery): Promi
     FROM batteries b
     JOIN sites st ON st.id = b.site_id
     LEFT JOIN battery_status s ON s.battery_id = b.id AND ${siteIs('s.site_id')}
-    LEFT JOIN tags tg ON tg.asset_kind = 'battery' AND tg.asset_id = b.id AND tg.retired_at IS NULL
-    LEFT JOIN trucks tr ON tr.id = s.truck_id
-    LEFT JOIN tags ttg ON ttg.asset_kind = 'truck' AND ttg.asset_id = tr.id AND ttg.retired_at IS NULL
-    LEFT JOIN chargers ch ON ch.id = s.charger_id
     ${obligation('w', 'battery_watering')}
     ${obligation('e', 'battery_equalize')}
     WHERE ${sql.join(where, sql` AND `)}
