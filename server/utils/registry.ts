@@ -11,13 +11,13 @@ import type { Role } from '#shared/types/auth'
 import { batteryStateAt } from '#shared/utils/battery-state'
 import type { StoredBatteryState } from '#shared/utils/derived-battery'
 
-const EDITORS: Role[] = ['facilities_lead', 'safety_lead', 'admin']
+export const EDITORS: Role[] = ['facilities_lead', 'safety_lead', 'admin']
 const HOLDERS: Role[] = ['technician', 'facilities_lead', 'safety_lead', 'admin']
 
 const bool = z.enum(['true', 'false']).transform(v => v === 'true')
 const intParam = z.coerce.number().int()
 
-interface KindConfig {
+export interface KindConfig {
   table: PgTable & { id: PgColumn, siteId: PgColumn }
   noun: string
   identity: string
@@ -100,12 +100,12 @@ export const assetKinds = () => (cached ??= kinds())
 
 // The asset's id is named with its table: drizzle writes a lone column unqualified in a select
 // list, and inside this subquery a bare "id" would be tags.id.
-function liveTagCode(kind: AssetKind, table: PgTable) {
+export function liveTagCode(kind: AssetKind, table: PgTable) {
   return sql<string | null>`(SELECT code FROM tags WHERE tags.asset_kind = ${kind} AND tags.asset_id = ${table}.id AND tags.retired_at IS NULL)`
 }
 
 // The WHERE and ORDER BY of an asset list from its query (?siteId, q, sort, dir and the kind's filters).
-function listConditions(event: H3Event, kind: AssetKind, query: ListQuery) {
+export function listConditions(event: H3Event, kind: AssetKind, query: ListQuery) {
   const cfg = assetKinds()[kind]
   const raw = getQuery(event)
   const where: SQL[] = [eq(cfg.table.siteId, query.siteId)]
@@ -126,12 +126,12 @@ function listConditions(event: H3Event, kind: AssetKind, query: ListQuery) {
 
 // The kind's status read model (cycles and state of a battery, a truck's hour meter now) beside each row.
 // eslint-disable-next-line @typescript-eslint/no-explicit-any -- drizzle's builder types do not survive a conditional join
-function withStatus(cfg: KindConfig, query: any): any {
+export function withStatusJoin(cfg: KindConfig, query: any): any {
   return cfg.status ? query.leftJoin(cfg.status.table, cfg.status.on) : query
 }
 
-type ListRow = { row: Record<string, unknown>, tagCode: string | null } & Record<string, unknown>
-function listItem({ row, tagCode, ...status }: ListRow) {
+export type ListRow = { row: Record<string, unknown>, tagCode: string | null } & Record<string, unknown>
+export function registryListItem({ row, tagCode, ...status }: ListRow) {
   const given = Object.fromEntries(Object.entries(status).filter(([, v]) => v !== null && v !== undefined))
   // a battery's stored state reads as it stands now (a charged one is Cooling until ready-at, then Ready)
   if (typeof given.state === 'string') given.state = batteryStateAt(given.state as StoredBatteryState, (given.readyAt as Date | undefined) ?? null, new Date()).state
@@ -146,7 +146,7 @@ export async function listAssets(event: H3Event, kind: AssetKind) {
   const { condition, sortKey, order } = listConditions(event, kind, query)
   const db = useDb()
   const [items, [{ total } = { total: 0 }]] = await Promise.all([
-    withStatus(cfg, db.select({ row: cfg.table, tagCode: liveTagCode(kind, cfg.table), ...cfg.status?.columns }).from(cfg.table as PgTable))
+    withStatusJoin(cfg, db.select({ row: cfg.table, tagCode: liveTagCode(kind, cfg.table), ...cfg.status?.columns }).from(cfg.table as PgTable))
       .where(condition)
       .orderBy(...order)
       .limit(query.pageSize)
@@ -154,79 +154,13 @@ export async function listAssets(event: H3Event, kind: AssetKind) {
     db.select({ total: count() }).from(cfg.table as PgTable).where(condition),
   ])
   return {
-    items: (items as ListRow[]).map(listItem),
+    items: (items as ListRow[]).map(registryListItem),
     total: Number(total),
     page: query.page,
     pageSize: query.pageSize,
     sort: sortKey,
     dir: query.dir,
   }
-}
-
-// The whole filtered list as CSV (the same query as the list, without paging).
-export async function exportAssets(event: H3Event, kind: AssetKind) {
-  const cfg = assetKinds()[kind]
-  const query = validateQuery(event, listQuerySchema)
-  await requireSiteRole(event, query.siteId)
-  const { condition, order } = listConditions(event, kind, query)
-  const rows = await withStatus(cfg, useDb().select({ row: cfg.table, tagCode: liveTagCode(kind, cfg.table), ...cfg.status?.columns })
-    .from(cfg.table as PgTable)).where(condition).orderBy(...order).limit(200_000)
-  const { byId } = await areaNames(query.siteId)
-  const csv = toCsv(kind, (rows as ListRow[]).map(listItem), byId)
-  return sendCsv(event, `bayward-${kind}-list-${new Date().toISOString().slice(0, 10)}.csv`, csv)
-}
-
-const importBody = z.object({
-  siteId: z.uuid('Pick a site.'),
-  csv: z.string().min(1, 'The file is empty.').max(5_000_000, 'The file is over 5 MB; split it.'),
-  dryRun: z.boolean().default(true),
-})
-
-// CSV import: a dry run lists every bad row (line and field); a real run writes all rows or none,
-// as a job whose progress the client polls.
-export async function importAssets(event: H3Event, kind: AssetKind) {
-  const cfg = assetKinds()[kind]
-  const body = await validateBody(event, importBody)
-  const actor = await requireSiteRole(event, body.siteId, EDITORS)
-  const { byName } = await areaNames(body.siteId)
-  const { rows, errors, total } = parseAssetCsv(kind, body.csv, byName)
-  const identities = rows.map(r => String(r[cfg.identity]).toLowerCase())
-  identities.forEach((id, i) => {
-    if (identities.indexOf(id) !== i) errors.push({ line: rows[i]!._line as number, field: cfg.identity, message: `"${rows[i]![cfg.identity]}" appears twice in the file.` })
-  })
-  if (rows.length) {
-    const identityCol = (cfg.table as unknown as Record<string, PgColumn>)[cfg.identity]!
-    const existing = await useDb().select({ v: identityCol }).from(cfg.table as PgTable)
-      .where(and(eq(cfg.table.siteId, body.siteId), inArray(sql`lower(${identityCol})`, identities)))
-    const taken = new Set(existing.map(e => String(e.v).toLowerCase()))
-    rows.forEach((r) => {
-      if (taken.has(String(r[cfg.identity]).toLowerCase())) errors.push({ line: r._line as number, field: cfg.identity, message: `A ${cfg.noun} "${r[cfg.identity]}" already exists at this site.` })
-    })
-  }
-  errors.sort((a, b) => a.line - b.line)
-  if (body.dryRun || errors.length) {
-    return { dryRun: true, total, valid: errors.length ? rows.length - new Set(errors.map(e => e.line)).size : rows.length, errors }
-  }
-  const job = await startJob('import', { siteId: body.siteId, userId: actor.user.id }, rows.length, async (progress) => {
-    await useDb().transaction(async (tx) => {
-      const createdIds: string[] = []
-      for (const [i, { _line, ...values }] of rows.entries()) {
-        const [row] = await tx.insert(cfg.table).values({ ...values, siteId: body.siteId } as never).returning()
-        const created = row as Record<string, unknown> & { id: string }
-        await issueTag(tx, kind, created.id, body.siteId)
-        await writeAudit(tx, { actor, siteId: body.siteId, action: 'import', entity: kind, entityId: created.id, after: created, note: `CSV line ${_line}` })
-        createdIds.push(created.id)
-        if (i % 25 === 24) await progress(i + 1)
-      }
-      const subjects = kind === 'truck' || kind === 'area'
-        ? (await Promise.all(createdIds.map(id => registrySubjects(tx, kind, { id, siteId: body.siteId })))).flat()
-        : createdIds.map(id => ({ kind, id }))
-      await recomputeSubjects(tx, body.siteId, subjects)
-    })
-    return { imported: rows.length }
-  })
-  setResponseStatus(event, 202)
-  return { dryRun: false, job: job.id, total: rows.length, errors: [] }
 }
 
 // Finds one asset by id among the sites the user belongs to; anything else is 404.

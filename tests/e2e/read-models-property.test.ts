@@ -199,7 +199,7 @@ describe('read models kept on write', () => {
       }
       const keptFor = kept.obligations.filter(x => x.subjectKind === 'battery' || x.subjectKind === 'truck')
       expect(keptFor.length).toBe(model.obligations.length)
-    }), { numRuns: Number(process.env.BAYWARD_PROPERTY_RUNS ?? 15), endOnFailure: true })
+    }), { numRuns: Number(process.env.BAYWARD_PROPERTY_RUNS ?? 12), endOnFailure: true })
     expect(runs).toBeGreaterThan(0)
     // the sequences stored records of every kind (refusals are part of the exercise, but not all of it)
     console.info(`records stored over ${runs} sequences: ${JSON.stringify(stored)}`)

@@ -191,6 +191,12 @@ describe('an hours rule and a schedule a lead adds', () => {
     const otherArea = (await chargingArea(elsewhere)).id
     const refused = await tech.post(`/api/schedules/custom/${schedule.id}/completions`, { subjectId: otherArea, doneOn: today })
     expect(refused.status).toBe(400)
+    // a lead of another site neither sees nor changes nor completes it
+    const { client: stranger } = await person(elsewhere, ['facilities_lead', 'technician'])
+    expect((await stranger.get(`/api/schedules/custom/${schedule.id}`)).status).toBe(404)
+    expect((await stranger.patch(`/api/schedules/custom/${schedule.id}`, { siteId: elsewhere, active: true })).status).toBe(404)
+    expect((await stranger.patch(`/api/schedules/custom/${schedule.id}`, { siteId, active: true })).status).toBe(404)
+    expect((await stranger.post(`/api/schedules/custom/${schedule.id}/completions`, { subjectId: otherArea, doneOn: today })).status).toBe(404)
   })
 
   async function readyBatteryHere() {
