@@ -33,6 +33,9 @@ export default defineNuxtConfig({
     // BAYWARD_UPLOADS_DRIVER=s3 (NUXT_UPLOADS_S3_ENDPOINT, _REGION, _BUCKET, _ACCESS_KEY_ID, _SECRET_ACCESS_KEY).
     uploads: {
       maxBytes: 10 * 1024 * 1024,
+      // room for files per site, and uploads per person per hour (NUXT_UPLOADS_SITE_QUOTA_MB, NUXT_UPLOADS_PER_USER_PER_HOUR)
+      siteQuotaMb: 2048,
+      perUserPerHour: 60,
       s3: { endpoint: '', region: 'auto', bucket: '', accessKeyId: '', secretAccessKey: '' },
     },
   },

@@ -1,6 +1,5 @@
 import type { H3Event } from 'h3'
 import { randomUUID } from 'node:crypto'
-import type { Role } from '#shared/types/auth'
 import type { FitReason } from '#shared/utils/battery-fit'
 import { batteryTruckFit, chargerBatteryMatch, rankBatteriesForTruck, isIssuableBattery } from '#shared/utils/battery-fit'
 import { siteSettingsSchema, defaultSiteSettings, type SiteSettings } from '#shared/utils/site-settings'
@@ -15,11 +14,6 @@ import { z } from 'zod'
 import type { DbOrTx } from './db'
 import type { Actor } from './auth'
 import type { BatteryFactsRow } from './battery-room-facts'
-
-const EVERYONE: Role[] = ['operator', 'technician', 'facilities_lead', 'safety_lead', 'admin']
-/** Put a battery on or off charge, take readings, override a refused swap. */
-export const BATTERY_ROOM_FLOOR_ROLES: Role[] = ['technician', 'facilities_lead', 'safety_lead', 'admin']
-export const BATTERY_ROOM_LEAD_ROLES: Role[] = ['facilities_lead', 'safety_lead', 'admin']
 
 /** The site's policy with defaults filled in; a stored value that no longer parses falls back to its default. */
 export async function batteryRoomSettings(db: DbOrTx, siteId: string): Promise<SiteSettings & { timeZone: string }> {
@@ -50,9 +44,7 @@ function badField(field: string, message: string) {
 }
 
 function checkOverrideRole(actor: Actor, siteId: string, overrideReason: string | undefined) {
-  if (overrideReason && !hasRole(actor, siteId, BATTERY_ROOM_FLOOR_ROLES)) {
-    throw createError({ statusCode: 403, message: 'Only a technician or a lead may override a refused check.' })
-  }
+  if (overrideReason) requireActorCan(actor, 'swap.override', siteId)
 }
 
 async function oneBatteryFacts(db: DbOrTx, siteId: string, batteryId: string): Promise<BatteryFactsRow> {
@@ -130,7 +122,7 @@ export async function recordBatterySwap(event: H3Event) {
       ])
       if (!truck) throw createError({ statusCode: 404, message: 'No such truck.' })
       const siteId = truck.siteId
-      await requireSiteRole(event, siteId, EVERYONE)
+      await requireAbility(event, 'swap.record', siteId)
       checkOverrideRole(actor, siteId, body.overrideReason)
       const locked = lockedAnywhere.filter(b => b.siteId === siteId)
       const batteryIn = locked.find(b => b.id === body.batteryInId)
@@ -177,7 +169,7 @@ export async function recordBatterySwap(event: H3Event) {
         ...batteryTruckFit(truckSpec(truck), { ...batteryIn }),
         ...status.readiness.filter(r => r.code !== 'already_in_truck'),
       ]
-      const mayOverride = hasRole(actor, siteId, BATTERY_ROOM_FLOOR_ROLES)
+      const mayOverride = actorCan(actor, 'swap.override', siteId)
       if (soft.length && !body.overrideReason) {
         throw refusal(soft, { overridable: mayOverride, overrideReasonMinLength: OVERRIDE_REASON_MIN_LENGTH })
       }
@@ -225,7 +217,7 @@ export async function startChargeSession(event: H3Event) {
   const body = await validateBody(event, chargeStartSchema)
   const { row: batteryRow } = await findAssetForActor(event, 'battery', body.batteryId)
   const siteId = batteryRow.siteId
-  const actor = await requireSiteRole(event, siteId, BATTERY_ROOM_FLOOR_ROLES)
+  const actor = await requireAbility(event, 'charge.record', siteId)
   const cs = tables.chargeSessions
   const stored = async (db: DbOrTx) => ownRecord((await db.select().from(cs).where(eq(cs.idempotencyKey, body.idempotencyKey)))[0], actor)
   const replay = await stored(useDb())
@@ -297,7 +289,7 @@ export async function endChargeSession(event: H3Event) {
     ? await useDb().select().from(cs).where(and(eq(cs.id, id), inArray(cs.siteId, actorSeen.siteIds)))
     : []
   if (!found) throw createError({ statusCode: 404, message: 'No such charge session.' })
-  const actor = await requireSiteRole(event, found.siteId, BATTERY_ROOM_FLOOR_ROLES)
+  const actor = await requireAbility(event, 'charge.record', found.siteId)
   if (found.endedAt) {
     if (sameChargeEnd(found, actor.user.id, body)) return chargeEndReplay(found)
     throw createError({ statusCode: 409, message: 'This charge has already been ended.' })
@@ -336,7 +328,7 @@ export async function recordElectrolyteCheck(event: H3Event) {
   const body = await validateBody(event, electrolyteCheckSchema)
   const { row } = await findAssetForActor(event, 'battery', body.batteryId)
   const siteId = row.siteId
-  const actor = await requireSiteRole(event, siteId, BATTERY_ROOM_FLOOR_ROLES)
+  const actor = await requireAbility(event, 'reading.record', siteId)
   const ec = tables.electrolyteChecks
   const stored = async (db: DbOrTx) => ownRecord((await db.select().from(ec).where(eq(ec.idempotencyKey, body.idempotencyKey)))[0], actor)
   const replay = await stored(useDb())
@@ -421,7 +413,7 @@ const BOARD_CACHE_MS = 5_000
 
 export async function batteryBoard(event: H3Event) {
   const query = validateQuery(event, boardQuerySchema)
-  const actor = await requireSiteRole(event, query.siteId)
+  const actor = await requireAbility(event, 'site.member', query.siteId)
   return cachedJsonForSite(event, actor, query.siteId, `board:${query.areaId ?? ''}:${query.truckId ?? ''}`, BOARD_CACHE_MS, () => computeBoard(query))
 }
 
@@ -477,7 +469,7 @@ async function computeBoard(query: z.output<typeof boardQuerySchema>) {
 // with what the floor forms need to know about it.
 export async function lookupFloorCode(event: H3Event) {
   const query = validateQuery(event, lookupQuerySchema)
-  await requireSiteRole(event, query.siteId)
+  await requireAbility(event, 'site.member', query.siteId)
   const db = useDb()
   const code = normalizeTagCode(query.code)
   let target: { kind: string, id: string } | undefined
@@ -528,7 +520,7 @@ export async function lookupFloorCode(event: H3Event) {
 // Swaps and charges that went ahead despite a refused check or with a recorded warning, newest first.
 export async function batteryRoomOverrides(event: H3Event) {
   const query = validateQuery(event, siteQuerySchema)
-  await requireSiteRole(event, query.siteId, BATTERY_ROOM_LEAD_ROLES)
+  await requireAbility(event, 'report.view', query.siteId)
   const db = useDb()
   const [swaps, charges] = await Promise.all([
     db.execute(sql`

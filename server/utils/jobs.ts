@@ -48,13 +48,29 @@ export async function startJob<R>(kind: string, owner: { siteId: string, userId:
     }
     catch (error) {
       job.status = 'failed'
-      job.message = (error as { message?: string }).message ?? 'The job failed.'
+      job.message = jobFailureMessage(kind, job.id, error)
+      // the whole error (a database message, a stack) goes to the server log only
+      console.error(`job ${job.id} (${kind}) failed:`, error)
     }
     await persist(job)
     // finished jobs are read from storage from now on
     setTimeout(() => live.delete(job.id), 60_000).unref?.()
   })()
   return job
+}
+
+const JOB_FAILED: Record<string, string> = {
+  import: 'The import stopped and nothing was imported. Check the file again (someone may have added the same records meanwhile) and run it again.',
+  labels: 'The label sheet could not be made. Try again.',
+}
+
+// What the job's owner reads when it fails: a refusal meant for them (a 4xx) as it was written, anything
+// else as a plain sentence with the job's reference for whoever reads the server log.
+export function jobFailureMessage(kind: string, jobId: string, error: unknown): string {
+  const status = Number((error as { statusCode?: unknown })?.statusCode)
+  const message = (error as { message?: unknown })?.message
+  if (status >= 400 && status < 500 && typeof message === 'string' && message) return message
+  return `${JOB_FAILED[kind] ?? 'The job failed. Try again.'} If it keeps failing, an admin can look up job ${jobId.slice(0, 8)} in the server log.`
 }
 
 export async function readJob<R = unknown>(id: string, userId: string): Promise<JobState<R>> {

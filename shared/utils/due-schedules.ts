@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import type { Role } from '../types/auth'
+import { ROLES, type Role } from '../types/auth'
 import { addCalendarInterval, nextDueByCount, obligationState, type IntervalUnit, type ObligationState } from './due-dates'
 import type { SiteSettings } from './site-settings'
 
@@ -201,7 +201,7 @@ export const DUE_PAGE_SIZE = 200
 
 export const dueQuerySchema = z.object({
   siteId: z.uuid({ error: 'Pick a site.' }),
-  role: z.enum(['operator', 'technician', 'facilities_lead', 'safety_lead', 'admin', 'all']).optional(),
+  role: z.enum([...ROLES, 'all']).optional(),
   state: csv(OBLIGATION_STATES),
   kind: csv(DUE_KINDS),
   sort: z.enum(DUE_SORTS).default('due'),
@@ -216,7 +216,7 @@ export const scheduleUpdateSchema = z.object({
   everyUnit: z.enum(INTERVAL_UNITS).nullable().optional(),
   withinDays: z.number().int().min(1).max(365).nullable().optional(),
   dueSoonDays: z.number().int().min(0).max(365).optional(),
-  responsibleRole: z.enum(['operator', 'technician', 'facilities_lead', 'safety_lead', 'admin']).optional(),
+  responsibleRole: z.enum(ROLES).optional(),
   source: z.string().trim().max(300).optional(),
   active: z.boolean().optional(),
 })

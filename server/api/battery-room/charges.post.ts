@@ -1,2 +1,2 @@
 // Put a battery on a charger (technicians and leads).
-export default defineEventHandler(event => startChargeSession(event))
+export default defineAbilityHandler('charge.record', event => startChargeSession(event))

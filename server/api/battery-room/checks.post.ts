@@ -1,2 +1,2 @@
 // Record an electrolyte check and watering (technicians and leads).
-export default defineEventHandler(event => recordElectrolyteCheck(event))
+export default defineAbilityHandler('reading.record', event => recordElectrolyteCheck(event))

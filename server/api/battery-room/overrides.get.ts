@@ -1,2 +1,2 @@
 // Swaps and charges recorded despite a refused check or with a warning (?siteId=), for leads.
-export default defineEventHandler(event => batteryRoomOverrides(event))
+export default defineAbilityHandler('report.view', event => batteryRoomOverrides(event))

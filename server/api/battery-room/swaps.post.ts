@@ -1,2 +1,2 @@
 // Change a truck's battery (anyone at the site; an override needs a technician or lead and a written reason).
-export default defineEventHandler(event => recordBatterySwap(event))
+export default defineAbilityHandler('swap.record', event => recordBatterySwap(event))

@@ -1,9 +1,9 @@
 import { labelSelectionSchema } from '#shared/utils/label-schemas'
 
 // Start a label-sheet PDF for the chosen assets (leads and admins); answers at once with a job to poll.
-export default defineEventHandler(async (event) => {
+export default defineAbilityHandler('label.print', async (event) => {
   const body = await validateBody(event, labelSelectionSchema)
-  const actor = await requireSiteRole(event, body.siteId, ['facilities_lead', 'safety_lead', 'admin'])
+  const actor = await requireAbility(event, 'label.print', body.siteId)
   const items = await selectLabelItems(body)
   if (items.length === 0) throw createError({ statusCode: 400, message: 'No assets match; nothing to print.' })
   const job = await startJob('labels', { siteId: body.siteId, userId: actor.user.id }, items.length, async (progress, jobId) => {

@@ -4,10 +4,10 @@ import { DUE_KINDS, defaultSchedules, effectiveSchedules, scheduleUpdateSchema }
 const ParamsSchema = z.object({ kind: z.enum(DUE_KINDS) })
 
 // Leads change a schedule for their site: the interval, the due-soon window, who is responsible.
-export default defineEventHandler(async (event) => {
+export default defineAbilityHandler('schedule.edit', async (event) => {
   const { kind } = validateParams(event, ParamsSchema)
   const body = await validateBody(event, scheduleUpdateSchema)
-  const actor = await requireSiteRole(event, body.siteId, LEAD_ROLES)
+  const actor = await requireAbility(event, 'schedule.edit', body.siteId)
   const db = useDb()
   const site = await loadDueSite(db, body.siteId)
   return db.transaction(async (tx) => {

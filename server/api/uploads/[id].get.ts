@@ -1,6 +1,6 @@
 // An uploaded file, for signed-in users of its site only (others get 404). Sent with its checked type,
 // nosniff and a sanitised name; ?download=1 saves it instead of showing it.
-export default defineEventHandler(async (event) => {
+export default defineAbilityHandler('site.member', async (event) => {
   const { id } = validateParams(event, idParamsSchema)
   const { upload } = await findUploadForActor(event, id)
   const bytes = await useStorage('uploads').getItemRaw<Buffer>(upload.storageKey)

@@ -1,2 +1,2 @@
 // Take a battery off charge: amp-hours, end temperature, equalize, outcome (technicians and leads).
-export default defineEventHandler(event => endChargeSession(event))
+export default defineAbilityHandler('charge.record', event => endChargeSession(event))
