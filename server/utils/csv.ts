@@ -61,7 +61,7 @@ export function parseAssetCsv(kind: AssetKind, text: string, areas: Map<string, 
     const values: Record<string, unknown> = {}
     for (const [key, schema] of Object.entries(shape)) {
       // an apostrophe our export put before a formula-like cell comes off again
-      const cell = raw[key]?.trim().replace(/^'(?=[=+\-@])/, '')
+      const cell = raw[key]?.trim().replace(/^'(?=[=+\-@\t\r])/, '')
       if (cell === undefined || cell === '') continue
       if (AREA_FIELDS.has(key)) {
         const id = areas.get(cell.toLowerCase())
