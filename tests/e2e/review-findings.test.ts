@@ -154,7 +154,11 @@ describe('CSV import and edits keep the rules of create', () => {
 })
 
 describe('uploads have a room per site and a number per person an hour', () => {
-  const png = (kb: number) => { const b = new Uint8Array(kb * 1024); b.set(PNG_BYTES); return b }
+  const png = (kb: number) => {
+    const bytes = new Uint8Array(kb * 1024)
+    bytes.set(PNG_BYTES)
+    return bytes
+  }
 
   it('over the site\'s room: 413 with a plain message, and nothing stored', async () => {
     const siteId = (await site()).id
