@@ -112,6 +112,15 @@ export function roleNames(roles: readonly Role[]): string {
   return labels.length > 1 ? `${labels.slice(0, -1).join(', ')} or ${labels.at(-1)}` : labels[0] ?? 'nobody'
 }
 
+/** Who holds an ability, in words (README's security table is checked against this). */
+export function whoHolds(ability: Ability): string {
+  const rule: AbilityRule = ABILITIES[ability]
+  if (rule.scope === 'public') return 'anyone'
+  if (rule.scope === 'signed-in') return 'anyone signed in'
+  const who = rule.roles.length === ROLES.length ? 'anyone with a role at the site' : roleNames(rule.roles)
+  return rule.scope === 'any-site' ? `${who} (at any of their sites)` : who
+}
+
 /** The plain refusal of a member who lacks the ability. */
 export function refusalFor(ability: Ability): string {
   const rule: AbilityRule = ABILITIES[ability]

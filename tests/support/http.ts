@@ -36,6 +36,7 @@ export interface Client {
   post: <T = any>(path: string, body?: Body) => Promise<Reply<T>> // eslint-disable-line @typescript-eslint/no-explicit-any
   patch: <T = any>(path: string, body?: Body) => Promise<Reply<T>> // eslint-disable-line @typescript-eslint/no-explicit-any
   put: <T = any>(path: string, body?: Body) => Promise<Reply<T>> // eslint-disable-line @typescript-eslint/no-explicit-any
+  delete: <T = any>(path: string) => Promise<Reply<T>> // eslint-disable-line @typescript-eslint/no-explicit-any
   /** the session cookie as sent (`bayward-session=…`), or null */
   readonly cookie: string | null
 }
@@ -103,6 +104,7 @@ export function client(cookie: string | null = null): Client {
     post: (path, body) => send('POST', path, body ?? {}),
     patch: (path, body) => send('PATCH', path, body ?? {}),
     put: (path, body) => send('PUT', path, body ?? {}),
+    delete: path => send('DELETE', path),
     get cookie() { return jar },
   }
 }
