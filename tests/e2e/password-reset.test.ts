@@ -4,7 +4,7 @@ import { eq, like, sql } from 'drizzle-orm'
 import { builtServer, client, signIn } from '../support/http'
 import { closeTestDb, site, tables, uniqueEmail, user, useTestDb } from '../support/db'
 import { eventually, mailTo } from '../support/due'
-import { captureMail } from '../support/mail'
+import { captureMail, linkTokenMailedTo } from '../support/mail'
 
 // Links are read from what reached the SMTP fake: the outbox table never holds a working one.
 const fake = await captureMail()
@@ -17,14 +17,7 @@ const NEW_PASSWORD = 'loading-dock-evening-5820'
 const request = (email: string) => client().post('/api/auth/password-reset/request', { email })
 const complete = (token: string, password: string) => client().post('/api/auth/password-reset/complete', { token, password })
 
-/** The token in the newest password link delivered to `email` (waits for the n-th delivery when asked). */
-async function tokenMailedTo(email: string, nth?: number): Promise<string> {
-  const delivered = () => fake.received.filter(m => m.to.includes(email) && /reset-password\?token=/.test(m.text))
-  const mails = await eventually(async () => (delivered().length >= (nth ?? 1) ? delivered() : null))
-  const token = /\/reset-password\?token=([\w-]+)/.exec(mails.at(nth ? nth - 1 : -1)!.text)?.[1]
-  if (!token) throw new Error(`no password link was mailed to ${email}`)
-  return token
-}
+const tokenMailedTo = (email: string, nth?: number) => linkTokenMailedTo(fake, email, nth)
 
 async function passwordRow(id: string) {
   const [row] = await useTestDb().select({ hash: tables.users.passwordHash, changedAt: tables.users.passwordChangedAt })

@@ -3,6 +3,7 @@ import { mkdtempSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { startSmtpFake, type SmtpFake } from '../../scripts/smtp-fake.mjs'
+import { eventually } from './due'
 
 export async function freePort(): Promise<number> {
   return new Promise((resolve) => {
@@ -25,4 +26,13 @@ export async function captureMail(): Promise<SmtpFake & { port: number }> {
   process.env.NUXT_SMTP_HOST = '127.0.0.1'
   process.env.NUXT_SMTP_PORT = String(port)
   return { ...fake, port }
+}
+
+/** The token of the password link delivered to `email`: the newest one, or the n-th when asked (waits for it). */
+export async function linkTokenMailedTo(fake: SmtpFake, email: string, nth?: number): Promise<string> {
+  const delivered = () => fake.received.filter(m => m.to.includes(email) && /reset-password\?token=/.test(m.text))
+  const mails = await eventually(async () => (delivered().length >= (nth ?? 1) ? delivered() : null))
+  const token = /\/reset-password\?token=([\w-]+)/.exec(mails.at(nth ? nth - 1 : -1)!.text)?.[1]
+  if (!token) throw new Error(`no password link was mailed to ${email}`)
+  return token
 }
