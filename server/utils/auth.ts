@@ -8,14 +8,15 @@ export interface Actor {
   user: { id: string, email: string, name: string }
   memberships: SiteMembership[]
   siteIds: string[]
-  /** each member site's data revision (see read-cache.ts), read in the same statement */
-  revisions: Record<string, number>
+  /** each member site's data revision as a read-cache key (see read-cache.ts and change-feed.ts) */
+  revisions: Record<string, string>
 }
 
 // Opening a sealed session cookie costs more than the rest of a small request; the same cookie opens to
-// the same user, sign-in time and session row, so the result is kept a minute. Nothing about rights is
-// kept: memberships, roles, whether the account is active, whether the session was signed out and when the
-// password last changed are read fresh below on every request.
+// the same user, sign-in time and session row, so the result is kept a minute. What the cookie is worth
+// (memberships, roles, whether the account is active, whether the session was signed out, when the
+// password last changed) comes from the actor statement below, kept per server until the database
+// notifies a change (rights-cache.ts).
 const SESSION_COOKIE = 'bayward-session'
 const NO_SESSION = '00000000-0000-0000-0000-000000000000'
 interface OpenedSession { userId: string, signedInAt: number, sessionId: string }
@@ -107,13 +108,28 @@ function actorQuery(db: Database) {
   return query
 }
 
-// The signed-in user with their memberships, read fresh once per request in one prepared statement. A
-// deactivated user's sealed cookie stops working here, and so do a signed-out session's (copied or not) and
-// one signed in before the password last changed: the cookie is cleared and the request answers 401.
+type ActorRows = Awaited<ReturnType<ReturnType<typeof actorQuery>['execute']>>
+
+// A browser that has just written reads rights and revisions from the database for a few seconds, on
+// whichever server its requests reach, so it sees its own write before the notification about it has
+// reached every server. Set on every request that may write (any method but GET and HEAD).
+const WROTE_COOKIE = 'bayward-wrote'
+const WROTE_SECONDS = 3
+
+// The signed-in user with their memberships: one prepared statement, or what this server kept of its last
+// answer while no change to the person has been notified (rights-cache.ts). A deactivated user's sealed
+// cookie stops working here, and so do a signed-out session's (copied or not) and one signed in before the
+// password last changed: the cookie is cleared and the request answers 401.
 export async function requireActor(event: H3Event): Promise<Actor> {
   if (event.context.actor) return event.context.actor as Actor
   const { userId, signedInAt, sessionId } = await openSession(event)
-  const rows = await actorQuery(useDb()).execute({ userId, sessionId })
+  const fresh = !!getCookie(event, WROTE_COOKIE) || !changeFeedUp()
+  let rows = fresh ? undefined : keptRights<ActorRows>(userId, sessionId)
+  if (!rows) {
+    const generation = rightsGeneration(userId)
+    rows = await actorQuery(useDb()).execute({ userId, sessionId })
+    if (rows[0]) keepRights(userId, sessionId, generation, rows)
+  }
   const first = rows[0]
   if (!first || !first.active || (first.passwordChangedAt && signedInAt < first.passwordChangedAt.getTime())) {
     forgetOpenedSession(event)
@@ -122,10 +138,10 @@ export async function requireActor(event: H3Event): Promise<Actor> {
     throw createError({ statusCode: 401, message: 'Sign in to continue.' })
   }
   const bySite = new Map<string, SiteMembership>()
-  const revisions: Record<string, number> = {}
+  const revisions: Record<string, string> = {}
   for (const row of rows) {
     if (!row.siteId || !row.role) continue
-    revisions[row.siteId] = row.revision ?? 0
+    revisions[row.siteId] = fresh ? `d${row.revision ?? 0}` : localSiteRevision(row.siteId)
     const m = bySite.get(row.siteId) ?? { siteId: row.siteId, siteName: row.siteName ?? '', roles: [] }
     m.roles.push(row.role)
     bySite.set(row.siteId, m)
@@ -189,6 +205,9 @@ export function requireActorCan(actor: Actor, ability: Ability, siteId: string) 
 export function defineAbilityHandler<Req extends EventHandlerRequest = EventHandlerRequest, Res = unknown>(ability: Ability, handler: EventHandler<Req, Res>) {
   return defineEventHandler<Req>((event) => {
     event.context.routeAbility = ability
+    if (event.method !== 'GET' && event.method !== 'HEAD') {
+      setCookie(event, WROTE_COOKIE, '1', { maxAge: WROTE_SECONDS, path: '/', httpOnly: true, sameSite: 'lax', secure: true })
+    }
     return handler(event)
   })
 }

@@ -157,58 +157,6 @@ export async function exportAssets(event: H3Event, kind: AssetKind) {
   return sendCsv(event, `bayward-${kind}-list-${new Date().toISOString().slice(0, 10)}.csv`, csv)
 }
 
-const importBody = z.object({
-  siteId: z.uuid('Pick a site.'),
-  csv: z.string().min(1, 'The file is empty.').max(5_000_000, 'The file is over 5 MB; split it.'),
-  dryRun: z.boolean().default(true),
-})
-
-// CSV import: a dry run lists every bad row (line and field); a real run writes all rows or none,
-// as a job whose progress the client polls.
-export async function importAssets(event: H3Event, kind: AssetKind) {
-  const cfg = assetKinds()[kind]
-  const body = await validateBody(event, importBody)
-  const actor = await requireAbility(event, 'asset.edit', body.siteId)
-  const { byName } = await areaNames(body.siteId)
-  const { rows, errors, total } = parseAssetCsv(kind, body.csv, byName)
-  // the rules of create apply to every row (area kinds, statuses)
-  const areaKinds = await siteAreaKinds(body.siteId)
-  for (const r of rows) {
-    for (const [field, message] of Object.entries(assetRuleProblems(kind, r, areaKinds))) errors.push({ line: r._line as number, field, message })
-  }
-  const identities = rows.map(r => String(r[cfg.identity]).toLowerCase())
-  identities.forEach((id, i) => {
-    if (identities.indexOf(id) !== i) errors.push({ line: rows[i]!._line as number, field: cfg.identity, message: `"${rows[i]![cfg.identity]}" appears twice in the file.` })
-  })
-  if (rows.length) {
-    const identityCol = (cfg.table as unknown as Record<string, PgColumn>)[cfg.identity]!
-    const existing = await useDb().select({ v: identityCol }).from(cfg.table as PgTable)
-      .where(and(eq(cfg.table.siteId, body.siteId), inArray(sql`lower(${identityCol})`, identities)))
-    const taken = new Set(existing.map(e => String(e.v).toLowerCase()))
-    rows.forEach((r) => {
-      if (taken.has(String(r[cfg.identity]).toLowerCase())) errors.push({ line: r._line as number, field: cfg.identity, message: `A ${cfg.noun} "${r[cfg.identity]}" already exists at this site.` })
-    })
-  }
-  errors.sort((a, b) => a.line - b.line)
-  if (body.dryRun || errors.length) {
-    return { dryRun: true, total, valid: errors.length ? rows.length - new Set(errors.map(e => e.line)).size : rows.length, errors }
-  }
-  const job = await startJob('import', { siteId: body.siteId, userId: actor.user.id }, rows.length, async (progress) => {
-    await useDb().transaction(async (tx) => {
-      for (const [i, { _line, ...values }] of rows.entries()) {
-        const [row] = await tx.insert(cfg.table).values({ ...values, siteId: body.siteId } as never).returning()
-        const created = row as Record<string, unknown> & { id: string }
-        await issueTag(tx, kind, created.id, body.siteId)
-        await writeAudit(tx, { actor, siteId: body.siteId, action: 'import', entity: kind, entityId: created.id, after: created, note: `CSV line ${_line}` })
-        if (i % 25 === 24) await progress(i + 1)
-      }
-    })
-    return { imported: rows.length }
-  })
-  setResponseStatus(event, 202)
-  return { dryRun: false, job: job.id, total: rows.length, errors: [] }
-}
-
 // Finds one asset by id among the sites the user belongs to; anything else is 404.
 export async function findAssetForActor(event: H3Event, kind: AssetKind, id: string) {
   const actor = await requireActor(event)

@@ -164,3 +164,10 @@ export async function findUploadForActor(event: H3Event, id: string): Promise<{ 
   if (!upload) throw createError({ statusCode: 404, message: 'No such file.' })
   return { actor, upload }
 }
+
+/** A stored file's bytes as a Buffer (the disk driver answers a Buffer, the S3 driver an ArrayBuffer), or null. */
+export async function readStoredFile(key: string): Promise<Buffer | null> {
+  const raw = await useStorage('uploads').getItemRaw<Uint8Array | ArrayBuffer>(key)
+  if (!raw) return null
+  return Buffer.isBuffer(raw) ? raw : Buffer.from(raw instanceof ArrayBuffer ? new Uint8Array(raw) : raw)
+}

@@ -109,13 +109,14 @@ function registry(kind: Kind): Record<string, Example> {
   return examples
 }
 
-/** A job of the caller's, written where the server keeps jobs (the `jobs` storage mount, .data/jobs). */
-function jobOf(userId: string, siteId: string, withPdf: boolean): string {
+/** A finished job of the caller's, written where the server keeps jobs (background_jobs; its file under .data/uploads/jobs). */
+async function jobOf(userId: string, siteId: string, withPdf: boolean): Promise<string> {
   const id = randomUUID()
-  const dir = `${rootDir}.data/jobs`
-  mkdirSync(dir, { recursive: true })
-  writeFileSync(`${dir}/${id}.json`, JSON.stringify({ id, kind: 'labels', siteId, userId, status: 'done', done: 1, total: 1, message: null, result: { labels: 1 }, createdAt: new Date().toISOString() }))
-  if (withPdf) writeFileSync(`${dir}/${id}.bin`, Buffer.from('%PDF-1.4\n%%EOF\n'))
+  await useTestDb().insert(tables.backgroundJobs).values({ id, kind: 'labels', siteId, userId, status: 'done', done: 1, total: 1, result: { labels: 1 }, finishedAt: new Date() })
+  if (withPdf) {
+    mkdirSync(`${rootDir}.data/uploads/jobs`, { recursive: true })
+    writeFileSync(`${rootDir}.data/uploads/jobs/${id}`, Buffer.from('%PDF-1.4\n%%EOF\n'))
+  }
   return id
 }
 
@@ -172,8 +173,14 @@ export const ROUTE_EXAMPLES: Record<string, Example> = {
       return () => x.c.delete(`/api/calendar/feeds/${own}`)
     },
   },
-  'server/api/jobs/[id].get.ts': { run: x => () => x.c.get(`/api/jobs/${jobOf(x.caller.user?.id ?? randomUUID(), x.w.siteId, false)}`) },
-  'server/api/labels/[id]/pdf.get.ts': { run: x => () => x.c.get(`/api/labels/${jobOf(x.caller.user?.id ?? randomUUID(), x.w.siteId, true)}/pdf`) },
+  'server/api/jobs/[id].get.ts': { run: async (x) => {
+    const id = x.caller.user ? await jobOf(x.caller.user.id, x.w.siteId, false) : randomUUID()
+    return () => x.c.get(`/api/jobs/${id}`)
+  } },
+  'server/api/labels/[id]/pdf.get.ts': { run: async (x) => {
+    const id = x.caller.user ? await jobOf(x.caller.user.id, x.w.siteId, true) : randomUUID()
+    return () => x.c.get(`/api/labels/${id}/pdf`)
+  } },
   'server/api/labels/index.post.ts': post(() => '/api/labels', w => ({ siteId: w.siteId, kind: 'battery', ids: [w.batteryId] })),
   'server/api/labels/preview.post.ts': post(() => '/api/labels/preview', w => ({ siteId: w.siteId, kind: 'battery', ids: [w.batteryId] })),
 

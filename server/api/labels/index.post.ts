@@ -6,12 +6,7 @@ export default defineAbilityHandler('label.print', async (event) => {
   const actor = await requireAbility(event, 'label.print', body.siteId)
   const items = await selectLabelItems(body)
   if (items.length === 0) throw createError({ statusCode: 400, message: 'No assets match; nothing to print.' })
-  const job = await startJob('labels', { siteId: body.siteId, userId: actor.user.id }, items.length, async (progress, jobId) => {
-    const pdf = await buildLabelPdf(items, body.layout, body.paper, progress)
-    await saveJobBlob(jobId, pdf)
-    await useDb().update(tables.tags).set({ printedAt: new Date() }).where(inArray(tables.tags.code, items.map(i => i.code)))
-    return { labels: items.length, bytes: pdf.byteLength }
-  })
+  const job = await labelSheetJob.start({ siteId: body.siteId, userId: actor.user.id }, items.length, { items, layout: body.layout, paper: body.paper })
   setResponseStatus(event, 202)
   return { id: job.id, total: job.total }
 })
