@@ -1,4 +1,5 @@
 import { randomUUID } from 'node:crypto'
+import { hostname } from 'node:os'
 import type { DbOrTx, Transaction } from './db'
 
 // Long work (hundreds of labels, a big CSV) runs as a job: the request writes the job's row and puts it on
@@ -64,6 +65,8 @@ export function registerJobKinds(list: JobKind<never, unknown>[]) {
 
 class JobSuperseded extends Error {}
 
+const THIS_SERVER = `${hostname()}:${process.pid}`
+
 const jobs = () => tables.backgroundJobs
 
 // One run of a queued job. The row is claimed by moving its attempt on; every later write names that
@@ -72,7 +75,7 @@ export async function runQueuedJob(data: Record<string, unknown>) {
   const jobId = String(data.jobId ?? '')
   const db = useDb()
   const t = jobs()
-  const [row] = await db.update(t).set({ attempt: sql`${t.attempt} + 1`, startedAt: new Date() })
+  const [row] = await db.update(t).set({ attempt: sql`${t.attempt} + 1`, startedAt: new Date(), ranOn: THIS_SERVER })
     .where(and(eq(t.id, jobId), eq(t.status, 'running'))).returning()
   if (!row) return
   const mine = and(eq(t.id, jobId), eq(t.attempt, row.attempt), eq(t.status, 'running'))

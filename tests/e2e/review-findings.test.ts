@@ -169,7 +169,7 @@ describe('uploads have a room per site and a number per person an hour', () => {
     expect(over.status).toBe(413)
     expect(over.body.message).toMatch(/room/)
     expect(await uploadsAt(siteId)).toHaveLength(2)
-    expect(storedFilesAt(siteId)).toHaveLength(2)
+    expect(await storedFilesAt(siteId)).toHaveLength(2)
   })
 
   it('over the person\'s hourly number: 429 with a plain message, and nothing stored', async () => {
@@ -180,6 +180,6 @@ describe('uploads have a room per site and a number per person an hour', () => {
     expect(over.status).toBe(429)
     expect(over.body.message).toMatch(/hour/)
     expect(await uploadsAt(siteId)).toHaveLength(3)
-    expect(storedFilesAt(siteId)).toHaveLength(3)
+    expect(await storedFilesAt(siteId)).toHaveLength(3)
   })
 })

@@ -11,6 +11,7 @@ CREATE TABLE "background_jobs" (
 	"result" jsonb,
 	"message" text,
 	"attempt" integer DEFAULT 0 NOT NULL,
+	"ran_on" text,
 	"started_at" timestamp with time zone,
 	"finished_at" timestamp with time zone,
 	"created_at" timestamp with time zone DEFAULT now() NOT NULL,

@@ -23,6 +23,8 @@ export const backgroundJobs = pgTable('background_jobs', {
   /** the plain sentence its owner reads when it failed */
   message: text(),
   attempt: integer().notNull().default(0),
+  /** the app server (host:pid) that took the latest attempt: whose log to read */
+  ranOn: text(),
   startedAt: timestamp({ withTimezone: true }),
   finishedAt: timestamp({ withTimezone: true }),
   ...timestamps,
