@@ -335,7 +335,10 @@ async function main() {
         return '?'
       }
     })()
-    const footer = `commit ${commit} · ${cores} cores · node ${process.version} · ${new Date().toISOString()} · ${DURATION_S} s per route, swaps ${swap?.requests ?? 'not run'} · build ${outputDir}`
+    // the tag look-up against the trivial route, and which per-server caches were on (they decide it)
+    const caches = `read cache ${process.env.BAYWARD_READ_CACHE === 'false' ? 'off' : 'on'}, rights cache ${process.env.BAYWARD_RIGHTS_CACHE === 'false' ? 'off' : 'on'}`
+    const ratioLine = tag ? `tag look-up ${(tag.rps / trivial.rps).toFixed(2)} × trivial at 32 connections (target ≥ ${TARGETS.tagRatio}), p95 ${tag.p95.toFixed(1)} ms · ${caches}` : caches
+    const footer = `commit ${commit} · ${cores} cores · node ${process.version} · ${new Date().toISOString()} · ${DURATION_S} s per route, swaps ${swap?.requests ?? 'not run'} · build ${outputDir}\n${ratioLine}`
     console.log(`\n${table}\n\n${footer}`)
     mkdirSync(`${root}.data/bench`, { recursive: true })
     writeFileSync(`${root}.data/bench/last.md`, `${table}\n\n${footer}\n`)

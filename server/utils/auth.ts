@@ -112,7 +112,9 @@ type ActorRows = Awaited<ReturnType<ReturnType<typeof actorQuery>['execute']>>
 
 // A browser that has just written reads rights and revisions from the database for a few seconds, on
 // whichever server its requests reach, so it sees its own write before the notification about it has
-// reached every server. Set on every request that may write (any method but GET and HEAD).
+// reached every server. Set on every request that may write (any method but GET and HEAD), which also
+// waits until this server has handled the notifications of its writes (changesCaughtUp): on the server
+// that made a change, the next request of anyone sees it.
 const WROTE_COOKIE = 'bayward-wrote'
 const WROTE_SECONDS = 3
 
@@ -203,11 +205,13 @@ export function requireActorCan(actor: Actor, ability: Ability, siteId: string) 
  * the declaration from the file to know what each role must be answered.
  */
 export function defineAbilityHandler<Req extends EventHandlerRequest = EventHandlerRequest, Res = unknown>(ability: Ability, handler: EventHandler<Req, Res>) {
-  return defineEventHandler<Req>((event) => {
+  return defineEventHandler<Req>(async (event) => {
     event.context.routeAbility = ability
-    if (event.method !== 'GET' && event.method !== 'HEAD') {
-      setCookie(event, WROTE_COOKIE, '1', { maxAge: WROTE_SECONDS, path: '/', httpOnly: true, sameSite: 'lax', secure: true })
-    }
-    return handler(event)
+    if (event.method === 'GET' || event.method === 'HEAD') return handler(event)
+    setCookie(event, WROTE_COOKIE, '1', { maxAge: WROTE_SECONDS, path: '/', httpOnly: true, sameSite: 'lax', secure: true })
+    const answer = await handler(event)
+    // what this request wrote is dropped from this server's memory before the answer goes out
+    await changesCaughtUp()
+    return answer
   })
 }

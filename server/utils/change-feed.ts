@@ -37,6 +37,7 @@ function emit(kind: string, id: string) {
 function received(payload: string | undefined) {
   const [kind = '', id = ''] = (payload ?? '').split(':')
   if (kind === 's') siteCounters.set(id, (siteCounters.get(id) ?? 0) + 1)
+  else if (kind === 'sync') return passed(id)
   emit(kind, id)
 }
 
@@ -44,6 +45,54 @@ function reset() {
   epoch += 1
   siteCounters.clear()
   emit('reset', '')
+  passed(null)
+}
+
+// Catching up after a write. PostgreSQL delivers notifications in commit order, so once a notification
+// sent after our transaction committed comes back on the listening connection, every notification of that
+// transaction has been handled here. Requests that ask while one such mark is on its way share the next one.
+interface Mark { nonce: string, done: () => void, promise: Promise<void> }
+let gathering: Mark | undefined
+let inFlight: Mark | undefined
+
+function newMark(): Mark {
+  let done = () => {}
+  const promise = new Promise<void>((resolve) => {
+    done = resolve
+  })
+  return { nonce: Math.random().toString(36).slice(2), done, promise }
+}
+
+function sendMark() {
+  const c = client
+  if (inFlight || !gathering || !c) return
+  const mark = inFlight = gathering
+  gathering = undefined
+  // never hold a request longer than this; what it wrote is still seen by the next one within milliseconds
+  const giveUp = setTimeout(() => passed(mark.nonce), 2000)
+  mark.promise.finally(() => clearTimeout(giveUp))
+  c.query('SELECT pg_notify($1, $2)', ['bayward_changes', `sync:${mark.nonce}`]).catch(() => passed(mark.nonce))
+}
+
+function passed(nonce: string | null) {
+  if (nonce === null) {
+    for (const m of [inFlight, gathering]) m?.done()
+    inFlight = gathering = undefined
+    return
+  }
+  if (inFlight?.nonce !== nonce) return
+  inFlight.done()
+  inFlight = undefined
+  sendMark()
+}
+
+/** Resolves once every notification committed before the call has been handled by this server. */
+export function changesCaughtUp(): Promise<void> {
+  if (!up || !client) return Promise.resolve()
+  gathering ??= newMark()
+  const { promise } = gathering
+  sendMark()
+  return promise
 }
 
 /**
