@@ -7,7 +7,16 @@ import { LRUCache } from 'lru-cache'
 // answer is never older than the last notice about that person.
 // BAYWARD_RIGHTS_CACHE=false turns it off (every request reads the database, as before).
 
-const kept = new LRUCache<string, { userId: string, value: unknown }>({ max: Number(process.env.BAYWARD_RIGHTS_CACHE_ENTRIES ?? 20_000) })
+// session key → what was read; and each person's session keys, so a notice about them finds them at once
+const byUser = new Map<string, Set<string>>()
+const kept = new LRUCache<string, { userId: string, value: unknown }>({
+  max: Number(process.env.BAYWARD_RIGHTS_CACHE_ENTRIES ?? 20_000),
+  dispose: (entry, key) => {
+    const keys = byUser.get(entry.userId)
+    keys?.delete(key)
+    if (keys?.size === 0) byUser.delete(entry.userId)
+  },
+})
 const userGenerations = new Map<string, number>()
 let allGeneration = 0
 
@@ -20,7 +29,7 @@ function subscribe() {
   onChange((kind, id) => {
     if (kind === 'u') {
       userGenerations.set(id, (userGenerations.get(id) ?? 0) + 1)
-      for (const [key, entry] of kept.entries()) if (entry.userId === id) kept.delete(key)
+      for (const key of [...byUser.get(id) ?? []]) kept.delete(key)
     }
     else if (kind === 'n' || kind === 'reset') {
       allGeneration += 1
@@ -45,5 +54,7 @@ export function keptRights<T>(userId: string, sessionId: string): T | undefined 
 /** Keeps a fresh answer, unless a notice about the person (or a reset) came while it was being read. */
 export function keepRights(userId: string, sessionId: string, generation: string, value: unknown) {
   if (!enabled() || !changeFeedUp() || rightsGeneration(userId) !== generation) return
-  kept.set(`${userId}|${sessionId}`, { userId, value })
+  const key = `${userId}|${sessionId}`
+  kept.set(key, { userId, value })
+  byUser.set(userId, (byUser.get(userId) ?? new Set()).add(key))
 }
