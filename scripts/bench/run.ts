@@ -38,6 +38,13 @@ function passTable(label: string, r: PassResult, scan?: { files: number, kb: num
     const [target, result] = routeVerdict(f.key, f)
     return [f.route, String(f.connections), f.rps.toFixed(0), ms(f.p50, DURATION_S * 1000), ms(f.p95, DURATION_S * 1000), ms(f.p99, DURATION_S * 1000), String(f.errors), target, result]
   })
+  // the tag look-up against the trivial route, and which per-server caches were on (they decide it)
+  const tag = r.figures.find(f => f.key === 'tag')
+  const trivial = r.figures.find(f => f.key === 'health')
+  if (tag && trivial) {
+    const ratio = tag.rps / trivial.rps
+    rows.push([`tag look-up ÷ trivial route (rights cache ${process.env.BAYWARD_RIGHTS_CACHE === 'false' ? 'off' : 'on'})`, '', '', '', '', '', '', `≥ ${TARGETS.tagRatio} ×`, `${ratio.toFixed(2)} × ${pass(ratio >= TARGETS.tagRatio)}`])
+  }
   if (r.twoTrucks !== undefined) rows.push(['battery in two places (SQL after the swaps)', '', '', '', '', '', String(r.twoTrucks), 'none', pass(r.twoTrucks === 0)])
   rows.push([`server peak memory (VmHWM; sampled RSS ${r.memory.peakRssMb.toFixed(0)} MB)`, '', '', '', '', '', '', `< ${TARGETS.memoryMb} MB`, `${r.memory.hwmMb.toFixed(0)} MB ${pass(r.memory.hwmMb < TARGETS.memoryMb)}`])
   if (scan) rows.push([`Scan page first-load JS (${scan.files} files, gzip -9)`, '', '', '', '', '', '', `< ${TARGETS.scanJsKb} kB`, `${scan.kb.toFixed(1)} kB ${pass(scan.kb < TARGETS.scanJsKb)}`])

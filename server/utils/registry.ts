@@ -7,12 +7,8 @@ import {
   AREA_KINDS, BATTERY_CHEMISTRIES, CYLINDER_SPECS, CYLINDER_STATUSES, TRUCK_POWERS,
   assetCreateSchemas, assetFieldSchemas, idParamsSchema, listQuerySchema, outOfServiceSchema,
 } from '#shared/utils/asset-schemas'
-import type { Role } from '#shared/types/auth'
 import { batteryStateAt } from '#shared/utils/battery-state'
 import type { StoredBatteryState } from '#shared/utils/derived-battery'
-
-export const EDITORS: Role[] = ['facilities_lead', 'safety_lead', 'admin']
-const HOLDERS: Role[] = ['technician', 'facilities_lead', 'safety_lead', 'admin']
 
 const bool = z.enum(['true', 'false']).transform(v => v === 'true')
 const intParam = z.coerce.number().int()
@@ -119,7 +115,11 @@ export function listConditions(event: H3Event, kind: AssetKind, query: ListQuery
     const like = `%${query.q.replace(/[\\%_]/g, m => `\\${m}`)}%`
     where.push(or(...cfg.search.map(col => ilike(col, like)), sql`${liveTagCode(kind, cfg.table)} ILIKE ${like}`)!)
   }
-  const sortKey = query.sort && cfg.sortable[query.sort] ? query.sort : cfg.defaultSort
+  // only the kind's own sort keys: `constructor`, `__proto__` and other names every object answers to are refused
+  if (query.sort && !Object.hasOwn(cfg.sortable, query.sort)) {
+    throw createError({ statusCode: 400, message: `Sort by one of: ${Object.keys(cfg.sortable).join(', ')}.`, data: { fields: { sort: 'Not a column this list sorts by.' } } })
+  }
+  const sortKey = query.sort ?? cfg.defaultSort
   const sortCol = cfg.sortable[sortKey]!
   return { condition: and(...where), sortKey, order: [query.dir === 'desc' ? desc(sortCol) : asc(sortCol), asc(cfg.table.id)] }
 }
@@ -142,7 +142,7 @@ export function registryListItem({ row, tagCode, ...status }: ListRow) {
 export async function listAssets(event: H3Event, kind: AssetKind) {
   const cfg = assetKinds()[kind]
   const query = validateQuery(event, listQuerySchema)
-  await requireSiteRole(event, query.siteId)
+  await requireAbility(event, 'site.member', query.siteId)
   const { condition, sortKey, order } = listConditions(event, kind, query)
   const db = useDb()
   const [items, [{ total } = { total: 0 }]] = await Promise.all([
@@ -183,21 +183,6 @@ export async function getAsset(event: H3Event, kind: AssetKind) {
   return { item: { ...row, tagCode }, roles: rolesAt(actor, row.siteId) }
 }
 
-async function checkAreaRefs(kind: AssetKind, siteId: string, values: Record<string, unknown>) {
-  const refs = assetKinds()[kind].areaRefs
-  for (const [field, areaKind] of Object.entries(refs)) {
-    const areaId = values[field]
-    if (!areaId) continue
-    const [area] = await useDb().select({ kind: tables.areas.kind }).from(tables.areas)
-      .where(and(eq(tables.areas.id, areaId as string), eq(tables.areas.siteId, siteId)))
-    if (!area) throw createError({ statusCode: 400, message: 'Pick an area at this site.', data: { fields: { [field]: 'Pick an area at this site.' } } })
-    if (areaKind && area.kind !== areaKind) {
-      const msg = areaKind === 'charging_area' ? 'Pick a charging area.' : 'Pick a fuel station.'
-      throw createError({ statusCode: 400, message: msg, data: { fields: { [field]: msg } } })
-    }
-  }
-}
-
 function conflict(kind: AssetKind, values: Record<string, unknown>, error: unknown): never {
   const cfg = assetKinds()[kind]
   const unstorable = unstorableValueError(error, values)
@@ -217,15 +202,14 @@ const createBody = z.object({ siteId: z.uuid('Pick a site.') }).loose()
 export async function createAsset(event: H3Event, kind: AssetKind) {
   const cfg = assetKinds()[kind]
   const { siteId, ...rest } = await validateBody(event, createBody)
-  const actor = await requireSiteRole(event, siteId, EDITORS)
+  const actor = await requireAbility(event, 'asset.edit', siteId)
   const parsed = assetCreateSchemas[kind].safeParse(rest)
   if (!parsed.success) {
     const fields = fieldMessages(parsed.error)
     throw createError({ statusCode: 400, message: 'Check the highlighted fields.', data: { fields } })
   }
   const values = parsed.data as Record<string, unknown>
-  refuseInUseStatus(kind, values.status, undefined)
-  await checkAreaRefs(kind, siteId, values)
+  refuseRuleProblems(assetRuleProblems(kind, values, await siteAreaKinds(siteId)))
   try {
     return await useDb().transaction(async (tx) => {
       const [row] = await tx.insert(cfg.table).values({ ...values, siteId } as never).returning()
@@ -245,26 +229,24 @@ export async function createAsset(event: H3Event, kind: AssetKind) {
 export async function updateAsset(event: H3Event, kind: AssetKind) {
   const cfg = assetKinds()[kind]
   const { id } = validateParams(event, idParamsSchema)
-  const patch = await validateBody(event, z.record(z.string(), z.unknown()))
+  const { statusReason, ...patch } = await validateBody(event, z.record(z.string(), z.unknown()))
   const fieldKeys = Object.keys(assetFieldSchemas[kind].shape)
   const unknown = Object.keys(patch).filter(k => !fieldKeys.includes(k))
   if (unknown.length) throw createError({ statusCode: 400, message: `Unknown field: ${unknown.join(', ')}.`, data: { fields: Object.fromEntries(unknown.map(k => [k, 'Not a field of this record.'])) } })
   const { actor, row } = await findAssetForActor(event, kind, id)
-  if (!hasRole(actor, row.siteId, EDITORS)) {
-    throw createError({ statusCode: 403, message: 'Only leads and admins edit asset records.' })
-  }
+  requireActorCan(actor, 'asset.edit', row.siteId)
   const current = Object.fromEntries(fieldKeys.map(k => [k, row[k]]))
   const merged = assetCreateSchemas[kind].safeParse({ ...current, ...patch })
   if (!merged.success) throw createError({ statusCode: 400, message: 'Check the highlighted fields.', data: { fields: fieldMessages(merged.error) } })
   const values = merged.data as Record<string, unknown>
-  refuseInUseStatus(kind, patch.status, row.status)
-  await checkAreaRefs(kind, row.siteId, values)
+  refuseRuleProblems(assetRuleProblems(kind, { ...values, status: patch.status }, await siteAreaKinds(row.siteId), row))
+  const revived = reviveCondemned(actor, kind, row, patch.status, statusReason)
   try {
     return await useDb().transaction(async (tx) => {
       const [updated] = await tx.update(cfg.table).set(values as never)
         .where(and(eq(cfg.table.id, id), eq(cfg.table.siteId, row.siteId))).returning()
       if (!updated) throw createError({ statusCode: 404, message: `No such ${cfg.noun}.` })
-      await writeAudit(tx, { actor, siteId: row.siteId, action: 'update', entity: kind, entityId: id, before: row, after: updated })
+      await writeAudit(tx, { actor, siteId: row.siteId, action: revived ? 'uncondemn' : 'update', entity: kind, entityId: id, before: row, after: updated, note: revived })
       await recomputeSubjects(tx, row.siteId, await registrySubjects(tx, kind, row))
       return { item: updated }
     })
@@ -281,9 +263,7 @@ export async function setAssetOutOfService(event: H3Event, kind: AssetKind) {
   const body = await validateBody(event, outOfServiceSchema)
   const { actor, row } = await findAssetForActor(event, kind, id)
   if (!cfg.holdable) throw createError({ statusCode: 400, message: `An ${cfg.noun} cannot be put out of service.` })
-  if (!hasRole(actor, row.siteId, HOLDERS)) {
-    throw createError({ statusCode: 403, message: 'Technicians, leads and admins put assets out of service.' })
-  }
+  requireActorCan(actor, 'asset.hold', row.siteId)
   if (row.outOfService === body.outOfService) {
     throw createError({ statusCode: 409, message: body.outOfService ? `This ${cfg.noun} is already out of service.` : `This ${cfg.noun} is already in service.` })
   }
@@ -301,13 +281,4 @@ export async function setAssetOutOfService(event: H3Event, kind: AssetKind) {
     await recomputeSubjects(tx, row.siteId, await registrySubjects(tx, kind, row))
     return { item: updated }
   })
-}
-
-// A cylinder goes in use (and comes out of use) only through an exchange on a truck.
-function refuseInUseStatus(kind: AssetKind, next: unknown, current: unknown) {
-  if (kind !== 'cylinder' || next === undefined || next === current) return
-  if (next === 'in_use' || current === 'in_use') {
-    const msg = 'A cylinder goes on and off a truck through a cylinder exchange.'
-    throw createError({ statusCode: 400, message: msg, data: { fields: { status: msg } } })
-  }
 }

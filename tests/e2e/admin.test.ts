@@ -126,9 +126,12 @@ describe('user administration', () => {
       expect((await session.get(`/api/batteries?siteId=${siteA}`)).status).toBe(404)
     })
 
-    it('an admin cannot drop their own admin role (400)', async () => {
-      const res = await adminA.put(`/api/users/${adminAUser.id}/roles`, { siteId: siteA, roles: ['facilities_lead'] })
-      expect(res.status).toBe(400)
+    it('nobody changes their own roles, up or down (403)', async () => {
+      for (const roles of [['facilities_lead'], ['admin', 'safety_lead'], []]) {
+        const res = await adminA.put(`/api/users/${adminAUser.id}/roles`, { siteId: siteA, roles })
+        expect(res.status).toBe(403)
+        expect(res.body.message).toMatch(/own roles/)
+      }
       expect(await rolesAt(adminAUser.id, siteA)).toEqual(['admin'])
     })
 

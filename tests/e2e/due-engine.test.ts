@@ -53,7 +53,8 @@ describe('recording the work closes the obligation and opens the next', () => {
     const b = await oldBattery(siteId, 30)
     const before = obligationOf(await dueList(tech, { siteId, kind: 'battery_equalize' }), 'battery_equalize', b.id)
     expect(before!.state).toBe('overdue')
-    await endedCharges(siteId, b.id, chargerId, techId, [1], true)
+    // ended just now, so it is today at the site even in the first hour after midnight
+    await endedCharges(siteId, b.id, chargerId, techId, [0], true)
     const next = obligationOf(await dueList(tech, { siteId, kind: 'battery_equalize' }), 'battery_equalize', b.id)
     // the site-local day the equalize charge ended, an hour ago (yesterday just after midnight)
     const endedOn = new Intl.DateTimeFormat('en-CA', { timeZone: 'America/Chicago' }).format(new Date(Date.now() - 3_600_000))

@@ -177,7 +177,7 @@ describe('uploads', () => {
     const empty = await upload(c, quiet, new Uint8Array(0), 'empty.pdf', 'application/pdf')
     expect(empty.status).toBe(400)
     expect(await uploadsAt(quiet)).toHaveLength(0)
-    expect(storedFilesAt(quiet)).toEqual([])
+    expect(await storedFilesAt(quiet)).toEqual([])
   })
 
   it('a user of another site cannot fetch a certificate (404), nor can anyone signed out (401)', async () => {

@@ -1,7 +1,7 @@
 import { swapBodySchema } from '#shared/utils/battery-room-schemas'
 
 // Change a truck's battery (anyone at the site; an override needs a technician or lead and a written reason).
-export default defineEventHandler(async (event) => {
+export default defineAbilityHandler('swap.record', async (event) => {
   const body = await validateBody(event, swapBodySchema)
   const actor = await requireActor(event)
   const result = await recordBatterySwap(actor, body)

@@ -4,9 +4,9 @@ const QuerySchema = z.object({ siteId: z.uuid(), open: z.enum(['true', 'false'])
 
 // Follow-ups of failed checklist items and incidents at a site, open ones by default, each with the due
 // date the follow-up schedule gives it (its obligation).
-export default defineEventHandler(async (event) => {
+export default defineAbilityHandler('log.view', async (event) => {
   const { siteId, open } = validateQuery(event, QuerySchema)
-  await requireSiteRole(event, siteId, LOG_VIEW_ROLES)
+  await requireAbility(event, 'log.view', siteId)
   const f = tables.followUps
   const o = tables.obligations
   const dueOn = sql<string | null>`COALESCE(${o.dueOn}, ${f.dueOn})`

@@ -147,6 +147,8 @@ export const mailMessages = pgTable('mail_messages', {
   subject: text().notNull(),
   body: text().notNull(),
   kind: text().notNull(),
+  /** a one-time secret (sealed) the body's link is rendered from at send time; dropped once sent */
+  linkSecret: text(),
   status: mailStatusEnum().notNull().default('queued'),
   attempts: integer().notNull().default(0),
   lastError: text(),

@@ -1,15 +1,9 @@
-import type { Role } from '#shared/types/auth'
 import type { FitReason } from '#shared/utils/battery-fit'
 import { parseSiteSettings, type SiteSettings } from '#shared/utils/site-settings'
 import type { DbOrTx } from '../db'
 import type { Actor } from '../auth'
 
-// What the battery-room acts share: who may do what, the site's policy, refusals in words, retry keys.
-
-export const EVERYONE: Role[] = ['operator', 'technician', 'facilities_lead', 'safety_lead', 'admin']
-/** Put a battery on or off charge, take readings, override a refused swap. */
-export const BATTERY_ROOM_FLOOR_ROLES: Role[] = ['technician', 'facilities_lead', 'safety_lead', 'admin']
-export const BATTERY_ROOM_LEAD_ROLES: Role[] = ['facilities_lead', 'safety_lead', 'admin']
+// What the battery-room acts share: the site's policy, refusals in words, retry keys.
 
 /** The site's policy with defaults filled in; a stored value that no longer parses falls back to its default. */
 export async function batteryRoomSettings(db: DbOrTx, siteId: string): Promise<SiteSettings & { timeZone: string }> {
@@ -32,9 +26,7 @@ export function badField(field: string, message: string) {
 }
 
 export function checkOverrideRole(actor: Actor, siteId: string, overrideReason: string | undefined) {
-  if (overrideReason && !hasRole(actor, siteId, BATTERY_ROOM_FLOOR_ROLES)) {
-    throw createError({ statusCode: 403, message: 'Only a technician or a lead may override a refused check.' })
-  }
+  if (overrideReason) requireActorCan(actor, 'swap.override', siteId)
 }
 
 /** A record found by its retry key, refused when someone else made it. */

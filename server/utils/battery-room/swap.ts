@@ -64,7 +64,7 @@ export async function recordBatterySwap(actor: Actor, body: SwapInput) {
       ])
       if (!truck) throw createError({ statusCode: 404, message: 'No such truck.' })
       const siteId = truck.siteId
-      if (!hasRole(actor, siteId, EVERYONE)) throw createError({ statusCode: 403, message: 'You have no role at this site.' })
+      requireActorCan(actor, 'swap.record', siteId)
       checkOverrideRole(actor, siteId, body.overrideReason)
       const placeOf = new Map(places.map(p => [p.batteryId, p.truckId]))
       const locked = lockedRows.filter(b => b.siteId === siteId).map(b => ({ ...b, currentTruckId: placeOf.get(b.id) ?? null }))
@@ -112,7 +112,7 @@ export async function recordBatterySwap(actor: Actor, body: SwapInput) {
         ...batteryTruckFit(truckSpec(truck), row),
         ...status.readiness.filter(r => r.code !== 'already_in_truck'),
       ]
-      const mayOverride = hasRole(actor, siteId, BATTERY_ROOM_FLOOR_ROLES)
+      const mayOverride = actorCan(actor, 'swap.override', siteId)
       if (soft.length && !body.overrideReason) {
         throw refusal(soft, { overridable: mayOverride, overrideReasonMinLength: OVERRIDE_REASON_MIN_LENGTH })
       }

@@ -1,7 +1,6 @@
 import dayjs from 'dayjs'
 import utc from 'dayjs/plugin/utc.js'
 import timezone from 'dayjs/plugin/timezone.js'
-import type { Role } from '#shared/types/auth'
 import type { CompletionInput } from '#shared/utils/schedule-schemas'
 import type { Actor } from '../auth'
 import { recomputeSubjects } from './rules'
@@ -11,9 +10,6 @@ dayjs.extend(timezone)
 
 // "Record it done" for a schedule a lead added: an append-only completion record (the day, a note, an
 // optional certificate, a truck's hour meter), and the subject's obligations recomputed with it.
-
-/** Who records a lead-added schedule as done. */
-export const SCHEDULE_COMPLETE_ROLES: Role[] = ['technician', 'facilities_lead', 'safety_lead', 'admin']
 
 export type CustomScheduleRow = typeof tables.schedules.$inferSelect
 

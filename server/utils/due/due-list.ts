@@ -10,9 +10,9 @@ import { OPEN_STATES, readDueList, type DueList, type DueOptions, type Obligatio
 // Which obligations a user asks for: their own roles by default; a lead may ask for any role or all.
 export function dueScopeFor(actor: Actor, siteId: string, role: DueQuery['role']): { roles: Role[] | null, personId: string } {
   const held = rolesAt(actor, siteId)
-  const lead = held.some(r => LEAD_ROLES.includes(r))
+  const lead = actorCan(actor, 'due.view-all', siteId)
   if (role === 'all') {
-    if (!lead) throw createError({ statusCode: 403, message: 'Only leads see every role\'s list.' })
+    if (!lead) throw createError({ statusCode: 403, message: refusalFor('due.view-all') })
     return { roles: null, personId: actor.user.id }
   }
   if (role) {

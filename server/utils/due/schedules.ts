@@ -1,4 +1,3 @@
-import type { Role } from '#shared/types/auth'
 import type { BuiltInDueKind, ScheduleDefinition } from '#shared/utils/due-schedules'
 import { customRuleColumns, type ScheduleCreate, type ScheduleUpdate, type customScheduleUpdateSchema } from '#shared/utils/schedule-schemas'
 import type { z } from 'zod'
@@ -9,9 +8,6 @@ import { loadSiteSchedules } from './site-context'
 // The Schedules page: leads change a built-in schedule's interval, add their own schedules and pause them.
 // Every change recomputes that schedule's obligations at the site in the same transaction, so the Bay
 // board, the due list and the tag page follow at once.
-
-/** Who adds, changes and pauses schedules. */
-export const SCHEDULE_EDIT_ROLES: Role[] = ['facilities_lead', 'safety_lead', 'admin']
 
 export function siteSchedules(siteId: string): Promise<ScheduleDefinition[]> {
   return loadSiteSchedules(useDb(), siteId)

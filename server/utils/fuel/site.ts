@@ -1,23 +1,12 @@
 import type { H3Event } from 'h3'
 import type { SiteSettings } from '#shared/utils/site-settings'
-import type { Role } from '#shared/types/auth'
 import type { DbOrTx } from '../db'
 
-// The fuel station's shared pieces: who may do what, the site's policy and today, cylinder look-ups, CO limits.
+// The fuel station's shared pieces: the site's policy and today, cylinder look-ups, CO limits.
 
 export type FuelCylinderRow = typeof tables.lpCylinders.$inferSelect
 export type FuelTruckRow = typeof tables.trucks.$inferSelect
 
-/** Who refills cylinders: technicians and leads, each with a current LP-gas transfer qualification. */
-export const REFILL_ROLES: Role[] = ['technician', 'facilities_lead', 'safety_lead', 'admin']
-/** Everyone at the site changes a cylinder on a truck. */
-export const EXCHANGE_ROLES: Role[] = ['operator', 'technician', 'facilities_lead', 'safety_lead', 'admin']
-export const REQUALIFICATION_ROLES: Role[] = ['technician', 'facilities_lead', 'safety_lead', 'admin']
-export const QUARANTINE_ROLES: Role[] = ['technician', 'facilities_lead', 'safety_lead', 'admin']
-export const EMISSIONS_RECORD_ROLES: Role[] = ['facilities_lead', 'admin']
-export const EMISSIONS_VIEW_ROLES: Role[] = ['facilities_lead', 'safety_lead', 'admin']
-export const CO_RECORD_ROLES: Role[] = ['safety_lead', 'technician', 'admin']
-export const CO_VIEW_ROLES: Role[] = ['safety_lead', 'technician', 'facilities_lead', 'admin']
 export const COMBUSTION_POWERS = ['lp_gas', 'gasoline', 'diesel'] as const
 
 export function isCombustionPower(power: string): power is (typeof COMBUSTION_POWERS)[number] {

@@ -1,5 +1,4 @@
 import type { z } from 'zod'
-import type { Role } from '#shared/types/auth'
 import {
   DEFAULT_CHECKLIST_ITEMS, DEFAULT_CHECKLIST_TITLES, checklistItemKey, logPeriodStart, weekStartOf,
   type ChecklistAreaKind, type ChecklistCadence, type ChecklistItem, type LogEntriesInput,
@@ -7,15 +6,6 @@ import {
 } from '#shared/utils/area-checklists'
 import type { DbOrTx } from '../db'
 import type { Actor } from '../auth'
-
-/** Who fills in area logs. */
-export const LOG_RECORD_ROLES: Role[] = ['technician', 'facilities_lead', 'safety_lead', 'admin']
-/** Who signs them. */
-export const LOG_SIGN_ROLES: Role[] = ['safety_lead']
-/** Who reads the logs, reports and follow-ups. */
-export const LOG_VIEW_ROLES: Role[] = ['technician', 'facilities_lead', 'safety_lead', 'admin']
-/** Who edits checklist templates. */
-export const TEMPLATE_EDIT_ROLES: Role[] = ['facilities_lead', 'safety_lead', 'admin']
 
 export type AreaRow = typeof tables.areas.$inferSelect
 export type TemplateRow = typeof tables.checklistTemplates.$inferSelect
@@ -204,7 +194,7 @@ export async function correctLogEntry(actor: Actor, entryId: string, input: z.ou
       .where(and(eq(tables.areaLogEntries.id, entryId), inArray(tables.areaLogEntries.siteId, actor.siteIds)))
       .for('update', { of: tables.areaLogs })
     if (!found) throw createError({ statusCode: 404, message: 'No such log entry.' })
-    if (!hasRole(actor, found.log.siteId, LOG_RECORD_ROLES)) throw createError({ statusCode: 403, message: 'Technicians and leads correct area logs.' })
+    requireActorCan(actor, 'log.record', found.log.siteId)
     const [later] = await tx.select({ id: tables.areaLogEntries.id }).from(tables.areaLogEntries).where(eq(tables.areaLogEntries.correctsId, entryId))
     if (later) throw createError({ statusCode: 409, message: 'That entry was already corrected; correct the latest one.' })
     const [row] = await tx.insert(tables.areaLogEntries).values({

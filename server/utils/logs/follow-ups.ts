@@ -22,7 +22,7 @@ export async function openChecklistFollowUp(tx: DbOrTx, actor: Actor, area: Area
   }).returning()
   await writeAudit(tx, { actor, siteId: area.siteId, action: 'create', entity: 'follow_up', entityId: followUp!.id, after: followUp })
   await queueAlert(tx, {
-    siteId: area.siteId, kind: 'alert:checklist_failed', roles: ['safety_lead'],
+    siteId: area.siteId, kind: 'alert:checklist_failed', audience: 'notice.checklist-failed',
     subject: `${area.name}: "${item.label}" failed`,
     body: `${actor.user.name} marked "${item.label}" as failed in ${area.name} on ${date}.\nNote: ${entry.note || '—'}\n\nA follow-up is open, due ${await followUpDueAt(tx, area.siteId, date)}.\n${new URL(`/logs?area=${area.id}&date=${date}`, (useRuntimeConfig().public.baseUrl as string) || 'http://localhost:3000').toString()}`,
   })

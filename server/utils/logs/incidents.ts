@@ -1,10 +1,7 @@
-import type { Role } from '#shared/types/auth'
 import { INCIDENT_KIND_LABELS, type IncidentInput } from '#shared/utils/incidents'
 import type { Actor } from '../auth'
 
 /** Everyone at a site may report an incident; leads read the list. */
-export const INCIDENT_REPORT_ROLES: Role[] = ['operator', 'technician', 'facilities_lead', 'safety_lead', 'admin']
-export const INCIDENT_VIEW_ROLES: Role[] = ['facilities_lead', 'safety_lead', 'admin']
 
 function badField(field: string, message: string) {
   return createError({ statusCode: 400, message, data: { fields: { [field]: message } } })
@@ -55,7 +52,7 @@ export async function reportIncident(actor: Actor, input: IncidentInput) {
     await writeAudit(tx, { actor, siteId: input.siteId, action: 'create', entity: 'follow_up', entityId: followUp!.id, after: followUp })
     const base = (useRuntimeConfig().public.baseUrl as string) || 'http://localhost:3000'
     const mail = await queueAlert(tx, {
-      siteId: input.siteId, kind: 'alert:incident', roles: ['safety_lead'], userIds: input.followUpOwnerId ? [input.followUpOwnerId] : [],
+      siteId: input.siteId, kind: 'alert:incident', audience: 'notice.incident', userIds: input.followUpOwnerId ? [input.followUpOwnerId] : [],
       subject: `Incident: ${label} — ${where}`,
       body: `${actor.user.name} reported: ${label} at ${where}, ${at.toISOString().slice(0, 16).replace('T', ' ')} UTC.\n\nWhat happened:\n${input.description}\n\nImmediate actions:\n${input.immediateActions || '—'}\n\nPhotos: ${input.photoUploadIds.length}\n${new URL('/incidents', base).toString()}`,
     })

@@ -5,13 +5,11 @@ const BodySchema = z.object({ reason: z.string().trim().min(3, 'Say why (label l
 
 // Re-tag an asset whose label is lost or damaged: the old code is retired (it still resolves and
 // says it was replaced) and a new one issued (leads and admins).
-export default defineEventHandler(async (event) => {
+export default defineAbilityHandler('tag.retag', async (event) => {
   const { code } = validateParams(event, ParamsSchema)
   const body = await validateBody(event, BodySchema)
   const { actor, tag, kind, row } = await resolveTagForActor(event, code)
-  if (!hasRole(actor, row.siteId, ['facilities_lead', 'safety_lead', 'admin'])) {
-    throw createError({ statusCode: 403, message: 'Only leads and admins re-tag assets.' })
-  }
+  requireActorCan(actor, 'tag.retag', row.siteId)
   if (tag.retiredAt) throw createError({ statusCode: 409, message: `${tag.code} was already replaced; re-tag its current code instead.` })
   return useDb().transaction(async (tx) => {
     const [retired] = await tx.update(tables.tags).set({ retiredAt: new Date() })

@@ -2,11 +2,11 @@ import { emissionsTestSchema } from '#shared/utils/fuel-schemas'
 
 // Record a yearly tailpipe test of a combustion truck (facilities leads and admins): pass or fail
 // against the site's policy, the next date one emissions-schedule interval on, or its retest window after a fail.
-export default defineEventHandler(async (event) => {
+export default defineAbilityHandler('emissions.record', async (event) => {
   const { id } = validateParams(event, idParamsSchema)
   const body = await validateBody(event, emissionsTestSchema)
   const { actor, truck } = await requireCombustionTruck(event, id)
-  if (!hasRole(actor, truck.siteId, EMISSIONS_RECORD_ROLES)) throw createError({ statusCode: 403, message: 'Facilities leads and admins record emissions tests.' })
+  requireActorCan(actor, 'emissions.record', truck.siteId)
   if (!isCombustionPower(truck.power)) {
     throw createError({ statusCode: 409, message: `Truck ${truck.fleetNumber} is electric; it has no tailpipe to test.`, data: { reasons: ['Not a combustion truck.'] } })
   }

@@ -180,5 +180,5 @@ CREATE TRIGGER schedule_completions_revision_insert AFTER INSERT ON schedule_com
 CREATE TRIGGER schedule_completions_revision_update AFTER UPDATE ON schedule_completions REFERENCING OLD TABLE AS old_rows NEW TABLE AS new_rows FOR EACH STATEMENT EXECUTE FUNCTION site_revisions_from_site_id();--> statement-breakpoint
 CREATE TRIGGER schedule_completions_revision_delete AFTER DELETE ON schedule_completions REFERENCING OLD TABLE AS old_rows FOR EACH STATEMENT EXECUTE FUNCTION site_revisions_from_site_id();--> statement-breakpoint
 -- The read models are new: `npm run rebuild-state` (set-up, or the server at start) fills them from the records.
-INSERT INTO "read_model_rebuilds" ("id", "needed", "reason") VALUES (1, true, '0006: battery status, truck status and obligations introduced')
+INSERT INTO "read_model_rebuilds" ("id", "needed", "reason") VALUES (1, true, '0008: battery status, truck status and obligations introduced')
 ON CONFLICT ("id") DO UPDATE SET "needed" = true, "reason" = EXCLUDED."reason", "requested_at" = now();
