@@ -33,10 +33,14 @@ export default defineNuxtConfig({
       cookie: { sameSite: 'lax', httpOnly: true },
     },
     public: { appName: 'Bayward', baseUrl: 'http://localhost:3000' },
-    // Certificates and photos: size limit, and the S3-compatible bucket used when built with
-    // BAYWARD_UPLOADS_DRIVER=s3 (NUXT_UPLOADS_S3_ENDPOINT, _REGION, _BUCKET, _ACCESS_KEY_ID, _SECRET_ACCESS_KEY).
+    // Certificates and photos: size limit, and where files go (server/plugins/storage.ts): NUXT_UPLOADS_DRIVER
+    // disk (.data/uploads) or s3 (NUXT_UPLOADS_S3_ENDPOINT, _REGION, _BUCKET, _ACCESS_KEY_ID, _SECRET_ACCESS_KEY).
     uploads: {
+      driver: 'disk',
       maxBytes: 10 * 1024 * 1024,
+      // room for files per site, and uploads per person per hour (NUXT_UPLOADS_SITE_QUOTA_MB, NUXT_UPLOADS_PER_USER_PER_HOUR)
+      siteQuotaMb: 2048,
+      perUserPerHour: 60,
       s3: { endpoint: '', region: 'auto', bucket: '', accessKeyId: '', secretAccessKey: '' },
     },
   },
@@ -50,15 +54,11 @@ export default defineNuxtConfig({
     experimental: { tasks: false },
     // scripts, styles, fonts and icons are written .br and .gz at build and served as the browser asks
     compressPublicAssets: { gzip: true, brotli: true },
-    storage: {
-      // background jobs (label sheets, CSV imports): progress and results, shared by app servers
-      jobs: { driver: 'fs', base: './.data/jobs' },
-      // uploaded certificates and photos, under generated keys; never served as static files
-      uploads: { driver: 'fs', base: './.data/uploads' },
-    },
-    // BAYWARD_UPLOADS_DRIVER=s3 at build time remounts 'uploads' on an S3-compatible bucket (needs the aws4fetch package).
-    plugins: process.env.BAYWARD_UPLOADS_DRIVER === 's3' ? ['storage/uploads-s3.ts'] : [],
+    // The 'uploads' storage (certificates, photos, job files under jobs:) is mounted at start by
+    // server/plugins/storage.ts, on local disk or an S3-compatible bucket.
     output: { dir: process.env.BAYWARD_BUILD_NAME ? `.output-${process.env.BAYWARD_BUILD_NAME}` : '.output' },
+    // Domain folders under server/utils: one act or one read model per file, auto-imported like utils/.
+    imports: { dirs: ['battery-room', 'due', 'fuel', 'logs'].map(dir => fileURLToPath(new URL(`./server/utils/${dir}`, import.meta.url))) },
   },
   typescript: { strict: true },
   telemetry: false,

@@ -1,6 +1,8 @@
 // Applies the committed Drizzle migrations (server/database/migrations) to NUXT_DATABASE_URL.
 // Plain Node, no devDependencies; an advisory lock keeps two app servers from migrating at once.
+// Then installs or upgrades the job queue's own schema (pg-boss, schema `pgboss`; it takes its own lock).
 import postgres from 'postgres'
+import PgBoss from 'pg-boss'
 import { drizzle } from 'drizzle-orm/postgres-js'
 import { migrate } from 'drizzle-orm/postgres-js/migrator'
 import { fileURLToPath } from 'node:url'
@@ -12,6 +14,9 @@ try {
   await sql`SELECT pg_advisory_lock(725461)`
   await migrate(drizzle(sql), { migrationsFolder: folder })
   await sql`SELECT pg_advisory_unlock(725461)`
+  const queue = new PgBoss({ connectionString: url, schema: 'pgboss', max: 1, supervise: false, schedule: false })
+  await queue.start()
+  await queue.stop({ graceful: false })
   console.log(`migrations applied to ${new URL(url).pathname.slice(1)}`)
 }
 catch (error) {

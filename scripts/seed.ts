@@ -22,6 +22,7 @@ import { insertSchedules } from './seed/schedules'
 import { writeBatteryHolds, writeTagsAndAudit } from './seed/registry'
 import { countRows, insertSeedRows, truncateSchemaTables } from './seed/database'
 import { boardSummary } from './seed/summary'
+import { rebuildReadModels } from '../server/utils/due/rebuild'
 import { DEMO_PASSWORD, DEMO_SIGN_INS } from './seed/sign-ins'
 
 const SEED = 20261
@@ -57,8 +58,7 @@ async function buildDemo(now: Date) {
   writeTagsAndAudit(ctx, { areas: org.areas, trucks: fleet.trucks, batteries: fleet.batteries.map(b => b.row), chargers: fleet.chargers, cylinders: cylinders.map(c => c.row) })
 
   const history = simulateBatteryRoom(ctx, fleet)
-  const cycles = writeChargeSessions(ctx, history)
-  for (const b of fleet.batteries) b.row.cycleCount = cycles.get(b.row.id) ?? 0
+  writeChargeSessions(ctx, history)
   touchBatteries(rows, fleet)
   writeElectrolyteChecks(ctx, fleet, history)
   writeBatteryHolds(ctx, fleet, history.heldAt)
@@ -118,11 +118,15 @@ async function main() {
       await insertSeedRows(tx, demo.rows)
       await insertSchedules(tx, demo.ctx)
     })
+    // the read models from the records, as `npm run rebuild-state` computes them
+    const rebuilt = await rebuildReadModels(db)
+    await db.execute(sql`UPDATE read_model_rebuilds SET needed = false, done_at = now()`)
 
     const counts = await countRows(db)
     console.log(`Seeded ${DEMO_ORGANIZATION} in ${((Date.now() - started) / 1000).toFixed(1)} s${reset ? ' (after reset)' : ''}.`)
     console.table(Object.fromEntries(counts.filter(c => c.rows > 0).map(c => [c.table, c.rows])))
-    console.log(boardSummary(demo.ctx, demo.fleet, demo.history))
+    console.log(`Read models: ${rebuilt.batteries} batteries, ${rebuilt.trucks} trucks, ${rebuilt.obligations} obligations (${(rebuilt.ms / 1000).toFixed(1)} s).`)
+    console.log(await boardSummary(db, demo.ctx))
     if (demo.history.skippedSwaps > 0 || demo.fuel.skippedExchanges > 0) {
       console.log(`Days without a change for want of a ready battery or full cylinder: ${demo.history.skippedSwaps} battery, ${demo.fuel.skippedExchanges} cylinder.`)
     }

@@ -38,7 +38,7 @@ export function useFuelActions() {
   async function exchange(truckId: string, body: Keyed<typeof exchangeSchema>, words: FloorRecordWords): Promise<FloorOutcome<ExchangeAnswer>> {
     const outcome = await submitFloorRecord<ExchangeAnswer>({ kind: 'exchange', url: `/api/trucks/${truckId}/cylinder-exchanges`, body, atField: 'at', ...words })
     if (outcome.state === 'saved') {
-      await refreshNuxtData(['fuel-cage', 'fuel-lp-trucks', `truck-${truckId}`, `history-truck-${truckId}`])
+      await Promise.all([refreshNuxtData(['fuel-cage', 'fuel-lp-trucks', `truck-${truckId}`, `history-truck-${truckId}`]), refreshDue()])
       toast.show('Cylinder change recorded.')
     }
     return outcome

@@ -1,4 +1,4 @@
-// Admin flows for people: add, roles, deactivate, training records.
+// Admin flows for people: add, roles, deactivate, password links, training records.
 export function usePeopleActions() {
   const toast = useToast()
   const refresh = () => refreshNuxtData('people')
@@ -23,5 +23,9 @@ export function usePeopleActions() {
     await refresh()
     toast.show('Training recorded.')
   }
-  return { addPerson, setRoles, setActive, addQualification }
+  async function sendPasswordLink(userId: string) {
+    const res = await $fetch<{ message: string }>(`/api/users/${userId}/password-link`, { method: 'POST' })
+    toast.show(res.message)
+  }
+  return { addPerson, setRoles, setActive, addQualification, sendPasswordLink }
 }

@@ -1,30 +1,8 @@
 import { defineStore } from 'pinia'
 import type { Role } from '#shared/types/auth'
-import type { ObligationState } from '#shared/utils/due-dates'
-import type { DueKind, DueSubject } from '#shared/utils/due-schedules'
+import type { DueItem, DueListReply } from '#shared/types/due'
 
-export interface DueItem {
-  id: string
-  kind: DueKind
-  what: string
-  subject: DueSubject
-  areaName: string | null
-  dueOn: string | null
-  state: ObligationState
-  lastDoneOn: string | null
-  remaining: number | null
-  detail: string | null
-  responsibleRole: Role
-  action: { label: string, to: string }
-}
-
-export interface DueListReply {
-  site: { id: string, name: string, timeZone: string }
-  today: string
-  items: DueItem[]
-  counts: Record<ObligationState, number>
-  total: number
-}
+export type { DueItem, DueListReply }
 
 export interface DueFilter {
   role?: Role | 'all'

@@ -1,6 +1,7 @@
 import { defineStore } from 'pinia'
 import { del, get, set } from 'idb-keyval'
-import type { Role, SiteMembership } from '#shared/types/auth'
+import { ROLES, type Role, type SiteMembership } from '#shared/types/auth'
+import { can as holds, type Ability } from '#shared/utils/abilities'
 import type { UnitSystem } from '#shared/utils/units'
 
 interface MeResponse {
@@ -21,14 +22,17 @@ export const useSessionStore = defineStore('session', () => {
   const siteId = computed(() => currentSite.value?.id ?? null)
   const roles = computed<Role[]>(() => me.value?.memberships.find(m => m.siteId === siteId.value)?.roles ?? [])
   const units = computed<UnitSystem>(() => currentSite.value?.unitSystem ?? 'us')
-  const isLead = computed(() => roles.value.some(r => LEAD_ROLES.includes(r)))
-  const primaryRole = computed<Role | null>(() => {
-    const order: Role[] = ['admin', 'safety_lead', 'facilities_lead', 'technician', 'operator']
-    return order.find(r => roles.value.includes(r)) ?? null
-  })
+  // the highest role held here, for the header's label (ROLES runs lowest to highest)
+  const primaryRole = computed<Role | null>(() => [...ROLES].reverse().find(r => roles.value.includes(r)) ?? null)
 
-  function can(...wanted: Role[]) {
-    return roles.value.some(r => wanted.includes(r))
+  /** Whether the user holds the ability at the current site (the one permissions map, shared/utils/abilities.ts). */
+  function can(ability: Ability) {
+    return holds(roles.value, ability)
+  }
+
+  /** The same at another of the user's sites. */
+  function canAt(siteId: string, ability: Ability) {
+    return holds(me.value?.memberships.find(m => m.siteId === siteId)?.roles ?? [], ability)
   }
 
   // With no signal at all, the app opened from the service worker still knows who was signed in on this
@@ -61,5 +65,5 @@ export const useSessionStore = defineStore('session', () => {
     await del('me', deviceDb()).catch(() => undefined)
   }
 
-  return { me, signedIn, sites, currentSite, siteId, roles, units, isLead, primaryRole, can, load, chooseSite, signOut }
+  return { me, signedIn, sites, currentSite, siteId, roles, units, primaryRole, can, canAt, load, chooseSite, signOut }
 })

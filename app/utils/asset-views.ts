@@ -1,4 +1,5 @@
 import type { AssetKind } from '#shared/utils/asset-schemas'
+import { BATTERY_STATE_LABELS } from '#shared/utils/battery-state'
 import {
   AREA_KIND_LABELS, BATTERY_CHEMISTRIES, CHARGER_TYPE_LABELS, CHEMISTRY_LABELS, CYLINDER_SPEC_LABELS,
   CYLINDER_STATUS_LABELS, POWER_LABELS, REQUAL_METHOD_LABELS, TRUCK_CLASS_LABELS,
@@ -76,7 +77,7 @@ export const ASSET_VIEWS: Record<AssetKind, AssetView> = {
       { key: 'compartmentHeightIn', label: 'Compartment height', type: 'number', unit: 'in', when: electric },
       { key: 'minBatteryWeightLb', label: 'Nameplate minimum battery weight', type: 'number', unit: 'lb', when: electric, hint: 'From the truck nameplate. A lighter battery upsets the counterweight.' },
       { key: 'maxBatteryWeightLb', label: 'Nameplate maximum battery weight', type: 'number', unit: 'lb', when: electric },
-      { key: 'hourMeter', label: 'Hour meter', type: 'number', step: '0.1' },
+      { key: 'hourMeter', label: 'Hour meter when registered', type: 'number', step: '0.1', hint: 'Swaps and cylinder changes record it from then on.' },
       { key: 'notes', label: 'Notes', type: 'textarea' },
     ],
   },
@@ -90,6 +91,7 @@ export const ASSET_VIEWS: Record<AssetKind, AssetView> = {
       { key: 'weightLb', label: 'Weight', sortable: true, unit: 'lb' },
       { key: 'connector', label: 'Connector' },
       { key: 'cycleCount', label: 'Cycles', sortable: true },
+      { key: 'state', label: 'State', options: BATTERY_STATE_LABELS },
     ],
     filters: [
       { key: 'chemistry', label: 'Chemistry', options: chemistryOptions },

@@ -1,4 +1,5 @@
 import type { Role } from '#shared/types/auth'
+import { can, type Ability } from '#shared/utils/abilities'
 
 export type NavGroup = 'start' | 'battery' | 'fuel' | 'records' | 'fleet' | 'admin'
 
@@ -6,7 +7,8 @@ export interface NavItem {
   to: string
   label: string
   icon: string
-  roles: readonly Role[]
+  /** shown to whoever holds this ability at the current site (shared/utils/abilities.ts) */
+  ability: Ability
   group: NavGroup
 }
 
@@ -14,41 +16,37 @@ export const NAV_GROUP_LABELS: Record<NavGroup, string> = {
   start: '', battery: 'Battery room', fuel: 'Fuel station', records: 'Records', fleet: 'Fleet', admin: 'Admin',
 }
 
-const everyone: Role[] = ['operator', 'technician', 'facilities_lead', 'safety_lead', 'admin']
-const floor: Role[] = ['technician', 'facilities_lead', 'safety_lead', 'admin']
-const leads: Role[] = ['facilities_lead', 'safety_lead', 'admin']
-
 // What each role uses, in the order they use it. Icons name paths in UiIcon.
 export const NAV_ITEMS: NavItem[] = [
-  { to: '/', label: 'Home', icon: 'home', roles: everyone, group: 'start' },
-  { to: '/scan', label: 'Scan', icon: 'scan', roles: everyone, group: 'start' },
-  { to: '/bay', label: 'Bay board', icon: 'board', roles: everyone, group: 'battery' },
-  { to: '/swap', label: 'Change battery', icon: 'swap', roles: everyone, group: 'battery' },
-  { to: '/charge', label: 'Charge', icon: 'plug', roles: floor, group: 'battery' },
-  { to: '/check', label: 'Electrolyte check', icon: 'drop', roles: floor, group: 'battery' },
-  { to: '/cage', label: 'Cylinder cage', icon: 'cage', roles: everyone, group: 'fuel' },
-  { to: '/refill', label: 'Refill', icon: 'cylinder', roles: floor, group: 'fuel' },
-  { to: '/exchange', label: 'Change cylinder', icon: 'swap', roles: everyone, group: 'fuel' },
-  { to: '/emissions', label: 'Emissions', icon: 'gauge', roles: leads, group: 'fuel' },
-  { to: '/co', label: 'CO readings', icon: 'cloud', roles: ['technician', 'facilities_lead', 'safety_lead', 'admin'], group: 'fuel' },
-  { to: '/due', label: 'Due list', icon: 'list', roles: leads, group: 'records' },
-  { to: '/schedules', label: 'Schedules', icon: 'calendar', roles: leads, group: 'records' },
-  { to: '/logs', label: 'Area logs', icon: 'clipboard', roles: floor, group: 'records' },
-  { to: '/incidents', label: 'Incidents', icon: 'flag', roles: everyone, group: 'records' },
-  { to: '/ventilation', label: 'Ventilation check', icon: 'fan', roles: ['safety_lead', 'facilities_lead', 'admin'], group: 'records' },
-  { to: '/trucks', label: 'Trucks', icon: 'truck', roles: everyone, group: 'fleet' },
-  { to: '/batteries', label: 'Batteries', icon: 'battery', roles: floor, group: 'fleet' },
-  { to: '/chargers', label: 'Chargers', icon: 'plug', roles: floor, group: 'fleet' },
-  { to: '/cylinders', label: 'LP cylinders', icon: 'cylinder', roles: floor, group: 'fleet' },
-  { to: '/areas', label: 'Areas', icon: 'area', roles: leads, group: 'fleet' },
-  { to: '/labels', label: 'Label sheet', icon: 'tag', roles: leads, group: 'fleet' },
-  { to: '/people', label: 'People', icon: 'people', roles: ['admin', 'safety_lead', 'facilities_lead'], group: 'admin' },
-  { to: '/site', label: 'Site settings', icon: 'cog', roles: ['admin'], group: 'admin' },
-  { to: '/calendar', label: 'Calendar feed', icon: 'calendar', roles: everyone, group: 'admin' },
+  { to: '/', label: 'Home', icon: 'home', ability: 'site.member', group: 'start' },
+  { to: '/scan', label: 'Scan', icon: 'scan', ability: 'site.member', group: 'start' },
+  { to: '/bay', label: 'Bay board', icon: 'board', ability: 'site.member', group: 'battery' },
+  { to: '/swap', label: 'Change battery', icon: 'swap', ability: 'swap.record', group: 'battery' },
+  { to: '/charge', label: 'Charge', icon: 'plug', ability: 'charge.record', group: 'battery' },
+  { to: '/check', label: 'Electrolyte check', icon: 'drop', ability: 'reading.record', group: 'battery' },
+  { to: '/cage', label: 'Cylinder cage', icon: 'cage', ability: 'site.member', group: 'fuel' },
+  { to: '/refill', label: 'Refill', icon: 'cylinder', ability: 'refill.record', group: 'fuel' },
+  { to: '/exchange', label: 'Change cylinder', icon: 'swap', ability: 'cylinder.exchange', group: 'fuel' },
+  { to: '/emissions', label: 'Emissions', icon: 'gauge', ability: 'emissions.view', group: 'fuel' },
+  { to: '/co', label: 'CO readings', icon: 'cloud', ability: 'co.view', group: 'fuel' },
+  { to: '/due', label: 'Due list', icon: 'list', ability: 'due.view-all', group: 'records' },
+  { to: '/schedules', label: 'Schedules', icon: 'calendar', ability: 'schedule.edit', group: 'records' },
+  { to: '/logs', label: 'Area logs', icon: 'clipboard', ability: 'log.view', group: 'records' },
+  { to: '/incidents', label: 'Incidents', icon: 'flag', ability: 'incident.report', group: 'records' },
+  { to: '/ventilation', label: 'Ventilation check', icon: 'fan', ability: 'report.view', group: 'records' },
+  { to: '/trucks', label: 'Trucks', icon: 'truck', ability: 'site.member', group: 'fleet' },
+  { to: '/batteries', label: 'Batteries', icon: 'battery', ability: 'asset.hold', group: 'fleet' },
+  { to: '/chargers', label: 'Chargers', icon: 'plug', ability: 'asset.hold', group: 'fleet' },
+  { to: '/cylinders', label: 'LP cylinders', icon: 'cylinder', ability: 'asset.hold', group: 'fleet' },
+  { to: '/areas', label: 'Areas', icon: 'area', ability: 'asset.edit', group: 'fleet' },
+  { to: '/labels', label: 'Label sheet', icon: 'tag', ability: 'label.print', group: 'fleet' },
+  { to: '/people', label: 'People', icon: 'people', ability: 'user.view', group: 'admin' },
+  { to: '/site', label: 'Site settings', icon: 'cog', ability: 'site.edit', group: 'admin' },
+  { to: '/calendar', label: 'Calendar feed', icon: 'calendar', ability: 'site.member', group: 'admin' },
 ]
 
 export function navFor(roles: readonly Role[]): NavItem[] {
-  return NAV_ITEMS.filter(item => item.roles.some(r => roles.includes(r)))
+  return roles.length ? NAV_ITEMS.filter(item => can(roles, item.ability)) : []
 }
 
 /** The items grouped in order, each group with its heading (the first group has none). */

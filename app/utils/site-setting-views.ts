@@ -1,25 +1,18 @@
-// Labels and sources for the site policy form; values are validated by siteSettingsSchema.
+// Labels and sources for the site policy form; values are validated by siteSettingsSchema. Intervals
+// (watering, equalize, inspections, emissions retests, due-soon windows) are set on the Schedules page.
 export const SITE_SETTING_VIEWS: { key: keyof SiteSettings, label: string, source: string, step?: string }[] = [
   { key: 'coolDownMinutes', label: 'Cool-down after charge (minutes)', source: '8 h work / 8 h charge / 8 h cool — common practice' },
   { key: 'sgReferenceTempF', label: 'Specific-gravity reference temperature (°F)', source: 'US Army TM 5-1185 tables are referenced to 80 °F' },
   { key: 'sgCorrectionPerDegF', label: 'Specific-gravity correction per °F', source: '0.004 per 10 °F, published in several battery manuals', step: '0.0001' },
   { key: 'cellSpreadThreshold', label: 'Weak-cell threshold below the mean', source: '0.020 — common practice for motive batteries', step: '0.001' },
   { key: 'maxChargeTempF', label: 'Highest end-of-charge temperature (°F)', source: '110–115 °F — from memory; follow the battery maker' },
-  { key: 'wateringEveryCharges', label: 'Water every N charges', source: 'common practice; follow the battery maker' },
-  { key: 'wateringEveryDays', label: 'Water at least every N days', source: 'common practice' },
-  { key: 'equalizeEveryCharges', label: 'Equalize every N charges', source: 'weekly or every 5th cycle — common practice' },
-  { key: 'equalizeEveryDays', label: 'Equalize at least every N days', source: 'common practice' },
   { key: 'tariffPerKwh', label: 'Electricity tariff per kWh', source: 'your utility bill', step: '0.001' },
   { key: 'fullCylinderReorderAt', label: 'Reorder hint below N full cylinders', source: 'site choice' },
   { key: 'emissionsMaxCoPctLp', label: 'Tailpipe CO limit, LP-gas (%)', source: 'Minnesota Rules 5205.0116', step: '0.1' },
   { key: 'emissionsMaxCoPctGasoline', label: 'Tailpipe CO limit, gasoline (%)', source: 'Minnesota Rules 5205.0116', step: '0.1' },
-  { key: 'emissionsRetestDays', label: 'Retest after a failed emissions test (days)', source: 'site policy' },
   { key: 'coSiteLimitPpm', label: 'Indoor CO site limit, 8-h TWA (ppm)', source: 'NIOSH REL 35 ppm' },
   { key: 'requalYearsWaterJacket', label: 'Requalification years — water jacket', source: '49 CFR 180.209' },
   { key: 'requalYearsProofPressure', label: 'Requalification years — proof pressure', source: '49 CFR 180.209 (from memory)' },
   { key: 'requalYearsExternalVisual', label: 'Requalification years — external visual', source: '49 CFR 180.209' },
-  { key: 'chargerInspectionEveryDays', label: 'Charger inspection every N days', source: 'common practice: monthly; follow the charger maker' },
-  { key: 'fullCellCheckEveryDays', label: 'Every-cell specific-gravity reading every N days', source: 'common practice: monthly' },
   { key: 'digestHour', label: 'Daily digest e-mail at (site hour, 0–23)', source: 'site choice' },
-  { key: 'dueSoonDays', label: '"Due soon" starts N days ahead', source: 'site choice' },
 ]

@@ -8,6 +8,9 @@ import { Scrypt } from '@adonisjs/hash/drivers/scrypt'
 import { defaultSiteSettings } from '../../shared/utils/site-settings'
 import { PREFILL_INSPECTION_ITEMS } from '../../shared/utils/lp-gas'
 import { CHARGING_AREA_ITEMS, FUEL_STATION_ITEMS } from '../seed/area-logs'
+import { drizzle } from 'drizzle-orm/postgres-js'
+import * as schema from '../../server/database/schema'
+import { rebuildReadModels } from '../../server/utils/due/rebuild'
 import { BENCH, benchDatabaseUrl, benchId } from './shape'
 
 const root = fileURLToPath(new URL('../..', import.meta.url))
@@ -90,16 +93,18 @@ try {
   await run(`
     INSERT INTO users (id, email, name, password_hash) VALUES
       (${uid(`'user:lead'`)}, '${BENCH.leadEmail}', 'Regional lead', '${hash}'),
-      (${uid(`'user:floor'`)}, '${BENCH.floorEmail}', 'Floor operator', '${hash}')`)
+      (${uid(`'user:floor'`)}, '${BENCH.floorEmail}', 'Floor operator', '${hash}'),
+      (${uid(`'user:shift'`)}, '${BENCH.shiftEmail}', 'Shift crew', '${hash}')`)
   await run(`
     INSERT INTO memberships (user_id, site_id, role)
     SELECT ${uid(`'user:lead'`)}, ${siteId('s')}, r::role
     FROM generate_series(1, ${BENCH.leadSites}) s, unnest(ARRAY['operator', 'technician', 'facilities_lead', 'safety_lead']) r
-    UNION ALL SELECT ${uid(`'user:floor'`)}, ${siteId('1')}, 'operator'`)
+    UNION ALL SELECT ${uid(`'user:floor'`)}, ${siteId('1')}, 'operator'
+    UNION ALL SELECT ${uid(`'user:shift'`)}, ${siteId('s')}, r::role FROM generate_series(1, ${SITES}) s, unnest(ARRAY['operator', 'technician']) r`)
   await run(`
     INSERT INTO qualifications (user_id, kind, trained_on, evaluated_on, expires_on)
     SELECT id, 'battery_changing', (${T0} - interval '400 days')::date, (${T0} - interval '400 days')::date, (${T0} + interval '700 days')::date
-    FROM users WHERE email LIKE 'operator.%' OR email LIKE 'technician.%' OR id IN (${uid(`'user:lead'`)}, ${uid(`'user:floor'`)})`)
+    FROM users WHERE email LIKE 'operator.%' OR email LIKE 'technician.%' OR id IN (${uid(`'user:lead'`)}, ${uid(`'user:floor'`)}, ${uid(`'user:shift'`)})`)
   log('organisation, sites, areas, people')
 
   // A map of every battery: site s, position p (0–499), home room a; the first EPS positions sit in trucks.
@@ -136,12 +141,11 @@ try {
     FROM tmap`)
   await run(`
     INSERT INTO batteries (id, site_id, serial, home_area_id, chemistry, voltage, cell_count, capacity_ah, weight_lb,
-      length_in, width_in, height_in, connector, manufactured_on, in_service_on, current_truck_id, out_of_service, out_of_service_reason)
+      length_in, width_in, height_in, connector, manufactured_on, in_service_on, out_of_service, out_of_service_reason)
     SELECT id, site_id, 'LB' || ${pad('s', 2)} || '-' || ${pad('p + 1', 4)}, ${areaId('s', 'a')}, 'flooded_lead_acid', volt, volt / 2, cap,
       ${spec('s', '(ARRAY[2190, 2380, 2540])[p % 3 + 1]', '(ARRAY[1650, 1800, 1950])[p % 3 + 1]')},
       ${spec('s', '38.4', '38.2')}, ${spec('s', '20.6', '16.1')}, ${spec('s', '30.7', '31.0')}, ${spec('s', `'320 A blue'`, `'350 A grey'`)},
       (${T0} - interval '1160 days')::date, (${T0} - interval '1100 days')::date,
-      CASE WHEN p < ${EPS} THEN ${truckId(`((s - 1) * ${TPS} + p)`)} END,
       p >= ${2 * EPS} AND p % 50 = 9, CASE WHEN p >= ${2 * EPS} AND p % 50 = 9 THEN 'Cracked cell jar; awaiting repair.' END
     FROM bmap`)
   await run(`
@@ -243,11 +247,7 @@ try {
     SELECT b.site_id, b.tech, ${T0} - CASE WHEN b.p % 10 = 9 AND b.p >= ${2 * EPS} THEN interval '9 days' ELSE interval '21 hours' END,
       ${T0} - CASE WHEN b.p % 10 = 9 AND b.p >= ${2 * EPS} THEN interval '9 days' ELSE interval '21 hours' END, b.id, 'ok', 1.2, true
     FROM bmap b`)
-  await run(`
-    UPDATE batteries b SET cycle_count = c.n
-    FROM (SELECT battery_id, count(*)::int AS n FROM charge_sessions WHERE counted_cycle GROUP BY battery_id) c
-    WHERE c.battery_id = b.id`)
-  log('battery room: the last three days and cycle counts')
+  log('battery room: the last three days')
 
   // Fuel: refills, cylinder changes (each LP truck rotates through its own five cylinders), emissions tests.
   const inspection = lit(Object.fromEntries(PREFILL_INSPECTION_ITEMS.map(item => [item.key, 'pass'])))
@@ -318,10 +318,11 @@ try {
   try {
     const { defaultSchedules } = await import('../../shared/utils/due-schedules')
     const columns = new Set((await sql<{ c: string }[]>`SELECT column_name AS c FROM information_schema.columns WHERE table_name = 'schedules'`).map(r => r.c))
-    const list = defaultSchedules(defaultSiteSettings())
+    const list = defaultSchedules()
     const rows = list.map(d => ({
       kind: d.kind, title: d.title, applies_to: d.appliesTo, rule: d.rule, every: d.every, every_unit: d.everyUnit,
       ...(columns.has('within_days') ? { within_days: d.withinDays } : {}),
+      ...(columns.has('after_fail_days') ? { after_fail_days: d.afterFailDays } : {}),
       due_soon_days: d.dueSoonDays, responsible_role: d.responsibleRole, source: d.source, active: d.active,
     }))
     const values = Array.from({ length: SITES }, (_, s) => rows.map(r => ({ ...r, site_id: benchId(`site:${s + 1}`) }))).flat()
@@ -331,6 +332,13 @@ try {
   catch (error) {
     log(`schedules skipped (${error instanceof Error ? error.message : error})`)
   }
+
+  // Statistics for the planner, then the read models from the records, as `npm run rebuild-state` computes them.
+  await run(`ANALYZE`)
+  const db = drizzle(sql, { schema, casing: 'snake_case' })
+  const rebuilt = await rebuildReadModels(db)
+  await run(`UPDATE read_model_rebuilds SET needed = false, done_at = now()`)
+  log(`read models: ${rebuilt.batteries} batteries, ${rebuilt.trucks} trucks, ${rebuilt.obligations} obligations`)
 
   // A steady state, as autovacuum would leave it: statistics and the visibility map.
   await run(`VACUUM (ANALYZE)`)

@@ -15,6 +15,8 @@ export const BENCH = {
   leadSites: 10,
   leadEmail: 'regional.lead@larkfield.example.test',
   floorEmail: 'floor.operator@larkfield.example.test',
+  /** operator and technician at every site: the shift-change scenario's floor crew */
+  shiftEmail: 'shift.crew@larkfield.example.test',
   password: 'bench-yard-lamp-2291',
 } as const
 

@@ -72,7 +72,7 @@ function writeFollowUp(ctx: SeedContext, site: SiteContext, entryId: string, tit
     sourceId: entryId,
     title,
     ownerUserId: site.people.safety,
-    dueOn: addCalendarInterval(failedOn, 3, 'day'),
+    openedOn: failedOn,
     closedAt,
     closedBy: closedAt ? site.people.safety : null,
     closingNote,

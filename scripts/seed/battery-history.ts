@@ -4,7 +4,11 @@ import { addHours, addMinutes, DAY_MS, HOUR_MS } from './clock'
 import type { SeedContext, SiteKey } from './context'
 import { batterySpec, chargerSpec, truckSpec, type ElectricTruck, type Fleet, type PlannedBattery } from './fleet'
 import { roundTo } from './random'
+import { defaultSchedules } from '../../shared/utils/due-schedules'
 import type { ChargerRow } from './rows'
+
+/** The default equalize schedule (every 5th charge or 7 days): the simulated technicians keep to it. */
+const EQUALIZE = (({ every, withinDays }) => ({ every: every ?? 5, withinDays: withinDays ?? 7 }))(defaultSchedules().find(s => s.kind === 'battery_equalize')!)
 
 export const HISTORY_DAYS = 365
 
@@ -52,6 +56,7 @@ export function simulateBatteryRoom(ctx: SeedContext, fleet: Fleet): BatteryHist
   const { rand, clock, settings, newId, rows } = ctx
   const coolMs = settings.coolDownMinutes * 60_000
   const historyStart = clock.daysAgo(HISTORY_DAYS)
+  const siteOf = (siteId: string): SiteKey => (siteId === ctx.sites.mb.id ? 'mb' : 'fx')
   const sims = new Map<string, BatterySim>()
   for (const planned of fleet.batteries) {
     sims.set(planned.row.id, {
@@ -69,9 +74,15 @@ export function simulateBatteryRoom(ctx: SeedContext, fleet: Fleet): BatteryHist
   }
   const sim = (id: string) => sims.get(id)!
   const current = new Map<string, string>()
+  // Each electric truck starts the year with its first battery fitted (a swap record, as the app keeps it).
   for (const e of fleet.electric) {
     current.set(e.truck.id, e.pair[0].id)
     sim(e.pair[0].id).inTruck = e.truck.id
+    rows.batterySwaps.push({
+      id: newId(), siteId: e.truck.siteId, userId: ctx.sites[siteOf(e.truck.siteId)].people.operator,
+      at: historyStart, recordedAt: historyStart, truckId: e.truck.id, batteryOutId: null, batteryInId: e.pair[0].id,
+      hourMeter: e.truck.hourMeter ?? 0,
+    })
   }
   // One battery ran hot twice in the last month.
   const hot = fleet.electric.find(e => e.truck.fleetNumber === 'MB-06')!.pair[0].id
@@ -119,7 +130,7 @@ export function simulateBatteryRoom(ctx: SeedContext, fleet: Fleet): BatteryHist
       const lithium = b.chemistry === 'lithium_ion'
       // Equalize on the site's rule (every 5th charge or weekly, whichever comes first), two days early on the weekly count so a charge every other day keeps it current.
       const daysSinceEqualize = (start.getTime() - s.lastEqualizedAt.getTime()) / DAY_MS
-      const equalize = !lithium && (s.chargesSinceEqualize >= settings.equalizeEveryCharges - 1 || daysSinceEqualize >= settings.equalizeEveryDays - 2)
+      const equalize = !lithium && (s.chargesSinceEqualize >= EQUALIZE.every - 1 || daysSinceEqualize >= EQUALIZE.withinDays - 2)
       s.chargesSinceEqualize = equalize ? 0 : s.chargesSinceEqualize + 1
       let hours: number
       let fraction: number
@@ -154,7 +165,6 @@ export function simulateBatteryRoom(ctx: SeedContext, fleet: Fleet): BatteryHist
   }
   sim(hot).hotChargesLeft = 2
 
-  const siteOf = (siteId: string): SiteKey => (siteId === ctx.sites.mb.id ? 'mb' : 'fx')
   for (const event of events) {
     if (event.at > clock.now) break
     if (event.kind === 'refresh') {
@@ -208,7 +218,6 @@ export function simulateBatteryRoom(ctx: SeedContext, fleet: Fleet): BatteryHist
   for (const truck of fleet.electric) {
     truck.truck.hourMeter = roundTo((truck.truck.hourMeter ?? 0) + HISTORY_DAYS * truck.hoursPerDay, 1)
   }
-  for (const s of sims.values()) s.planned.row.currentTruckId = s.inTruck
 
   const started = charges.filter(c => c.start <= clock.now)
   for (const c of started) c.open = c.end > clock.now

@@ -189,7 +189,7 @@ export function simulateFuelStation(ctx: SeedContext, cylinders: PlannedCylinder
         skippedExchanges += 1
         continue
       }
-      rows.cylinderExchanges.push({ id: newId(), siteId, userId: ctx.sites[event.site].people.operator, at: event.at, recordedAt: new Date(event.at.getTime() + rand.int(2, 30) * 1000), truckId: event.truck.id, cylinderOffId: off.c.row.id, cylinderOnId: on.c.row.id })
+      rows.cylinderExchanges.push({ id: newId(), siteId, userId: ctx.sites[event.site].people.operator, at: event.at, recordedAt: new Date(event.at.getTime() + rand.int(2, 30) * 1000), truckId: event.truck.id, cylinderOffId: off.c.row.id, cylinderOnId: on.c.row.id, hourMeter: exchangeHours(event.truck.hourMeter ?? 0, clock.now, event.at) })
       Object.assign(off, { status: 'empty', truckId: null, changedAt: event.at, residualLb: rand.between(0.3, 2.5) })
       Object.assign(on, { status: 'in_use', truckId: event.truck.id, changedAt: event.at })
       continue
@@ -285,4 +285,9 @@ export function simulateFuelStation(ctx: SeedContext, cylinders: PlannedCylinder
 function hold(ctx: SeedContext, siteId: string, userId: string, at: Date, cylinderId: string, reason: string, audit: { before: object, after: object, note: string } | null) {
   ctx.rows.assetHolds.push({ id: ctx.newId(), siteId, userId, at, recordedAt: at, assetKind: 'cylinder', assetId: cylinderId, action: 'hold', reason })
   if (audit) ctx.rows.auditLog.push({ at, userId, siteId, action: 'out_of_service', entity: 'cylinder', entityId: cylinderId, ...audit })
+}
+
+/** The hour meter at a cylinder change: the truck's reading now less about 11 h of use a day since (invented). */
+function exchangeHours(hoursNow: number, now: Date, at: Date): number {
+  return Math.max(0, Math.round((hoursNow - (now.getTime() - at.getTime()) / 86_400_000 * 11) * 10) / 10)
 }

@@ -70,9 +70,12 @@ export function buildOrganization(rows: SeedRows, newId: () => string, registere
 
 export function buildPeople(rows: SeedRows, newId: () => string, clock: Clock, rand: Random, passwordHashes: string[], registeredAt: Date, siteIds: Record<SiteKey, string>) {
   const ids = new Map<string, string>()
+  const homeSite = new Map<string, SiteKey>()
   DEMO_SIGN_INS.forEach((person, i) => {
     const id = newId()
     ids.set(person.email, id)
+    const home = MEMBERSHIPS[person.email]?.[0]?.[0]
+    if (home) homeSite.set(id, home)
     rows.users.push({ id, email: person.email, name: person.name, passwordHash: passwordHashes[i]!, createdAt: registeredAt, updatedAt: registeredAt })
     // memberships a second apart in the order listed: the first is the person's home site
     for (const [k, [site, role]] of (MEMBERSHIPS[person.email] ?? []).entries()) {
@@ -89,9 +92,15 @@ export function buildPeople(rows: SeedRows, newId: () => string, clock: Clock, r
   const today = clock.today
   const years = (date: string, n: number) => addCalendarInterval(date, n, 'year')
   const days = (n: number) => addCalendarInterval(today, n, 'day')
+  // Each record is written by the safety lead of the person's home site, on the day of the evaluation (the
+  // audit row is what the People page shows as "recorded by").
   const qualify = (userId: string, kind: QualificationKind, evaluatedOn: string, notes = '') => {
+    const id = newId()
+    const home = homeSite.get(userId) ?? 'mb'
+    const at = new Date(`${evaluatedOn}T15:00:00Z`)
+    rows.auditLog.push({ at, userId: user(`safety@${home === 'mb' ? 'millbrook' : 'fenwick'}.example`), siteId: siteIds[home], action: 'create', entity: 'qualification', entityId: id, after: { userId, kind, evaluatedOn } })
     rows.qualifications.push({
-      id: newId(),
+      id,
       userId,
       kind,
       trainedOn: addCalendarInterval(evaluatedOn, -rand.int(2, 9), 'day'),

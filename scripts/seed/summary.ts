@@ -1,59 +1,42 @@
-import { BATTERY_STATE_LABELS, deriveBatteryState, type BatteryState } from '../../shared/utils/battery-state'
-import { firstRequalificationDue, nextRequalificationDue, requalificationStatus } from '../../shared/utils/requalification'
-import { obligationState } from '../../shared/utils/due-dates'
-import type { BatteryHistory } from './battery-history'
+import { sql } from 'drizzle-orm'
+import { BATTERY_STATE_LABELS, batteryStateAt, type BatteryState } from '../../shared/utils/battery-state'
+import type { StoredBatteryState } from '../../shared/utils/derived-battery'
 import type { SeedContext } from './context'
-import type { Fleet } from './fleet'
-import { requalYears } from './fuel'
+import type { SeedDatabase } from './database'
 
-// What the bay board, cylinder cages and due list show right after seeding, worked out with the app's own rules.
-export function boardSummary(ctx: SeedContext, fleet: Fleet, history: BatteryHistory): string {
-  const { rows, clock, settings } = ctx
-  const removed = new Map<string, Date>()
-  for (const s of rows.batterySwaps) {
-    if (s.batteryOutId && s.at && (removed.get(s.batteryOutId) ?? new Date(0)) < s.at) removed.set(s.batteryOutId, s.at)
-  }
+// What the Bay board, cylinder cages and due list show right after seeding, read from the read models the
+// rebuild just computed with the app's own rules.
+export async function boardSummary(db: SeedDatabase, ctx: SeedContext): Promise<string> {
+  const now = ctx.clock.now
   const states = new Map<BatteryState, number>()
-  for (const b of fleet.batteries) {
-    const mine = history.charges.filter(c => c.battery.row.id === b.row.id)
-    const open = mine.find(c => c.open)
-    const closed = mine.filter(c => !c.open).sort((x, y) => y.end.getTime() - x.end.getTime())[0]
-    const { state } = deriveBatteryState({
-      outOfService: b.row.outOfService ?? false,
-      installedInTruck: b.row.currentTruckId != null,
-      chargeOpenSince: open?.start ?? null,
-      lastChargeEndedAt: closed?.end ?? null,
-      lastChargeComplete: true,
-      lastRemovedFromTruckAt: removed.get(b.row.id) ?? null,
-    }, { coolDownMinutes: settings.coolDownMinutes }, clock.now)
+  const rows = await db.execute<{ state: StoredBatteryState, readyMs: number | null }>(sql`
+    SELECT state, (EXTRACT(EPOCH FROM ready_at) * 1000)::float8 AS "readyMs" FROM battery_status`)
+  for (const r of rows) {
+    const { state } = batteryStateAt(r.state, r.readyMs === null ? null : new Date(Number(r.readyMs)), now)
     states.set(state, (states.get(state) ?? 0) + 1)
   }
   const board = [...states.entries()].map(([s, n]) => `${BATTERY_STATE_LABELS[s]} ${n}`).join(', ')
-
-  const requal = { overdue: 0, due_soon: 0, current: 0 }
-  for (const c of rows.lpCylinders) {
-    const due = c.lastRequalifiedOn && c.lastRequalificationMethod
-      ? nextRequalificationDue(c.lastRequalifiedOn, c.lastRequalificationMethod, requalYears(ctx))
-      : firstRequalificationDue(c.manufactureYear, c.manufactureMonth)
-    requal[requalificationStatus(due, clock.today).status] += 1
+  const today = ctx.clock.today
+  const count = async (kind: string) => {
+    const [r] = await db.execute<{ overdue: number, soon: number, upcoming: number }>(sql`
+      SELECT count(*) FILTER (WHERE due_on < ${today}::date)::int AS overdue,
+        count(*) FILTER (WHERE due_on >= ${today}::date AND due_on <= ${today}::date + due_soon_days)::int AS soon,
+        count(*) FILTER (WHERE due_on > ${today}::date + due_soon_days)::int AS upcoming
+      FROM obligations WHERE kind = ${kind}`)
+    return r!
   }
+  const [requal, emissions, watering] = await Promise.all([count('cylinder_requalification'), count('emissions_test'), count('battery_watering')])
   const cages = [ctx.sites.mb.fuelStation, ctx.sites.fx.fuelStation].map((area) => {
-    const mine = rows.lpCylinders.filter(c => c.areaId === area.id)
+    const mine = ctx.rows.lpCylinders.filter(c => c.areaId === area.id)
     const full = mine.filter(c => c.status === 'full')
     const fullLb = full.reduce((sum, c) => sum + c.nominalPropaneLb, 0)
     return `${area.name}: ${full.length} full (${fullLb} lb of ${area.lpStorageLimitLb} lb limit), ${mine.filter(c => c.status === 'empty').length} empty, ${mine.filter(c => c.status === 'in_use').length} in use`
   })
-  const latestTest = new Map<string, { testedOn: string, nextDueOn: string }>()
-  for (const t of rows.emissionsTests) {
-    if ((latestTest.get(t.truckId)?.testedOn ?? '') < t.testedOn) latestTest.set(t.truckId, t)
-  }
-  const emissions = { overdue: 0, due_soon: 0, upcoming: 0 }
-  for (const t of latestTest.values()) emissions[obligationState(t.nextDueOn, clock.today, settings.dueSoonDays)] += 1
-
   return [
     `Bay board now: ${board}.`,
-    `Cylinder requalification: ${requal.overdue} overdue, ${requal.due_soon} due within 90 days, ${requal.current} current.`,
+    `Battery watering: ${watering.overdue} overdue, ${watering.soon} due soon, ${watering.upcoming} upcoming.`,
+    `Cylinder requalification: ${requal.overdue} overdue, ${requal.soon} due soon, ${requal.upcoming} upcoming.`,
     ...cages.map(c => `Cylinder cage — ${c}.`),
-    `Emissions tests (latest per truck): ${emissions.overdue} overdue, ${emissions.due_soon} due soon, ${emissions.upcoming} upcoming.`,
+    `Emissions tests: ${emissions.overdue} overdue, ${emissions.soon} due soon, ${emissions.upcoming} upcoming.`,
   ].join('\n')
 }

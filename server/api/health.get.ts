@@ -1,2 +1,2 @@
 // Liveness for load balancers and the benchmark's baseline: answers without touching the database.
-export default defineEventHandler(() => ({ ok: true }))
+export default defineAbilityHandler('health.check', () => ({ ok: true }))

@@ -3,9 +3,9 @@ import { z } from 'zod'
 const QuerySchema = z.object({ siteId: z.uuid('Pick a site.') })
 
 // Counts for a site's home page: assets by kind and how many are out of service.
-export default defineEventHandler(async (event) => {
+export default defineAbilityHandler('site.member', async (event) => {
   const { siteId } = validateQuery(event, QuerySchema)
-  await requireSiteRole(event, siteId)
+  await requireAbility(event, 'site.member', siteId)
   const [row] = await useDb().execute<Record<string, number>>(sql`
     SELECT
       (SELECT count(*) FROM trucks WHERE site_id = ${siteId})::int AS trucks,

@@ -10,18 +10,14 @@ const FLAG_TONES: Record<string, StatusTone> = {
 }
 const number = new Intl.NumberFormat('en-US', { maximumFractionDigits: 1 })
 
-// The battery room describes batteries (derived state and care flags) and electric trucks (the battery
-// they hold), and adds swaps, charges and electrolyte checks to the timelines.
+// The battery room describes batteries (state and care flags from battery_status and their obligations)
+// and electric trucks (the battery they hold), and adds swaps, charges and electrolyte checks to the timelines.
 export default defineNitroPlugin(() => {
   registerAssetStatus('battery', async (row) => {
-    const db = useDb()
-    const [settings, [facts]] = await Promise.all([
-      batteryRoomSettings(db, row.siteId),
-      loadBatteryFacts(db, { siteId: row.siteId, batteryIds: [row.id] }),
-    ])
+    const [facts] = await loadBatteryRows(useDb(), { siteId: row.siteId, batteryIds: [row.id] })
     if (!facts) return null
-    const s = batteryRoomStatus(facts, settings, new Date())
-    const where = s.state === 'in_truck' ? ` · truck ${facts.truckFleetNumber}` : s.state === 'on_charge' ? ` · charger ${facts.openChargerName}` : ''
+    const s = batteryRoomStatus(facts, facts.timeZone, new Date())
+    const where = s.state === 'in_truck' ? ` · truck ${facts.truckFleetNumber}` : s.state === 'on_charge' ? ` · charger ${facts.chargerName}` : ''
     const cooling = s.state === 'cooling' ? ` · ${s.coolingMinutesLeft} min left` : ''
     return {
       state: s.state,
@@ -33,7 +29,8 @@ export default defineNitroPlugin(() => {
 
   registerAssetStatus('truck', async (row) => {
     if (row.power !== 'electric' || row.outOfService) return null
-    const [current] = await useDb().select({ serial: tables.batteries.serial }).from(tables.batteries).where(eq(tables.batteries.currentTruckId, row.id))
+    const [current] = await useDb().select({ serial: tables.batteries.serial }).from(tables.batteryStatus)
+      .innerJoin(tables.batteries, eq(tables.batteries.id, tables.batteryStatus.batteryId)).where(eq(tables.batteryStatus.truckId, row.id))
     return current
       ? { state: 'battery_in', flags: [{ key: 'battery', label: `Battery ${current.serial}`, tone: 'neutral' as const }] }
       : { state: 'battery_needed', flags: [{ key: 'battery', label: 'No battery recorded', tone: 'caution' as const }] }

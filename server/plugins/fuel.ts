@@ -1,6 +1,6 @@
 import { alias } from 'drizzle-orm/pg-core'
 import type { HistoryEntry } from '../utils/asset-history'
-import type { FuelCylinderRow, FuelTruckRow } from '../utils/fuel'
+import type { FuelCylinderRow, FuelTruckRow } from '../utils/fuel/site'
 
 const lb = (v: number | null) => (v === null ? '—' : `${Math.round(v * 10) / 10} lb`)
 
@@ -24,20 +24,14 @@ export default defineNitroPlugin(() => {
         .where(and(eq(tables.requalifications.cylinderId, cylinder.id), gte(tables.requalifications.at, lastRefill.at))).limit(1)
       if (!after) flags.push({ key: 'tare_loss', label: 'Tare weight down 5 % or more: requalify before filling', tone: 'warning' })
     }
-    if (cylinder.status === 'condemned') return { flags }
-    return {
-      flags,
-      due: [{ what: 'Requalification', dueOn: requal.dueOn, state: requal.status === 'current' ? 'upcoming' : requal.status }],
-    }
+    return { flags }
   })
 
   registerAssetStatus('truck', async (row) => {
     const truck = row as unknown as FuelTruckRow
     if (!isCombustionPower(truck.power)) return null
     const db = useDb()
-    const facts = await fuelSiteFacts(db, truck.siteId)
     const last = (await latestEmissionsTests(db, [truck.id])).get(truck.id) ?? null
-    const { bucket } = emissionsBucket(last, facts.today)
     const flags: { key: string, label: string, tone: 'danger' | 'warning' | 'notice' }[] = []
     if (!last) flags.push({ key: 'emissions_none', label: 'No emissions test on record', tone: 'warning' })
     else if (!last.passed) flags.push({ key: 'emissions_failed', label: `Emissions test failed on ${last.testedOn}: retest by ${last.nextDueOn}`, tone: 'danger' })
@@ -51,10 +45,7 @@ export default defineNitroPlugin(() => {
     else {
       state = { state: 'engine_in_service', label: 'In service', tone: 'neutral' }
     }
-    const due = last
-      ? [{ what: last.passed ? 'Emissions test' : 'Emissions retest', dueOn: last.nextDueOn, state: (bucket === 'overdue' ? 'overdue' : bucket === 'current' || bucket === 'due_90' || bucket === 'due_60' ? 'upcoming' : 'due_soon') as 'overdue' | 'upcoming' | 'due_soon' }]
-      : [{ what: 'Emissions test', dueOn: facts.today, state: 'overdue' as const }]
-    return { ...(truck.outOfService ? {} : state), flags, due }
+    return { ...(truck.outOfService ? {} : state), flags }
   })
 
   registerHistorySource('cylinder', async (id, limit): Promise<HistoryEntry[]> => {

@@ -10,15 +10,15 @@ export interface AssetStatus {
   tone: StatusTone
   /** further flags in words, e.g. "Watering due" */
   flags: { key: string, label: string, tone: StatusTone }[]
-  /** what is due on the asset, soonest first */
-  due: { what: string, dueOn: string, state: 'upcoming' | 'due_soon' | 'overdue' }[]
+  /** what is due on the asset, soonest first (from its obligations; a count rule may have no date) */
+  due: { what: string, dueOn: string | null, state: 'upcoming' | 'due_soon' | 'overdue', detail?: string | null, action?: { label: string, to: string } }[]
 }
 
 type AssetRow = Record<string, unknown> & { id: string, siteId: string }
 type StatusProvider = (row: AssetRow) => Promise<Partial<AssetStatus> | null>
 
 // Feature modules register how they describe an asset's state (battery room, fuel station, due engine);
-// the tag page and detail pages ask here. Providers run in registration order and later ones refine.
+// the tag page and detail pages ask here. Providers run at once; their answers merge in registration order and later ones refine.
 const providers: Partial<Record<AssetKind, StatusProvider[]>> = {}
 
 export function registerAssetStatus(kind: AssetKind, provider: StatusProvider) {
@@ -34,10 +34,11 @@ export async function assetStatus(kind: AssetKind, row: AssetRow): Promise<Asset
     const tones: Record<string, StatusTone> = { full: 'safe', empty: 'neutral', in_use: 'notice', quarantined: 'warning', condemned: 'danger' }
     status = { ...status, state: s, label: CYLINDER_STATUS_LABELS[s as keyof typeof CYLINDER_STATUS_LABELS] ?? s, tone: tones[s] ?? 'neutral' }
   }
-  for (const provider of providers[kind] ?? []) {
-    const more = await provider(row)
+  // the providers ask at once; their answers are merged in registration order
+  const answers = await Promise.all((providers[kind] ?? []).map(provider => provider(row)))
+  for (const more of answers) {
     if (more) status = { ...status, ...more, flags: [...status.flags, ...(more.flags ?? [])], due: [...status.due, ...(more.due ?? [])] }
   }
-  status.due.sort((a, b) => a.dueOn.localeCompare(b.dueOn))
+  status.due.sort((a, b) => (a.dueOn ?? '0000').localeCompare(b.dueOn ?? '0000'))
   return status
 }

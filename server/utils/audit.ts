@@ -2,7 +2,8 @@ import type { DbOrTx } from './db'
 import type { Actor } from './auth'
 
 export interface AuditEntry {
-  actor: Actor | null
+  /** who did it (a job names its owner) */
+  actor: Pick<Actor, 'user'> | { user: { id: string } } | null
   siteId: string | null
   action: string
   entity: string

@@ -44,7 +44,7 @@ export async function calendarFeedIcs(owner: { userId: string, name: string }): 
   for (const m of memberships) bySite.set(m.siteId, [...(bySite.get(m.siteId) ?? []), m.role])
   const events: EventAttributes[] = []
   for (const [siteId, roles] of bySite) {
-    const list = await computeDueList(db, siteId, { roles, personId: owner.userId, states: ['overdue', 'due_soon', 'upcoming'], kinds: null, sort: 'due', limit: 5000 })
+    const list = await computeDueList(siteId, { roles, personId: owner.userId, states: ['overdue', 'due_soon', 'upcoming'], kinds: null, sort: 'due', limit: 5000 })
     for (const o of list.items) {
       const on = o.dueOn ?? list.today
       events.push({

@@ -25,17 +25,23 @@ export async function areaNames(siteId: string) {
   return { byId: new Map(rows.map(r => [r.id, r.name])), byName: new Map(rows.map(r => [r.name.toLowerCase(), r.id])) }
 }
 
+// A cell a spreadsheet would run as a formula — text starting with =, +, -, @, a tab or a carriage return
+// (OWASP "CSV injection") — gets a leading apostrophe, also when it spans several lines (papaparse's own
+// pattern for `escapeFormulae: true` misses those); numbers stay numbers. Every CSV Bayward sends goes
+// through here.
+const FORMULA_START = /^[=+\-@\t\r]/
+export function csvText(fields: readonly string[], rows: readonly (readonly unknown[])[]): string {
+  return Papa.unparse({ fields: [...fields], data: rows.map(r => [...r]) }, { escapeFormulae: FORMULA_START })
+}
+
 export function toCsv(kind: AssetKind, rows: Record<string, unknown>[], areas: Map<string, string>): string {
   const columns = csvColumns(kind)
-  return Papa.unparse({
-    fields: columns,
-    data: rows.map(r => columns.map((c) => {
-      const v = r[c]
-      if (AREA_FIELDS.has(c)) return v ? areas.get(String(v)) ?? '' : ''
-      if (Array.isArray(v)) return v.join(';')
-      return v ?? ''
-    })),
-  })
+  return csvText(columns, rows.map(r => columns.map((c) => {
+    const v = r[c]
+    if (AREA_FIELDS.has(c)) return v ? areas.get(String(v)) ?? '' : ''
+    if (Array.isArray(v)) return v.join(';')
+    return v ?? ''
+  })))
 }
 
 export interface CsvRowError { line: number, field: string, message: string }
@@ -47,14 +53,15 @@ export function parseAssetCsv(kind: AssetKind, text: string, areas: Map<string, 
   const parsed = Papa.parse<Record<string, string>>(text.replace(/^\uFEFF/, ''), { header: true, skipEmptyLines: 'greedy', transformHeader: h => h.trim() })
   const errors: CsvRowError[] = []
   const rows: Record<string, unknown>[] = []
-  const unknown = (parsed.meta.fields ?? []).filter(f => f !== 'tagCode' && !(f in shape))
+  const unknown = (parsed.meta.fields ?? []).filter(f => f !== 'tagCode' && !Object.hasOwn(shape, f))
   if (unknown.length) errors.push({ line: 1, field: unknown.join(', '), message: `Unknown column${unknown.length > 1 ? 's' : ''}; expected ${csvColumns(kind).join(', ')}.` })
   for (const e of parsed.errors) errors.push({ line: (e.row ?? 0) + 2, field: '', message: e.message })
   parsed.data.forEach((raw, i) => {
     const line = i + 2
     const values: Record<string, unknown> = {}
     for (const [key, schema] of Object.entries(shape)) {
-      const cell = raw[key]?.trim()
+      // an apostrophe our export put before a formula-like cell comes off again
+      const cell = raw[key]?.trim().replace(/^'(?=[=+\-@\t\r])/, '')
       if (cell === undefined || cell === '') continue
       if (AREA_FIELDS.has(key)) {
         const id = areas.get(cell.toLowerCase())

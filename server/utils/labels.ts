@@ -88,3 +88,13 @@ export async function buildLabelPdf(items: LabelItem[], layout: LabelSelection['
   await progress(items.length)
   return doc.save()
 }
+
+export interface LabelSheetInput { items: LabelItem[], layout: LabelSelection['layout'], paper: LabelSelection['paper'] }
+
+// The label-sheet job: the PDF goes to the storage layer (jobs:<id>) and the tags count as printed.
+export const labelSheetJob = defineJob('labels', async ({ items, layout, paper }: LabelSheetInput, run) => {
+  const pdf = await buildLabelPdf(items, layout, paper, run.progress)
+  await saveJobFile(run.jobId, pdf)
+  await useDb().update(tables.tags).set({ printedAt: new Date() }).where(inArray(tables.tags.code, items.map(i => i.code)))
+  return { labels: items.length, bytes: pdf.byteLength }
+})

@@ -1,9 +1,10 @@
 import nodemailer, { type Transporter } from 'nodemailer'
 import { sql } from 'drizzle-orm'
 import type { Role } from '#shared/types/auth'
+import type { Ability } from '#shared/utils/abilities'
 import { MAIL_MAX_ATTEMPTS, mailRetryDelaySeconds, digestDue } from '#shared/utils/mail-schedule'
 import type { DbOrTx } from './db'
-import type { Obligation } from './due'
+import type { Obligation } from './due/list'
 
 // The outbox: every message is written to mail_messages inside the transaction of the record that
 // caused it, then delivered after the response; a failed delivery is kept and tried again later.
@@ -56,6 +57,8 @@ export interface OutgoingMail {
   subject: string
   body: string
   kind: string
+  /** sealed one-time secret the body's link slot is rendered from at send time (password links) */
+  linkSecret?: string
 }
 
 export type MailRow = typeof tables.mailMessages.$inferSelect
@@ -65,12 +68,13 @@ export async function queueMail(tx: DbOrTx, messages: OutgoingMail | OutgoingMai
   const list = Array.isArray(messages) ? messages : [messages]
   if (list.length === 0) return []
   return tx.insert(tables.mailMessages).values(list.map(m => ({
-    siteId: m.siteId, toAddress: m.to, subject: m.subject.slice(0, 300), body: m.body, kind: m.kind,
+    siteId: m.siteId, toAddress: m.to, subject: m.subject.slice(0, 300), body: m.body, kind: m.kind, linkSecret: m.linkSecret ?? null,
   }))).returning()
 }
 
-/** Active people holding one of the roles at a site, with their e-mail. */
-export async function peopleWithRoles(tx: DbOrTx, siteId: string, roles: readonly Role[]) {
+/** Active people at a site who hold the ability (who is told), with their e-mail. */
+export async function peopleWhoHold(tx: DbOrTx, siteId: string, ability: Ability) {
+  const roles = rolesWith(ability)
   if (roles.length === 0) return []
   return tx.selectDistinct({ id: tables.users.id, email: tables.users.email, name: tables.users.name })
     .from(tables.memberships).innerJoin(tables.users, eq(tables.users.id, tables.memberships.userId))
@@ -82,8 +86,8 @@ export interface AlertInput {
   kind: string
   subject: string
   body: string
-  /** who gets it: everyone with these roles at the site (safety leads by default) */
-  roles?: readonly Role[]
+  /** who gets it: everyone at the site who holds this notice in the permissions map */
+  audience: Ability
   /** and these people too (a follow-up owner) */
   userIds?: readonly string[]
 }
@@ -95,7 +99,7 @@ function appLink(path: string): string {
 
 // An immediate alert: one outbox message per recipient, in the caller's transaction.
 export async function queueAlert(tx: DbOrTx, alert: AlertInput): Promise<MailRow[]> {
-  const people = await peopleWithRoles(tx, alert.siteId, alert.roles ?? ['safety_lead'])
+  const people = await peopleWhoHold(tx, alert.siteId, alert.audience)
   const extra = alert.userIds?.length
     ? await tx.select({ id: tables.users.id, email: tables.users.email, name: tables.users.name }).from(tables.users)
         .where(and(inArray(tables.users.id, [...alert.userIds]), eq(tables.users.active, true)))
@@ -111,7 +115,7 @@ export async function queueAlert(tx: DbOrTx, alert: AlertInput): Promise<MailRow
 // deliverMailSoon() after it commits.
 export function notifyFailedEmissionsTest(tx: DbOrTx, a: { siteId: string, truckId: string, fleetNumber: string, testedOn: string, reasons: string[], retestBy: string }) {
   return queueAlert(tx, {
-    siteId: a.siteId, kind: 'alert:emissions_failed', roles: ['facilities_lead', 'safety_lead'],
+    siteId: a.siteId, kind: 'alert:emissions_failed', audience: 'notice.emissions-failed',
     subject: `Emissions test failed: truck ${a.fleetNumber}`,
     body: `Truck ${a.fleetNumber} failed its emissions test on ${a.testedOn}.\n${a.reasons.join('\n')}\nRetest by ${a.retestBy}.\n\n${appLink(`/emissions?truck=${a.truckId}`)}`,
   })
@@ -119,7 +123,7 @@ export function notifyFailedEmissionsTest(tx: DbOrTx, a: { siteId: string, truck
 
 export function notifyRefusedCylinder(tx: DbOrTx, a: { siteId: string, cylinderId: string, code: string, reasons: string[], by: string }) {
   return queueAlert(tx, {
-    siteId: a.siteId, kind: 'alert:cylinder_refused', roles: ['safety_lead', 'facilities_lead'],
+    siteId: a.siteId, kind: 'alert:cylinder_refused', audience: 'notice.cylinder-refused',
     subject: `Cylinder ${a.code} refused at the fuel station`,
     body: `${a.by} was refused a fill of cylinder ${a.code}:\n${a.reasons.join('\n')}\n\n${appLink(`/cylinders/${a.cylinderId}`)}`,
   })
@@ -127,7 +131,7 @@ export function notifyRefusedCylinder(tx: DbOrTx, a: { siteId: string, cylinderI
 
 export function notifyCoAboveCeiling(tx: DbOrTx, a: { siteId: string, areaId: string, areaName: string, takenOn: string, peakPpm: number, ceilingPpm: number }) {
   return queueAlert(tx, {
-    siteId: a.siteId, kind: 'alert:co_ceiling', roles: ['safety_lead'],
+    siteId: a.siteId, kind: 'alert:co_ceiling', audience: 'notice.co-ceiling',
     subject: `CO above ${a.ceilingPpm} ppm in ${a.areaName}`,
     body: `A CO reading of ${a.peakPpm} ppm was recorded in ${a.areaName} on ${a.takenOn}, above the ${a.ceilingPpm} ppm ceiling (NIOSH). Clear the area, ventilate, and find the source.\n\n${appLink(`/co?area=${a.areaId}`)}`,
   })
@@ -146,6 +150,7 @@ export function deliverMailSoon() {
 }
 
 export interface DeliveryResult { attempted: number, sent: number, failed: number }
+export interface ClaimedMail { id: string, toAddress: string, subject: string, body: string, attempts: number, linkSecret: string | null, createdAt: Date | string }
 
 // Claims due messages (skipping those another server holds), sends each, and records the outcome.
 // `force` also takes failed messages whose next try is later, and those past the last attempt.
@@ -160,14 +165,21 @@ export async function deliverDueMail({ force = false, siteId, limit = 50 }: { fo
         ${siteId ? sql`AND site_id = ${siteId}` : sql``}
       ORDER BY created_at LIMIT ${limit}::int FOR UPDATE SKIP LOCKED
     )
-    RETURNING id, to_address AS "toAddress", subject, body, attempts`) as unknown as { id: string, toAddress: string, subject: string, body: string, attempts: number }[]
+    RETURNING id, to_address AS "toAddress", subject, body, attempts, link_secret AS "linkSecret", created_at AS "createdAt"`) as unknown as ClaimedMail[]
   const settings = smtpSettings()
   const result: DeliveryResult = { attempted: claimed.length, sent: 0, failed: 0 }
   for (const m of claimed) {
     const attempts = m.attempts + 1
+    // a password link is rendered from its one-time secret now; once sent (or given up) the secret is dropped
+    const text = m.linkSecret ? renderPasswordLinkMail(m) : m.body
+    if (text === null) {
+      await db.update(tables.mailMessages).set({ status: 'failed', attempts: MAIL_MAX_ATTEMPTS, linkSecret: null, lastError: 'The link expired before it could be sent; ask for a new one.' }).where(eq(tables.mailMessages.id, m.id))
+      result.failed += 1
+      continue
+    }
     try {
-      await mailTransport(settings).sendMail({ from: settings.from, to: m.toAddress, subject: m.subject, text: m.body })
-      await db.update(tables.mailMessages).set({ status: 'sent', attempts, sentAt: new Date(), lastError: null }).where(eq(tables.mailMessages.id, m.id))
+      await mailTransport(settings).sendMail({ from: settings.from, to: m.toAddress, subject: m.subject, text })
+      await db.update(tables.mailMessages).set({ status: 'sent', attempts, sentAt: new Date(), lastError: null, linkSecret: null }).where(eq(tables.mailMessages.id, m.id))
       result.sent += 1
     }
     catch (error) {
@@ -175,14 +187,13 @@ export async function deliverDueMail({ force = false, siteId, limit = 50 }: { fo
       await db.update(tables.mailMessages).set({
         status: 'failed', attempts, lastError: String((error as Error)?.message ?? error).slice(0, 500),
         nextAttemptAt: new Date(Date.now() + (delay ?? 365 * 86_400) * 1000),
+        ...(delay === null ? { linkSecret: null } : {}),
       }).where(eq(tables.mailMessages.id, m.id))
       result.failed += 1
     }
   }
   return result
 }
-
-const DIGEST_ROLES: Role[] = ['facilities_lead', 'safety_lead']
 
 // The daily digest: each lead gets what is overdue and due soon in their roles' lists. With `force`
 // it goes now; otherwise once a day from the site's digest hour.
@@ -201,9 +212,9 @@ export async function sendDigests({ siteIds, force = false, now = new Date() }: 
     }
     const leads = await db.select({ id: tables.users.id, email: tables.users.email, name: tables.users.name, role: tables.memberships.role })
       .from(tables.memberships).innerJoin(tables.users, eq(tables.users.id, tables.memberships.userId))
-      .where(and(eq(tables.memberships.siteId, s.id), inArray(tables.memberships.role, DIGEST_ROLES), eq(tables.users.active, true)))
+      .where(and(eq(tables.memberships.siteId, s.id), inArray(tables.memberships.role, [...rolesWith('notice.digest')]), eq(tables.users.active, true)))
     if (leads.length === 0) continue
-    const list = await computeDueList(db, s.id, { roles: null, personId: null, states: ['overdue', 'due_soon'], kinds: null, sort: 'due', limit: 100_000 })
+    const list = await computeDueList(s.id, { roles: null, personId: null, states: ['overdue', 'due_soon'], kinds: null, sort: 'due', limit: 100_000 })
     const byUser = new Map<string, { email: string, name: string, roles: Role[] }>()
     for (const l of leads) {
       const u = byUser.get(l.id) ?? { email: l.email, name: l.name, roles: [] }

@@ -3,9 +3,11 @@ import type { H3Event } from 'h3'
 import type { Actor } from './auth'
 
 // Read models (the Bay board, due lists, a tag's state) computed once per site revision and kept in
-// this server process for a few seconds. The revision comes with the actor's memberships (one
-// statement, read fresh every request) and moves on with every write at the site, by a trigger in
-// the same transaction, so the request after a write never sees the list from before it. The time
+// this server process for a few seconds. Every write at the site moves its revision, by a trigger in
+// the same transaction, which also notifies every app server (change-feed.ts): the revision here is
+// the count of those notifications, or, while the feed is down or for a browser that has just written,
+// the sum read from site_revisions with the actor's memberships. So a browser never sees the list from
+// before its own write, and anyone else sees it once the notification arrives (milliseconds). The time
 // limit is for what changes with the clock alone (cooling minutes, "due soon" turning "overdue").
 // Callers add the actor's own view (roles, actions) after the cache: a cached value holds no one's rights.
 // BAYWARD_READ_CACHE=false turns it off (the benchmark measures both).
@@ -21,7 +23,7 @@ const cache = new LRUCache<string, { value: Promise<unknown> }>({
 })
 const DEFAULT_SIZE = (value: unknown) => (Buffer.isBuffer(value) ? value.length : 4096)
 
-export function siteRevision(actor: Actor, siteId: string): number | undefined {
+export function siteRevision(actor: Actor, siteId: string): string | undefined {
   return actor.revisions[siteId]
 }
 

@@ -7,15 +7,13 @@ import {
   AREA_KINDS, BATTERY_CHEMISTRIES, CYLINDER_SPECS, CYLINDER_STATUSES, TRUCK_POWERS,
   assetCreateSchemas, assetFieldSchemas, idParamsSchema, listQuerySchema, outOfServiceSchema,
 } from '#shared/utils/asset-schemas'
-import type { Role } from '#shared/types/auth'
-
-const EDITORS: Role[] = ['facilities_lead', 'safety_lead', 'admin']
-const HOLDERS: Role[] = ['technician', 'facilities_lead', 'safety_lead', 'admin']
+import { batteryStateAt } from '#shared/utils/battery-state'
+import type { StoredBatteryState } from '#shared/utils/derived-battery'
 
 const bool = z.enum(['true', 'false']).transform(v => v === 'true')
 const intParam = z.coerce.number().int()
 
-interface KindConfig {
+export interface KindConfig {
   table: PgTable & { id: PgColumn, siteId: PgColumn }
   noun: string
   identity: string
@@ -27,14 +25,16 @@ interface KindConfig {
   areaRefs: Record<string, (typeof AREA_KINDS)[number] | null>
   /** an asset kind that can be put out of service */
   holdable: boolean
+  /** its status read model, joined into the list: the columns it adds (they override the row's) */
+  status?: { table: PgTable, on: SQL, columns: Record<string, PgColumn> }
 }
 
 function kinds(): Record<AssetKind, KindConfig> {
-  const { trucks: t, batteries: b, chargers: c, lpCylinders: l, areas: a } = tables
+  const { trucks: t, batteries: b, chargers: c, lpCylinders: l, areas: a, batteryStatus: bs, truckStatus: ts } = tables
   return {
     truck: {
       table: t, noun: 'truck', identity: 'fleetNumber', defaultSort: 'fleetNumber',
-      sortable: { fleetNumber: t.fleetNumber, truckClass: t.truckClass, power: t.power, systemVoltage: t.systemVoltage, hourMeter: t.hourMeter, createdAt: t.createdAt },
+      sortable: { fleetNumber: t.fleetNumber, truckClass: t.truckClass, power: t.power, systemVoltage: t.systemVoltage, hourMeter: sql`COALESCE(${ts.hourMeter}, ${t.hourMeter})` as unknown as PgColumn, createdAt: t.createdAt },
       search: [t.fleetNumber, t.model],
       filters: {
         power: { schema: z.enum(TRUCK_POWERS), column: t.power },
@@ -43,10 +43,11 @@ function kinds(): Record<AssetKind, KindConfig> {
         outOfService: { schema: bool, column: t.outOfService },
       },
       areaRefs: { homeAreaId: null }, holdable: true,
+      status: { table: ts, on: eq(ts.truckId, t.id), columns: { hourMeter: ts.hourMeter } },
     },
     battery: {
       table: b, noun: 'battery', identity: 'serial', defaultSort: 'serial',
-      sortable: { serial: b.serial, voltage: b.voltage, capacityAh: b.capacityAh, chemistry: b.chemistry, weightLb: b.weightLb, cycleCount: b.cycleCount, inServiceOn: b.inServiceOn, createdAt: b.createdAt },
+      sortable: { serial: b.serial, voltage: b.voltage, capacityAh: b.capacityAh, chemistry: b.chemistry, weightLb: b.weightLb, cycleCount: bs.cycles, inServiceOn: b.inServiceOn, createdAt: b.createdAt },
       search: [b.serial, b.connector],
       filters: {
         chemistry: { schema: z.enum(BATTERY_CHEMISTRIES), column: b.chemistry },
@@ -55,6 +56,7 @@ function kinds(): Record<AssetKind, KindConfig> {
         outOfService: { schema: bool, column: b.outOfService },
       },
       areaRefs: { homeAreaId: 'charging_area' }, holdable: true,
+      status: { table: bs, on: eq(bs.batteryId, b.id), columns: { cycleCount: bs.cycles, state: bs.state, readyAt: bs.readyAt } },
     },
     charger: {
       table: c, noun: 'charger', identity: 'name', defaultSort: 'name',
@@ -94,12 +96,12 @@ export const assetKinds = () => (cached ??= kinds())
 
 // The asset's id is named with its table: drizzle writes a lone column unqualified in a select
 // list, and inside this subquery a bare "id" would be tags.id.
-function liveTagCode(kind: AssetKind, table: PgTable) {
+export function liveTagCode(kind: AssetKind, table: PgTable) {
   return sql<string | null>`(SELECT code FROM tags WHERE tags.asset_kind = ${kind} AND tags.asset_id = ${table}.id AND tags.retired_at IS NULL)`
 }
 
 // The WHERE and ORDER BY of an asset list from its query (?siteId, q, sort, dir and the kind's filters).
-function listConditions(event: H3Event, kind: AssetKind, query: ListQuery) {
+export function listConditions(event: H3Event, kind: AssetKind, query: ListQuery) {
   const cfg = assetKinds()[kind]
   const raw = getQuery(event)
   const where: SQL[] = [eq(cfg.table.siteId, query.siteId)]
@@ -113,21 +115,38 @@ function listConditions(event: H3Event, kind: AssetKind, query: ListQuery) {
     const like = `%${query.q.replace(/[\\%_]/g, m => `\\${m}`)}%`
     where.push(or(...cfg.search.map(col => ilike(col, like)), sql`${liveTagCode(kind, cfg.table)} ILIKE ${like}`)!)
   }
-  const sortKey = query.sort && cfg.sortable[query.sort] ? query.sort : cfg.defaultSort
+  // only the kind's own sort keys: `constructor`, `__proto__` and other names every object answers to are refused
+  if (query.sort && !Object.hasOwn(cfg.sortable, query.sort)) {
+    throw createError({ statusCode: 400, message: `Sort by one of: ${Object.keys(cfg.sortable).join(', ')}.`, data: { fields: { sort: 'Not a column this list sorts by.' } } })
+  }
+  const sortKey = query.sort ?? cfg.defaultSort
   const sortCol = cfg.sortable[sortKey]!
   return { condition: and(...where), sortKey, order: [query.dir === 'desc' ? desc(sortCol) : asc(sortCol), asc(cfg.table.id)] }
+}
+
+// The kind's status read model (cycles and state of a battery, a truck's hour meter now) beside each row.
+// eslint-disable-next-line @typescript-eslint/no-explicit-any -- drizzle's builder types do not survive a conditional join
+export function withStatusJoin(cfg: KindConfig, query: any): any {
+  return cfg.status ? query.leftJoin(cfg.status.table, cfg.status.on) : query
+}
+
+export type ListRow = { row: Record<string, unknown>, tagCode: string | null } & Record<string, unknown>
+export function registryListItem({ row, tagCode, ...status }: ListRow) {
+  const given = Object.fromEntries(Object.entries(status).filter(([, v]) => v !== null && v !== undefined))
+  // a battery's stored state reads as it stands now (a charged one is Cooling until ready-at, then Ready)
+  if (typeof given.state === 'string') given.state = batteryStateAt(given.state as StoredBatteryState, (given.readyAt as Date | undefined) ?? null, new Date()).state
+  return { ...row, ...given, tagCode }
 }
 
 // Server-side paged, sorted, filtered list of one asset kind at one site.
 export async function listAssets(event: H3Event, kind: AssetKind) {
   const cfg = assetKinds()[kind]
   const query = validateQuery(event, listQuerySchema)
-  await requireSiteRole(event, query.siteId)
+  await requireAbility(event, 'site.member', query.siteId)
   const { condition, sortKey, order } = listConditions(event, kind, query)
   const db = useDb()
   const [items, [{ total } = { total: 0 }]] = await Promise.all([
-    db.select({ row: cfg.table, tagCode: liveTagCode(kind, cfg.table) })
-      .from(cfg.table as PgTable)
+    withStatusJoin(cfg, db.select({ row: cfg.table, tagCode: liveTagCode(kind, cfg.table), ...cfg.status?.columns }).from(cfg.table as PgTable))
       .where(condition)
       .orderBy(...order)
       .limit(query.pageSize)
@@ -135,73 +154,13 @@ export async function listAssets(event: H3Event, kind: AssetKind) {
     db.select({ total: count() }).from(cfg.table as PgTable).where(condition),
   ])
   return {
-    items: items.map(i => ({ ...(i.row as Record<string, unknown>), tagCode: i.tagCode })),
+    items: (items as ListRow[]).map(registryListItem),
     total: Number(total),
     page: query.page,
     pageSize: query.pageSize,
     sort: sortKey,
     dir: query.dir,
   }
-}
-
-// The whole filtered list as CSV (the same query as the list, without paging).
-export async function exportAssets(event: H3Event, kind: AssetKind) {
-  const cfg = assetKinds()[kind]
-  const query = validateQuery(event, listQuerySchema)
-  await requireSiteRole(event, query.siteId)
-  const { condition, order } = listConditions(event, kind, query)
-  const rows = await useDb().select({ row: cfg.table, tagCode: liveTagCode(kind, cfg.table) })
-    .from(cfg.table as PgTable).where(condition).orderBy(...order).limit(200_000)
-  const { byId } = await areaNames(query.siteId)
-  const csv = toCsv(kind, rows.map(r => ({ ...(r.row as Record<string, unknown>), tagCode: r.tagCode })), byId)
-  return sendCsv(event, `bayward-${kind}-list-${new Date().toISOString().slice(0, 10)}.csv`, csv)
-}
-
-const importBody = z.object({
-  siteId: z.uuid('Pick a site.'),
-  csv: z.string().min(1, 'The file is empty.').max(5_000_000, 'The file is over 5 MB; split it.'),
-  dryRun: z.boolean().default(true),
-})
-
-// CSV import: a dry run lists every bad row (line and field); a real run writes all rows or none,
-// as a job whose progress the client polls.
-export async function importAssets(event: H3Event, kind: AssetKind) {
-  const cfg = assetKinds()[kind]
-  const body = await validateBody(event, importBody)
-  const actor = await requireSiteRole(event, body.siteId, EDITORS)
-  const { byName } = await areaNames(body.siteId)
-  const { rows, errors, total } = parseAssetCsv(kind, body.csv, byName)
-  const identities = rows.map(r => String(r[cfg.identity]).toLowerCase())
-  identities.forEach((id, i) => {
-    if (identities.indexOf(id) !== i) errors.push({ line: rows[i]!._line as number, field: cfg.identity, message: `"${rows[i]![cfg.identity]}" appears twice in the file.` })
-  })
-  if (rows.length) {
-    const identityCol = (cfg.table as unknown as Record<string, PgColumn>)[cfg.identity]!
-    const existing = await useDb().select({ v: identityCol }).from(cfg.table as PgTable)
-      .where(and(eq(cfg.table.siteId, body.siteId), inArray(sql`lower(${identityCol})`, identities)))
-    const taken = new Set(existing.map(e => String(e.v).toLowerCase()))
-    rows.forEach((r) => {
-      if (taken.has(String(r[cfg.identity]).toLowerCase())) errors.push({ line: r._line as number, field: cfg.identity, message: `A ${cfg.noun} "${r[cfg.identity]}" already exists at this site.` })
-    })
-  }
-  errors.sort((a, b) => a.line - b.line)
-  if (body.dryRun || errors.length) {
-    return { dryRun: true, total, valid: errors.length ? rows.length - new Set(errors.map(e => e.line)).size : rows.length, errors }
-  }
-  const job = await startJob('import', { siteId: body.siteId, userId: actor.user.id }, rows.length, async (progress) => {
-    await useDb().transaction(async (tx) => {
-      for (const [i, { _line, ...values }] of rows.entries()) {
-        const [row] = await tx.insert(cfg.table).values({ ...values, siteId: body.siteId } as never).returning()
-        const created = row as Record<string, unknown> & { id: string }
-        await issueTag(tx, kind, created.id, body.siteId)
-        await writeAudit(tx, { actor, siteId: body.siteId, action: 'import', entity: kind, entityId: created.id, after: created, note: `CSV line ${_line}` })
-        if (i % 25 === 24) await progress(i + 1)
-      }
-    })
-    return { imported: rows.length }
-  })
-  setResponseStatus(event, 202)
-  return { dryRun: false, job: job.id, total: rows.length, errors: [] }
 }
 
 // Finds one asset by id among the sites the user belongs to; anything else is 404.
@@ -224,21 +183,6 @@ export async function getAsset(event: H3Event, kind: AssetKind) {
   return { item: { ...row, tagCode }, roles: rolesAt(actor, row.siteId) }
 }
 
-async function checkAreaRefs(kind: AssetKind, siteId: string, values: Record<string, unknown>) {
-  const refs = assetKinds()[kind].areaRefs
-  for (const [field, areaKind] of Object.entries(refs)) {
-    const areaId = values[field]
-    if (!areaId) continue
-    const [area] = await useDb().select({ kind: tables.areas.kind }).from(tables.areas)
-      .where(and(eq(tables.areas.id, areaId as string), eq(tables.areas.siteId, siteId)))
-    if (!area) throw createError({ statusCode: 400, message: 'Pick an area at this site.', data: { fields: { [field]: 'Pick an area at this site.' } } })
-    if (areaKind && area.kind !== areaKind) {
-      const msg = areaKind === 'charging_area' ? 'Pick a charging area.' : 'Pick a fuel station.'
-      throw createError({ statusCode: 400, message: msg, data: { fields: { [field]: msg } } })
-    }
-  }
-}
-
 function conflict(kind: AssetKind, values: Record<string, unknown>, error: unknown): never {
   const cfg = assetKinds()[kind]
   const unstorable = unstorableValueError(error, values)
@@ -258,21 +202,21 @@ const createBody = z.object({ siteId: z.uuid('Pick a site.') }).loose()
 export async function createAsset(event: H3Event, kind: AssetKind) {
   const cfg = assetKinds()[kind]
   const { siteId, ...rest } = await validateBody(event, createBody)
-  const actor = await requireSiteRole(event, siteId, EDITORS)
+  const actor = await requireAbility(event, 'asset.edit', siteId)
   const parsed = assetCreateSchemas[kind].safeParse(rest)
   if (!parsed.success) {
     const fields = fieldMessages(parsed.error)
     throw createError({ statusCode: 400, message: 'Check the highlighted fields.', data: { fields } })
   }
   const values = parsed.data as Record<string, unknown>
-  refuseInUseStatus(kind, values.status, undefined)
-  await checkAreaRefs(kind, siteId, values)
+  refuseRuleProblems(assetRuleProblems(kind, values, await siteAreaKinds(siteId)))
   try {
     return await useDb().transaction(async (tx) => {
       const [row] = await tx.insert(cfg.table).values({ ...values, siteId } as never).returning()
       const created = row as Record<string, unknown> & { id: string }
       const tagCode = await issueTag(tx, kind, created.id, siteId)
       await writeAudit(tx, { actor, siteId, action: 'create', entity: kind, entityId: created.id, after: created })
+      await recomputeSubjects(tx, siteId, await registrySubjects(tx, kind, { id: created.id, siteId }))
       setResponseStatus(event, 201)
       return { item: { ...created, tagCode } }
     })
@@ -285,26 +229,25 @@ export async function createAsset(event: H3Event, kind: AssetKind) {
 export async function updateAsset(event: H3Event, kind: AssetKind) {
   const cfg = assetKinds()[kind]
   const { id } = validateParams(event, idParamsSchema)
-  const patch = await validateBody(event, z.record(z.string(), z.unknown()))
+  const { statusReason, ...patch } = await validateBody(event, z.record(z.string(), z.unknown()))
   const fieldKeys = Object.keys(assetFieldSchemas[kind].shape)
   const unknown = Object.keys(patch).filter(k => !fieldKeys.includes(k))
   if (unknown.length) throw createError({ statusCode: 400, message: `Unknown field: ${unknown.join(', ')}.`, data: { fields: Object.fromEntries(unknown.map(k => [k, 'Not a field of this record.'])) } })
   const { actor, row } = await findAssetForActor(event, kind, id)
-  if (!hasRole(actor, row.siteId, EDITORS)) {
-    throw createError({ statusCode: 403, message: 'Only leads and admins edit asset records.' })
-  }
+  requireActorCan(actor, 'asset.edit', row.siteId)
   const current = Object.fromEntries(fieldKeys.map(k => [k, row[k]]))
   const merged = assetCreateSchemas[kind].safeParse({ ...current, ...patch })
   if (!merged.success) throw createError({ statusCode: 400, message: 'Check the highlighted fields.', data: { fields: fieldMessages(merged.error) } })
   const values = merged.data as Record<string, unknown>
-  refuseInUseStatus(kind, patch.status, row.status)
-  await checkAreaRefs(kind, row.siteId, values)
+  refuseRuleProblems(assetRuleProblems(kind, { ...values, status: patch.status }, await siteAreaKinds(row.siteId), row))
+  const revived = reviveCondemned(actor, kind, row, patch.status, statusReason)
   try {
     return await useDb().transaction(async (tx) => {
       const [updated] = await tx.update(cfg.table).set(values as never)
         .where(and(eq(cfg.table.id, id), eq(cfg.table.siteId, row.siteId))).returning()
       if (!updated) throw createError({ statusCode: 404, message: `No such ${cfg.noun}.` })
-      await writeAudit(tx, { actor, siteId: row.siteId, action: 'update', entity: kind, entityId: id, before: row, after: updated })
+      await writeAudit(tx, { actor, siteId: row.siteId, action: revived ? 'uncondemn' : 'update', entity: kind, entityId: id, before: row, after: updated, note: revived })
+      await recomputeSubjects(tx, row.siteId, await registrySubjects(tx, kind, row))
       return { item: updated }
     })
   }
@@ -320,9 +263,7 @@ export async function setAssetOutOfService(event: H3Event, kind: AssetKind) {
   const body = await validateBody(event, outOfServiceSchema)
   const { actor, row } = await findAssetForActor(event, kind, id)
   if (!cfg.holdable) throw createError({ statusCode: 400, message: `An ${cfg.noun} cannot be put out of service.` })
-  if (!hasRole(actor, row.siteId, HOLDERS)) {
-    throw createError({ statusCode: 403, message: 'Technicians, leads and admins put assets out of service.' })
-  }
+  requireActorCan(actor, 'asset.hold', row.siteId)
   if (row.outOfService === body.outOfService) {
     throw createError({ statusCode: 409, message: body.outOfService ? `This ${cfg.noun} is already out of service.` : `This ${cfg.noun} is already in service.` })
   }
@@ -337,15 +278,7 @@ export async function setAssetOutOfService(event: H3Event, kind: AssetKind) {
       action: body.outOfService ? 'hold' : 'release', reason: body.reason || 'Released',
     })
     await writeAudit(tx, { actor, siteId: row.siteId, action: body.outOfService ? 'out_of_service' : 'return_to_service', entity: kind, entityId: id, before: { outOfService: row.outOfService }, after: { outOfService: body.outOfService, reason: body.reason }, note: body.reason })
+    await recomputeSubjects(tx, row.siteId, await registrySubjects(tx, kind, row))
     return { item: updated }
   })
-}
-
-// A cylinder goes in use (and comes out of use) only through an exchange on a truck.
-function refuseInUseStatus(kind: AssetKind, next: unknown, current: unknown) {
-  if (kind !== 'cylinder' || next === undefined || next === current) return
-  if (next === 'in_use' || current === 'in_use') {
-    const msg = 'A cylinder goes on and off a truck through a cylinder exchange.'
-    throw createError({ statusCode: 400, message: msg, data: { fields: { status: msg } } })
-  }
 }

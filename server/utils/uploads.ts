@@ -1,6 +1,7 @@
 import { createHash, randomUUID } from 'node:crypto'
 import type { H3Event } from 'h3'
 import type { Actor } from './auth'
+import type { DbOrTx } from './db'
 
 // Certificates and photos. The bytes go to the 'uploads' storage mount (nuxt.config nitro.storage:
 // local disk under .data/uploads by default) under a generated key; the file's own name is only shown.
@@ -19,6 +20,31 @@ const MULTIPART_OVERHEAD_BYTES = 64 * 1024
 export function uploadMaxBytes(): number {
   const configured = Number((useRuntimeConfig().uploads as { maxBytes?: number } | undefined)?.maxBytes)
   return Number.isFinite(configured) && configured > 0 ? configured : DEFAULT_MAX_BYTES
+}
+
+/** Room per site (NUXT_UPLOADS_SITE_QUOTA_MB, 2048 by default) and uploads per person per hour (NUXT_UPLOADS_PER_USER_PER_HOUR, 60). */
+export function uploadLimits() {
+  const config = (useRuntimeConfig().uploads ?? {}) as { siteQuotaMb?: unknown, perUserPerHour?: unknown }
+  const quotaMb = Number(config.siteQuotaMb)
+  const perHour = Number(config.perUserPerHour)
+  return {
+    siteQuotaBytes: Math.floor((Number.isFinite(quotaMb) && quotaMb > 0 ? quotaMb : 2048) * 1024 * 1024),
+    perUserPerHour: Number.isInteger(perHour) && perHour > 0 ? perHour : 60,
+  }
+}
+
+const rateRefusal = (perHour: number) => createError({ statusCode: 429, message: `You have uploaded ${perHour} files in the last hour, the most allowed. Try again later.` })
+
+async function uploadsThisHour(db: DbOrTx, userId: string): Promise<number> {
+  const [row] = await db.select({ n: count() }).from(tables.uploads)
+    .where(and(eq(tables.uploads.userId, userId), gte(tables.uploads.createdAt, sql`now() - interval '1 hour'`)))
+  return Number(row?.n ?? 0)
+}
+
+/** Before the body is read: a person over their hourly number of uploads gets 429 at once. */
+export async function refuseUploadRate(actor: Actor) {
+  const { perUserPerHour } = uploadLimits()
+  if (await uploadsThisHour(useDb(), actor.user.id) >= perUserPerHour) throw rateRefusal(perUserPerHour)
 }
 
 // The type from the file's first bytes (magic numbers), never from its name or the browser's claim.
@@ -91,23 +117,34 @@ export async function readUploadedFile(event: H3Event, field = 'file'): Promise<
   return { bytes: file.data, type, displayName: sanitizeDisplayName(name, type) }
 }
 
-// Writes the bytes, then the row (with an audit entry); a failed row removes the bytes again.
+// Checks the site's room and the person's hourly number under a per-site lock (so parallel uploads cannot
+// pass together), then writes the row (with an audit entry) and the bytes in one transaction: over a limit
+// (413 room, 429 rate) nothing is stored; bytes whose row did not commit are removed again.
 export async function storeUpload(actor: Actor, siteId: string, file: CheckedFile) {
   const storageKey = `${siteId}:${randomUUID()}`
   const storage = useStorage('uploads')
-  await storage.setItemRaw(storageKey, file.bytes)
+  const { siteQuotaBytes, perUserPerHour } = uploadLimits()
+  let written = false
   try {
     return await useDb().transaction(async (tx) => {
+      await tx.execute(sql`SELECT pg_advisory_xact_lock(hashtextextended(${`uploads:${siteId}`}, 7302))`)
+      const [used] = await tx.select({ bytes: sql<number>`coalesce(sum(${tables.uploads.bytes}), 0)`.mapWith(Number) }).from(tables.uploads).where(eq(tables.uploads.siteId, siteId))
+      if ((used?.bytes ?? 0) + file.bytes.length > siteQuotaBytes) {
+        throw createError({ statusCode: 413, message: `This site's room for files (${Math.round(siteQuotaBytes / 1024 / 1024)} MB) is full. Ask an admin to make room; nothing was stored.` })
+      }
+      if (await uploadsThisHour(tx, actor.user.id) >= perUserPerHour) throw rateRefusal(perUserPerHour)
       const [row] = await tx.insert(tables.uploads).values({
         siteId, userId: actor.user.id, storageKey, contentType: file.type, bytes: file.bytes.length,
         sha256: createHash('sha256').update(file.bytes).digest('hex'), displayName: file.displayName,
       }).returning()
       await writeAudit(tx, { actor, siteId, action: 'create', entity: 'upload', entityId: row!.id, after: { displayName: row!.displayName, contentType: row!.contentType, bytes: row!.bytes } })
+      written = true
+      await storage.setItemRaw(storageKey, file.bytes)
       return row!
     })
   }
   catch (error) {
-    await storage.removeItem(storageKey).catch(() => {})
+    if (written) await storage.removeItem(storageKey).catch(() => {})
     throw error
   }
 }
@@ -126,4 +163,11 @@ export async function findUploadForActor(event: H3Event, id: string): Promise<{ 
     .where(and(eq(tables.uploads.id, id), inArray(tables.uploads.siteId, actor.siteIds)))
   if (!upload) throw createError({ statusCode: 404, message: 'No such file.' })
   return { actor, upload }
+}
+
+/** A stored file's bytes as a Buffer (the disk driver answers a Buffer, the S3 driver an ArrayBuffer), or null. */
+export async function readStoredFile(key: string): Promise<Buffer | null> {
+  const raw = await useStorage('uploads').getItemRaw<Uint8Array | ArrayBuffer>(key)
+  if (!raw) return null
+  return Buffer.isBuffer(raw) ? raw : Buffer.from(raw instanceof ArrayBuffer ? new Uint8Array(raw) : raw)
 }

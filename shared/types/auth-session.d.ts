@@ -1,4 +1,4 @@
-// Session shape for nuxt-auth-utils: the sealed cookie carries the user; memberships are read
+// Session shape for nuxt-auth-utils: the sealed cookie carries the user and its session row; memberships are read
 // fresh from the database on every request so role changes and deactivation apply at once.
 declare module '#auth-utils' {
   interface User {
@@ -8,6 +8,8 @@ declare module '#auth-utils' {
   }
   interface UserSession {
     signedInAt: number
+    /** the user_sessions row: signing out revokes it, and a copy of the cookie stops working */
+    sessionId: string
   }
 }
 

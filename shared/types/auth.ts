@@ -1,6 +1,6 @@
-export type Role = 'operator' | 'technician' | 'facilities_lead' | 'safety_lead' | 'admin'
-
-export const ROLES: readonly Role[] = ['operator', 'technician', 'facilities_lead', 'safety_lead', 'admin']
+// The roles a person can hold at a site, lowest to highest (one list: the pgEnum and the zod schemas take it).
+export const ROLES = ['operator', 'technician', 'facilities_lead', 'safety_lead', 'admin'] as const
+export type Role = typeof ROLES[number]
 
 export const ROLE_LABELS: Record<Role, string> = {
   operator: 'Operator',
@@ -9,8 +9,6 @@ export const ROLE_LABELS: Record<Role, string> = {
   safety_lead: 'Safety lead',
   admin: 'Admin',
 }
-
-export const LEAD_ROLES: readonly Role[] = ['facilities_lead', 'safety_lead', 'admin']
 
 export interface SiteMembership {
   siteId: string

@@ -1,8 +1,8 @@
 import { z } from 'zod'
+import { ROLES } from '../types/auth'
 import { passwordSchema } from './auth-schemas'
 import { isoDateSchema } from './iso-date'
 
-export const ROLE_VALUES = ['operator', 'technician', 'facilities_lead', 'safety_lead', 'admin'] as const
 export const QUALIFICATION_KINDS = [
   'truck_class_1', 'truck_class_2', 'truck_class_3', 'truck_class_4', 'truck_class_5', 'truck_class_6', 'truck_class_7',
   'battery_changing', 'lp_gas_transfer',
@@ -37,18 +37,19 @@ export const userCreateSchema = z.object({
   name: z.string().trim().min(2, 'Enter a name.').max(100),
   password: passwordSchema,
   siteId: z.uuid('Pick a site.'),
-  roles: z.array(z.enum(ROLE_VALUES)).min(1, 'Give at least one role.'),
+  roles: z.array(z.enum(ROLES)).min(1, 'Give at least one role.'),
 })
 
 export const userUpdateSchema = z.object({
   name: z.string().trim().min(2, 'Enter a name.').max(100).optional(),
+  email: z.string().trim().toLowerCase().email('Enter an e-mail address.').max(200).optional(),
   active: z.boolean().optional(),
   password: passwordSchema.optional(),
 })
 
 export const userRolesSchema = z.object({
   siteId: z.uuid('Pick a site.'),
-  roles: z.array(z.enum(ROLE_VALUES)),
+  roles: z.array(z.enum(ROLES)),
 })
 
 export const qualificationCreateSchema = z.object({

@@ -19,9 +19,20 @@ export const OBLIGATION_STATE_LABELS: Readonly<Record<ObligationState, string>> 
 
 const ISO_DATE = /^\d{4}-\d{2}-\d{2}$/
 
+/** Days since 1970-01-01 of a 'YYYY-MM-DD', or NaN when it is not a real calendar date (2026-02-30). */
+function epochDay(value: string): number {
+  if (!ISO_DATE.test(value)) return Number.NaN
+  const y = Number(value.slice(0, 4))
+  const m = Number(value.slice(5, 7))
+  const d = Number(value.slice(8, 10))
+  const t = Date.UTC(y, m - 1, d)
+  const back = new Date(t)
+  return back.getUTCFullYear() === y && back.getUTCMonth() === m - 1 && back.getUTCDate() === d ? t / 86_400_000 : Number.NaN
+}
+
 /** True for a real calendar date written 'YYYY-MM-DD' (rejects 2026-02-30). */
 export function isIsoCalendarDate(value: string): boolean {
-  return ISO_DATE.test(value) && dayjs.utc(value).format('YYYY-MM-DD') === value
+  return !Number.isNaN(epochDay(value))
 }
 
 function parseIsoDate(value: string, name: string): dayjs.Dayjs {
@@ -38,7 +49,11 @@ export function addCalendarInterval(isoDate: string, n: number, unit: IntervalUn
 
 /** Whole calendar days from one date to another (negative when `to` is earlier). */
 export function calendarDaysBetween(fromIsoDate: string, toIsoDate: string): number {
-  return parseIsoDate(toIsoDate, 'to').diff(parseIsoDate(fromIsoDate, 'from'), 'day')
+  const to = epochDay(toIsoDate)
+  const from = epochDay(fromIsoDate)
+  if (Number.isNaN(to)) throw new RangeError(`to must be a calendar date 'YYYY-MM-DD', got '${toIsoDate}'`)
+  if (Number.isNaN(from)) throw new RangeError(`from must be a calendar date 'YYYY-MM-DD', got '${fromIsoDate}'`)
+  return to - from
 }
 
 /** Last day of a month, as 'YYYY-MM-DD' (month 1–12). */
@@ -51,8 +66,18 @@ export function lastDayOfMonth(year: number, month: number): string {
 // The calendar date an instant falls on in the site's time zone (23:30 in Chicago stays that day).
 export function localDate(instant: Date, timeZone: string): string {
   if (Number.isNaN(instant.getTime())) throw new RangeError('instant is not a valid date')
-  return dayjs(instant).tz(timeZone).format('YYYY-MM-DD')
+  let format = DAY_FORMATS.get(timeZone)
+  if (!format) {
+    format = new Intl.DateTimeFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit' })
+    DAY_FORMATS.set(timeZone, format)
+  }
+  const day = format.format(instant)
+  // en-CA writes YYYY-MM-DD; anything else (an Intl without that locale) takes the slower path
+  return ISO_DATE.test(day) ? day : dayjs(instant).tz(timeZone).format('YYYY-MM-DD')
 }
+
+// One formatter per time zone: making one is slow, using one is fast, and the rules call this per record.
+const DAY_FORMATS = new Map<string, Intl.DateTimeFormat>()
 
 export interface CountDue {
   /** The counter reading (charges, hours) at which the task falls due. */

@@ -15,13 +15,12 @@ export function requalificationYearsFromSettings(settings: SiteSettings): Record
   }
 }
 
-/** The site's emissions policy: its CO caps and retest window over the product defaults. */
+/** The site's emissions policy: its CO caps over the product defaults (the intervals are the emissions schedule's). */
 export function emissionsPolicyFromSettings(settings: SiteSettings): EmissionsPolicy {
   return {
     ...DEFAULT_EMISSIONS_POLICY,
     maxCoPercentLp: settings.emissionsMaxCoPctLp,
     maxCoPercentGasoline: settings.emissionsMaxCoPctGasoline,
-    retestDays: settings.emissionsRetestDays,
   }
 }
 

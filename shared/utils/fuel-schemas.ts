@@ -46,6 +46,8 @@ export const exchangeSchema = z.object({
   cylinderOnCode: z.string().trim().min(1).max(60).optional(),
   /** The cylinder coming off; must be the truck's current one. Null when the truck has none. */
   cylinderOffId: z.uuid().nullable().default(null),
+  /** The truck's hour meter at the change; optional, so records kept on a device before it was asked still go in. */
+  hourMeter: z.number({ error: 'Hour meter must be a number.' }).min(0, 'Not below 0.').max(200000, 'Above 200,000 h looks wrong.').nullable().default(null),
   at: eventTimeField,
   idempotencyKey,
   note,

@@ -1,5 +1,6 @@
 import type { IntervalUnit } from './due-dates'
-import { DUE_KIND_SUBJECTS, INTERVAL_UNITS, type DueKind, type DueSubjectKind, type ScheduleDefinition } from './due-schedules'
+import { DUE_KIND_SUBJECTS, INTERVAL_UNITS, type CustomSubjectKind, type DueKind, type DueSubjectKind, type ScheduleDefinition } from './due-schedules'
+import type { CustomIntervalUnit } from './schedule-schemas'
 
 // Schedules in words for the schedule editor: the interval, the due-soon window, the subject groups.
 
@@ -48,16 +49,32 @@ export const SCHEDULE_GROUP_LABELS: Readonly<Record<ScheduleGroupKey, string>> =
 
 const GROUP_OF_SUBJECT: Readonly<Record<DueSubjectKind, ScheduleGroupKey>> = {
   battery: 'battery', charger: 'charger', truck: 'truck', cylinder: 'cylinder',
-  area: 'area', log: 'area', follow_up: 'area', person: 'person',
+  area: 'area', log: 'area', follow_up: 'area', person: 'person', site: 'area',
 }
 
-export function scheduleGroupOf(kind: DueKind): ScheduleGroupKey {
-  return GROUP_OF_SUBJECT[DUE_KIND_SUBJECTS[kind]]
+/** The group a schedule shows in: by what it is about (a lead-added one by its subject kind). */
+export function scheduleGroupOf(s: { kind: DueKind, subjectKind?: DueSubjectKind }): ScheduleGroupKey {
+  const subject = s.kind === 'custom' ? s.subjectKind ?? 'site' : DUE_KIND_SUBJECTS[s.kind]
+  return GROUP_OF_SUBJECT[subject]
 }
 
 /** Schedules by subject, in the group order above, each group keeping the order it was given; empty groups left out. */
-export function groupSchedules<T extends { kind: DueKind }>(items: readonly T[]): { key: ScheduleGroupKey, label: string, items: T[] }[] {
+export function groupSchedules<T extends { kind: DueKind, subjectKind?: DueSubjectKind }>(items: readonly T[]): { key: ScheduleGroupKey, label: string, items: T[] }[] {
   return (Object.keys(SCHEDULE_GROUP_LABELS) as ScheduleGroupKey[])
-    .map(key => ({ key, label: SCHEDULE_GROUP_LABELS[key], items: items.filter(i => scheduleGroupOf(i.kind) === key) }))
+    .map(key => ({ key, label: SCHEDULE_GROUP_LABELS[key], items: items.filter(i => scheduleGroupOf(i) === key) }))
     .filter(g => g.items.length > 0)
+}
+
+/** The units a lead-added schedule counts in, as the form offers them. */
+export const CUSTOM_UNIT_LABELS: Readonly<Record<CustomIntervalUnit, string>> = {
+  day: 'Days', week: 'Weeks', month: 'Months', year: 'Years', charges: 'Charges (batteries)', hours: 'Hours of use (trucks)',
+}
+
+export const CUSTOM_SUBJECT_LABELS: Readonly<Record<CustomSubjectKind, string>> = {
+  area: 'Each area', charger: 'Each charger', truck: 'Each truck', battery: 'Each battery', cylinder: 'Each LP cylinder', site: 'The site as a whole',
+}
+
+/** The "every N <unit>" of a lead-added schedule, as its form shows it. */
+export function customUnitOf(s: Pick<ScheduleDefinition, 'rule' | 'everyUnit'>): CustomIntervalUnit {
+  return s.rule === 'charges' || s.rule === 'hours' ? s.rule : s.everyUnit ?? 'day'
 }

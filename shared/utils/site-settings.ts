@@ -1,6 +1,7 @@
 import { z } from 'zod'
 
-// Site policy: every threshold the battery room, fuel station and due engine apply.
+// Site policy: the thresholds the battery room and fuel station apply. Intervals are not here: every
+// interval (watering, equalize, inspections, emissions, follow-ups) is a schedule on the Schedules page.
 // Defaults carry their source (see DEVELOPERS.md, "Where the numbers come from").
 export const siteSettingsSchema = z.object({
   /** 8 h work / 8 h charge / 8 h cool (common practice). */
@@ -13,10 +14,6 @@ export const siteSettingsSchema = z.object({
   cellSpreadThreshold: z.number().min(0.005).max(0.1).default(0.02),
   /** Highest electrolyte temperature at the end of a charge, °F (110–115 °F, from memory). */
   maxChargeTempF: z.number().min(80).max(140).default(115),
-  wateringEveryCharges: z.number().int().min(1).max(50).default(5),
-  wateringEveryDays: z.number().int().min(1).max(60).default(7),
-  equalizeEveryCharges: z.number().int().min(1).max(50).default(5),
-  equalizeEveryDays: z.number().int().min(1).max(60).default(7),
   /** What a swap does without a current battery-changing qualification. */
   qualificationPolicy: z.enum(['warn', 'block']).default('warn'),
   tariffPerKwh: z.number().min(0).max(10).default(0.12),
@@ -25,22 +22,27 @@ export const siteSettingsSchema = z.object({
   /** Minnesota Rules 5205.0116: CO at idle and high idle at most 1 % (LP-gas) and 2 % (gasoline). */
   emissionsMaxCoPctLp: z.number().min(0).max(10).default(1),
   emissionsMaxCoPctGasoline: z.number().min(0).max(10).default(2),
-  emissionsRetestDays: z.number().int().min(1).max(365).default(30),
   /** NIOSH REL for carbon monoxide, 35 ppm 8-h TWA. */
   coSiteLimitPpm: z.number().min(1).max(50).default(35),
   /** 49 CFR 180.209: years to the next requalification by method. */
   requalYearsWaterJacket: z.number().int().min(1).max(12).default(12),
   requalYearsProofPressure: z.number().int().min(1).max(12).default(7),
   requalYearsExternalVisual: z.number().int().min(1).max(12).default(5),
-  dueSoonDays: z.number().int().min(1).max(90).default(14),
   /** Site-local hour (0–23) the daily due-list digest goes to each lead (site policy). */
   digestHour: z.number().int().min(0).max(23).default(6),
-  /** Charger inspection interval in days (site policy; no published interval, common practice monthly). */
-  chargerInspectionEveryDays: z.number().int().min(1).max(365).default(30),
-  /** Every-cell specific-gravity reading interval in days (common practice: monthly). */
-  fullCellCheckEveryDays: z.number().int().min(1).max(365).default(30),
 })
 
 export type SiteSettings = z.infer<typeof siteSettingsSchema>
 
 export const defaultSiteSettings = (): SiteSettings => siteSettingsSchema.parse({})
+
+/** Stored settings with defaults filled in; a stored value that no longer parses falls back to its default. */
+export function parseSiteSettings(stored: unknown): SiteSettings {
+  const parsed = siteSettingsSchema.safeParse(stored ?? {})
+  if (parsed.success) return parsed.data
+  const shape = siteSettingsSchema.shape as Record<string, z.ZodType>
+  const valid = stored && typeof stored === 'object'
+    ? Object.fromEntries(Object.entries(stored).filter(([k, v]) => shape[k]?.safeParse(v).success))
+    : {}
+  return { ...defaultSiteSettings(), ...valid }
+}

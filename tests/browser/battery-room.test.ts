@@ -5,7 +5,7 @@ import type { Browser, Page } from 'playwright-core'
 import { builtServer } from '../support/http'
 import { area, battery, closeTestDb, site, tables, user, useTestDb } from '../support/db'
 import { DESKTOP, PHONE, launchChromium, signInAt } from '../support/chromium'
-import { fittedTruck, openCharge, pastCharge, putInTruck, qualify, readyBattery, roomCharger, tagFor } from '../support/battery-room'
+import { fittedTruck, openCharge, pastCharge, putInTruck, qualify, readyBattery, roomCharger, storedBattery, tagFor } from '../support/battery-room'
 
 await setup(builtServer)
 
@@ -57,8 +57,7 @@ describe('battery room on the floor', () => {
     await page.screenshot({ path: 'screenshots/battery-room-swap-phone.png', fullPage: true })
     await page.keyboard.press('Enter')
     await page.getByRole('status').getByText(`Battery ${inCode} is in truck ${t.fleetNumber}`).waitFor()
-    const [stored] = await useTestDb().select().from(tables.batteries).where(eq(tables.batteries.id, fresh.id))
-    expect(stored!.currentTruckId).toBe(t.id)
+    expect((await storedBattery(fresh.id)).currentTruckId).toBe(t.id)
     await page.context().close()
   })
 

@@ -4,7 +4,7 @@ import { setup, url } from '@nuxt/test-utils/e2e'
 import type { Browser, Page } from 'playwright-core'
 import { eq } from 'drizzle-orm'
 import { builtServer } from '../support/http'
-import { closeTestDb, site, tables, truck, user, useTestDb } from '../support/db'
+import { closeTestDb, refreshReadModels, site, tables, truck, user, useTestDb } from '../support/db'
 import { DESKTOP, PHONE, launchChromium, signInAt } from '../support/chromium'
 import { freshCylinder, fuelStation, isoDaysFromNow, lpTransferQualification, lpTruck } from '../support/fuel'
 import { PREFILL_INSPECTION_ITEMS } from '../../shared/utils/lp-gas'
@@ -49,6 +49,7 @@ beforeAll(async () => {
       siteId, userId: facilities.id, truckId: x.t.id, testedOn: x.testedOn, testerName: 'Invented Tailpipe Services',
       coIdlePct: 0.4, coHighIdlePct: x.co ?? 0.5, passed: x.passed, reasons: x.passed ? [] : ['CO at high idle is 1.4 %, above the 1 % limit for LP-gas trucks.'], nextDueOn: x.next,
     })
+    await refreshReadModels(siteId, [{ kind: 'truck', id: x.t.id }])
   }
   await lpTruck(siteId)
 })

@@ -4,16 +4,15 @@ import type { Browser } from 'playwright-core'
 import { builtServer } from '../support/http'
 import { closeTestDb, site, user } from '../support/db'
 import { DESKTOP, PHONE, launchChromium, signInAt } from '../support/chromium'
-import { defaultSiteSettings } from '../../shared/utils/site-settings'
 import { AID_DISCLAIMER } from '../../shared/utils/disclaimer'
-import type { ScheduleDefinition } from '../../shared/utils/due-schedules'
+import { defaultSchedules, type ScheduleDefinition } from '../../shared/utils/due-schedules'
 
 await setup(builtServer)
 
 let browser: Browser
 let siteId: string
 const people: Record<string, { email: string, password: string }> = {}
-const settings = defaultSiteSettings()
+const defaultWatering = defaultSchedules().find(s => s.kind === 'battery_watering')!
 
 // An invented site with its default schedules, a facilities lead and an operator.
 beforeAll(async () => {
@@ -37,7 +36,7 @@ describe('due schedules in the browser', () => {
     expect(await page.getByText(AID_DISCLAIMER).count()).toBe(1)
     const row = page.locator('[data-schedule-kind="battery_watering"]')
     const interval = row.locator('[data-field="interval"]')
-    expect(await interval.textContent()).toContain(`every ${settings.wateringEveryCharges} charges or ${settings.wateringEveryDays} days`)
+    expect(await interval.textContent()).toContain(`every ${defaultWatering.every} charges or ${defaultWatering.withinDays} days`)
     expect(await row.getByText('Common practice; follow the battery maker.').isVisible()).toBe(true)
     expect(await page.locator('[data-schedule-kind="emissions_test"] [data-field="interval"]').textContent()).toContain('yearly')
 

@@ -126,9 +126,12 @@ describe('user administration', () => {
       expect((await session.get(`/api/batteries?siteId=${siteA}`)).status).toBe(404)
     })
 
-    it('an admin cannot drop their own admin role (400)', async () => {
-      const res = await adminA.put(`/api/users/${adminAUser.id}/roles`, { siteId: siteA, roles: ['facilities_lead'] })
-      expect(res.status).toBe(400)
+    it('nobody changes their own roles, up or down (403)', async () => {
+      for (const roles of [['facilities_lead'], ['admin', 'safety_lead'], []]) {
+        const res = await adminA.put(`/api/users/${adminAUser.id}/roles`, { siteId: siteA, roles })
+        expect(res.status).toBe(403)
+        expect(res.body.message).toMatch(/own roles/)
+      }
       expect(await rolesAt(adminAUser.id, siteA)).toEqual(['admin'])
     })
 
@@ -286,8 +289,8 @@ describe('user administration', () => {
 
       const tuned = await a.patch(`/api/sites/${s.id}`, { settings: { coolDownMinutes: 600 } })
       expect(tuned.status).toBe(200)
-      const first = await a.patch(`/api/sites/${s.id}`, { settings: { dueSoonDays: 21 } })
-      expect(first.body.item.settings).toMatchObject({ coolDownMinutes: 600, dueSoonDays: 21 })
+      const first = await a.patch(`/api/sites/${s.id}`, { settings: { digestHour: 5 } })
+      expect(first.body.item.settings).toMatchObject({ coolDownMinutes: 600, digestHour: 5 })
       expect(first.body.item.timeZone).toBe('America/Denver')
     })
 

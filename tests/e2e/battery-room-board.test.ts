@@ -4,9 +4,10 @@ import postgres from 'postgres'
 import { drizzle } from 'drizzle-orm/postgres-js'
 import { eq } from 'drizzle-orm'
 import { builtServer, signIn, type Client } from '../support/http'
-import { area, batteryInput, closeTestDb, site, tables, user, useTestDb } from '../support/db'
-import { fittedTruck, hoursAgo, roomCharger } from '../support/battery-room'
-import { loadBatteryFacts } from '../../server/utils/battery-room-facts'
+import { area, batteryInput, closeTestDb, rebuildSite, site, tables, user, useTestDb } from '../support/db'
+import { fittedTruck, hoursAgo, putInTruck, roomCharger } from '../support/battery-room'
+import { loadBatteryRows } from '../../server/utils/battery-room/status'
+import { loadBatteryFactsFor } from '../../server/utils/due/facts-battery'
 import { batteryCreateSchema } from '../../shared/utils/asset-schemas'
 
 await setup(builtServer)
@@ -48,14 +49,12 @@ describe('the Bay board', () => {
     const ids = rows.map(r => r.id)
     await charged(ids.slice(0, 80), hoursAgo(10))
     await charged(ids.slice(80, 120), hoursAgo(2))
-    for (const id of ids.slice(160, 180)) {
-      const t = await fittedTruck(siteId)
-      await useTestDb().update(tables.batteries).set({ currentTruckId: t.id }).where(eq(tables.batteries.id, id))
-    }
+    for (const id of ids.slice(160, 180)) await putInTruck(id, (await fittedTruck(siteId)).id, userId)
     for (const id of ids.slice(180)) {
       await useTestDb().update(tables.batteries).set({ outOfService: true, outOfServiceReason: 'Cracked case' }).where(eq(tables.batteries.id, id))
     }
     await batteries(5, otherArea)
+    await rebuildSite(siteId)
   })
   afterAll(closeTestDb)
 
@@ -73,7 +72,7 @@ describe('the Bay board', () => {
     expect(all.batteries).toHaveLength(205)
   })
 
-  it('computes the facts of every battery of the area in one statement, however many batteries there are', async () => {
+  it('reads the board from the read models, and computes the facts of every battery, in one statement each, however many batteries there are', async () => {
     let statements = 0
     // fetch_types off: the client's own start-up lookup of array types is not a statement of ours
     const countStatement = () => {
@@ -82,13 +81,16 @@ describe('the Bay board', () => {
     const client = postgres(process.env.NUXT_DATABASE_URL!, { max: 1, fetch_types: false, onnotice: () => {}, debug: countStatement })
     try {
       const db = drizzle(client, { casing: 'snake_case' })
-      const big = await loadBatteryFacts(db, { siteId, areaId: bigArea })
+      const big = await loadBatteryRows(db, { siteId, areaId: bigArea })
       expect(big).toHaveLength(200)
       expect(statements).toBe(1)
-      const small = await loadBatteryFacts(db, { siteId, areaId: otherArea })
+      const small = await loadBatteryRows(db, { siteId, areaId: otherArea })
       expect(small).toHaveLength(5)
       expect(statements).toBe(2)
-      console.info(`facts: ${statements} statements for 200 + 5 batteries`)
+      const facts = await loadBatteryFactsFor(db, { siteId })
+      expect(facts).toHaveLength(205)
+      expect(statements).toBe(3)
+      console.info(`board: 2 statements for 200 + 5 batteries; facts: 1 statement for 205`)
     }
     finally {
       await client.end()
@@ -99,17 +101,20 @@ describe('the Bay board', () => {
     const pickArea = (await area({ siteId })).id
     const t = await fittedTruck(siteId)
     const longAgo = hoursAgo(20)
-    const [recent] = await batteries(1, pickArea, { cycleCount: 10 })
+    const [recent] = await batteries(1, pickArea)
     const [worn] = await batteries(1, pickArea)
     const [fresh] = await batteries(1, pickArea)
     const [wrongVolts] = await batteries(1, pickArea, { voltage: 24, cellCount: 12 })
     const [cooling] = await batteries(1, pickArea)
-    await useTestDb().update(tables.batteries).set({ cycleCount: 300 }).where(eq(tables.batteries.id, worn!.id))
-    await useTestDb().update(tables.batteries).set({ cycleCount: 50 }).where(eq(tables.batteries.id, fresh!.id))
     await charged([recent!.id], hoursAgo(12))
     await charged([worn!.id, fresh!.id], longAgo)
     await charged([wrongVolts!.id], hoursAgo(40))
     await charged([cooling!.id], hoursAgo(1))
+    await rebuildSite(siteId)
+    // cycles counted as if from their records: 10, 300 and 50
+    for (const [b, cycles] of [[recent!, 10], [worn!, 300], [fresh!, 50]] as const) {
+      await useTestDb().update(tables.batteryStatus).set({ cycles }).where(eq(tables.batteryStatus.batteryId, b.id))
+    }
     const res = await operator.get(`/api/battery-room/board?siteId=${siteId}&areaId=${pickArea}&truckId=${t.id}`)
     expect(res.status).toBe(200)
     const board = res.body as Board

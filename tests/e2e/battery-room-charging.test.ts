@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { setup } from '@nuxt/test-utils/e2e'
 import { asc, eq } from 'drizzle-orm'
 import { builtServer, signIn, type Client } from '../support/http'
-import { area, battery, closeTestDb, site, tables, user, useTestDb } from '../support/db'
+import { area, battery, closeTestDb, rebuildSite, site, tables, user, useTestDb } from '../support/db'
 import { fittedTruck, hoursAgo, pastCharge, putInTruck, roomCharger } from '../support/battery-room'
 import { defaultSiteSettings } from '../../shared/utils/site-settings'
 
@@ -28,7 +28,11 @@ describe('charge sessions and electrolyte checks', () => {
 
   const board = async () => (await tech.get(`/api/battery-room/board?siteId=${siteId}`)).body as { batteries: { id: string, state: string, readyAt: string | null, coolingMinutesLeft: number, flags: { key: string }[], cycleCount: number }[] }
   const card = async (id: string) => (await board()).batteries.find(b => b.id === id)!
-  const setCoolDown = (minutes: number) => useTestDb().update(tables.sites).set({ settings: { ...defaultSiteSettings(), coolDownMinutes: minutes } }).where(eq(tables.sites.id, siteId))
+  // a settings change recomputes the site's read models, as PATCH /api/sites/:id does
+  const setCoolDown = async (minutes: number) => {
+    await useTestDb().update(tables.sites).set({ settings: { ...defaultSiteSettings(), coolDownMinutes: minutes } }).where(eq(tables.sites.id, siteId))
+    await rebuildSite(siteId)
+  }
   const chargeOn = (body: Record<string, unknown>) => tech.post('/api/battery-room/charges', { idempotencyKey: randomUUID(), ...body })
 
   it('on charge, then off: Cooling until the site\'s cool-down has passed, then Ready; energy, cost and the cycle are counted', async () => {

@@ -3,13 +3,12 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { setup } from '@nuxt/test-utils/e2e'
 import { count, eq } from 'drizzle-orm'
 import { builtServer, signIn, type Client } from '../support/http'
-import { area, battery, closeTestDb, site, tables, user, useTestDb } from '../support/db'
-import { fittedTruck, openCharge, pastCharge, putInTruck, qualify, readyBattery, roomCharger, tagFor } from '../support/battery-room'
+import { area, battery, closeTestDb, refreshReadModels, site, tables, user, useTestDb } from '../support/db'
+import { fittedTruck, openCharge, pastCharge, putInTruck, qualify, readyBattery, roomCharger, storedBattery, tagFor, truckHours } from '../support/battery-room'
 import { defaultSiteSettings } from '../../shared/utils/site-settings'
 
 await setup(builtServer)
 
-const storedBattery = async (id: string) => (await useTestDb().select().from(tables.batteries).where(eq(tables.batteries.id, id)))[0]!
 const swapsOf = async (truckId: string) => useTestDb().select().from(tables.batterySwaps).where(eq(tables.batterySwaps.truckId, truckId))
 const codes = (body: { data?: { reasons?: { code: string }[] } }) => (body.data?.reasons ?? []).map(r => r.code)
 
@@ -50,8 +49,7 @@ describe('battery swaps', () => {
     expect(res.body.warnings).toEqual([])
     expect((await storedBattery(fresh.id)).currentTruckId).toBe(t.id)
     expect((await storedBattery(out.id)).currentTruckId).toBeNull()
-    const [tr] = await useTestDb().select().from(tables.trucks).where(eq(tables.trucks.id, t.id))
-    expect(tr!.hourMeter).toBe(1234.5)
+    expect(await truckHours(t.id)).toBe(1234.5)
     const [audit] = await useTestDb().select().from(tables.auditLog).where(eq(tables.auditLog.entityId, res.body.item.id))
     expect(audit).toMatchObject({ action: 'swap', entity: 'battery_swap', siteId })
 
@@ -99,7 +97,10 @@ describe('battery swaps', () => {
   it.each([
     ['on charge', 'not_charged', async (id: string) => { await openCharge({ siteId, userId: techId, batteryId: id, chargerId: (await roomCharger(siteId, (await area({ siteId })).id)).id, startedHoursAgo: 2 }) }],
     ['cooling', 'still_cooling', async (id: string) => { await pastCharge({ siteId, userId: techId, batteryId: id, chargerId, endedHoursAgo: 1 }) }],
-    ['out of service', 'out_of_service', async (id: string) => { await useTestDb().update(tables.batteries).set({ outOfService: true, outOfServiceReason: 'Cracked cover' }).where(eq(tables.batteries.id, id)) }],
+    ['out of service', 'out_of_service', async (id: string) => {
+      await useTestDb().update(tables.batteries).set({ outOfService: true, outOfServiceReason: 'Cracked cover' }).where(eq(tables.batteries.id, id))
+      await refreshReadModels(siteId, [{ kind: 'battery', id }])
+    }],
     ['watering overdue', 'watering_overdue', async (id: string) => {
       for (const h of [150, 130, 110, 90, 70, 50]) await pastCharge({ siteId, userId: techId, batteryId: id, chargerId, endedHoursAgo: h })
     }],

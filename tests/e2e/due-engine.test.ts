@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { setup } from '@nuxt/test-utils/e2e'
 import { eq } from 'drizzle-orm'
 import { builtServer, type Client } from '../support/http'
-import { closeTestDb, cylinder, site, tables, useTestDb } from '../support/db'
+import { closeTestDb, cylinder, refreshReadModels, site, tables, useTestDb } from '../support/db'
 import {
   CHARGING_KEYS, allPass, chargingArea, charger, daysFrom, dueList, endedCharges, obligationOf, oldBattery, person, randomUUID, registeredDaysAgo, todayIn, truck,
 } from '../support/due'
@@ -53,9 +53,12 @@ describe('recording the work closes the obligation and opens the next', () => {
     const b = await oldBattery(siteId, 30)
     const before = obligationOf(await dueList(tech, { siteId, kind: 'battery_equalize' }), 'battery_equalize', b.id)
     expect(before!.state).toBe('overdue')
-    await endedCharges(siteId, b.id, chargerId, techId, [1], true)
+    // ended just now, so it is today at the site even in the first hour after midnight
+    await endedCharges(siteId, b.id, chargerId, techId, [0], true)
     const next = obligationOf(await dueList(tech, { siteId, kind: 'battery_equalize' }), 'battery_equalize', b.id)
-    expect(next).toMatchObject({ state: 'upcoming', remaining: 5, lastDoneOn: today })
+    // the site-local day the equalize charge ended, an hour ago (yesterday just after midnight)
+    const endedOn = new Intl.DateTimeFormat('en-CA', { timeZone: 'America/Chicago' }).format(new Date(Date.now() - 3_600_000))
+    expect(next).toMatchObject({ state: 'upcoming', remaining: 5, lastDoneOn: endedOn })
   })
 
   it('the area checklist, eyewash and extinguisher close from one complete log; the next eyewash is a week on', async () => {
@@ -93,6 +96,7 @@ describe('recording the work closes the obligation and opens the next', () => {
     const before = obligationOf(await dueList(facilities, { siteId, kind: 'cylinder_requalification' }), 'cylinder_requalification', c.id)
     expect(before!.dueOn).toBe('2026-03-31')
     await useTestDb().update(tables.lpCylinders).set({ lastRequalifiedOn: '2026-01-10', lastRequalificationMethod: 'external_visual' }).where(eq(tables.lpCylinders.id, c.id))
+    await refreshReadModels(siteId, [{ kind: 'cylinder', id: c.id }])
     const after = obligationOf(await dueList(facilities, { siteId, kind: 'cylinder_requalification' }), 'cylinder_requalification', c.id)
     expect(after).toMatchObject({ dueOn: '2031-01-31', lastDoneOn: '2026-01-10' })
   })

@@ -90,10 +90,11 @@ describe('emissions tests with certificates', () => {
     expect(status.status).toBe(200)
   })
 
-  it('a site with stricter caps judges by its own policy', async () => {
+  it('a site with stricter caps judges by its own policy, and retests within its emissions schedule\'s window', async () => {
     const strict = (await site()).id
-    await useTestDb().update(tables.sites).set({ settings: { ...(await useTestDb().select().from(tables.sites).where(eq(tables.sites.id, strict)))[0]!.settings, emissionsMaxCoPctLp: 0.3, emissionsRetestDays: 14 } }).where(eq(tables.sites.id, strict))
+    await useTestDb().update(tables.sites).set({ settings: { ...(await useTestDb().select().from(tables.sites).where(eq(tables.sites.id, strict)))[0]!.settings, emissionsMaxCoPctLp: 0.3 } }).where(eq(tables.sites.id, strict))
     const { client: c } = await fuelPerson(strict, ['admin'], { trained: false })
+    expect((await c.put('/api/schedules/emissions_test', { siteId: strict, afterFailDays: 14 })).status).toBe(200)
     const t = await lpTruck(strict)
     const input = testInput()
     const res = await c.post(`/api/trucks/${t.id}/emissions-tests`, input)
@@ -176,7 +177,7 @@ describe('uploads', () => {
     const empty = await upload(c, quiet, new Uint8Array(0), 'empty.pdf', 'application/pdf')
     expect(empty.status).toBe(400)
     expect(await uploadsAt(quiet)).toHaveLength(0)
-    expect(storedFilesAt(quiet)).toEqual([])
+    expect(await storedFilesAt(quiet)).toEqual([])
   })
 
   it('a user of another site cannot fetch a certificate (404), nor can anyone signed out (401)', async () => {

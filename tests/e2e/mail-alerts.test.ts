@@ -1,5 +1,4 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { createServer } from 'node:net'
 import { mkdtempSync, readdirSync, readFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
@@ -8,16 +7,7 @@ import { builtServer, type Client } from '../support/http'
 import { closeTestDb, site } from '../support/db'
 import { CHARGING_KEYS, allPass, chargingArea, daysFrom, eventually, mailOfKind, mailTo, person, todayIn } from '../support/due'
 import { startSmtpFake, type SmtpFake } from '../../scripts/smtp-fake.mjs'
-
-async function freePort(): Promise<number> {
-  return new Promise((resolve) => {
-    const s = createServer()
-    s.listen(0, '127.0.0.1', () => {
-      const port = (s.address() as { port: number }).port
-      s.close(() => resolve(port))
-    })
-  })
-}
+import { freePort } from '../support/mail'
 
 // The server under test mails a local SMTP fake this file starts on a free port; the env is set
 // before setup() so the server inherits it.

@@ -4,7 +4,7 @@ import { setup } from '@nuxt/test-utils/e2e'
 import { eq } from 'drizzle-orm'
 import { builtServer, signIn, type Client, type Reply } from '../support/http'
 import { area, battery, closeTestDb, site, tables, user, useTestDb } from '../support/db'
-import { fittedTruck, hoursAgo, openCharge, pastCharge, putInTruck, qualify, readyBattery, roomCharger } from '../support/battery-room'
+import { fittedTruck, hoursAgo, openCharge, pastCharge, putInTruck, qualify, readyBattery, roomCharger, storedBattery } from '../support/battery-room'
 import { freshCylinder, fuelPerson, fuelStation, lpTruck, passingInspection } from '../support/fuel'
 import { CHARGING_KEYS, allPass, chargingArea, daysFrom, person, todayIn } from '../support/due'
 
@@ -116,8 +116,7 @@ describe('floor records sent more than once', () => {
       const replies = atOnce ? await Promise.all([send(), send(), send()]) : [await send(), await send()]
       expect(replies.every(r => r.status === 200), JSON.stringify(replies.map(r => [r.status, r.body]))).toBe(true)
       expect(replies.filter(r => r.body.replayed).length).toBe(replies.length - 1)
-      const [battery_] = await useTestDb().select().from(tables.batteries).where(eq(tables.batteries.id, b.id))
-      expect(battery_!.cycleCount).toBe(1)
+      expect((await storedBattery(b.id)).cycleCount).toBe(1)
       const [session] = await useTestDb().select().from(tables.chargeSessions).where(eq(tables.chargeSessions.id, open.id))
       expect(session!.endedBy).toBe(techId)
     }

@@ -33,7 +33,12 @@ describe('demo seed', () => {
     expect(await counts()).toEqual(first)
     run('--reset')
     expect(await counts()).toEqual(first)
-    const [twoTrucks] = await sql`SELECT count(*)::int AS n FROM (SELECT current_truck_id FROM batteries WHERE current_truck_id IS NOT NULL GROUP BY 1 HAVING count(*) > 1) x`
+    const [twoTrucks] = await sql`SELECT count(*)::int AS n FROM (SELECT truck_id FROM battery_status WHERE truck_id IS NOT NULL GROUP BY 1 HAVING count(*) > 1) x`
     expect(twoTrucks!.n).toBe(0)
+    // the seed leaves its read models built: a status row per battery and truck, obligations, no rebuild asked for
+    const [models] = await sql`SELECT (SELECT count(*) FROM battery_status)::int AS batteries, (SELECT count(*) FROM truck_status)::int AS trucks,
+      (SELECT count(*) FROM obligations)::int AS obligations, (SELECT count(*) FROM read_model_rebuilds WHERE needed)::int AS pending`
+    expect(models).toMatchObject({ batteries: first.batteries, trucks: first.trucks, pending: 0 })
+    expect(models!.obligations).toBeGreaterThan(first.batteries)
   }, 180_000)
 })

@@ -3,8 +3,8 @@ import { setup } from '@nuxt/test-utils/e2e'
 import { eq } from 'drizzle-orm'
 import { builtServer, signIn, type Client } from '../support/http'
 import {
-  area, areaInput, battery, batteryInput, charger, chargerInput, closeTestDb, cylinder, cylinderInput,
-  site, tables, truck, truckInput, user, useTestDb,
+  area, battery, batteryInput, charger, chargerInput, closeTestDb, cylinder,
+  site, tables, truck, user, useTestDb,
 } from '../support/db'
 
 await setup(builtServer)
@@ -22,11 +22,11 @@ describe('a user of site A cannot reach site B', () => {
   const inB = {} as Record<string, Other>
 
   const KINDS = {
-    batteries: { edit: { notes: 'moved' }, input: () => batteryInput(), holdable: true },
-    trucks: { edit: { model: 'moved' }, input: () => truckInput(), holdable: true },
-    chargers: { edit: { notes: 'moved' }, input: () => chargerInput(areaB), holdable: true },
-    cylinders: { edit: { notes: 'moved' }, input: () => cylinderInput(), holdable: true },
-    areas: { edit: { notes: 'moved' }, input: () => areaInput(), holdable: false },
+    batteries: { edit: { notes: 'moved' } },
+    trucks: { edit: { model: 'moved' } },
+    chargers: { edit: { notes: 'moved' } },
+    cylinders: { edit: { notes: 'moved' } },
+    areas: { edit: { notes: 'moved' } },
   } as const
   type Kind = keyof typeof KINDS
 
@@ -47,39 +47,20 @@ describe('a user of site A cannot reach site B', () => {
   })
   afterAll(closeTestDb)
 
+  // The answer to each route for a member of another site (404) is in the role × route matrix
+  // (access-matrix.test.ts); here, that nothing of site B moves when they try, by kind.
   describe.each(Object.keys(KINDS) as Kind[])('%s', (kind) => {
     it('site B\'s own admin reaches the record (the fixture is sound)', async () => {
       expect((await adminB.get(`/api/${kind}/${inB[kind]!.id}`)).status).toBe(200)
     })
 
-    it('GET by id → 404', async () => {
-      const res = await adminA.get(`/api/${kind}/${inB[kind]!.id}`)
-      expect(res.status).toBe(404)
-      expect(res.body.item).toBeUndefined()
-    })
-
-    it('PATCH by id → 404, and nothing changes', async () => {
+    it('an edit from site A → 404, and nothing changes', async () => {
       const res = await adminA.patch(`/api/${kind}/${inB[kind]!.id}`, KINDS[kind].edit)
       expect(res.status).toBe(404)
+      expect(res.body.item).toBeUndefined()
       const table = { batteries: tables.batteries, trucks: tables.trucks, chargers: tables.chargers, cylinders: tables.lpCylinders, areas: tables.areas }[kind]
       const [row] = await useTestDb().select().from(table).where(eq(table.id, inB[kind]!.id))
       for (const field of Object.keys(KINDS[kind].edit)) expect((row as Record<string, unknown>)[field]).not.toBe('moved')
-    })
-
-    if (KINDS[kind].holdable) {
-      it('out-of-service → 404', async () => {
-        const res = await adminA.post(`/api/${kind}/${inB[kind]!.id}/out-of-service`, { outOfService: true, reason: 'Not yours to hold.' })
-        expect(res.status).toBe(404)
-      })
-    }
-
-    it('list with ?siteId=B → 404', async () => {
-      expect((await adminA.get(`/api/${kind}?siteId=${siteB}`)).status).toBe(404)
-    })
-
-    it('create with siteId=B → 404', async () => {
-      const res = await adminA.post(`/api/${kind}`, { siteId: siteB, ...KINDS[kind].input() })
-      expect(res.status).toBe(404)
     })
   })
 

@@ -268,10 +268,16 @@ describe('bad input is 400 with field messages, conflicts 409, never 500', () =>
       }
     })
 
-    it('an unknown sort key falls back to the default sort instead of failing', async () => {
-      const res = await admin.get(`/api/batteries?siteId=${siteId}&sort=passwordHash`)
-      expect(res.status).toBe(200)
-      expect(res.body.sort).toBe('serial')
+    it('a sort key the list does not sort by → 400 on sort, prototype names included', async () => {
+      for (const sort of ['passwordHash', 'constructor', '__proto__', 'toString', 'hasOwnProperty', 'valueOf']) {
+        const res = await admin.get(`/api/batteries?siteId=${siteId}&sort=${sort}`)
+        expect(res.status, sort).toBe(400)
+        expect(res.body.data.fields).toHaveProperty('sort')
+      }
+      for (const path of ['/api/trucks', '/api/chargers', '/api/cylinders', '/api/areas', '/api/batteries/export']) {
+        expect((await admin.get(`${path}?siteId=${siteId}&sort=constructor`)).status, path).toBe(400)
+      }
+      expect((await admin.get(`/api/batteries?siteId=${siteId}&sort=capacityAh`)).body.sort).toBe('capacityAh')
     })
 
     it('a NUL character in the query → 400, not a database error', async () => {

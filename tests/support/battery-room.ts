@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm'
-import { battery, charger, tables, truck, useTestDb } from './db'
+import { battery, charger, refreshReadModels, tables, truck, useTestDb } from './db'
 
 const HOUR = 3_600_000
 export const hoursAgo = (h: number) => new Date(Date.now() - h * HOUR)
@@ -9,6 +9,19 @@ export function fittedTruck(siteId: string, over: Record<string, unknown> = {}) 
   return truck({
     siteId, connector: 'Grey 350 A', compartmentLengthIn: 40, compartmentWidthIn: 22, compartmentHeightIn: 33, ...over,
   })
+}
+
+/** A battery's row with where it is now (battery_status: the swaps decide it). */
+export async function storedBattery(id: string) {
+  const [row] = await useTestDb().select({ battery: tables.batteries, truckId: tables.batteryStatus.truckId, cycles: tables.batteryStatus.cycles })
+    .from(tables.batteries).leftJoin(tables.batteryStatus, sql`${tables.batteryStatus.batteryId} = ${tables.batteries.id}`).where(sql`${tables.batteries.id} = ${id}`)
+  return { ...row!.battery, currentTruckId: row!.truckId ?? null, cycleCount: row!.cycles ?? 0 }
+}
+
+/** A truck's hour meter now (truck_status: its latest reading). */
+export async function truckHours(id: string) {
+  const [row] = await useTestDb().select({ hourMeter: tables.truckStatus.hourMeter }).from(tables.truckStatus).where(sql`${tables.truckStatus.truckId} = ${id}`)
+  return row?.hourMeter ?? null
 }
 
 /** A tag code for a fixture row, from the same gap-free counter the server uses. */
@@ -29,6 +42,7 @@ export async function pastCharge(o: { siteId: string, userId: string, batteryId:
     at: hoursAgo(o.endedHoursAgo + 8), endedAt: hoursAgo(o.endedHoursAgo), endedBy: o.userId,
     ampHoursReturned: 500, endTempF: o.endTempF ?? 100, equalize: o.equalize ?? false, outcome: o.outcome ?? 'complete',
   }).returning()
+  await refreshReadModels(o.siteId, [{ kind: 'battery', id: o.batteryId }])
   return row!
 }
 
@@ -37,6 +51,7 @@ export async function openCharge(o: { siteId: string, userId: string, batteryId:
   const [row] = await useTestDb().insert(tables.chargeSessions).values({
     siteId: o.siteId, userId: o.userId, batteryId: o.batteryId, chargerId: o.chargerId, at: hoursAgo(o.startedHoursAgo),
   }).returning()
+  await refreshReadModels(o.siteId, [{ kind: 'battery', id: o.batteryId }])
   return row!
 }
 
@@ -57,6 +72,11 @@ export async function qualify(userId: string, expiresOn = '2099-12-31') {
   await useTestDb().insert(tables.qualifications).values({ userId, kind: 'battery_changing', trainedOn: '2025-01-06', expiresOn })
 }
 
-export async function putInTruck(batteryId: string, truckId: string) {
-  await useTestDb().update(tables.batteries).set({ currentTruckId: truckId }).where(sql`${tables.batteries.id} = ${batteryId}`)
+/** The battery fitted in the truck, as a swap record an hour ago (where a battery is comes from the swaps). */
+export async function putInTruck(batteryId: string, truckId: string, userId?: string) {
+  const db = useTestDb()
+  const [b] = await db.select({ siteId: tables.batteries.siteId }).from(tables.batteries).where(sql`${tables.batteries.id} = ${batteryId}`)
+  const by = userId ?? (await db.select({ id: tables.users.id }).from(tables.users).limit(1))[0]?.id
+  await db.insert(tables.batterySwaps).values({ siteId: b!.siteId, userId: by!, at: hoursAgo(1), truckId, batteryInId: batteryId, hourMeter: null })
+  await refreshReadModels(b!.siteId, [{ kind: 'battery', id: batteryId }, { kind: 'truck', id: truckId }])
 }

@@ -8,6 +8,9 @@ import {
   areaCreateSchema, batteryCreateSchema, chargerCreateSchema, cylinderCreateSchema, truckCreateSchema,
 } from '../../shared/utils/asset-schemas'
 import type { Role } from '../../shared/types/auth'
+import { sql } from 'drizzle-orm'
+import { recomputeSubjects, type SubjectRef } from '../../server/utils/due/rules'
+import { rebuildReadModels } from '../../server/utils/due/rebuild'
 
 export const tables = schema
 export type TestDb = PostgresJsDatabase<typeof schema>
@@ -111,6 +114,21 @@ export const areaInput = (over: Record<string, unknown> = {}) => ({
 })
 
 // Rows written straight to the database (no tag code, no audit row): the world a test starts from.
+// Whatever a fixture writes, it recomputes the read models of (as the app's write path does), so the
+// Bay board, the due list and the tag page see it.
+
+/** The read models of these subjects, recomputed from their records (and the site's cached views dropped). */
+export async function refreshReadModels(siteId: string, subjects: SubjectRef[]) {
+  await useTestDb().transaction(async (tx) => {
+    await recomputeSubjects(tx, siteId, subjects)
+    await tx.execute(sql`SELECT site_revisions_touch(ARRAY[${siteId}]::uuid[])`)
+  })
+}
+
+/** Every read model of the site from scratch (`npm run rebuild-state` for one site). */
+export function rebuildSite(siteId: string) {
+  return rebuildReadModels(useTestDb(), { siteIds: [siteId] })
+}
 
 export async function organization(over: Partial<typeof tables.organizations.$inferInsert> = {}) {
   const [row] = await useTestDb().insert(tables.organizations).values({ name: uniqueName('Org'), ...over }).returning()
@@ -128,6 +146,7 @@ export async function area(over: { siteId: string } & Record<string, unknown>) {
   const { siteId, ...rest } = over
   const values = areaCreateSchema.parse(areaInput(rest))
   const [row] = await useTestDb().insert(tables.areas).values({ ...values, siteId }).returning()
+  await refreshReadModels(siteId, [{ kind: 'area', id: row!.id }])
   return row!
 }
 
@@ -156,6 +175,7 @@ export async function user(over: UserFixture = {}) {
   const memberships = [...(over.siteId ? [{ siteId: over.siteId, roles: over.roles ?? ['operator' as Role] }] : []), ...(over.memberships ?? [])]
   const values = memberships.flatMap(m => m.roles.map(role => ({ userId: row!.id, siteId: m.siteId, role })))
   if (values.length) await db.insert(tables.memberships).values(values)
+  for (const m of memberships) if (m.roles.includes('operator')) await refreshReadModels(m.siteId, [{ kind: 'person', id: row!.id }])
   return { ...row!, password }
 }
 
@@ -163,6 +183,8 @@ export async function truck(over: { siteId: string } & Record<string, unknown>) 
   const { siteId, ...rest } = over
   const values = truckCreateSchema.parse(truckInput(rest))
   const [row] = await useTestDb().insert(tables.trucks).values({ ...values, siteId }).returning()
+  const areas = await useTestDb().select({ id: tables.areas.id }).from(tables.areas).where(sql`${tables.areas.siteId} = ${siteId}`)
+  await refreshReadModels(siteId, [{ kind: 'truck', id: row!.id }, ...areas.map(a => ({ kind: 'area' as const, id: a.id }))])
   return row!
 }
 
@@ -170,6 +192,7 @@ export async function battery(over: { siteId: string } & Record<string, unknown>
   const { siteId, ...rest } = over
   const values = batteryCreateSchema.parse(batteryInput(rest))
   const [row] = await useTestDb().insert(tables.batteries).values({ ...values, siteId }).returning()
+  await refreshReadModels(siteId, [{ kind: 'battery', id: row!.id }])
   return row!
 }
 
@@ -179,6 +202,7 @@ export async function charger(over: { siteId: string, areaId?: string } & Record
   const inArea = areaId ?? (await area({ siteId, kind: 'charging_area' })).id
   const values = chargerCreateSchema.parse(chargerInput(inArea, rest))
   const [row] = await useTestDb().insert(tables.chargers).values({ ...values, siteId }).returning()
+  await refreshReadModels(siteId, [{ kind: 'charger', id: row!.id }])
   return row!
 }
 
@@ -186,5 +210,6 @@ export async function cylinder(over: { siteId: string } & Record<string, unknown
   const { siteId, ...rest } = over
   const values = cylinderCreateSchema.parse(cylinderInput(rest))
   const [row] = await useTestDb().insert(tables.lpCylinders).values({ ...values, siteId }).returning()
+  await refreshReadModels(siteId, [{ kind: 'cylinder', id: row!.id }])
   return row!
 }

@@ -1,7 +1,7 @@
 import { randomUUID } from 'node:crypto'
 import { and, eq } from 'drizzle-orm'
 import type { Role } from '../../shared/types/auth'
-import { area, battery, charger, tables, truck, user, useTestDb } from './db'
+import { area, battery, charger, refreshReadModels, tables, truck, user, useTestDb } from './db'
 import { signIn, qs, type Client } from './http'
 
 // Fixtures for the due list, area logs, mail and calendar tests.
@@ -31,6 +31,7 @@ export async function endedCharges(siteId: string, batteryId: string, chargerId:
     siteId, userId, batteryId, chargerId, at: new Date(now - (h + 8) * 3_600_000), endedAt: new Date(now - h * 3_600_000), endedBy: userId,
     outcome: 'complete' as const, equalize, ampHoursReturned: 400, endTempF: 95, countedCycle: true,
   })))
+  await refreshReadModels(siteId, [{ kind: 'battery', id: batteryId }])
 }
 
 /** A flooded battery registered long enough ago that its day caps have passed. */
@@ -38,11 +39,14 @@ export async function oldBattery(siteId: string, daysAgo = 60, over: Record<stri
   const b = await battery({ siteId, ...over })
   const createdAt = new Date(Date.now() - daysAgo * 86_400_000)
   await useTestDb().update(tables.batteries).set({ createdAt }).where(eq(tables.batteries.id, b.id))
+  await refreshReadModels(siteId, [{ kind: 'battery', id: b.id }])
   return { ...b, createdAt }
 }
 
 export async function registeredDaysAgo(table: typeof tables.areas | typeof tables.trucks | typeof tables.chargers, id: string, daysAgo: number) {
-  await useTestDb().update(table).set({ createdAt: new Date(Date.now() - daysAgo * 86_400_000) }).where(eq(table.id, id))
+  const [row] = await useTestDb().update(table).set({ createdAt: new Date(Date.now() - daysAgo * 86_400_000) }).where(eq(table.id, id)).returning({ siteId: table.siteId })
+  const kind = table === tables.areas ? 'area' : table === tables.trucks ? 'truck' : 'charger'
+  await refreshReadModels(row!.siteId, [{ kind, id }])
 }
 
 export interface DueReply {

@@ -4,8 +4,9 @@ import { url } from '@nuxt/test-utils/e2e'
 import { eq } from 'drizzle-orm'
 import { PREFILL_INSPECTION_ITEMS } from '../../shared/utils/lp-gas'
 import type { Role } from '../../shared/types/auth'
-import { area, cylinder, tables, truck, user, useTestDb } from './db'
+import { area, cylinder, refreshReadModels, tables, truck, user, useTestDb } from './db'
 import { signIn, type Client, type Reply } from './http'
+import { s3Keys } from './s3'
 
 const rootDir = fileURLToPath(new URL('../..', import.meta.url))
 
@@ -46,6 +47,7 @@ export async function freshCylinder(siteId: string, over: Record<string, unknown
   if (over.status) extra.status = over.status as typeof row.status
   if (over.currentTruckId) extra.currentTruckId = over.currentTruckId as string
   if (Object.keys(extra).length) await useTestDb().update(tables.lpCylinders).set(extra).where(eq(tables.lpCylinders.id, row.id))
+  if (Object.keys(extra).length) await refreshReadModels(siteId, [{ kind: 'cylinder', id: row.id }])
   return { ...row, ...extra }
 }
 
@@ -62,8 +64,9 @@ export async function uploadsAt(siteId: string) {
   return useTestDb().select().from(tables.uploads).where(eq(tables.uploads.siteId, siteId))
 }
 
-/** Files the server wrote for a site under the default local upload folder. */
-export function storedFilesAt(siteId: string): string[] {
+/** Files the server wrote for a site: in the local upload folder, or in the bucket when the tests run against S3. */
+export async function storedFilesAt(siteId: string): Promise<string[]> {
+  if (process.env.NUXT_UPLOADS_DRIVER === 's3') return s3Keys(`${siteId}/`)
   const dir = `${rootDir}.data/uploads/${siteId}`
   return existsSync(dir) ? readdirSync(dir) : []
 }

@@ -6,7 +6,7 @@ import postgres from 'postgres'
 const root = fileURLToPath(new URL('../..', import.meta.url))
 
 // Refuses anything but a `_test` database, applies the migrations and empties every application
-// table once per run, then checks that the built server the e2e files start is there.
+// table (and the job queue) once per run, then checks that the built server the e2e files start is there.
 export default async function prepareTestDatabase() {
   const url = process.env.NUXT_DATABASE_URL
   if (!url) throw new Error('NUXT_DATABASE_URL is not set. Run `npm test`, or set it to postgres://bayward@127.0.0.1:54329/bayward_test.')
@@ -24,9 +24,11 @@ export default async function prepareTestDatabase() {
   // Both the e2e and browser projects list this file; the database is emptied only once per run.
   if (process.env.BAYWARD_TEST_DB_PREPARED === database) return
 
-  execFileSync('node', ['scripts/migrate.mjs'], { cwd: root, env: process.env, stdio: 'inherit' })
   const sql = postgres(url, { max: 1, onnotice: () => {} })
   try {
+    // the job queue's schema goes too; migrate.mjs puts it back empty
+    await sql`DROP SCHEMA IF EXISTS pgboss CASCADE`
+    execFileSync('node', ['scripts/migrate.mjs'], { cwd: root, env: process.env, stdio: 'inherit' })
     const rows = await sql<{ name: string }[]>`
       SELECT quote_ident(tablename) AS name FROM pg_tables
       WHERE schemaname = 'public' AND tablename NOT LIKE '%drizzle_migrations'`

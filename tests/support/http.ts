@@ -36,25 +36,48 @@ export interface Client {
   post: <T = any>(path: string, body?: Body) => Promise<Reply<T>> // eslint-disable-line @typescript-eslint/no-explicit-any
   patch: <T = any>(path: string, body?: Body) => Promise<Reply<T>> // eslint-disable-line @typescript-eslint/no-explicit-any
   put: <T = any>(path: string, body?: Body) => Promise<Reply<T>> // eslint-disable-line @typescript-eslint/no-explicit-any
+  delete: <T = any>(path: string) => Promise<Reply<T>> // eslint-disable-line @typescript-eslint/no-explicit-any
   /** the session cookie as sent (`bayward-session=…`), or null */
   readonly cookie: string | null
+  /** the same browser (same cookies) talking to another server, e.g. `http://127.0.0.1:<port>` */
+  at: (base: string) => Client
 }
 
-function sessionFrom(headers: Headers): string | null | undefined {
+// What a browser keeps: the session cookie (copied between clients by some tests) and any other cookie
+// the server set, until its Max-Age runs out.
+interface Jar {
+  session: string | null
+  others: Map<string, { value: string, until: number }>
+}
+
+function keep(jar: Jar, headers: Headers) {
   for (const line of headers.getSetCookie()) {
-    const [pair] = line.split(';')
+    const [pair, ...attributes] = line.split(';')
     const eq = pair!.indexOf('=')
-    if (pair!.slice(0, eq).trim() !== SESSION_COOKIE) continue
+    const name = pair!.slice(0, eq).trim()
     const value = pair!.slice(eq + 1).trim()
-    return value ? `${SESSION_COOKIE}=${value}` : null
+    if (name === SESSION_COOKIE) {
+      jar.session = value ? `${SESSION_COOKIE}=${value}` : null
+      continue
+    }
+    const maxAge = attributes.map(a => /^\s*max-age=(-?\d+)/i.exec(a)?.[1]).find(Boolean)
+    const until = maxAge === undefined ? Number.POSITIVE_INFINITY : Date.now() + Number(maxAge) * 1000
+    if (!value || until <= Date.now()) jar.others.delete(name)
+    else jar.others.set(name, { value, until })
   }
-  return undefined
+}
+
+function cookieHeader(jar: Jar): string {
+  const now = Date.now()
+  const others = [...jar.others].filter(([, c]) => c.until > now).map(([name, c]) => `${name}=${c.value}`)
+  return [jar.session, ...others].filter(Boolean).join('; ')
 }
 
 // @nuxt/test-utils holds the server's address only while a test runs (its afterEach drops it), so the
 // address seen first is kept for requests made from a later describe's beforeAll.
 let serverBase: string | undefined
-function target(path: string): string {
+function target(path: string, base?: string): string {
+  if (base) return new URL(path, base).toString()
   try {
     serverBase ??= url('/')
     return url(path)
@@ -74,28 +97,26 @@ function lastServerLines(): string {
   }
 }
 
-/** A client that keeps the session cookie the server sets, like a browser would. Never throws on a status. */
-export function client(cookie: string | null = null): Client {
-  let jar = cookie
+function clientOn(jar: Jar, base?: string): Client {
   async function send(method: string, path: string, body?: Body): Promise<Reply> {
     const headers: Record<string, string> = { accept: 'application/json' }
-    if (jar) headers.cookie = jar
+    const cookie = cookieHeader(jar)
+    if (cookie) headers.cookie = cookie
     if (body !== undefined) headers['content-type'] = 'application/json'
-    const res = await fetch(target(path), {
+    const res = await fetch(target(path, base), {
       method,
       headers,
       body: body === undefined ? undefined : typeof body === 'string' ? body : JSON.stringify(body),
       redirect: 'manual',
     })
-    const next = sessionFrom(res.headers)
-    if (next !== undefined) jar = next
+    keep(jar, res.headers)
     const text = await res.text()
     let parsed: unknown = text
     try {
       parsed = text ? JSON.parse(text) : null
     }
     catch { /* not JSON: keep the text */ }
-    if (res.status >= 500) console.error(`${method} ${path} → ${res.status}\n${lastServerLines()}`)
+    if (res.status >= 500) console.error(`${method} ${path} → ${res.status}\n${base ? '' : lastServerLines()}`)
     return { status: res.status, body: parsed, headers: res.headers }
   }
   return {
@@ -103,13 +124,20 @@ export function client(cookie: string | null = null): Client {
     post: (path, body) => send('POST', path, body ?? {}),
     patch: (path, body) => send('PATCH', path, body ?? {}),
     put: (path, body) => send('PUT', path, body ?? {}),
-    get cookie() { return jar },
+    delete: path => send('DELETE', path),
+    get cookie() { return jar.session },
+    at: other => clientOn(jar, other),
   }
 }
 
+/** A client that keeps the cookies the server sets, like a browser would. Never throws on a status. */
+export function client(cookie: string | null = null, base?: string): Client {
+  return clientOn({ session: cookie, others: new Map() }, base)
+}
+
 /** Signs in through POST /api/auth/sign-in; a failed sign-in here is a broken fixture, so it throws. */
-export async function signIn(who: { email: string, password: string }): Promise<Client> {
-  const c = client()
+export async function signIn(who: { email: string, password: string }, base?: string): Promise<Client> {
+  const c = client(null, base)
   const res = await c.post('/api/auth/sign-in', { email: who.email, password: who.password })
   if (res.status !== 200 || !c.cookie) throw new Error(`sign-in as ${who.email} answered ${res.status}: ${JSON.stringify(res.body)}`)
   return c

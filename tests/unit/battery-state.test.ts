@@ -1,41 +1,27 @@
 import { describe, it, expect } from 'vitest'
-import {
-  BATTERY_STATES,
-  BATTERY_STATE_LABELS,
-  DEFAULT_BATTERY_CARE_POLICY,
-  DEFAULT_COOL_DOWN_MINUTES,
-  batteryFlags,
-  deriveBatteryState,
-} from '../../shared/utils/battery-state'
-import type { BatteryCareFacts, BatteryStateFacts } from '../../shared/utils/battery-state'
+import { BATTERY_STATES, BATTERY_STATE_LABELS, DEFAULT_COOL_DOWN_MINUTES, batteryStateAt } from '../../shared/utils/battery-state'
+import { batteryObligations, batteryStatusFrom, type BatteryFacts } from '../../shared/utils/derived-battery'
+import { defaultSchedules } from '../../shared/utils/due-schedules'
+import { obligationStateAt } from '../../shared/utils/due-rules'
 
 const at = (iso: string) => new Date(iso)
-const policy = { coolDownMinutes: DEFAULT_COOL_DOWN_MINUTES }
+const policy = { coolDownMinutes: DEFAULT_COOL_DOWN_MINUTES, cellSpreadThreshold: 0.02, maxChargeTempF: 115 }
+const TZ = 'America/Chicago'
 
-// Removed from a truck at 06:00, charged 06:30–14:00, complete.
-function facts(overrides: Partial<BatteryStateFacts> = {}): BatteryStateFacts {
+// Removed from a truck at 06:00, charged 06:30–14:00 (complete), registered long before.
+function facts(over: Partial<BatteryFacts> = {}): BatteryFacts {
   return {
-    outOfService: false,
-    installedInTruck: false,
-    chargeOpenSince: null,
-    lastChargeEndedAt: at('2025-03-03T14:00:00Z'),
-    lastChargeComplete: true,
-    lastRemovedFromTruckAt: at('2025-03-03T06:00:00Z'),
-    ...overrides,
+    id: 'b1', siteId: 's1', serial: 'BAT-1', tagCode: 'B-00001', homeAreaId: null, chemistry: 'flooded_lead_acid', outOfService: false,
+    createdAt: at('2025-01-01T12:00:00Z'), inServiceOn: null, heldAt: null, openCharge: null,
+    lastEndedCharge: { endedAt: at('2025-03-03T14:00:00Z'), outcome: 'complete', endTempF: 100 },
+    cycles: 0, lastIn: { at: at('2025-03-02T06:00:00Z'), truckId: 't1' }, lastOut: at('2025-03-03T06:00:00Z'), displaced: false,
+    lastWateredAt: null, lastEqualizedAt: null, chargeEnds: [], lastSg: null, lastCellCheck: null, completions: [],
+    ...over,
   }
 }
-
-function care(overrides: Partial<BatteryCareFacts> = {}): BatteryCareFacts {
-  return {
-    chargesSinceWatering: 0,
-    daysSinceWatering: 0,
-    chargesSinceEqualize: 0,
-    daysSinceEqualize: 0,
-    lastSpread: null,
-    lowCellCount: null,
-    lastEndTempF: null,
-    ...overrides,
-  }
+const stateOf = (f: BatteryFacts, now: Date, p = policy) => {
+  const row = batteryStatusFrom(f, p)
+  return batteryStateAt(row.state, row.readyAt, now)
 }
 
 describe('battery state labels', () => {
@@ -46,109 +32,80 @@ describe('battery state labels', () => {
   })
 })
 
-describe('deriveBatteryState', () => {
+describe('battery status from its records', () => {
   it('default cool-down is 8 h: 8 h work / 8 h charge / 8 h cool [practice]', () => {
     expect(DEFAULT_COOL_DOWN_MINUTES).toBe(480)
   })
 
   it('out of service wins over everything', () => {
-    const result = deriveBatteryState(facts({ outOfService: true, installedInTruck: true, chargeOpenSince: at('2025-03-03T15:00:00Z') }), policy, at('2025-03-04T12:00:00Z'))
-    expect(result).toEqual({ state: 'out_of_service', coolingMinutesLeft: 0, readyAt: null })
+    const row = batteryStatusFrom(facts({ outOfService: true, heldAt: at('2025-03-03T15:00:00Z'), openCharge: { id: 'c1', at: at('2025-03-03T15:00:00Z'), chargerId: 'ch1' } }), policy)
+    expect(row).toMatchObject({ state: 'out_of_service', stateSince: at('2025-03-03T15:00:00Z'), readyAt: null })
   })
 
-  it('in truck comes before on charge', () => {
-    expect(deriveBatteryState(facts({ installedInTruck: true, chargeOpenSince: at('2025-03-03T15:00:00Z') }), policy, at('2025-03-03T16:00:00Z')).state).toBe('in_truck')
+  it('in a truck when its latest installation is later than its latest removal, and no other battery went in since', () => {
+    const fitted = facts({ lastIn: { at: at('2025-03-03T16:00:00Z'), truckId: 't2' } })
+    expect(batteryStatusFrom(fitted, policy)).toMatchObject({ state: 'in_truck', truckId: 't2', stateSince: at('2025-03-03T16:00:00Z') })
+    expect(batteryStatusFrom({ ...fitted, displaced: true }, policy)).toMatchObject({ state: 'charged', truckId: null })
   })
 
-  it('an open charge is on charge', () => {
-    expect(deriveBatteryState(facts({ chargeOpenSince: at('2025-03-03T15:00:00Z') }), policy, at('2025-03-03T16:00:00Z')).state).toBe('on_charge')
+  it('an open charge is on charge, on that charger', () => {
+    const row = batteryStatusFrom(facts({ openCharge: { id: 'c9', at: at('2025-03-03T15:00:00Z'), chargerId: 'ch1' } }), policy)
+    expect(row).toMatchObject({ state: 'on_charge', chargeSessionId: 'c9', chargerId: 'ch1' })
   })
 
-  it('cooling after a complete charge, with minutes left rounded up', () => {
-    const result = deriveBatteryState(facts(), policy, at('2025-03-03T20:24:30Z'))
-    expect(result.state).toBe('cooling')
-    expect(result.coolingMinutesLeft).toBe(96)
-    expect(result.readyAt).toEqual(at('2025-03-03T22:00:00Z'))
-  })
-
-  it('ready exactly at the end of the cool-down, cooling one millisecond before', () => {
-    const before = deriveBatteryState(facts(), policy, at('2025-03-03T21:59:59.999Z'))
-    expect(before).toEqual({ state: 'cooling', coolingMinutesLeft: 1, readyAt: at('2025-03-03T22:00:00Z') })
-    const onTime = deriveBatteryState(facts(), policy, at('2025-03-03T22:00:00Z'))
-    expect(onTime).toEqual({ state: 'ready', coolingMinutesLeft: 0, readyAt: at('2025-03-03T22:00:00Z') })
+  it('charged: Cooling with minutes left rounded up until ready-at, Ready exactly then (read time)', () => {
+    const row = batteryStatusFrom(facts(), policy)
+    expect(row).toMatchObject({ state: 'charged', readyAt: at('2025-03-03T22:00:00Z') })
+    expect(batteryStateAt(row.state, row.readyAt, at('2025-03-03T20:30:30Z'))).toEqual({ state: 'cooling', coolingMinutesLeft: 90, readyAt: at('2025-03-03T22:00:00Z') })
+    expect(batteryStateAt(row.state, row.readyAt, at('2025-03-03T21:59:59.999Z')).state).toBe('cooling')
+    expect(batteryStateAt(row.state, row.readyAt, at('2025-03-03T22:00:00Z')).state).toBe('ready')
   })
 
   it('the cool-down is a site setting', () => {
-    const short = { coolDownMinutes: 60 }
-    expect(deriveBatteryState(facts(), short, at('2025-03-03T14:59:00Z')).state).toBe('cooling')
-    expect(deriveBatteryState(facts(), short, at('2025-03-03T15:00:00Z')).state).toBe('ready')
-    expect(deriveBatteryState(facts(), { coolDownMinutes: 0 }, at('2025-03-03T14:00:00Z')).state).toBe('ready')
-    expect(() => deriveBatteryState(facts(), { coolDownMinutes: -5 }, at('2025-03-03T14:00:00Z'))).toThrow(RangeError)
+    expect(stateOf(facts(), at('2025-03-03T15:30:00Z'), { ...policy, coolDownMinutes: 60 }).state).toBe('ready')
   })
 
-  it('an interrupted charge needs a charge', () => {
-    expect(deriveBatteryState(facts({ lastChargeComplete: false }), policy, at('2025-03-04T06:00:00Z')))
-      .toEqual({ state: 'needs_charge', coolingMinutesLeft: 0, readyAt: null })
+  it('an interrupted charge, or one that ended before the battery last left a truck, needs a charge', () => {
+    expect(stateOf(facts({ lastEndedCharge: { endedAt: at('2025-03-03T14:00:00Z'), outcome: 'interrupted', endTempF: 100 } }), at('2025-03-04T12:00:00Z')).state).toBe('needs_charge')
+    expect(stateOf(facts({ lastOut: at('2025-03-03T15:00:00Z') }), at('2025-03-04T12:00:00Z')).state).toBe('needs_charge')
+    expect(stateOf(facts({ lastEndedCharge: null, lastIn: null, lastOut: null }), at('2025-03-04T12:00:00Z')).state).toBe('needs_charge')
   })
 
-  it('a charge that ended before the battery last left a truck needs a charge', () => {
-    const removedAfter = facts({ lastRemovedFromTruckAt: at('2025-03-04T06:00:00Z') })
-    expect(deriveBatteryState(removedAfter, policy, at('2025-03-04T07:00:00Z')).state).toBe('needs_charge')
-  })
-
-  it('never charged needs a charge; charged but never in a truck cools then is ready', () => {
-    expect(deriveBatteryState(facts({ lastChargeEndedAt: null }), policy, at('2025-03-04T07:00:00Z')).state).toBe('needs_charge')
-    expect(deriveBatteryState(facts({ lastRemovedFromTruckAt: null }), policy, at('2025-03-04T07:00:00Z')).state).toBe('ready')
+  it('counts charges since watering and equalize; a weak cell from a spread over 0.020 [practice] or any low cell; ran hot above 115 °F [mem]', () => {
+    const ends = ['2025-03-01T10:00:00Z', '2025-03-02T10:00:00Z', '2025-03-03T14:00:00Z'].map(at)
+    const row = batteryStatusFrom(facts({
+      chargeEnds: ends, lastWateredAt: at('2025-03-01T12:00:00Z'), lastEqualizedAt: null,
+      lastCellCheck: { at: at('2025-03-01T12:00:00Z'), spread: 0.025, lowCellCount: 0 },
+      lastEndedCharge: { endedAt: ends[2]!, outcome: 'complete', endTempF: 116 },
+    }), policy)
+    expect(row).toMatchObject({ chargesSinceWatering: 2, chargesSinceEqualize: 3, weakCell: true, ranHot: true, lastSpread: 0.025 })
+    expect(batteryStatusFrom(facts({ lastCellCheck: { at: ends[0]!, spread: 0.02, lowCellCount: 0 } }), policy).weakCell).toBe(false)
+    expect(batteryStatusFrom(facts({ lastCellCheck: { at: ends[0]!, spread: 0.01, lowCellCount: 1 } }), policy).weakCell).toBe(true)
   })
 })
 
-describe('batteryFlags', () => {
-  it('defaults: equalize every 5th cycle or weekly [practice]; 115 °F end of charge [mem]; 0.020 spread [practice]', () => {
-    expect(DEFAULT_BATTERY_CARE_POLICY.equalizeEveryCharges).toBe(5)
-    expect(DEFAULT_BATTERY_CARE_POLICY.equalizeEveryDays).toBe(7)
-    expect(DEFAULT_BATTERY_CARE_POLICY.maxChargeTempF).toBe(115)
-    expect(DEFAULT_BATTERY_CARE_POLICY.maxCellSpread).toBe(0.020)
+describe('watering: one rule for the Bay board and the due list', () => {
+  const schedules = defaultSchedules()
+  // five charges since watering (every 5 charges or 7 days, common practice), the fifth ending on 3 March (Chicago)
+  const ends = ['2025-03-01T02:00:00Z', '2025-03-01T20:00:00Z', '2025-03-02T10:00:00Z', '2025-03-02T22:00:00Z', '2025-03-03T16:00:00Z'].map(at)
+  const watering = (f: BatteryFacts) => batteryObligations(f, schedules, TZ).find(o => o.kind === 'battery_watering')!
+
+  it('falls due the day the fifth charge ends: Due soon that day, Overdue from the next', () => {
+    const o = watering(facts({ lastWateredAt: at('2025-02-28T18:00:00Z'), chargeEnds: ends }))
+    expect(o).toMatchObject({ dueOn: '2025-03-03', dueAtCount: 5, countNow: 5, lastDoneOn: '2025-02-28', detail: '5 of 5 charges since watering' })
+    expect(obligationStateAt(o, '2025-03-03')).toBe('due_soon')
+    expect(obligationStateAt(o, '2025-03-04')).toBe('overdue')
   })
 
-  it('a freshly watered, equalized, healthy battery raises no flag', () => {
-    expect(batteryFlags(care({ lastSpread: 0.012, lowCellCount: 0, lastEndTempF: 104 }))).toEqual({
-      wateringDue: false,
-      wateringOverdue: false,
-      equalizeDue: false,
-      weakCell: false,
-      ranHot: false,
-    })
+  it('or 7 days after the last watering, whichever comes first', () => {
+    const o = watering(facts({ lastWateredAt: at('2025-02-28T18:00:00Z'), chargeEnds: ends.slice(0, 2) }))
+    expect(o).toMatchObject({ dueOn: '2025-03-07', countNow: 2 })
+    expect(obligationStateAt(o, '2025-03-05')).toBe('upcoming')
+    expect(obligationStateAt(o, '2025-03-06')).toBe('due_soon')
   })
 
-  it('watering due at the interval in charges or days, overdue one past it', () => {
-    expect(batteryFlags(care({ chargesSinceWatering: 4 }))).toMatchObject({ wateringDue: false, wateringOverdue: false })
-    expect(batteryFlags(care({ chargesSinceWatering: 5 }))).toMatchObject({ wateringDue: true, wateringOverdue: false })
-    expect(batteryFlags(care({ chargesSinceWatering: 6 }))).toMatchObject({ wateringDue: true, wateringOverdue: true })
-    expect(batteryFlags(care({ daysSinceWatering: 7 }))).toMatchObject({ wateringDue: true, wateringOverdue: false })
-    expect(batteryFlags(care({ daysSinceWatering: 8 }))).toMatchObject({ wateringDue: true, wateringOverdue: true })
-  })
-
-  it('equalize due every 5th cycle or weekly, whichever first [practice]', () => {
-    expect(batteryFlags(care({ chargesSinceEqualize: 4, daysSinceEqualize: 6.9 })).equalizeDue).toBe(false)
-    expect(batteryFlags(care({ chargesSinceEqualize: 5 })).equalizeDue).toBe(true)
-    expect(batteryFlags(care({ daysSinceEqualize: 7 })).equalizeDue).toBe(true)
-  })
-
-  it('weak cell from a spread over 0.020 [practice] or any low cell', () => {
-    expect(batteryFlags(care({ lastSpread: 0.020 })).weakCell).toBe(false)
-    expect(batteryFlags(care({ lastSpread: 0.021 })).weakCell).toBe(true)
-    expect(batteryFlags(care({ lastSpread: 0.015, lowCellCount: 1 })).weakCell).toBe(true)
-  })
-
-  it('ran hot above 115 °F [mem: keep under about 110–115 °F during charge]', () => {
-    expect(batteryFlags(care({ lastEndTempF: 115 })).ranHot).toBe(false)
-    expect(batteryFlags(care({ lastEndTempF: 116 })).ranHot).toBe(true)
-    expect(batteryFlags(care({ lastEndTempF: 112 }), { ...DEFAULT_BATTERY_CARE_POLICY, maxChargeTempF: 110 }).ranHot).toBe(true)
-  })
-
-  it('takes its intervals from the site policy', () => {
-    const site = { ...DEFAULT_BATTERY_CARE_POLICY, wateringEveryCharges: 10, wateringGraceCharges: 3 }
-    expect(batteryFlags(care({ chargesSinceWatering: 12 }), site)).toMatchObject({ wateringDue: true, wateringOverdue: false })
-    expect(batteryFlags(care({ chargesSinceWatering: 13 }), site)).toMatchObject({ wateringDue: true, wateringOverdue: true })
+  it('sealed batteries and batteries out of service owe no watering', () => {
+    expect(batteryObligations(facts({ chemistry: 'agm' }), schedules, TZ).map(o => o.kind)).toEqual([])
+    expect(batteryObligations(facts({ outOfService: true }), schedules, TZ)).toEqual([])
   })
 })

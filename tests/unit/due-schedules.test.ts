@@ -1,18 +1,18 @@
 import { describe, it, expect } from 'vitest'
 import {
-  DUE_KINDS, defaultSchedules, effectiveSchedules, nextDueOn, obligationActionPath, obligationStateFor,
+  BUILT_IN_DUE_KINDS, defaultSchedules, effectiveSchedules, obligationActionPath,
   type ScheduleDefinition, type StoredSchedule,
 } from '../../shared/utils/due-schedules'
-import { defaultSiteSettings } from '../../shared/utils/site-settings'
+import { nextDueOn, obligationStateFor } from '../../shared/utils/due-rules'
 import { firstRequalificationDue, nextRequalificationDue } from '../../shared/utils/requalification'
 import { localDate, monthlyAtMost31Days } from '../../shared/utils/due-dates'
 
-const defaults = defaultSchedules(defaultSiteSettings())
+const defaults = defaultSchedules()
 const schedule = (kind: ScheduleDefinition['kind'], over: Partial<ScheduleDefinition> = {}) => ({ ...defaults.find(s => s.kind === kind)!, ...over })
 
 describe('default schedules and their sources', () => {
-  it('every obligation kind has one default with a source', () => {
-    expect(defaults.map(s => s.kind).sort()).toEqual([...DUE_KINDS].sort())
+  it('every built-in obligation kind has one default with a source', () => {
+    expect(defaults.map(s => s.kind).sort()).toEqual([...BUILT_IN_DUE_KINDS].sort())
     for (const s of defaults) expect(s.source.length).toBeGreaterThan(10)
   })
 
@@ -32,22 +32,40 @@ describe('default schedules and their sources', () => {
     expect(schedule('cylinder_requalification').source).toContain('49 CFR 180.209')
   })
 
-  it('watering and equalize follow the site settings: every 5 charges or 7 days (common practice)', () => {
+  it('watering and equalize: every 5 charges or 7 days (common practice); a site row changes them, not its settings', () => {
     expect(schedule('battery_watering')).toMatchObject({ rule: 'charges', every: 5, withinDays: 7 })
-    const s = defaultSchedules({ ...defaultSiteSettings(), wateringEveryCharges: 3, wateringEveryDays: 4 }).find(x => x.kind === 'battery_watering')
-    expect(s).toMatchObject({ every: 3, withinDays: 4 })
+    expect(schedule('battery_equalize')).toMatchObject({ rule: 'charges', every: 5, withinDays: 7 })
+    const row: StoredSchedule = { ...stored(schedule('battery_watering')), every: 3, withinDays: 4, rule: 'days' }
+    expect(effectiveSchedules(defaults, [row]).find(x => x.kind === 'battery_watering')).toMatchObject({ rule: 'charges', every: 3, withinDays: 4, id: 'row-1' })
+  })
+
+  it('the emissions test is due yearly and 30 days after a failed test unless the site says otherwise', () => {
+    expect(schedule('emissions_test')).toMatchObject({ every: 1, everyUnit: 'year', afterFailDays: 30 })
+    const row: StoredSchedule = { ...stored(schedule('emissions_test')), every: 6, everyUnit: 'month', afterFailDays: 14 }
+    expect(effectiveSchedules(defaults, [row]).find(x => x.kind === 'emissions_test')).toMatchObject({ every: 6, everyUnit: 'month', afterFailDays: 14 })
+  })
+
+  it('schedules a lead added follow the built-in ones, each with its subject kind', () => {
+    const added: StoredSchedule = { ...stored(schedule('eyewash_activation')), id: 'row-9', kind: 'custom', title: 'Eyewash yearly inspection', subjectKind: 'area', every: 1, everyUnit: 'year' }
+    const merged = effectiveSchedules(defaults, [added])
+    expect(merged.at(-1)).toMatchObject({ kind: 'custom', id: 'row-9', subjectKind: 'area', rule: 'days', every: 1, everyUnit: 'year' })
+    expect(merged.length).toBe(defaults.length + 1)
   })
 
   it('a site row replaces the default of its kind; a date rule stays a date rule', () => {
-    const stored: StoredSchedule[] = [
-      { ...schedule('eyewash_activation'), every: 2, dueSoonDays: 0, responsibleRole: 'safety_lead' },
-      { ...schedule('cylinder_requalification'), rule: 'days' },
+    const rows: StoredSchedule[] = [
+      { ...stored(schedule('eyewash_activation')), every: 2, dueSoonDays: 0, responsibleRole: 'safety_lead' },
+      { ...stored(schedule('cylinder_requalification')), rule: 'days' },
     ]
-    const merged = effectiveSchedules(defaults, stored)
+    const merged = effectiveSchedules(defaults, rows)
     expect(merged.find(s => s.kind === 'eyewash_activation')).toMatchObject({ every: 2, responsibleRole: 'safety_lead' })
     expect(merged.find(s => s.kind === 'cylinder_requalification')!.rule).toBe('date_rule')
     expect(merged.find(s => s.kind === 'area_checklist')).toEqual(schedule('area_checklist'))
   })
+
+  function stored(s: ScheduleDefinition): StoredSchedule {
+    return { ...s, id: 'row-1', subjectKind: null, createdAt: null }
+  }
 })
 
 describe('next due date for each rule kind', () => {

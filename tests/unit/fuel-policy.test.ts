@@ -13,6 +13,8 @@ import {
 import { defaultSiteSettings } from '../../shared/utils/site-settings'
 import { DEFAULT_REQUALIFICATION_YEARS } from '../../shared/utils/requalification'
 import { assessEmissionsTest, nextEmissionsDue } from '../../shared/utils/emissions'
+import { defaultSchedules } from '../../shared/utils/due-schedules'
+import { emissionsNextDue } from '../../shared/utils/derived-subjects'
 import { PROPANE_LB_PER_GAL_60F, fillLimitLb, maxFillingDensityPercent } from '../../shared/utils/lp-gas'
 
 function stamp(over: Partial<CylinderRequalificationStamp> = {}): CylinderRequalificationStamp {
@@ -52,15 +54,18 @@ describe('site requalification table (49 CFR 180.209)', () => {
 })
 
 describe('site emissions policy (Minnesota Rules 5205.0116: 1 % LP-gas, 2 % gasoline)', () => {
-  it('carries the site caps and retest window into the test verdict', () => {
+  it('carries the site caps into the test verdict; the intervals are the emissions schedule\'s', () => {
     const policy = emissionsPolicyFromSettings(defaultSiteSettings())
     expect(policy.maxCoPercentLp).toBe(1)
     expect(policy.maxCoPercentGasoline).toBe(2)
-    expect(policy.retestDays).toBe(30)
-    expect(policy.intervalMonths).toBe(12)
-    const stricter = emissionsPolicyFromSettings({ ...defaultSiteSettings(), emissionsMaxCoPctLp: 0.5, emissionsRetestDays: 14 })
+    const stricter = emissionsPolicyFromSettings({ ...defaultSiteSettings(), emissionsMaxCoPctLp: 0.5 })
     expect(assessEmissionsTest({ fuel: 'lp_gas', coIdlePercent: 0.6, coHighIdlePercent: 0.4 }, stricter).pass).toBe(false)
-    expect(nextEmissionsDue('2026-05-14', false, stricter)).toBe('2026-05-28')
+    const schedule = defaultSchedules().find(s => s.kind === 'emissions_test')!
+    // the schedule's defaults give what the product policy gives: a year on, 30 days after a fail
+    expect(emissionsNextDue('2026-05-14', true, schedule)).toBe(nextEmissionsDue('2026-05-14', true))
+    expect(emissionsNextDue('2026-05-14', false, schedule)).toBe(nextEmissionsDue('2026-05-14', false))
+    expect(emissionsNextDue('2026-05-14', false, { ...schedule, afterFailDays: 14 })).toBe('2026-05-28')
+    expect(emissionsNextDue('2026-05-14', true, { ...schedule, every: 6, everyUnit: 'month' })).toBe('2026-11-14')
   })
 })
 

@@ -1,6 +1,5 @@
 import { describe, expect, it } from 'vitest'
 import { DUE_KINDS, defaultSchedules } from '../../shared/utils/due-schedules'
-import { defaultSiteSettings } from '../../shared/utils/site-settings'
 import { dueSoonWords, groupSchedules, scheduleCountUnit, scheduleGroupOf, scheduleIntervalWords } from '../../shared/utils/schedule-words'
 
 // The expected strings are our wording for the schedule editor; no outside source is involved.
@@ -33,8 +32,8 @@ describe('schedule interval in words', () => {
     expect(scheduleIntervalWords({ rule: 'days', every: null, everyUnit: 'day', withinDays: null })).toBe('no interval set')
   })
 
-  it('the default battery watering reads from the site settings', () => {
-    const watering = defaultSchedules(defaultSiteSettings()).find(s => s.kind === 'battery_watering')!
+  it('the default battery watering in words', () => {
+    const watering = defaultSchedules().find(s => s.kind === 'battery_watering')!
     expect(scheduleIntervalWords(watering)).toBe(`every ${watering.every} charges or ${watering.withinDays} days`)
   })
 })
@@ -55,22 +54,24 @@ describe('due-soon window and count units in words', () => {
 })
 
 describe('schedules grouped by subject', () => {
-  it('every kind has a group; logs and follow-ups go with areas', () => {
-    for (const kind of DUE_KINDS) expect(scheduleGroupOf(kind)).toBeTruthy()
-    expect(scheduleGroupOf('battery_watering')).toBe('battery')
-    expect(scheduleGroupOf('charger_inspection')).toBe('charger')
-    expect(scheduleGroupOf('emissions_test')).toBe('truck')
-    expect(scheduleGroupOf('cylinder_requalification')).toBe('cylinder')
-    expect(scheduleGroupOf('log_review')).toBe('area')
-    expect(scheduleGroupOf('follow_up')).toBe('area')
-    expect(scheduleGroupOf('operator_evaluation')).toBe('person')
+  it('every kind has a group; logs and follow-ups go with areas; one a lead added goes with its subject', () => {
+    for (const kind of DUE_KINDS) expect(scheduleGroupOf({ kind })).toBeTruthy()
+    expect(scheduleGroupOf({ kind: 'battery_watering' })).toBe('battery')
+    expect(scheduleGroupOf({ kind: 'charger_inspection' })).toBe('charger')
+    expect(scheduleGroupOf({ kind: 'emissions_test' })).toBe('truck')
+    expect(scheduleGroupOf({ kind: 'cylinder_requalification' })).toBe('cylinder')
+    expect(scheduleGroupOf({ kind: 'log_review' })).toBe('area')
+    expect(scheduleGroupOf({ kind: 'follow_up' })).toBe('area')
+    expect(scheduleGroupOf({ kind: 'operator_evaluation' })).toBe('person')
+    expect(scheduleGroupOf({ kind: 'custom', subjectKind: 'charger' })).toBe('charger')
+    expect(scheduleGroupOf({ kind: 'custom', subjectKind: 'site' })).toBe('area')
   })
 
   it('groups come in a fixed order, keep the given order inside and leave out empty groups', () => {
-    const groups = groupSchedules(defaultSchedules(defaultSiteSettings()))
+    const groups = groupSchedules(defaultSchedules())
     expect(groups.map(g => g.label)).toEqual(['Batteries', 'Chargers', 'Trucks', 'LP cylinders', 'Areas and logs', 'People'])
     expect(groups[0]!.items.map(s => s.kind)).toEqual(['battery_watering', 'battery_equalize', 'electrolyte_full_check'])
-    expect(groups.flatMap(g => g.items).length).toBe(DUE_KINDS.length)
+    expect(groups.flatMap(g => g.items).length).toBe(DUE_KINDS.length - 1)
     expect(groupSchedules([{ kind: 'co_monitoring' as const }]).map(g => g.key)).toEqual(['area'])
   })
 })

@@ -1,2 +1,2 @@
 // One area the user can see, with their roles at its site.
-export default defineEventHandler(event => getAsset(event, 'area'))
+export default defineAbilityHandler('site.member', event => getAsset(event, 'area'))

@@ -1,2 +1,2 @@
 // The areas list as filtered, as CSV (same query as the list, no paging).
-export default defineEventHandler(event => exportAssets(event, 'area'))
+export default defineAbilityHandler('site.member', event => exportAssets(event, 'area'))

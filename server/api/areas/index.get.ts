@@ -1,2 +1,2 @@
 // List areas at a site: paged, sorted, filtered (?siteId=&page=&sort=&dir=&q=&<filter>=).
-export default defineEventHandler(event => listAssets(event, 'area'))
+export default defineAbilityHandler('site.member', event => listAssets(event, 'area'))

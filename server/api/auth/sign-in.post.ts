@@ -5,20 +5,18 @@ import { signInSchema } from '#shared/utils/auth-schemas'
 let decoyHash: Promise<string> | undefined
 const VAGUE = 'That e-mail and password do not match an active account.'
 
-// Sign in with e-mail and password; rate-limited per e-mail and per address.
-export default defineEventHandler(async (event) => {
+// Sign in with e-mail and password. The attempt is counted (per e-mail and per address) before the
+// password is checked, so parallel guesses cannot get past the limit; a success no longer counts.
+export default defineAbilityHandler('auth.sign-in', async (event) => {
   const body = await validateBody(event, signInSchema)
   const keys = signInKeys(event, body.email)
-  if (await tooManyFailures(keys)) {
-    throw createError({ statusCode: 429, message: 'Too many tries. Wait 15 minutes, or ask an admin to check your account.' })
-  }
+  const attempt = await claimAttempt(keys, signInLimit())
+  if (!attempt) throw createError({ statusCode: 429, message: TOO_MANY_TRIES })
   const [user] = await useDb().select().from(tables.users).where(eq(sql`lower(${tables.users.email})`, body.email))
   decoyHash ??= hashPassword(crypto.randomUUID())
   const ok = await verifyPassword(user?.passwordHash ?? await decoyHash, body.password)
-  if (!user || !ok || !user.active) {
-    await recordFailure(keys)
-    throw createError({ statusCode: 401, message: VAGUE })
-  }
+  if (!user || !ok || !user.active) throw createError({ statusCode: 401, message: VAGUE })
+  await releaseAttempt(attempt)
   await clearFailures(keys)
   await startSession(event, user)
   const actor = await requireActor(event)

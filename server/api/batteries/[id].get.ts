@@ -1,2 +1,2 @@
 // One battery the user can see, with their roles at its site.
-export default defineEventHandler(event => getAsset(event, 'battery'))
+export default defineAbilityHandler('site.member', event => getAsset(event, 'battery'))

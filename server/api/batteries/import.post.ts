@@ -1,2 +1,2 @@
 // CSV import of batteries: dry run lists every bad row; a real run writes all or none (leads, admins).
-export default defineEventHandler(event => importAssets(event, 'battery'))
+export default defineAbilityHandler('asset.edit', event => importAssets(event, 'battery'))

@@ -1,2 +1,2 @@
 // Create a battery (leads and admins); issues its tag code in the same transaction.
-export default defineEventHandler(event => createAsset(event, 'battery'))
+export default defineAbilityHandler('asset.edit', event => createAsset(event, 'battery'))

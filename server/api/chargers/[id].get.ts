@@ -1,2 +1,2 @@
 // One charger the user can see, with their roles at its site.
-export default defineEventHandler(event => getAsset(event, 'charger'))
+export default defineAbilityHandler('site.member', event => getAsset(event, 'charger'))

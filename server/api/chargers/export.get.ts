@@ -1,2 +1,2 @@
 // The chargers list as filtered, as CSV (same query as the list, no paging).
-export default defineEventHandler(event => exportAssets(event, 'charger'))
+export default defineAbilityHandler('site.member', event => exportAssets(event, 'charger'))

@@ -1,2 +1,2 @@
 // List chargers at a site: paged, sorted, filtered (?siteId=&page=&sort=&dir=&q=&<filter>=).
-export default defineEventHandler(event => listAssets(event, 'charger'))
+export default defineAbilityHandler('site.member', event => listAssets(event, 'charger'))

@@ -1,2 +1,2 @@
 // Create a charger (leads and admins); issues its tag code in the same transaction.
-export default defineEventHandler(event => createAsset(event, 'charger'))
+export default defineAbilityHandler('asset.edit', event => createAsset(event, 'charger'))

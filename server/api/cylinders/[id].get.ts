@@ -1,2 +1,2 @@
 // One cylinder the user can see, with their roles at its site.
-export default defineEventHandler(event => getAsset(event, 'cylinder'))
+export default defineAbilityHandler('site.member', event => getAsset(event, 'cylinder'))

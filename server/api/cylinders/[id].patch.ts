@@ -1,2 +1,2 @@
 // Edit a cylinder (leads and admins); the change is written to the audit log.
-export default defineEventHandler(event => updateAsset(event, 'cylinder'))
+export default defineAbilityHandler('asset.edit', event => updateAsset(event, 'cylinder'))

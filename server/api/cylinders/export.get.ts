@@ -1,2 +1,2 @@
 // The cylinders list as filtered, as CSV (same query as the list, no paging).
-export default defineEventHandler(event => exportAssets(event, 'cylinder'))
+export default defineAbilityHandler('site.member', event => exportAssets(event, 'cylinder'))

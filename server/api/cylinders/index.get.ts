@@ -1,2 +1,2 @@
 // List cylinders at a site: paged, sorted, filtered (?siteId=&page=&sort=&dir=&q=&<filter>=).
-export default defineEventHandler(event => listAssets(event, 'cylinder'))
+export default defineAbilityHandler('site.member', event => listAssets(event, 'cylinder'))

@@ -1,10 +1,10 @@
-import { dueQuerySchema } from '#shared/utils/due-schedules'
+import { dueQuerySchema } from '#shared/utils/schedule-schemas'
 
 // The due list of a site: the caller's roles by default; a lead may ask for any role, or all.
 // ?state=overdue,due_soon&kind=…&sort=due|kind|subject|role&limit= (the first 200 by default; `total` says how many)
-export default defineEventHandler(async (event) => {
+export default defineAbilityHandler('site.member', async (event) => {
   const query = validateQuery(event, dueQuerySchema)
-  const actor = await requireSiteRole(event, query.siteId)
+  const actor = await requireAbility(event, 'site.member', query.siteId)
   const scope = dueScopeFor(actor, query.siteId, query.role)
   return cachedDueListJson(event, actor, query.siteId, dueOptionsFrom(query, scope))
 })

@@ -2,9 +2,9 @@ import { coQuerySchema } from '#shared/utils/fuel-schemas'
 
 // Indoor CO by area and day for the last N days: the readings, the 8-hour TWA and how it compares
 // with the limits (safety leads, technicians, facilities leads, admins).
-export default defineEventHandler(async (event) => {
+export default defineAbilityHandler('co.view', async (event) => {
   const { siteId, areaId, days } = validateQuery(event, coQuerySchema)
-  await requireSiteRole(event, siteId, CO_VIEW_ROLES)
+  await requireAbility(event, 'co.view', siteId)
   const db = useDb()
   const facts = await fuelSiteFacts(db, siteId)
   const from = addCalendarInterval(facts.today, -(days - 1), 'day')

@@ -4,17 +4,16 @@ const QuerySchema = z.object({ siteId: z.uuid('Pick a site.').optional() })
 
 // The facilities view of tailpipe tests: every combustion truck by site, overdue, failed and awaiting
 // retest, due within 30 / 60 / 90 days (facilities leads, safety leads, admins; one site or all theirs).
-export default defineEventHandler(async (event) => {
+export default defineAbilityHandler('emissions.view', async (event) => {
   const { siteId } = validateQuery(event, QuerySchema)
   let siteIds: string[]
   if (siteId) {
-    await requireSiteRole(event, siteId, EMISSIONS_VIEW_ROLES)
+    await requireAbility(event, 'emissions.view', siteId)
     siteIds = [siteId]
   }
   else {
-    const actor = await requireActor(event)
-    siteIds = actor.memberships.filter(m => m.roles.some(r => EMISSIONS_VIEW_ROLES.includes(r))).map(m => m.siteId)
-    if (siteIds.length === 0) throw createError({ statusCode: 403, message: 'Facilities leads, safety leads and admins see the emissions view.' })
+    siteIds = sitesWhere(await requireActor(event), 'emissions.view')
+    if (siteIds.length === 0) throw createError({ statusCode: 403, message: refusalFor('emissions.view') })
   }
   return { ...(await emissionsOverview(siteIds)), source: EMISSIONS_POLICY_SOURCE }
 })

@@ -1,9 +1,9 @@
 import { fuelSiteQuerySchema } from '#shared/utils/fuel-schemas'
 
 // The site's LP-gas trucks with the cylinder each carries, for the cylinder change form.
-export default defineEventHandler(async (event) => {
+export default defineAbilityHandler('cylinder.exchange', async (event) => {
   const { siteId } = validateQuery(event, fuelSiteQuerySchema)
-  await requireSiteRole(event, siteId, EXCHANGE_ROLES)
+  await requireAbility(event, 'cylinder.exchange', siteId)
   const t = tables.trucks
   const items = await useDb().select({
     id: t.id, fleetNumber: t.fleetNumber, model: t.model, outOfService: t.outOfService,

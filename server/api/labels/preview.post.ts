@@ -1,9 +1,9 @@
 import { labelSelectionSchema } from '#shared/utils/label-schemas'
 
 // The labels a selection covers, for the browser's print sheet (leads and admins).
-export default defineEventHandler(async (event) => {
+export default defineAbilityHandler('label.print', async (event) => {
   const body = await validateBody(event, labelSelectionSchema)
-  await requireSiteRole(event, body.siteId, ['facilities_lead', 'safety_lead', 'admin'])
+  await requireAbility(event, 'label.print', body.siteId)
   const items = await selectLabelItems(body)
   return { items: items.slice(0, 1000), total: items.length, baseUrl: useRuntimeConfig().public.baseUrl }
 })

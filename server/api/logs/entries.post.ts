@@ -1,9 +1,9 @@
 import { logEntriesSchema } from '#shared/utils/area-checklists'
 
 // Technicians (and leads) fill in an area's checklist; a signed log answers 409.
-export default defineEventHandler(async (event): Promise<LogEntriesAnswer> => {
+export default defineAbilityHandler('log.record', async (event): Promise<LogEntriesAnswer> => {
   const body = await validateBody(event, logEntriesSchema)
-  const actor = await requireSiteRole(event, body.siteId, LOG_RECORD_ROLES)
+  const actor = await requireAbility(event, 'log.record', body.siteId)
   const site = await loadDueSite(useDb(), body.siteId)
   let result: Awaited<ReturnType<typeof recordLogEntries>>
   try {

@@ -2,9 +2,9 @@ import { AREA_LOG_CAUTIONS, logViewQuerySchema, weekStartOf } from '#shared/util
 
 // An area's log for a day or a week: the checklist, the entries that stand with their corrections,
 // who signed it, and what the caller may do.
-export default defineEventHandler(async (event) => {
+export default defineAbilityHandler('log.view', async (event) => {
   const query = validateQuery(event, logViewQuerySchema)
-  const actor = await requireSiteRole(event, query.siteId, LOG_VIEW_ROLES)
+  const actor = await requireAbility(event, 'log.view', query.siteId)
   const db = useDb()
   const area = await areaAtSite(db, query.siteId, query.areaId)
   const site = await loadDueSite(db, query.siteId)
@@ -22,7 +22,7 @@ export default defineEventHandler(async (event) => {
     cadence: query.cadence,
     days,
     cautions: AREA_LOG_CAUTIONS[area.kind],
-    canRecord: hasRole(actor, query.siteId, LOG_RECORD_ROLES),
-    canSign: hasRole(actor, query.siteId, LOG_SIGN_ROLES),
+    canRecord: actorCan(actor, 'log.record', query.siteId),
+    canSign: actorCan(actor, 'log.sign', query.siteId),
   }
 })

@@ -1,9 +1,9 @@
 import { logRangeQuerySchema } from '#shared/utils/area-checklists'
 
 // The audit report: every area (or one) and every day in a range, with entries, corrections and signatures.
-export default defineEventHandler(async (event) => {
+export default defineAbilityHandler('log.view', async (event) => {
   const query = validateQuery(event, logRangeQuerySchema)
-  await requireSiteRole(event, query.siteId, LOG_VIEW_ROLES)
+  await requireAbility(event, 'log.view', query.siteId)
   const db = useDb()
   const site = await loadDueSite(db, query.siteId)
   const areas = query.areaId

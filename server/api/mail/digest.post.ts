@@ -3,8 +3,8 @@ import { z } from 'zod'
 const BodySchema = z.object({ siteId: z.uuid() })
 
 // Admins send the site's daily digest now (it is also sent once a day at the site's digest hour).
-export default defineEventHandler(async (event) => {
+export default defineAbilityHandler('mail.manage', async (event) => {
   const { siteId } = await validateBody(event, BodySchema)
-  await requireSiteRole(event, siteId, ['admin'])
+  await requireAbility(event, 'mail.manage', siteId)
   return sendDigests({ siteIds: [siteId], force: true })
 })

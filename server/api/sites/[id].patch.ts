@@ -1,10 +1,10 @@
 import { siteUpdateSchema } from '#shared/utils/admin-schemas'
 
 // Edit a site's name, zone, units and policy settings (admins of that site). Only the keys sent change.
-export default defineEventHandler(async (event) => {
+export default defineAbilityHandler('site.edit', async (event) => {
   const { id } = validateParams(event, idParamsSchema)
   const { settings: settingsPatch, ...fields } = await validateBody(event, siteUpdateSchema)
-  const actor = await requireSiteRole(event, id, ['admin'])
+  const actor = await requireAbility(event, 'site.edit', id)
   return useDb().transaction(async (tx) => {
     const [before] = await tx.select().from(tables.sites).where(eq(tables.sites.id, id)).for('update')
     if (!before) throw createError({ statusCode: 404, message: 'No such site.' })
@@ -14,6 +14,8 @@ export default defineEventHandler(async (event) => {
     }
     const [site] = await tx.update(tables.sites).set({ ...fields, settings: settings.data }).where(eq(tables.sites.id, id)).returning()
     await writeAudit(tx, { actor, siteId: id, action: 'update', entity: 'site', entityId: id, before, after: site })
+    // cool-down, thresholds, requalification years, time zone: every read model of the site follows
+    await rebuildSiteReadModels(tx, id)
     return { item: site }
   })
 })

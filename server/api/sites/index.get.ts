@@ -1,6 +1,6 @@
 // The sites the user belongs to, with their settings and areas.
-export default defineEventHandler(async (event) => {
-  const actor = await requireActor(event)
+export default defineAbilityHandler('account.self', async (event) => {
+  const actor = await requireAbility(event, 'account.self')
   if (actor.siteIds.length === 0) return { items: [] }
   const rows = await useDb().query.sites.findMany({
     where: inArray(tables.sites.id, actor.siteIds),

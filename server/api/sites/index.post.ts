@@ -1,11 +1,10 @@
 import { siteCreateSchema } from '#shared/utils/admin-schemas'
 
 // Create a site in the admin's organisation; the creating admin becomes its admin.
-export default defineEventHandler(async (event) => {
+export default defineAbilityHandler('site.create', async (event) => {
   const body = await validateBody(event, siteCreateSchema)
-  const actor = await requireActor(event)
-  const adminSites = actor.memberships.filter(m => m.roles.includes('admin')).map(m => m.siteId)
-  if (adminSites.length === 0) throw createError({ statusCode: 403, message: 'Only admins create sites.' })
+  const actor = await requireAbility(event, 'site.create')
+  const adminSites = sitesWhere(actor, 'site.create')
   const db = useDb()
   const [anchor] = await db.select({ organizationId: tables.sites.organizationId }).from(tables.sites).where(eq(tables.sites.id, adminSites[0]!))
   try {

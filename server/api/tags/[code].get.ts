@@ -4,7 +4,7 @@ const ParamsSchema = z.object({ code: z.string().min(1).max(200) })
 
 // What a scanned tag opens: the asset, its state in words, what is due, the user's roles. The last events
 // come from the history route, so the state and actions answer first.
-export default defineEventHandler(async (event) => {
+export default defineAbilityHandler('site.member', async (event) => {
   const { code } = validateParams(event, ParamsSchema)
   const { actor, view } = await tagViewForActor(event, code, async () => {
     const { tag, kind, row, liveCode } = await resolveTagForActor(event, code)

@@ -1,2 +1,2 @@
 // One truck the user can see, with their roles at its site.
-export default defineEventHandler(event => getAsset(event, 'truck'))
+export default defineAbilityHandler('site.member', event => getAsset(event, 'truck'))

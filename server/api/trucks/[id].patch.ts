@@ -1,2 +1,2 @@
 // Edit a truck (leads and admins); the change is written to the audit log.
-export default defineEventHandler(event => updateAsset(event, 'truck'))
+export default defineAbilityHandler('asset.edit', event => updateAsset(event, 'truck'))

@@ -1,2 +1,2 @@
 // The trucks list as filtered, as CSV (same query as the list, no paging).
-export default defineEventHandler(event => exportAssets(event, 'truck'))
+export default defineAbilityHandler('site.member', event => exportAssets(event, 'truck'))

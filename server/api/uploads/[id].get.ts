@@ -1,9 +1,9 @@
 // An uploaded file, for signed-in users of its site only (others get 404). Sent with its checked type,
 // nosniff and a sanitised name; ?download=1 saves it instead of showing it.
-export default defineEventHandler(async (event) => {
+export default defineAbilityHandler('site.member', async (event) => {
   const { id } = validateParams(event, idParamsSchema)
   const { upload } = await findUploadForActor(event, id)
-  const bytes = await useStorage('uploads').getItemRaw<Buffer>(upload.storageKey)
+  const bytes = await readStoredFile(upload.storageKey)
   if (!bytes) throw createError({ statusCode: 404, message: 'The file is missing from storage.' })
   const disposition = getQuery(event).download === '1' ? 'attachment' : 'inline'
   const ascii = upload.displayName.replace(/[^\x20-\x7E]/g, '_').replace(/["\\]/g, '_')

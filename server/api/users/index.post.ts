@@ -1,9 +1,9 @@
 import { userCreateSchema } from '#shared/utils/admin-schemas'
 
 // Create a user with roles at one site (admins of that site).
-export default defineEventHandler(async (event) => {
+export default defineAbilityHandler('user.manage', async (event) => {
   const body = await validateBody(event, userCreateSchema)
-  const actor = await requireSiteRole(event, body.siteId, ['admin'])
+  const actor = await requireAbility(event, 'user.manage', body.siteId)
   const passwordHash = await hashPassword(body.password)
   try {
     return await useDb().transaction(async (tx) => {

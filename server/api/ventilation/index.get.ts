@@ -1,4 +1,3 @@
-import type { Role } from '#shared/types/auth'
 import { z } from 'zod'
 import { AID_DISCLAIMER } from '#shared/utils/disclaimer'
 import { HYDROGEN_LFL_FRACTION, VENTILATION_SCOPE_CAUTION } from '#shared/utils/ventilation'
@@ -24,13 +23,11 @@ interface VentRow {
   chemistry: string | null
 }
 
-const VIEW_ROLES: Role[] = ['safety_lead', 'facilities_lead', 'admin']
-
 // The ventilation check of a charging area: every in-service charger gassing at once, each with the
 // largest battery it charged in the last 90 days (or its rated maximum), against the installed exhaust.
-export default defineEventHandler(async (event) => {
+export default defineAbilityHandler('report.view', async (event) => {
   const query = validateQuery(event, QuerySchema)
-  await requireSiteRole(event, query.siteId, VIEW_ROLES)
+  await requireAbility(event, 'report.view', query.siteId)
   const db = useDb()
   const area = await areaAtSite(db, query.siteId, query.areaId)
   if (area.kind !== 'charging_area') throw createError({ statusCode: 400, message: 'The ventilation check is for charging areas.', data: { fields: { areaId: 'Pick a charging area.' } } })

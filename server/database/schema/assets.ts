@@ -29,6 +29,7 @@ export const trucks = pgTable('trucks', {
   maxBatteryWeightLb: doublePrecision(),
   connector: text(),
   allowedChemistries: batteryChemistryEnum().array().notNull().default(sql`'{}'`),
+  /** the hour meter as registered (or last set by hand); the current reading is truck_status.hour_meter */
   hourMeter: doublePrecision().notNull().default(0),
 }, t => [
   uniqueIndex().on(t.siteId, t.fleetNumber),
@@ -54,16 +55,11 @@ export const batteries = pgTable('batteries', {
   manufacturedOn: date(),
   inServiceOn: date(),
   ratedCycles: integer().notNull().default(1500),
-  // Projections kept by the battery-room routes from the event records, in the same transaction.
-  cycleCount: integer().notNull().default(0),
-  currentTruckId: uuid().references(() => trucks.id),
 }, t => [
   uniqueIndex().on(t.siteId, t.serial),
   index().on(t.siteId, t.chemistry),
   index().on(t.siteId, t.voltage),
   index().on(t.homeAreaId),
-  // A battery is in at most one truck, and a truck holds at most one battery.
-  uniqueIndex('batteries_one_per_truck').on(t.currentTruckId).where(sql`${t.currentTruckId} IS NOT NULL`),
 ])
 
 export const chargers = pgTable('chargers', {

@@ -3,7 +3,7 @@ import { sql } from 'drizzle-orm'
 import { assetKindEnum, chargeOutcomeEnum, electrolyteLevelEnum, holdActionEnum, readingScopeEnum } from './enums'
 import { users } from './core'
 import { batteries, chargers, trucks } from './assets'
-import { eventBase } from './event-base'
+import { correctionReason, eventBase } from './event-base'
 
 export const batterySwaps = pgTable('battery_swaps', {
   ...eventBase(),
@@ -14,6 +14,7 @@ export const batterySwaps = pgTable('battery_swaps', {
   overrideReason: text(),
   overriddenChecks: jsonb().$type<{ code: string, message: string }[]>(),
   correctsId: uuid().references((): AnyPgColumn => batterySwaps.id),
+  correctionReason: correctionReason(),
 }, t => [
   index().on(t.siteId, t.at),
   index().on(t.truckId, t.at),
@@ -41,6 +42,7 @@ export const chargeSessions = pgTable('charge_sessions', {
   ranHot: boolean().notNull().default(false),
   overrideReason: text(),
   correctsId: uuid().references((): AnyPgColumn => chargeSessions.id),
+  correctionReason: correctionReason(),
 }, t => [
   index().on(t.siteId, t.at),
   index().on(t.batteryId, t.at),
@@ -68,6 +70,7 @@ export const electrolyteChecks = pgTable('electrolyte_checks', {
   stateOfChargePct: doublePrecision(),
   afterCharge: boolean().notNull().default(false),
   correctsId: uuid().references((): AnyPgColumn => electrolyteChecks.id),
+  correctionReason: correctionReason(),
 }, t => [
   index().on(t.siteId, t.at),
   index().on(t.batteryId, t.at),

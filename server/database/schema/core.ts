@@ -74,6 +74,15 @@ export const signInFailures = pgTable('sign_in_failures', {
   at: timestamp({ withTimezone: true }).notNull().defaultNow(),
 }, t => [index().on(t.key, t.at)])
 
+// One row per sign-in; the sealed cookie carries its id. Signing out (or a new password) sets revoked_at,
+// and the actor statement that every request runs refuses a cookie whose row is revoked or gone.
+export const userSessions = pgTable('user_sessions', {
+  id: id(),
+  userId: uuid().notNull().references(() => users.id),
+  createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  revokedAt: timestamp({ withTimezone: true }),
+}, t => [index().on(t.userId, t.createdAt)])
+
 // Links to set a new password: only the SHA-256 of the token is kept; each works once, until expires_at.
 export const passwordResets = pgTable('password_resets', {
   id: id(),

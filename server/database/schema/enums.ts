@@ -1,6 +1,7 @@
 import { pgEnum } from 'drizzle-orm/pg-core'
+import { ROLES } from '../../../shared/types/auth'
 
-export const roleEnum = pgEnum('role', ['operator', 'technician', 'facilities_lead', 'safety_lead', 'admin'])
+export const roleEnum = pgEnum('role', ROLES)
 export const areaKindEnum = pgEnum('area_kind', ['charging_area', 'fuel_station'])
 export const unitSystemEnum = pgEnum('unit_system', ['us', 'metric'])
 export const qualificationKindEnum = pgEnum('qualification_kind', [

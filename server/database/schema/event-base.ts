@@ -14,3 +14,6 @@ export const eventBase = () => ({
   idempotencyKey: text(),
   note: text().notNull().default(''),
 })
+
+/** Why a correction row replaces the row its correctsId names (null on an original record). */
+export const correctionReason = () => text()

@@ -4,7 +4,7 @@ import { requalMethodEnum } from './enums'
 import { areas } from './core'
 import { lpCylinders, trucks } from './assets'
 import { uploads } from './logs'
-import { eventBase } from './event-base'
+import { correctionReason, eventBase } from './event-base'
 
 // A refill attempt, kept whether it was filled or refused (refusals are part of the record).
 export const cylinderRefills = pgTable('cylinder_refills', {
@@ -23,6 +23,7 @@ export const cylinderRefills = pgTable('cylinder_refills', {
   gallonsAt60F: doublePrecision(),
   tareFlagged: boolean().notNull().default(false),
   correctsId: uuid().references((): AnyPgColumn => cylinderRefills.id),
+  correctionReason: correctionReason(),
 }, t => [
   index().on(t.siteId, t.at),
   index().on(t.cylinderId, t.at),
@@ -36,7 +37,10 @@ export const cylinderExchanges = pgTable('cylinder_exchanges', {
   truckId: uuid().notNull().references(() => trucks.id),
   cylinderOffId: uuid().references(() => lpCylinders.id),
   cylinderOnId: uuid().notNull().references(() => lpCylinders.id),
+  /** the truck's hour meter at the change, when read */
+  hourMeter: doublePrecision(),
   correctsId: uuid().references((): AnyPgColumn => cylinderExchanges.id),
+  correctionReason: correctionReason(),
 }, t => [
   index().on(t.siteId, t.at),
   index().on(t.truckId, t.at),
@@ -56,7 +60,9 @@ export const requalifications = pgTable('requalifications', {
   marking: text().notNull().default(''),
   passed: boolean().notNull(),
   nextDueOn: date(),
-}, t => [index().on(t.cylinderId, t.performedOn), index().on(t.siteId), index().on(t.userId)])
+  correctsId: uuid().references((): AnyPgColumn => requalifications.id),
+  correctionReason: correctionReason(),
+}, t => [index().on(t.cylinderId, t.performedOn), index().on(t.siteId), index().on(t.userId), index().on(t.correctsId)])
 
 export const emissionsTests = pgTable('emissions_tests', {
   ...eventBase(),
@@ -75,6 +81,7 @@ export const emissionsTests = pgTable('emissions_tests', {
   nextDueOn: date().notNull(),
   certificateUploadId: uuid().references(() => uploads.id),
   correctsId: uuid().references((): AnyPgColumn => emissionsTests.id),
+  correctionReason: correctionReason(),
 }, t => [index().on(t.truckId, t.testedOn), index().on(t.siteId, t.nextDueOn), index().on(t.userId), index().on(t.certificateUploadId), index().on(t.correctsId)])
 
 export const coReadings = pgTable('co_readings', {
@@ -83,4 +90,6 @@ export const coReadings = pgTable('co_readings', {
   takenOn: date().notNull(),
   ppm: doublePrecision().notNull(),
   durationHours: doublePrecision().notNull(),
-}, t => [index().on(t.areaId, t.takenOn), index().on(t.siteId, t.takenOn), index().on(t.userId)])
+  correctsId: uuid().references((): AnyPgColumn => coReadings.id),
+  correctionReason: correctionReason(),
+}, t => [index().on(t.areaId, t.takenOn), index().on(t.siteId, t.takenOn), index().on(t.userId), index().on(t.correctsId)])

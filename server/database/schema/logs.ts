@@ -1,4 +1,4 @@
-import { boolean, date, index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid, type AnyPgColumn } from 'drizzle-orm/pg-core'
+import { boolean, date, doublePrecision, index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid, type AnyPgColumn } from 'drizzle-orm/pg-core'
 import { sql } from 'drizzle-orm'
 import { areaKindEnum, assetKindEnum, checklistCadenceEnum, checkResultEnum, incidentKindEnum, mailStatusEnum, roleEnum, scheduleRuleEnum } from './enums'
 import { areas, sites, users } from './core'
@@ -19,24 +19,56 @@ export const uploads = pgTable('uploads', {
   createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
 }, t => [uniqueIndex().on(t.storageKey), index().on(t.siteId), index().on(t.userId)])
 
-// A recurring obligation rule per site: every N days, charges or hours, or a date rule.
+// A recurring obligation rule per site: every N days, charges or hours, or a date rule. One row per
+// built-in kind at most (the site's own values for it); any number of kind 'custom' (added by a lead).
 export const schedules = pgTable('schedules', {
   id: id(),
   siteId: uuid().notNull().references(() => sites.id),
   kind: text().notNull(),
   title: text().notNull(),
   appliesTo: text().notNull(),
+  /** what a lead-added schedule is about: area, charger, truck, battery, cylinder or site */
+  subjectKind: text(),
   rule: scheduleRuleEnum().notNull(),
   every: integer(),
   everyUnit: text(),
   // For count rules ("every 5 charges or 7 days"): the days cap, whichever comes first.
   withinDays: integer(),
+  // For the emissions test: due again this many days after a failed test.
+  afterFailDays: integer(),
   dueSoonDays: integer().notNull().default(7),
   responsibleRole: roleEnum().notNull(),
   source: text().notNull().default(''),
   active: boolean().notNull().default(true),
+  createdBy: uuid().references(() => users.id),
   ...timestamps,
-}, t => [uniqueIndex().on(t.siteId, t.kind), index().on(t.siteId, t.active)])
+}, t => [
+  uniqueIndex('schedules_site_id_kind_index').on(t.siteId, t.kind).where(sql`${t.kind} <> 'custom'`),
+  index().on(t.siteId, t.active),
+  index().on(t.createdBy),
+])
+
+// "Record it done" for a lead-added schedule: the day, a note, an optional certificate and, for a truck,
+// its hour meter then. Append-only like every event record.
+export const scheduleCompletions = pgTable('schedule_completions', {
+  ...eventBase(),
+  scheduleId: uuid().notNull().references(() => schedules.id),
+  subjectKind: text().notNull(),
+  subjectId: uuid().notNull(),
+  doneOn: date().notNull(),
+  hourMeter: doublePrecision(),
+  certificateUploadId: uuid().references(() => uploads.id),
+  correctsId: uuid().references((): AnyPgColumn => scheduleCompletions.id),
+  correctionReason: text(),
+}, t => [
+  index().on(t.scheduleId, t.subjectId, t.doneOn),
+  index().on(t.subjectId),
+  index().on(t.siteId, t.at),
+  uniqueIndex('schedule_completions_idem').on(t.idempotencyKey).where(sql`${t.idempotencyKey} IS NOT NULL`),
+  index().on(t.userId),
+  index().on(t.certificateUploadId),
+  index().on(t.correctsId),
+])
 
 export const checklistTemplates = pgTable('checklist_templates', {
   id: id(),
@@ -85,6 +117,9 @@ export const followUps = pgTable('follow_ups', {
   sourceId: uuid().notNull(),
   title: text().notNull(),
   ownerUserId: uuid().references(() => users.id),
+  /** the day of the failure or incident it follows; the follow-up schedule counts from here */
+  openedOn: date().notNull(),
+  /** a due date set on this follow-up itself; otherwise the schedule decides */
   dueOn: date(),
   closedAt: timestamp({ withTimezone: true }),
   closedBy: uuid().references(() => users.id),
@@ -112,6 +147,8 @@ export const mailMessages = pgTable('mail_messages', {
   subject: text().notNull(),
   body: text().notNull(),
   kind: text().notNull(),
+  /** a one-time secret (sealed) the body's link is rendered from at send time; dropped once sent */
+  linkSecret: text(),
   status: mailStatusEnum().notNull().default('queued'),
   attempts: integer().notNull().default(0),
   lastError: text(),

@@ -35,7 +35,6 @@ export const trucksRelations = relations(trucks, ({ one }) => ({
 export const batteriesRelations = relations(batteries, ({ one, many }) => ({
   site: one(sites, { fields: [batteries.siteId], references: [sites.id] }),
   homeArea: one(areas, { fields: [batteries.homeAreaId], references: [areas.id] }),
-  currentTruck: one(trucks, { fields: [batteries.currentTruckId], references: [trucks.id] }),
   chargeSessions: many(chargeSessions),
   electrolyteChecks: many(electrolyteChecks),
 }))

@@ -1,6 +1,6 @@
 // A user's due list as iCalendar, at a private URL: /calendar/<token>.ics. No session needed; an
 // unknown or revoked token answers 404.
-export default defineEventHandler(async (event) => {
+export default defineAbilityHandler('calendar.feed', async (event) => {
   const raw = Object.values(getRouterParams(event, { decode: true }))[0] ?? ''
   const token = raw.endsWith('.ics') ? raw.slice(0, -4) : raw
   const owner = event.path.split('?')[0]!.endsWith('.ics') ? await feedOwner(token) : null

@@ -1,7 +1,7 @@
 import { PASSWORD_LINK_INVALID, passwordLinkCompleteSchema } from '#shared/utils/auth-schemas'
 
 // Set a new password with the token from the e-mailed link. Every session signed in before stops working.
-export default defineEventHandler(async (event) => {
+export default defineAbilityHandler('auth.password-reset', async (event) => {
   const { token, password } = await validateBody(event, passwordLinkCompleteSchema)
   if (!await redeemPasswordLink(token, password)) {
     throw createError({ statusCode: 400, message: PASSWORD_LINK_INVALID, data: { fields: { token: PASSWORD_LINK_INVALID } } })

@@ -1,2 +1,2 @@
 // Put a battery out of service or back in service, with the reason (technicians, leads, admins).
-export default defineEventHandler(event => setAssetOutOfService(event, 'battery'))
+export default defineAbilityHandler('asset.hold', event => setAssetOutOfService(event, 'battery'))

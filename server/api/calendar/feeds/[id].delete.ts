@@ -1,7 +1,7 @@
 // Revoke one of the user's calendar feeds; its URL answers 404 from now on.
-export default defineEventHandler(async (event) => {
+export default defineAbilityHandler('account.self', async (event) => {
   const { id } = validateParams(event, idParamsSchema)
-  const actor = await requireActor(event)
+  const actor = await requireAbility(event, 'account.self')
   const f = tables.calendarFeeds
   return useDb().transaction(async (tx) => {
     const [found] = await tx.select().from(f).where(and(eq(f.id, id), eq(f.userId, actor.user.id)))

@@ -1,2 +1,2 @@
 // Put a cylinder out of service or back in service, with the reason (technicians, leads, admins).
-export default defineEventHandler(event => setAssetOutOfService(event, 'cylinder'))
+export default defineAbilityHandler('asset.hold', event => setAssetOutOfService(event, 'cylinder'))

@@ -3,13 +3,11 @@ import { refillSchema } from '#shared/utils/fuel-schemas'
 // Record a refill by weight (technicians and leads with a current LP-gas transfer qualification).
 // Filled: 201. Refused, and stored as refused: 409 when the cylinder's state forbids filling,
 // 422 when this fill failed its checks (inspection, overfill, tare loss), with data.reasons.
-export default defineEventHandler(async (event): Promise<RefillAnswer> => {
+export default defineAbilityHandler('refill.record', async (event): Promise<RefillAnswer> => {
   const { id } = validateParams(event, idParamsSchema)
   const body = await validateBody(event, refillSchema)
   const { actor, row } = await findAssetForActor(event, 'cylinder', id)
-  if (!hasRole(actor, row.siteId, REFILL_ROLES)) {
-    throw createError({ statusCode: 403, message: 'Refilling LP cylinders is for technicians and leads trained for LP-gas transfer.' })
-  }
+  requireActorCan(actor, 'refill.record', row.siteId)
   const facts = await fuelSiteFacts(useDb(), row.siteId)
   const refusal = lpTransferRefusal(await lpTransferStanding(useDb(), actor.user.id, facts.today))
   if (refusal) throw createError({ statusCode: 403, message: refusal, data: { reasons: [refusal] } })

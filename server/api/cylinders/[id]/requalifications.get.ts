@@ -1,5 +1,5 @@
 // A cylinder's requalification history with its markings, and when it is due next (anyone at its site).
-export default defineEventHandler(async (event) => {
+export default defineAbilityHandler('site.member', async (event) => {
   const { id } = validateParams(event, idParamsSchema)
   const { row } = await findAssetForActor(event, 'cylinder', id)
   const db = useDb()

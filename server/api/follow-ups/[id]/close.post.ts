@@ -1,19 +1,13 @@
 import { followUpCloseSchema } from '#shared/utils/area-checklists'
 
 // Close a follow-up with what was done: its owner, or a lead.
-export default defineEventHandler(async (event) => {
+export default defineAbilityHandler('followup.close', async (event) => {
   const { id } = validateParams(event, idParamsSchema)
   const body = await validateBody(event, followUpCloseSchema)
-  const actor = await requireActor(event)
+  const actor = await requireAbility(event, 'account.self')
   const f = tables.followUps
   const [found] = await useDb().select().from(f).where(and(eq(f.id, id), inArray(f.siteId, actor.siteIds.length ? actor.siteIds : ['00000000-0000-0000-0000-000000000000'])))
   if (!found) throw createError({ statusCode: 404, message: 'No such follow-up.' })
-  if (found.ownerUserId !== actor.user.id && !hasRole(actor, found.siteId, LEAD_ROLES)) throw createError({ statusCode: 403, message: 'Its owner or a lead closes a follow-up.' })
-  if (found.closedAt) throw createError({ statusCode: 409, message: 'This follow-up is closed already.' })
-  return useDb().transaction(async (tx) => {
-    const [row] = await tx.update(f).set({ closedAt: new Date(), closedBy: actor.user.id, closingNote: body.note }).where(and(eq(f.id, id), isNull(f.closedAt))).returning()
-    if (!row) throw createError({ statusCode: 409, message: 'This follow-up is closed already.' })
-    await writeAudit(tx, { actor, siteId: found.siteId, action: 'close', entity: 'follow_up', entityId: id, before: found, after: row })
-    return { item: row }
-  })
+  if (found.ownerUserId !== actor.user.id) requireActorCan(actor, 'followup.close', found.siteId)
+  return closeFollowUp(actor, found, body.note)
 })

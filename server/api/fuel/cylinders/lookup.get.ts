@@ -2,9 +2,9 @@ import { cylinderLookupQuerySchema } from '#shared/utils/fuel-schemas'
 
 // A scanned or typed cylinder code at the site, with what a refill or a cylinder change would meet:
 // its requalification date, the reasons it may not be filled or fitted, and the user's LP-gas standing.
-export default defineEventHandler(async (event): Promise<CylinderLookup> => {
+export default defineAbilityHandler('site.member', async (event): Promise<CylinderLookup> => {
   const { siteId, code } = validateQuery(event, cylinderLookupQuerySchema)
-  const actor = await requireSiteRole(event, siteId)
+  const actor = await requireAbility(event, 'site.member', siteId)
   const db = useDb()
   const cylinder = await findCylinderByCode(db, siteId, code)
   if (!cylinder) throw createError({ statusCode: 404, message: `No cylinder "${code}" at this site. Check the label and type it again.` })

@@ -5,7 +5,7 @@ const ParamsSchema = z.object({ kind: z.enum(ASSET_KINDS), id: z.uuid() })
 const QuerySchema = z.object({ limit: z.coerce.number().int().min(1).max(500).default(100) })
 
 // The asset's timeline: every edit and event, newest first, with who and when.
-export default defineEventHandler(async (event) => {
+export default defineAbilityHandler('site.member', async (event) => {
   const { kind, id } = validateParams(event, ParamsSchema)
   const { limit } = validateQuery(event, QuerySchema)
   await findAssetForActor(event, kind, id)

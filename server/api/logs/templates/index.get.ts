@@ -4,9 +4,9 @@ import { DEFAULT_CHECKLIST_ITEMS, DEFAULT_CHECKLIST_TITLES, type ChecklistAreaKi
 const QuerySchema = z.object({ siteId: z.uuid() })
 
 // The site's checklists in use (or the defaults a first log will start from), per area kind and cadence.
-export default defineEventHandler(async (event) => {
+export default defineAbilityHandler('log.view', async (event) => {
   const { siteId } = validateQuery(event, QuerySchema)
-  const actor = await requireSiteRole(event, siteId, LOG_VIEW_ROLES)
+  const actor = await requireAbility(event, 'log.view', siteId)
   const db = useDb()
   const items = []
   for (const areaKind of ['charging_area', 'fuel_station'] as ChecklistAreaKind[]) {
@@ -17,5 +17,5 @@ export default defineEventHandler(async (event) => {
         : { id: null, areaKind, cadence, title: DEFAULT_CHECKLIST_TITLES[areaKind][cadence], items: cadence === 'daily' ? [...DEFAULT_CHECKLIST_ITEMS[areaKind]] : [], version: 0, inUse: false })
     }
   }
-  return { items, canEdit: hasRole(actor, siteId, TEMPLATE_EDIT_ROLES) }
+  return { items, canEdit: actorCan(actor, 'checklist.edit', siteId) }
 })

@@ -4,7 +4,7 @@ const ParamsSchema = z.object({ code: z.string().min(1).max(200) })
 const QuerySchema = z.object({ format: z.enum(['svg', 'png']).default('svg') })
 
 // The QR symbol of a live tag (it encodes <public base URL>/t/<code>), as SVG or PNG.
-export default defineEventHandler(async (event) => {
+export default defineAbilityHandler('site.member', async (event) => {
   const { code } = validateParams(event, ParamsSchema)
   const { format } = validateQuery(event, QuerySchema)
   const { liveCode } = await resolveTagForActor(event, code)

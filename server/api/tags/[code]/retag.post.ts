@@ -5,13 +5,11 @@ const BodySchema = z.object({ reason: z.string().trim().min(3, 'Say why (label l
 
 // Re-tag an asset whose label is lost or damaged: the old code is retired (it still resolves and
 // says it was replaced) and a new one issued (leads and admins).
-export default defineEventHandler(async (event) => {
+export default defineAbilityHandler('tag.retag', async (event) => {
   const { code } = validateParams(event, ParamsSchema)
   const body = await validateBody(event, BodySchema)
   const { actor, tag, kind, row } = await resolveTagForActor(event, code)
-  if (!hasRole(actor, row.siteId, ['facilities_lead', 'safety_lead', 'admin'])) {
-    throw createError({ statusCode: 403, message: 'Only leads and admins re-tag assets.' })
-  }
+  requireActorCan(actor, 'tag.retag', row.siteId)
   if (tag.retiredAt) throw createError({ statusCode: 409, message: `${tag.code} was already replaced; re-tag its current code instead.` })
   return useDb().transaction(async (tx) => {
     const [retired] = await tx.update(tables.tags).set({ retiredAt: new Date() })
@@ -19,6 +17,7 @@ export default defineEventHandler(async (event) => {
     if (!retired) throw createError({ statusCode: 409, message: 'Someone re-tagged this asset at the same moment; reload.' })
     const newCode = await issueTag(tx, kind, row.id, row.siteId)
     await tx.update(tables.tags).set({ replacedByCode: newCode }).where(eq(tables.tags.id, tag.id))
+    await recomputeSubjects(tx, row.siteId, [{ kind, id: row.id }])
     await writeAudit(tx, { actor, siteId: row.siteId, action: 'retag', entity: kind, entityId: row.id, before: { code: tag.code }, after: { code: newCode }, note: `${tag.code} → ${newCode}: ${body.reason}` })
     setResponseStatus(event, 201)
     return { code: newCode, retired: tag.code }

@@ -2,11 +2,11 @@ import { exchangeSchema } from '#shared/utils/fuel-schemas'
 
 // Change the LP cylinder on a truck (everyone at the site): the one coming off goes to the cage as
 // empty, the one going on must be full, in service and in date for requalification.
-export default defineEventHandler(async (event): Promise<ExchangeAnswer> => {
+export default defineAbilityHandler('cylinder.exchange', async (event): Promise<ExchangeAnswer> => {
   const { id } = validateParams(event, idParamsSchema)
   const body = await validateBody(event, exchangeSchema)
   const { actor, row } = await findAssetForActor(event, 'truck', id)
-  if (!hasRole(actor, row.siteId, EXCHANGE_ROLES)) throw createError({ statusCode: 403, message: 'You have no role at this site that changes cylinders.' })
+  requireActorCan(actor, 'cylinder.exchange', row.siteId)
   const truck = row as unknown as FuelTruckRow
   if (truck.power !== 'lp_gas') {
     throw createError({ statusCode: 409, message: `Truck ${truck.fleetNumber} does not run on LP-gas; it takes no cylinder.`, data: { reasons: ['Not an LP-gas truck.'] } })
@@ -17,7 +17,7 @@ export default defineEventHandler(async (event): Promise<ExchangeAnswer> => {
     if (!found) throw createError({ statusCode: 400, message: `No cylinder "${body.cylinderOnCode}" at this site.`, data: { fields: { cylinderOnCode: 'No such cylinder at this site.' } } })
     cylinderOnId = found.id
   }
-  const request = { truck, cylinderOnId: cylinderOnId!, cylinderOffId: body.cylinderOffId, at: body.at, idempotencyKey: body.idempotencyKey, note: body.note }
+  const request = { truck, cylinderOnId: cylinderOnId!, cylinderOffId: body.cylinderOffId, at: body.at, idempotencyKey: body.idempotencyKey, note: body.note, hourMeter: body.hourMeter }
   let result: Awaited<ReturnType<typeof recordExchange>>
   try {
     result = await recordExchange(actor, request)

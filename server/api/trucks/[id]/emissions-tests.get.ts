@@ -1,5 +1,5 @@
 // A truck's emissions tests, newest first, with the certificate file of each (anyone at its site).
-export default defineEventHandler(async (event) => {
+export default defineAbilityHandler('site.member', async (event) => {
   const { id } = validateParams(event, idParamsSchema)
   const { truck } = await requireCombustionTruck(event, id)
   const e = tables.emissionsTests

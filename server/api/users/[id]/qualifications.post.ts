@@ -1,25 +1,19 @@
 import { qualificationCreateSchema } from '#shared/utils/admin-schemas'
 
-// Record a training and evaluation (admins and safety leads who share a site with the user).
-export default defineEventHandler(async (event) => {
+// Record someone's training and evaluation (safety leads and admins at a site the person belongs to).
+// Nobody records their own; the audit log keeps who recorded it and when, and the People page shows it.
+export default defineAbilityHandler('qualification.grant', async (event) => {
   const { id } = validateParams(event, idParamsSchema)
   const body = await validateBody(event, qualificationCreateSchema)
-  const actor = await requireActor(event)
-  const reach = actor.memberships.filter(m => m.roles.includes('admin') || m.roles.includes('safety_lead')).map(m => m.siteId)
-  const db = useDb()
-  const shared = reach.length
-    ? await db.select({ siteId: tables.memberships.siteId }).from(tables.memberships).where(and(eq(tables.memberships.userId, id), inArray(tables.memberships.siteId, reach)))
-    : []
-  if (shared.length === 0) {
-    if (reach.length === 0) throw createError({ statusCode: 403, message: 'Admins and safety leads record training.' })
-    throw createError({ statusCode: 404, message: 'No such user.' })
-  }
+  const { actor, reach } = await requirePersonInReach(event, id, 'qualification.grant')
+  if (id === actor.user.id) throw createError({ statusCode: 403, message: 'Nobody records their own training or evaluation; ask a safety lead or an admin at your site.' })
   try {
-    return await db.transaction(async (tx) => {
+    return await useDb().transaction(async (tx) => {
       const [q] = await tx.insert(tables.qualifications).values({ ...body, userId: id }).returning()
-      await writeAudit(tx, { actor, siteId: shared[0]!.siteId, action: 'create', entity: 'qualification', entityId: q!.id, after: q })
+      await writeAudit(tx, { actor, siteId: reach[0]!, action: 'create', entity: 'qualification', entityId: q!.id, after: q })
+      await recomputePersonAtSites(tx, id)
       setResponseStatus(event, 201)
-      return { item: q }
+      return { item: { ...q!, recordedBy: actor.user.name, recordedAt: new Date() } }
     })
   }
   catch (error) {

@@ -1,16 +1,14 @@
 import { userRolesSchema } from '#shared/utils/admin-schemas'
 
-// Replace a user's roles at one site (admins of that site). An empty list removes them from it.
-export default defineEventHandler(async (event) => {
+// Replace a person's roles at one site (admins of that site). An empty list removes them from it. The
+// person must already share a site where the caller is admin, and nobody changes their own roles.
+export default defineAbilityHandler('role.assign', async (event) => {
   const { id } = validateParams(event, idParamsSchema)
   const body = await validateBody(event, userRolesSchema)
-  const actor = await requireSiteRole(event, body.siteId, ['admin'])
-  // The user must already be one this admin manages (a shared site), or any admin could claim anyone.
-  await requireManagedUser(event, id)
+  const actor = await requireAbility(event, 'role.assign', body.siteId)
+  if (id === actor.user.id) throw createError({ statusCode: 403, message: 'Nobody changes their own roles; ask another admin of the site.' })
+  await requirePersonInReach(event, id, 'role.assign')
   const db = useDb()
-  const [user] = await db.select({ id: tables.users.id }).from(tables.users).where(eq(tables.users.id, id))
-  if (!user) throw createError({ statusCode: 404, message: 'No such user.' })
-  if (id === actor.user.id && !body.roles.includes('admin')) throw createError({ statusCode: 400, message: 'You cannot remove your own admin role.' })
   return db.transaction(async (tx) => {
     const before = await tx.select({ role: tables.memberships.role }).from(tables.memberships)
       .where(and(eq(tables.memberships.userId, id), eq(tables.memberships.siteId, body.siteId)))
@@ -18,6 +16,7 @@ export default defineEventHandler(async (event) => {
     const roles = [...new Set(body.roles)]
     if (roles.length) await tx.insert(tables.memberships).values(roles.map(role => ({ userId: id, siteId: body.siteId, role })))
     await writeAudit(tx, { actor, siteId: body.siteId, action: 'set_roles', entity: 'user', entityId: id, before: before.map(r => r.role), after: roles })
+    await recomputePersonAtSites(tx, id, [body.siteId])
     return { roles }
   })
 })

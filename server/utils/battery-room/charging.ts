@@ -1,0 +1,123 @@
+import type { z } from 'zod'
+import type { FitReason } from '#shared/utils/battery-fit'
+import { chargerBatteryMatch } from '#shared/utils/battery-fit'
+import { gridEnergyKwh, energyCost, isCountedCycle, ranHot } from '#shared/utils/charging'
+import { OVERRIDE_REASON_MIN_LENGTH, type chargeEndSchema, type chargeStartSchema } from '#shared/utils/battery-room-schemas'
+import type { DbOrTx } from '../db'
+import type { Actor } from '../auth'
+
+type BatteryRow = typeof tables.batteries.$inferSelect
+type ChargeSession = typeof tables.chargeSessions.$inferSelect
+export type ChargeStartInput = z.output<typeof chargeStartSchema>
+export type ChargeEndInput = z.output<typeof chargeEndSchema>
+
+/** One battery's card read in a transaction (after its read models were recomputed). */
+async function cardOf(tx: DbOrTx, siteId: string, batteryId: string, timeZone: string) {
+  const [row] = await loadBatteryRows(tx, { siteId, batteryIds: [batteryId] })
+  return batteryRoomStatus(row!, timeZone, new Date())
+}
+
+// A battery goes on a charger: the pair must match (or a written override), the battery must be out
+// of any truck and off every other charger.
+export async function startChargeSession(actor: Actor, battery: Pick<BatteryRow, 'id' | 'siteId'>, body: ChargeStartInput) {
+  const siteId = battery.siteId
+  const cs = tables.chargeSessions
+  const stored = async (db: DbOrTx) => ownRecord((await db.select().from(cs).where(eq(cs.idempotencyKey, body.idempotencyKey)))[0], actor)
+  const replay = await stored(useDb())
+  if (replay) return { item: replay, replayed: true }
+  const at = eventTime(body.at, 'at')
+  try {
+    return await useDb().transaction(async (tx) => {
+      const [locked] = await tx.select().from(tables.batteries).where(eq(tables.batteries.id, battery.id)).for('update')
+      const [charger] = await tx.select().from(tables.chargers)
+        .where(and(eq(tables.chargers.id, body.chargerId), eq(tables.chargers.siteId, siteId))).for('update')
+      if (!locked) throw createError({ statusCode: 404, message: 'No such battery.' })
+      if (!charger) throw createError({ statusCode: 404, message: 'No such charger at this site.', data: { fields: { chargerId: 'Not a charger at this site.' } } })
+      const again = await stored(tx)
+      if (again) return { item: again, replayed: true }
+      const [row] = await loadBatteryRows(tx, { siteId, batteryIds: [locked.id] })
+      const hard: FitReason[] = []
+      if (row?.truckId) hard.push({ code: 'in_truck', message: `Battery ${locked.serial} is in truck ${row.truckFleetNumber}; change it out of the truck first.` })
+      if (row?.chargeSessionId) hard.push({ code: 'already_on_charge', message: `Battery ${locked.serial} is already on charger ${row.chargerName}.` })
+      if (locked.outOfService) hard.push({ code: 'battery_out_of_service', message: `Battery ${locked.serial} is out of service; return it to service first.` })
+      if (charger.outOfService) hard.push({ code: 'charger_out_of_service', message: `Charger ${charger.name} is out of service.` })
+      const [busy] = await tx.select({ id: cs.id }).from(cs).where(and(eq(cs.chargerId, charger.id), isNull(cs.endedAt), isNull(cs.correctsId)))
+      if (busy) hard.push({ code: 'charger_busy', message: `Charger ${charger.name} already has a battery on it; take that one off first.` })
+      if (hard.length) throw refusal(hard, { overridable: false })
+      const soft = chargerBatteryMatch(charger, locked)
+      if (soft.length && !body.overrideReason) throw refusal(soft, { overridable: true, overrideReasonMinLength: OVERRIDE_REASON_MIN_LENGTH })
+      const [session] = await tx.insert(cs).values({
+        siteId, userId: actor.user.id, at, idempotencyKey: body.idempotencyKey, note: body.note,
+        batteryId: locked.id, chargerId: charger.id, overrideReason: soft.length ? body.overrideReason : null,
+      }).returning()
+      await writeAudit(tx, { actor, siteId, action: 'charge_on', entity: 'charge_session', entityId: session!.id, after: session, note: soft.length ? body.overrideReason : undefined })
+      await recomputeSubjects(tx, siteId, [{ kind: 'battery', id: locked.id }], { lock: false, ctx: await cachedSiteContext(actor, siteId) })
+      return { item: session!, replayed: false, overridden: soft }
+    })
+  }
+  catch (error) {
+    const constraint = pgConstraint(error)
+    if (constraint === 'charge_sessions_idem') {
+      const row = await stored(useDb())
+      if (row) return { item: row, replayed: true }
+    }
+    if (constraint === 'charge_sessions_open_battery' || constraint === 'charge_sessions_open_charger') {
+      throw refusal([{ code: 'charger_busy', message: 'That battery or charger went on charge at the same moment; reload and check.' }], { overridable: false })
+    }
+    throw error
+  }
+}
+
+// Ending a charge happens once: the same user sending the same readings again is a retry of that end.
+function sameChargeEnd(row: ChargeSession, userId: string, body: ChargeEndInput): boolean {
+  return row.endedAt !== null && row.endedBy === userId && row.ampHoursReturned === body.ampHoursReturned
+    && row.endTempF === body.endTempF && row.outcome === body.outcome && row.equalize === body.equalize
+}
+
+async function chargeEndReplay(row: ChargeSession) {
+  const settings = await batteryRoomSettings(useDb(), row.siteId)
+  const status = await cardOf(useDb(), row.siteId, row.batteryId, settings.timeZone)
+  return { item: row, status, currency: settings.currency, replayed: true }
+}
+
+/** A charge session at one of the user's sites; anything else is 404. */
+export async function findChargeSession(actor: Actor, id: string): Promise<ChargeSession> {
+  const cs = tables.chargeSessions
+  const [found] = actor.siteIds.length ? await useDb().select().from(cs).where(and(eq(cs.id, id), inArray(cs.siteId, actor.siteIds))) : []
+  if (!found) throw createError({ statusCode: 404, message: 'No such charge session.' })
+  return found
+}
+
+// A battery comes off charge: energy and cost from the amp-hours, whether it counts as a cycle, the hot
+// flag; the battery's status (cycles, charges since watering and equalize) follows from the record.
+export async function endChargeSession(actor: Actor, found: ChargeSession, body: ChargeEndInput) {
+  const cs = tables.chargeSessions
+  if (found.endedAt) {
+    if (sameChargeEnd(found, actor.user.id, body)) return chargeEndReplay(found)
+    throw createError({ statusCode: 409, message: 'This charge has already been ended.' })
+  }
+  const endedAt = eventTime(body.endedAt, 'endedAt')
+  if (endedAt.getTime() < found.at.getTime()) throw badField('endedAt', 'The charge cannot end before it started.')
+  const settings = await batteryRoomSettings(useDb(), found.siteId)
+  return useDb().transaction(async (tx) => {
+    const [battery] = await tx.select().from(tables.batteries).where(eq(tables.batteries.id, found.batteryId)).for('update')
+    const [charger] = await tx.select().from(tables.chargers).where(eq(tables.chargers.id, found.chargerId))
+    const gridKwh = gridEnergyKwh(body.ampHoursReturned, battery!.voltage, charger!.efficiency)
+    const countedCycle = isCountedCycle({ complete: body.outcome === 'complete', ampHoursReturned: body.ampHoursReturned, ratedAh: battery!.capacityAh })
+    const [session] = await tx.update(cs).set({
+      endedAt, endedBy: actor.user.id, ampHoursReturned: body.ampHoursReturned, endTempF: body.endTempF,
+      equalize: body.equalize, outcome: body.outcome, gridKwh, energyCost: energyCost(gridKwh, settings.tariffPerKwh),
+      countedCycle, ranHot: ranHot(body.endTempF, settings.maxChargeTempF),
+      note: body.note ? [found.note, body.note].filter(Boolean).join('\n') : found.note,
+    }).where(and(eq(cs.id, found.id), isNull(cs.endedAt))).returning()
+    if (!session) {
+      const [now] = await tx.select().from(cs).where(eq(cs.id, found.id))
+      if (now && sameChargeEnd(now, actor.user.id, body)) return chargeEndReplay(now)
+      throw createError({ statusCode: 409, message: 'Someone ended this charge at the same moment; reload.' })
+    }
+    await writeAudit(tx, { actor, siteId: found.siteId, action: 'charge_off', entity: 'charge_session', entityId: found.id, before: found, after: session })
+    await recomputeSubjects(tx, found.siteId, [{ kind: 'battery', id: battery!.id }], { lock: false, ctx: await cachedSiteContext(actor, found.siteId) })
+    const status = await cardOf(tx, found.siteId, battery!.id, settings.timeZone)
+    return { item: session, status, currency: settings.currency }
+  })
+}

@@ -1,0 +1,67 @@
+import type { z } from 'zod'
+import type { FitReason } from '#shared/utils/battery-fit'
+import {
+  WATER_AFTER_CHARGE_CAUTION, justFinishedCharge, summarizeElectrolyteReadings, wateringBeforeChargeCaution, type electrolyteCheckSchema,
+} from '#shared/utils/battery-room-schemas'
+import type { DbOrTx } from '../db'
+import type { Actor } from '../auth'
+
+export type ElectrolyteCheckInput = z.output<typeof electrolyteCheckSchema>
+type BatteryRow = typeof tables.batteries.$inferSelect
+
+// An electrolyte check: level, water, and pilot-cell or every-cell readings corrected to the site's
+// reference temperature; warns when water goes in before a charge. The battery's status (last SG, spread,
+// weak cells, charges since watering) and its watering and every-cell obligations follow from the record.
+export async function recordElectrolyteCheck(actor: Actor, battery: BatteryRow, body: ElectrolyteCheckInput) {
+  const siteId = battery.siteId
+  const ec = tables.electrolyteChecks
+  const stored = async (db: DbOrTx) => ownRecord((await db.select().from(ec).where(eq(ec.idempotencyKey, body.idempotencyKey)))[0], actor)
+  const replay = await stored(useDb())
+  if (replay) return { item: replay, replayed: true, warnings: [] as FitReason[] }
+  if (battery.chemistry !== 'flooded_lead_acid') throw badField('batteryId', 'Only flooded lead-acid batteries take water and hydrometer readings.')
+  const cellCount = Number(battery.cellCount)
+  const outside = body.cells.findIndex(c => c.cellNumber > cellCount)
+  if (outside >= 0) throw badField(`cells.${outside}.cellNumber`, `This battery has ${cellCount} cells.`)
+  if (body.scope === 'every_cell' && body.cells.length !== cellCount) {
+    throw badField('cells', `Enter all ${cellCount} cells (${body.cells.length} entered).`)
+  }
+  const at = eventTime(body.at, 'at')
+  const settings = await batteryRoomSettings(useDb(), siteId)
+  const summary = summarizeElectrolyteReadings(body.cells, { referenceTempF: settings.sgReferenceTempF, correctionPerDegF: settings.sgCorrectionPerDegF }, settings.cellSpreadThreshold)
+  try {
+    return await useDb().transaction(async (tx) => {
+      await tx.select({ id: tables.batteries.id }).from(tables.batteries).where(eq(tables.batteries.id, battery.id)).for('update')
+      const [before] = await loadBatteryRows(tx, { siteId, batteryIds: [battery.id] })
+      const timing = {
+        waterAddedGal: body.waterAddedGal,
+        chargeOpen: !!before?.chargeSessionId,
+        lastChargeEndedAt: dateFromMs(before?.lastChargeEndedMs),
+        lastInstalledAt: dateFromMs(before?.lastInstalledMs),
+      }
+      const warnings: FitReason[] = []
+      if (wateringBeforeChargeCaution(timing, at)) warnings.push({ code: 'water_before_charge', message: WATER_AFTER_CHARGE_CAUTION })
+      const [check] = await tx.insert(ec).values({
+        siteId, userId: actor.user.id, at, idempotencyKey: body.idempotencyKey, note: body.note,
+        batteryId: battery.id, level: body.level, waterAddedGal: body.waterAddedGal, scope: body.cells.length ? body.scope : null,
+        referenceTempF: settings.sgReferenceTempF, correctionPerDegF: settings.sgCorrectionPerDegF,
+        meanCorrectedSg: summary.meanCorrectedSg, spread: body.scope === 'every_cell' ? summary.spread : null,
+        lowCellCount: summary.lowCells.length, stateOfChargePct: summary.stateOfChargePct,
+        afterCharge: justFinishedCharge(timing, at),
+      }).returning()
+      if (summary.cells.length) {
+        await tx.insert(tables.cellReadings).values(summary.cells.map(c => ({ checkId: check!.id, ...c })))
+      }
+      await writeAudit(tx, { actor, siteId, action: 'electrolyte_check', entity: 'electrolyte_check', entityId: check!.id, after: { ...check, cells: summary.cells }, note: warnings.map(w => w.message).join(' ') || undefined })
+      await recomputeSubjects(tx, siteId, [{ kind: 'battery', id: battery.id }], { lock: false, ctx: await cachedSiteContext(actor, siteId) })
+      const [after] = await loadBatteryRows(tx, { siteId, batteryIds: [battery.id] })
+      return { item: check!, cells: summary.cells, lowCells: summary.lowCells, replayed: false, warnings, status: batteryRoomStatus(after!, settings.timeZone, new Date()) }
+    })
+  }
+  catch (error) {
+    if (pgConstraint(error) === 'electrolyte_checks_idem') {
+      const again = await stored(useDb())
+      if (again) return { item: again, replayed: true, warnings: [] as FitReason[] }
+    }
+    throw error
+  }
+}

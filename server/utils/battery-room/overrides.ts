@@ -1,0 +1,37 @@
+// Swaps and charges that went ahead despite a refused check or with a recorded warning, newest first.
+export async function batteryRoomOverrides(siteId: string) {
+  const db = useDb()
+  const [swaps, charges] = await Promise.all([
+    db.execute(sql`
+      SELECT s.id, (EXTRACT(EPOCH FROM s.at) * 1000)::float8 AS "atMs", s.override_reason AS "overrideReason", s.overridden_checks AS "checks",
+             u.name AS "who", t.fleet_number AS "truck", bi.serial AS "batteryIn", bo.serial AS "batteryOut"
+      FROM battery_swaps s
+      JOIN users u ON u.id = s.user_id
+      JOIN trucks t ON t.id = s.truck_id
+      JOIN batteries bi ON bi.id = s.battery_in_id
+      LEFT JOIN batteries bo ON bo.id = s.battery_out_id
+      WHERE s.site_id = ${siteId} AND s.overridden_checks IS NOT NULL
+      ORDER BY s.at DESC LIMIT 200`),
+    db.execute(sql`
+      SELECT c.id, (EXTRACT(EPOCH FROM c.at) * 1000)::float8 AS "atMs", c.override_reason AS "overrideReason", u.name AS "who", b.serial AS "battery", ch.name AS "charger"
+      FROM charge_sessions c
+      JOIN users u ON u.id = c.user_id
+      JOIN batteries b ON b.id = c.battery_id
+      JOIN chargers ch ON ch.id = c.charger_id
+      WHERE c.site_id = ${siteId} AND c.override_reason IS NOT NULL
+      ORDER BY c.at DESC LIMIT 200`),
+  ])
+  const iso = (v: unknown) => new Date(Number(v)).toISOString()
+  const items = [
+    ...(swaps as unknown as Record<string, unknown>[]).map(s => ({
+      id: `swap-${s.id}`, kind: 'swap' as const, at: iso(s.atMs), who: s.who as string,
+      what: `Battery ${s.batteryIn} into truck ${s.truck}${s.batteryOut ? ` (out: ${s.batteryOut})` : ''}`,
+      reason: (s.overrideReason as string | null) ?? null, checks: (s.checks as FitReason[] | null) ?? [],
+    })),
+    ...(charges as unknown as Record<string, unknown>[]).map(c => ({
+      id: `charge-${c.id}`, kind: 'charge' as const, at: iso(c.atMs), who: c.who as string,
+      what: `Battery ${c.battery} on charger ${c.charger}`, reason: c.overrideReason as string, checks: [] as FitReason[],
+    })),
+  ].sort((a, b) => b.at.localeCompare(a.at))
+  return { items }
+}

@@ -1,0 +1,34 @@
+import { sql, type SQL } from 'drizzle-orm'
+
+// The effective-record rule in SQL (shared/utils/effective-records.ts says it in TypeScript): an event
+// row stands unless another row's corrects_id names it. A correction stands in its place until it is
+// corrected in turn. Every facts loader and the rebuild read event records through this one fragment.
+
+export const CORRECTABLE_TABLES = [
+  'battery_swaps', 'charge_sessions', 'electrolyte_checks', 'cylinder_refills', 'cylinder_exchanges',
+  'requalifications', 'emissions_tests', 'co_readings', 'area_log_entries', 'schedule_completions',
+] as const
+export type CorrectableTable = typeof CORRECTABLE_TABLES[number]
+
+/** `alias` (a row of `table` in the query) is effective: no other row corrects it. */
+export function isEffectiveRecord(table: CorrectableTable, alias: string): SQL {
+  if (!/^[a-z]\w*$/.test(alias)) throw new Error(`not an alias: ${alias}`)
+  return sql.raw(`NOT EXISTS (SELECT 1 FROM ${table} sup_${alias} WHERE sup_${alias}.corrects_id = ${alias}.id)`)
+}
+
+/** Anything that runs a statement: the database, a transaction, or a test or script connection. */
+export interface SqlRunner {
+  execute: (query: SQL) => PromiseLike<unknown>
+}
+
+export async function rowsOf<T>(db: SqlRunner, query: SQL): Promise<T[]> {
+  return (await db.execute(query)) as unknown as T[]
+}
+
+/** Epoch milliseconds of a timestamp column (drizzle hands timestamps to raw statements as text). */
+export const epochMs = (column: SQL | string) => (typeof column === 'string' ? sql.raw(`(EXTRACT(EPOCH FROM ${column}) * 1000)::float8`) : sql`(EXTRACT(EPOCH FROM ${column}) * 1000)::float8`)
+
+export const dateFromMs = (v: number | string | null | undefined): Date | null => (v === null || v === undefined ? null : new Date(Number(v)))
+
+/** A uuid[] parameter. */
+export const uuidArray = (ids: readonly string[]) => sql`${`{${ids.join(',')}}`}::uuid[]`

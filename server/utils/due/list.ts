@@ -1,0 +1,174 @@
+import { sql, type SQL } from 'drizzle-orm'
+import { createError } from 'h3'
+import type { Role } from '../../../shared/types/auth'
+import type { DueItem, DueListReply } from '../../../shared/types/due'
+import type { ObligationState } from '../../../shared/utils/due-dates'
+import { localDate } from '../../../shared/utils/due-dates'
+import { obligationActionPath, type DueKind, type DueSubject, type DueSubjectKind } from '../../../shared/utils/due-schedules'
+import type { DueQuery } from '../../../shared/utils/schedule-schemas'
+import { rowsOf, type SqlRunner } from './effective'
+
+// The due list, read from the obligations read model: one statement for the page, one for the counts,
+// one for the site. The state of each obligation is the rule module's obligationStateAt, restated in
+// SQL so the page can be sorted and cut in the database (tests/e2e/due-state-sql.test.ts compares the two).
+
+/** How far back a completed obligation still shows as Done. */
+export const DONE_WINDOW_DAYS = 7
+
+export type Obligation = DueItem
+export type DueList = DueListReply
+
+export interface DueOptions {
+  /** obligations whose responsible role is one of these (null: every role) */
+  roles: readonly Role[] | null
+  /** also those about or owned by this person, whatever their role */
+  personId: string | null
+  states: readonly ObligationState[]
+  kinds: readonly DueKind[] | null
+  sort: DueQuery['sort']
+  limit: number
+}
+
+export const OPEN_STATES: ObligationState[] = ['overdue', 'due_soon', 'upcoming']
+
+/** obligationStateAt (shared/utils/due-rules.ts) in SQL, for a row `o` of obligations on `today` (a date, or an SQL date). */
+export function obligationStateSql(on: string | SQL, o = 'o'): SQL {
+  const c = (name: string) => sql.raw(`${o}.${name}`)
+  const today = typeof on === 'string' ? sql`${on}::date` : on
+  return sql`CASE
+    WHEN ${c('due_on')} IS NULL THEN CASE WHEN ${c('due_at_count')} IS NOT NULL AND ${c('count_now')} IS NOT NULL AND ${c('due_at_count')} - ${c('count_now')} <= 0 THEN 'due_soon' ELSE 'upcoming' END
+    WHEN ${c('due_on')} < ${today} THEN 'overdue'
+    WHEN ${c('due_on')} <= ${today} + ${c('due_soon_days')} THEN 'due_soon'
+    ELSE 'upcoming' END`
+}
+
+const ORDER: Record<DueQuery['sort'], SQL> = {
+  due: sql`state_rank, shown_due NULLS LAST, label, id`,
+  kind: sql`what, state_rank, shown_due NULLS LAST, label, id`,
+  subject: sql`label, state_rank, shown_due NULLS LAST, id`,
+  role: sql`responsible_role, state_rank, shown_due NULLS LAST, label, id`,
+}
+
+interface Row {
+  id: string
+  kind: DueKind
+  scheduleId: string | null
+  ruleKey: string
+  what: string
+  subjectKind: DueSubjectKind
+  subjectId: string
+  label: string
+  tagCode: string | null
+  areaId: string | null
+  areaName: string | null
+  personId: string | null
+  periodStart: string | null
+  shownDue: string | null
+  shownState: ObligationState
+  lastDoneOn: string | null
+  remaining: number | null
+  detail: string | null
+  responsibleRole: Role
+}
+
+// The rows shown for one filter: open obligations in the asked states, and those done in the last week.
+function shownRows(siteId: string, today: string, opts: DueOptions): SQL {
+  const open = opts.states.filter(s => s !== 'done')
+  const wantDone = opts.states.includes('done')
+  const scope = opts.roles === null
+    ? sql`true`
+    : sql`(ob.responsible_role::text = ANY(${`{${opts.roles.join(',')}}`}::text[])
+        ${opts.personId ? sql`OR (ob.person_id = ${opts.personId} AND ob.kind IN ('operator_evaluation', 'follow_up'))` : sql``})`
+  const kinds = opts.kinds ? sql`AND ob.kind = ANY(${`{${opts.kinds.join(',')}}`}::text[])` : sql``
+  return sql`
+    WITH o AS (
+      SELECT ob.*, ${obligationStateSql(today, 'ob')} AS state FROM obligations ob
+      WHERE ob.site_id = ${siteId} AND ${scope} ${kinds}
+    )
+    SELECT o.*, o.state AS shown_state, o.due_on AS shown_due FROM o WHERE o.state = ANY(${`{${open.join(',')}}`}::text[])
+    ${wantDone ? sql`UNION ALL SELECT o.*, 'done', o.last_done_on FROM o WHERE o.last_done_on >= ${today}::date - ${DONE_WINDOW_DAYS}::int` : sql``}`
+}
+
+// The due list of one site: the page in the asked order, the counts by state, the site.
+export async function readDueList(db: SqlRunner, siteId: string, opts: DueOptions, now = new Date()): Promise<DueList> {
+  const started = Date.now()
+  const [site] = await rowsOf<{ id: string, name: string, timeZone: string }>(db, sql`SELECT id, name, time_zone AS "timeZone" FROM sites WHERE id = ${siteId}`)
+  if (!site) throw createError({ statusCode: 404, message: 'No such site.' })
+  const today = localDate(now, site.timeZone)
+  const shown = shownRows(siteId, today, opts)
+  const limit = Math.min(opts.limit, 1_000_000)
+  const [counted, rows] = await Promise.all([
+    rowsOf<{ state: ObligationState, n: number }>(db, sql`SELECT shown_state AS state, count(*)::int AS n FROM (${shown}) s GROUP BY 1`),
+    rowsOf<Row>(db, sql`
+      SELECT p.id, p.kind, p.schedule_id AS "scheduleId", p.rule_key AS "ruleKey", p.what, p.subject_kind AS "subjectKind", p.subject_id AS "subjectId",
+        p.label, p.tag_code AS "tagCode", p.area_id AS "areaId", a.name AS "areaName", p.person_id AS "personId", p.period_start::text AS "periodStart",
+        p.shown_due::text AS "shownDue", p.shown_state AS "shownState", p.last_done_on::text AS "lastDoneOn",
+        CASE WHEN p.due_at_count IS NOT NULL AND p.count_now IS NOT NULL THEN round((p.due_at_count - p.count_now)::numeric, 1)::float8 END AS remaining,
+        p.detail, p.responsible_role AS "responsibleRole"
+      FROM (
+        SELECT s.*, CASE s.shown_state WHEN 'overdue' THEN 0 WHEN 'due_soon' THEN 1 WHEN 'upcoming' THEN 2 ELSE 3 END AS state_rank
+        FROM (${shown}) s ORDER BY ${ORDER[opts.sort]} LIMIT ${limit}
+      ) p
+      LEFT JOIN areas a ON a.id = p.area_id
+      ORDER BY ${ORDER[opts.sort]}`),
+  ])
+  const counts: Record<ObligationState, number> = { overdue: 0, due_soon: 0, upcoming: 0, done: 0 }
+  for (const c of counted) counts[c.state] = Number(c.n)
+  return {
+    site,
+    today,
+    items: rows.map(toObligation),
+    counts,
+    total: counts.overdue + counts.due_soon + counts.upcoming + counts.done,
+    meta: { queries: 3, ms: Date.now() - started },
+  }
+}
+
+function toObligation(r: Row): Obligation {
+  const subject: DueSubject = { kind: r.subjectKind, id: r.subjectId, label: r.label, tagCode: r.tagCode, areaId: r.areaId, periodStart: r.periodStart }
+  const key = `${r.ruleKey}:${r.subjectId}`
+  return {
+    id: r.shownState === 'done' ? `${key}:done` : key,
+    kind: r.kind,
+    scheduleId: r.scheduleId,
+    what: r.what,
+    subject,
+    areaName: r.areaName,
+    personId: r.personId,
+    dueOn: r.shownDue,
+    state: r.shownState,
+    lastDoneOn: r.lastDoneOn,
+    remaining: r.remaining === null ? null : Number(r.remaining),
+    detail: r.detail,
+    responsibleRole: r.responsibleRole,
+    action: obligationActionPath(r.kind, subject, r.scheduleId),
+  }
+}
+
+export interface SubjectObligation {
+  kind: DueKind
+  scheduleId: string | null
+  what: string
+  dueOn: string | null
+  state: Exclude<ObligationState, 'done'>
+  remaining: number | null
+  detail: string | null
+  lastDoneOn: string | null
+  action: { label: string, to: string }
+}
+
+/** What is due on one subject (the tag page and the asset pages), soonest first, in its state on the site's today. */
+export async function obligationsOfSubject(db: SqlRunner, siteId: string, subject: Pick<DueSubject, 'kind' | 'id' | 'label' | 'tagCode'>): Promise<SubjectObligation[]> {
+  const rows = await rowsOf<Row & { state: Exclude<ObligationState, 'done'>, dueOn: string | null }>(db, sql`
+    SELECT o.kind, o.schedule_id AS "scheduleId", o.what, o.due_on::text AS "dueOn", ${obligationStateSql(sql`(now() AT TIME ZONE st.time_zone)::date`)} AS state,
+      o.area_id AS "areaId", o.period_start::text AS "periodStart", o.last_done_on::text AS "lastDoneOn", o.detail,
+      CASE WHEN o.due_at_count IS NOT NULL AND o.count_now IS NOT NULL THEN round((o.due_at_count - o.count_now)::numeric, 1)::float8 END AS remaining
+    FROM obligations o JOIN sites st ON st.id = o.site_id
+    WHERE o.site_id = ${siteId} AND o.subject_id = ${subject.id} AND o.subject_kind = ${subject.kind}
+    ORDER BY o.due_on NULLS LAST, o.what`)
+  return rows.map(r => ({
+    kind: r.kind, scheduleId: r.scheduleId, what: r.what, dueOn: r.dueOn, state: r.state, remaining: r.remaining === null ? null : Number(r.remaining),
+    detail: r.detail, lastDoneOn: r.lastDoneOn,
+    action: obligationActionPath(r.kind, { ...subject, areaId: r.areaId, periodStart: r.periodStart }, r.scheduleId),
+  }))
+}

@@ -1,0 +1,85 @@
+import type { Actor } from '../auth'
+
+// Why a cylinder may not go on a truck; empty when it may.
+export function cylinderMountBlocks(cylinder: FuelCylinderRow, facts: FuelSiteFacts, code: string): string[] {
+  const name = `Cylinder ${code}`
+  const reasons: string[] = []
+  if (cylinder.status === 'condemned') reasons.push(`${name} is condemned.`)
+  else if (cylinder.status === 'quarantined') reasons.push(`${name} is quarantined${cylinder.outOfServiceReason ? `: ${cylinder.outOfServiceReason}` : ''}.`)
+  else if (cylinder.outOfService) reasons.push(`${name} is out of service${cylinder.outOfServiceReason ? `: ${cylinder.outOfServiceReason}` : ''}.`)
+  if (cylinder.status === 'in_use') reasons.push(`${name} is already on a truck.`)
+  if (cylinder.status === 'empty') reasons.push(`${name} is empty. Take a full cylinder from the cage.`)
+  const requal = cylinderRequalification(cylinder, facts)
+  if (requal.status === 'overdue') reasons.push(`${name} was due for requalification on ${requal.dueOn} and may not be used.`)
+  return reasons
+}
+
+interface ExchangeRequest {
+  truck: FuelTruckRow
+  cylinderOnId: string
+  cylinderOffId: string | null
+  /** when Save was pressed, for a record sent late */
+  at?: string
+  idempotencyKey?: string
+  note: string
+  /** the truck's hour meter at the change, when read */
+  hourMeter: number | null
+}
+
+// A cylinder change on an LP-gas truck in one transaction: the truck and both cylinders are locked,
+// the one coming off goes to the cage as empty, the one going on is in use on the truck. The hour meter
+// read at the change moves the truck's hours (and its hours-based schedules) like a swap's.
+export async function recordExchange(actor: Actor, req: ExchangeRequest) {
+  const { truck } = req
+  return useDb().transaction(async (tx) => {
+    // the truck lock first, so a copy of the same request sent at once finds the first one's row
+    await tx.select({ id: tables.trucks.id }).from(tables.trucks).where(eq(tables.trucks.id, truck.id)).for('update')
+    if (req.idempotencyKey) {
+      const [earlier] = await tx.select().from(tables.cylinderExchanges).where(eq(tables.cylinderExchanges.idempotencyKey, req.idempotencyKey))
+      if (earlier) {
+        if (earlier.truckId !== truck.id || earlier.userId !== actor.user.id) throw createError({ statusCode: 409, message: 'That idempotency key was used for another record.' })
+        return { exchange: earlier, repeated: true }
+      }
+    }
+    const at = eventTime(req.at, 'at')
+    const ids = [...new Set([req.cylinderOnId, req.cylinderOffId].filter((v): v is string => !!v))].sort()
+    const locked = await tx.select().from(tables.lpCylinders)
+      .where(and(inArray(tables.lpCylinders.id, ids), eq(tables.lpCylinders.siteId, truck.siteId)))
+      .orderBy(asc(tables.lpCylinders.id)).for('update')
+    const [current] = await tx.select().from(tables.lpCylinders).where(eq(tables.lpCylinders.currentTruckId, truck.id)).for('update')
+    const on = locked.find(c => c.id === req.cylinderOnId)
+    if (!on) throw createError({ statusCode: 400, message: 'Pick a cylinder at this site.', data: { fields: { cylinderOnCode: 'No such cylinder at this site.' } } })
+    if ((current?.id ?? null) !== req.cylinderOffId) {
+      const currentCode = current ? (await liveCylinderTag(tx, current.id)) ?? current.serial : null
+      throw createError({
+        statusCode: 409,
+        message: current ? `Truck ${truck.fleetNumber} carries cylinder ${currentCode}; take that one off.` : `Truck ${truck.fleetNumber} has no cylinder on record; there is none to take off.`,
+        data: { reasons: ['The cylinder coming off is not the one on record for this truck.'], currentCylinderId: current?.id ?? null },
+      })
+    }
+    if (on.id === current?.id) throw createError({ statusCode: 400, message: 'The cylinder going on is the one already on the truck.', data: { fields: { cylinderOnCode: 'Already on this truck.' } } })
+    if (req.hourMeter !== null) {
+      const [now] = await tx.select({ hourMeter: tables.truckStatus.hourMeter }).from(tables.truckStatus).where(eq(tables.truckStatus.truckId, truck.id))
+      const meter = now?.hourMeter ?? truck.hourMeter
+      if (req.hourMeter < meter) throw createError({ statusCode: 400, message: `The hour meter last read ${meter} h; check the reading.`, data: { fields: { hourMeter: `The hour meter last read ${meter} h; check the reading.` } } })
+    }
+    const facts = await fuelSiteFacts(tx, truck.siteId)
+    const onCode = (await liveCylinderTag(tx, on.id)) ?? on.serial
+    const reasons = cylinderMountBlocks(on, facts, onCode)
+    if (reasons.length) throw createError({ statusCode: 409, message: reasons[0]!, data: { reasons } })
+    const now = new Date()
+    if (current) {
+      await tx.update(tables.lpCylinders).set({ status: 'empty', currentTruckId: null, statusChangedAt: now }).where(eq(tables.lpCylinders.id, current.id))
+    }
+    await tx.update(tables.lpCylinders).set({ status: 'in_use', currentTruckId: truck.id, statusChangedAt: now }).where(eq(tables.lpCylinders.id, on.id))
+    const [exchange] = await tx.insert(tables.cylinderExchanges).values({
+      siteId: truck.siteId, userId: actor.user.id, at, truckId: truck.id, cylinderOffId: current?.id ?? null, cylinderOnId: on.id,
+      idempotencyKey: req.idempotencyKey ?? null, note: req.note, hourMeter: req.hourMeter,
+    }).returning()
+    await writeAudit(tx, { actor, siteId: truck.siteId, action: 'exchange', entity: 'cylinder_exchange', entityId: exchange!.id, after: exchange })
+    await recomputeSubjects(tx, truck.siteId, [
+      { kind: 'truck', id: truck.id }, { kind: 'cylinder', id: on.id }, ...(current ? [{ kind: 'cylinder' as const, id: current.id }] : []),
+    ], { lock: false })
+    return { exchange: exchange!, repeated: false }
+  })
+}

@@ -1,0 +1,130 @@
+import type { RefillInput } from '#shared/utils/fuel-schemas'
+import type { DbOrTx } from '../db'
+import type { Actor } from '../auth'
+
+// Reasons the cylinder's own state forbids a fill (answered 409): condemned, quarantined, out of
+// service, on a truck, or past its requalification date.
+export async function cylinderFillBlocks(db: DbOrTx, cylinder: FuelCylinderRow, facts: FuelSiteFacts): Promise<string[]> {
+  const reasons: string[] = []
+  if (cylinder.status === 'condemned') reasons.push('This cylinder is condemned and may never be filled again.')
+  if (cylinder.status === 'quarantined') reasons.push(`This cylinder is quarantined${cylinder.outOfServiceReason ? `: ${cylinder.outOfServiceReason}` : ''}.`)
+  else if (cylinder.outOfService) reasons.push(`This cylinder is out of service${cylinder.outOfServiceReason ? `: ${cylinder.outOfServiceReason}` : ''}.`)
+  if (cylinder.status === 'in_use') {
+    const truck = cylinder.currentTruckId ? await truckLabel(db, cylinder.currentTruckId) : 'a truck'
+    reasons.push(`This cylinder is on ${truck}. Take it off the truck (a cylinder exchange) before refilling.`)
+  }
+  const requal = cylinderRequalification(cylinder, facts)
+  if (requal.status === 'overdue') {
+    reasons.push(`Requalification was due on ${requal.dueOn}. A cylinder past its requalification date cannot be filled until it is requalified.`)
+  }
+  return reasons
+}
+
+export interface RefillOutcome {
+  refill: typeof tables.cylinderRefills.$inferSelect
+  cylinder: FuelCylinderRow
+  /** 409: the cylinder's state forbids filling; 422: this fill failed its checks; 201: filled */
+  status: 201 | 409 | 422 | 200
+  reasons: string[]
+  /** the technician should be offered to quarantine the cylinder */
+  offerQuarantine: boolean
+}
+
+function inspectionFailures(inspection: RefillInput['inspection']): string[] {
+  return PREFILL_INSPECTION_ITEMS.filter(i => inspection[i.key] === 'fail').map(i => i.label)
+}
+
+const lb = (v: number) => `${Math.round(v * 10) / 10} lb`
+
+// One refill attempt, stored whether it passes or not. A refused attempt leaves the cylinder's status
+// as it was; a passed one makes it full. The cylinder row is locked for the whole check.
+export async function recordRefill(actor: Actor, cylinderId: string, input: RefillInput): Promise<RefillOutcome> {
+  const db = useDb()
+  return db.transaction(async (tx) => {
+    const [cylinder] = await tx.select().from(tables.lpCylinders).where(eq(tables.lpCylinders.id, cylinderId)).for('update')
+    if (!cylinder) throw createError({ statusCode: 404, message: 'No such LP cylinder.' })
+    if (input.idempotencyKey) {
+      const [earlier] = await tx.select().from(tables.cylinderRefills).where(eq(tables.cylinderRefills.idempotencyKey, input.idempotencyKey))
+      if (earlier) {
+        if (earlier.cylinderId !== cylinderId || earlier.userId !== actor.user.id) throw createError({ statusCode: 409, message: 'That idempotency key was used for another record.' })
+        return { refill: earlier, cylinder, status: 200 as const, reasons: earlier.refusalReasons, offerQuarantine: false }
+      }
+    }
+    const at = eventTime(input.at, 'at')
+    const facts = await fuelSiteFacts(tx, cylinder.siteId)
+    const stateReasons = await cylinderFillBlocks(tx, cylinder, facts)
+    const failed = inspectionFailures(input.inspection)
+    const checkReasons: string[] = []
+    if (failed.length) checkReasons.push(`Failed pre-fill inspection: ${failed.join('; ')}. Do not fill this cylinder.`)
+
+    const sg = input.productSg ?? PROPANE_DEFAULT_SG
+    let fill: FillAssessment | null = null
+    if (input.grossBeforeLb !== null && input.grossAfterLb !== null) {
+      const assessed = assessFill({ waterCapacityLb: cylinder.waterCapacityLb, tareLb: cylinder.tareLb, grossBeforeLb: input.grossBeforeLb, grossAfterLb: input.grossAfterLb, sg })
+      if (!assessed.ok) {
+        const fields = Object.fromEntries(assessed.errors.map(e => [e.field === 'sg' ? 'productSg' : e.field, e.message]))
+        throw createError({ statusCode: 400, message: assessed.errors[0]!.message, data: { fields } })
+      }
+      fill = assessed
+      if (assessed.overfilled) {
+        const percent = maxFillingDensityPercent(sg)
+        checkReasons.push(`Overfilled by ${lb(assessed.overfillLb)}: the limit is ${lb(assessed.fillLimitLb)} (water capacity ${lb(cylinder.waterCapacityLb)} × ${percent} %). Remove the excess before the cylinder leaves the station, then weigh it again.`)
+      }
+    }
+    let tareFlagged = false
+    if (input.measuredTareLb !== null) {
+      if (input.measuredTareLb <= 0) throw createError({ statusCode: 400, message: 'Measured tare must be above 0.', data: { fields: { measuredTareLb: 'Above 0 lb.' } } })
+      tareFlagged = tareLossFlagsRequalification(cylinder.tareLb, input.measuredTareLb)
+      if (tareFlagged) {
+        const loss = (cylinder.tareLb - input.measuredTareLb) / cylinder.tareLb * 100
+        checkReasons.push(`Measured tare ${lb(input.measuredTareLb)} is ${loss.toFixed(1)} % below the stamped ${lb(cylinder.tareLb)} (${TARE_LOSS_REQUALIFICATION_PERCENT} % or more): send the cylinder for requalification before filling.`)
+      }
+    }
+    const reasons = [...stateReasons, ...checkReasons]
+    const refused = reasons.length > 0
+    const [refill] = await tx.insert(tables.cylinderRefills).values({
+      siteId: cylinder.siteId,
+      userId: actor.user.id,
+      cylinderId,
+      at,
+      idempotencyKey: input.idempotencyKey ?? null,
+      note: input.note,
+      inspection: input.inspection,
+      refused,
+      refusalReasons: reasons,
+      grossBeforeLb: input.grossBeforeLb,
+      grossAfterLb: input.grossAfterLb,
+      measuredTareLb: input.measuredTareLb,
+      productSg: sg,
+      netAddedLb: fill?.netAddedLb ?? null,
+      fillLimitLb: fill?.fillLimitLb ?? fillLimitLb(cylinder.waterCapacityLb, sg),
+      overfilled: fill?.overfilled ?? false,
+      gallonsAt60F: fill?.gallonsAt60F ?? null,
+      tareFlagged,
+    }).returning()
+    let after = cylinder
+    if (!refused) {
+      const [updated] = await tx.update(tables.lpCylinders).set({ status: 'full', statusChangedAt: new Date() })
+        .where(eq(tables.lpCylinders.id, cylinderId)).returning()
+      after = updated!
+    }
+    await writeAudit(tx, {
+      actor, siteId: cylinder.siteId, action: refused ? 'refill_refused' : 'refill', entity: 'cylinder_refill', entityId: refill!.id,
+      after: refill, note: refused ? reasons.join(' ') : undefined,
+    })
+    // the safety leads hear of a refused cylinder at once (queued with the record, sent after the answer)
+    if (refused) {
+      const [tag] = await tx.select({ code: tables.tags.code }).from(tables.tags)
+        .where(and(eq(tables.tags.assetKind, 'cylinder'), eq(tables.tags.assetId, cylinderId), isNull(tables.tags.retiredAt)))
+      await notifyRefusedCylinder(tx, { siteId: cylinder.siteId, cylinderId, code: tag?.code ?? cylinder.serial, reasons, by: actor.user.name })
+    }
+    await recomputeSubjects(tx, cylinder.siteId, [{ kind: 'cylinder', id: cylinderId }], { lock: false })
+    return {
+      refill: refill!,
+      cylinder: after,
+      status: refused ? (stateReasons.length ? 409 : 422) : 201,
+      reasons,
+      offerQuarantine: refused && (failed.length > 0 || tareFlagged) && cylinder.status !== 'condemned' && cylinder.status !== 'quarantined',
+    }
+  })
+}

@@ -1,0 +1,33 @@
+import type { Role } from './auth'
+import type { ObligationState } from '../utils/due-dates'
+import type { DueKind, DueSubject } from '../utils/due-schedules'
+
+// The due list as the API answers it (server/utils/due/list.ts) and the client reads it (app/stores/due.ts).
+
+export interface DueItem {
+  id: string
+  kind: DueKind
+  /** the lead-added schedule it comes from (kind 'custom'), for "Record it done" */
+  scheduleId: string | null
+  what: string
+  subject: DueSubject
+  areaName: string | null
+  personId: string | null
+  dueOn: string | null
+  state: ObligationState
+  lastDoneOn: string | null
+  /** for count rules: charges or hours left (0 or below: due) */
+  remaining: number | null
+  detail: string | null
+  responsibleRole: Role
+  action: { label: string, to: string }
+}
+
+export interface DueListReply {
+  site: { id: string, name: string, timeZone: string }
+  today: string
+  items: DueItem[]
+  counts: Record<ObligationState, number>
+  total: number
+  meta: { queries: number, ms: number }
+}

@@ -1,0 +1,3 @@
+import { useS3ForServers } from './s3'
+
+await useS3ForServers()

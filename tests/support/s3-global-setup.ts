@@ -1,0 +1,1 @@
+export { s3GlobalSetup as default } from './s3'
