@@ -1,9 +1,8 @@
 import { z } from 'zod'
+import { ROLES } from '../types/auth'
 import { CUSTOM_SUBJECT_KINDS, DUE_KINDS, DUE_PAGE_SIZE, DUE_SORTS, INTERVAL_UNITS, OBLIGATION_STATES } from './due-schedules'
 
 // The payloads of the due list, the Schedules page and "Record it done", shared by the forms and the routes.
-
-const ROLE_VALUES = ['operator', 'technician', 'facilities_lead', 'safety_lead', 'admin'] as const
 
 const csv = <T extends string>(values: readonly T[]) => z.string().optional().transform((v, ctx) => {
   if (!v) return undefined
@@ -18,7 +17,7 @@ const csv = <T extends string>(values: readonly T[]) => z.string().optional().tr
 
 export const dueQuerySchema = z.object({
   siteId: z.uuid({ error: 'Pick a site.' }),
-  role: z.enum([...ROLE_VALUES, 'all']).optional(),
+  role: z.enum([...ROLES, 'all']).optional(),
   state: csv(OBLIGATION_STATES),
   kind: csv(DUE_KINDS),
   sort: z.enum(DUE_SORTS).default('due'),
@@ -34,7 +33,7 @@ export const scheduleUpdateSchema = z.object({
   withinDays: z.number().int().min(1).max(365).nullable().optional(),
   afterFailDays: z.number().int().min(1).max(365).nullable().optional(),
   dueSoonDays: z.number().int().min(0).max(365).optional(),
-  responsibleRole: z.enum(ROLE_VALUES).optional(),
+  responsibleRole: z.enum(ROLES).optional(),
   source: z.string().trim().max(300).optional(),
   active: z.boolean().optional(),
 })
@@ -50,7 +49,7 @@ const customFields = {
   every: z.number({ error: 'A whole number from 1 to 100,000.' }).int('A whole number.').min(1, 'At least 1.').max(100_000, 'At most 100,000.'),
   unit: z.enum(CUSTOM_INTERVAL_UNITS, { error: 'Pick a unit.' }),
   dueSoonDays: z.number({ error: 'A whole number of days.' }).int().min(0, 'Not below 0.').max(365, 'At most 365.'),
-  responsibleRole: z.enum(ROLE_VALUES, { error: 'Pick a role.' }),
+  responsibleRole: z.enum(ROLES, { error: 'Pick a role.' }),
   source: z.string().trim().max(300, 'At most 300 characters.').default(''),
 }
 

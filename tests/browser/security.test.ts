@@ -92,8 +92,11 @@ describe('headers', () => {
       },
     })
     const send = (text: string) => fetch(url('/api/auth/sign-in'), { method: 'POST', headers: { 'content-type': 'application/json' }, body: chunkedBody(text), duplex: 'half' } as RequestInit)
+    // The server answers 413 and closes the connection while the rest is still being sent; on a busy machine the
+    // close can reach this client before the answer does (EPIPE or ECONNRESET). Either way the body was refused.
     const big = await send(JSON.stringify({ email: 'x@example.test', password: 'y'.repeat(400 * 1024) }))
-    expect(big.status).toBe(413)
+      .then(res => res.status, (error: Error & { cause?: { code?: string } }) => error.cause?.code ?? error.message)
+    expect([413, 'EPIPE', 'ECONNRESET']).toContain(big)
     const small = await send(JSON.stringify({ email: admin.email, password: admin.password }))
     expect(small.status).toBe(200)
   })

@@ -67,6 +67,11 @@ const rootDir = fileURLToPath(new URL('../..', import.meta.url))
 const get = (path: (w: World) => string): Example => ({ run: x => () => x.c.get(path(x.w)) })
 const post = (path: (w: World) => string, body: (w: World) => unknown): Example => ({ run: x => () => x.c.post(path(x.w), body(x.w)) })
 const inSite = (w: World) => `siteId=${w.siteId}`
+/** A schedule a lead added at the site (a yearly area check), written straight to the database as a fixture. */
+const customSchedule = async (w: World) => (await useTestDb().insert(tables.schedules).values({
+  siteId: w.siteId, kind: 'custom', title: 'Eyewash station yearly inspection', appliesTo: 'Areas', subjectKind: 'area', rule: 'days',
+  every: 1, everyUnit: 'year', dueSoonDays: 14, responsibleRole: 'technician', source: 'ANSI/ISEA Z358.1 (from memory)',
+}).returning())[0]!
 
 type Kind = 'batteries' | 'trucks' | 'chargers' | 'cylinders' | 'areas'
 const existing: Record<Kind, (w: World) => string> = {
@@ -252,6 +257,15 @@ export const ROUTE_EXAMPLES: Record<string, Example> = {
   'server/api/due/export.get.ts': get(w => `/api/due/export?${inSite(w)}`),
   'server/api/schedules/index.get.ts': get(w => `/api/schedules?${inSite(w)}`),
   'server/api/schedules/[kind].put.ts': { run: x => () => x.c.put('/api/schedules/eyewash_activation', { siteId: x.w.siteId, dueSoonDays: 2 }) },
+  'server/api/schedules/custom/index.post.ts': post(() => '/api/schedules/custom', w => ({ siteId: w.siteId, title: 'Charger preventive maintenance', subjectKind: 'charger', every: 6, unit: 'month', dueSoonDays: 14, responsibleRole: 'technician', source: 'Common practice' })),
+  'server/api/schedules/custom/[id].get.ts': { run: async x => (id => () => x.c.get(`/api/schedules/custom/${id}`))((await customSchedule(x.w)).id) },
+  'server/api/schedules/custom/[id].patch.ts': { run: async x => (id => () => x.c.patch(`/api/schedules/custom/${id}`, { siteId: x.w.siteId, dueSoonDays: 21 }))((await customSchedule(x.w)).id) },
+  'server/api/schedules/custom/[id]/completions.post.ts': {
+    run: async (x) => {
+      const s = await customSchedule(x.w)
+      return () => x.c.post(`/api/schedules/custom/${s.id}/completions`, { subjectId: x.w.areaId, doneOn: today(), note: 'Flushed, flow and temperature checked', idempotencyKey: randomUUID() })
+    },
+  },
   'server/api/history/[kind]/[id].get.ts': get(w => `/api/history/battery/${w.batteryId}`),
   'server/api/tags/[code].get.ts': get(w => `/api/tags/${w.batteryTag}`),
   'server/api/tags/[code]/qr.get.ts': get(w => `/api/tags/${w.batteryTag}/qr`),
