@@ -285,7 +285,7 @@ export const ROUTE_EXAMPLES: Record<string, Example> = {
   'server/api/follow-ups/index.get.ts': get(w => `/api/follow-ups?${inSite(w)}`),
   'server/api/follow-ups/[id]/close.post.ts': {
     run: async (x) => {
-      const [f] = await useTestDb().insert(tables.followUps).values({ siteId: x.w.siteId, source: 'incident', sourceId: randomUUID(), title: 'Check the spill kit' }).returning()
+      const [f] = await useTestDb().insert(tables.followUps).values({ siteId: x.w.siteId, source: 'incident', sourceId: randomUUID(), title: 'Check the spill kit', openedOn: today() }).returning()
       return () => x.c.post(`/api/follow-ups/${f!.id}/close`, { note: 'Restocked the neutralizer.' })
     },
   },
