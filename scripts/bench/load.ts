@@ -60,13 +60,16 @@ export interface OpenStream {
   onAnswer?: (status: number, body: string, request: OpenRequest) => void
 }
 
+/** How long the open loop waits, after its run, for answers still owed (status 0 = never answered). */
+const DRAIN_MS = 30_000
+
 // An open loop: each stream fires at its rate for `seconds`, every request on its own keep-alive socket
 // from a shared pool; latency runs from the moment a request is sent to its last byte.
 export async function openLoop(base: string, cookie: string, streams: OpenStream[], seconds: number) {
   const agent = new http.Agent({ keepAlive: true, maxSockets: 512 })
   const url = new URL(base)
   const stats = new Map(streams.map(s => [s.name, { times: [] as number[], errors: 0, skipped: 0, statuses: new Map<number, number>() }]))
-  const pending = new Set<Promise<void>>()
+  const pending = new Map<Promise<void>, string>()
   const send = (s: OpenStream) => {
     const req = s.next()
     const st = stats.get(s.name)!
@@ -99,7 +102,7 @@ export async function openLoop(base: string, cookie: string, streams: OpenStream
       if (payload) r.write(payload)
       r.end()
     })
-    pending.add(p)
+    pending.set(p, s.name)
     p.finally(() => pending.delete(p))
   }
   const timers = streams.map((s) => {
@@ -116,7 +119,13 @@ export async function openLoop(base: string, cookie: string, streams: OpenStream
   })
   await new Promise(r => setTimeout(r, seconds * 1000))
   timers.forEach(clearInterval)
-  await Promise.all(pending)
+  // answers still owed after the run get a bounded wait; any still missing then count as errors
+  await Promise.race([Promise.all(pending.keys()), new Promise(r => setTimeout(r, DRAIN_MS))])
+  for (const name of pending.values()) {
+    const st = stats.get(name)!
+    st.errors += 1
+    st.statuses.set(0, (st.statuses.get(0) ?? 0) + 1)
+  }
   agent.destroy()
   return streams.map((s) => {
     const st = stats.get(s.name)!

@@ -51,7 +51,7 @@ export async function startChargeSession(actor: Actor, battery: Pick<BatteryRow,
         batteryId: locked.id, chargerId: charger.id, overrideReason: soft.length ? body.overrideReason : null,
       }).returning()
       await writeAudit(tx, { actor, siteId, action: 'charge_on', entity: 'charge_session', entityId: session!.id, after: session, note: soft.length ? body.overrideReason : undefined })
-      await recomputeSubjects(tx, siteId, [{ kind: 'battery', id: locked.id }], { lock: false, ctx: await cachedSiteContext(actor, siteId) })
+      await recomputeSubjects(tx, siteId, [{ kind: 'battery', id: locked.id }], { lock: false, ctx: await cachedSiteContext(actor, siteId, tx) })
       return { item: session!, replayed: false, overridden: soft }
     })
   }
@@ -74,9 +74,9 @@ function sameChargeEnd(row: ChargeSession, userId: string, body: ChargeEndInput)
     && row.endTempF === body.endTempF && row.outcome === body.outcome && row.equalize === body.equalize
 }
 
-async function chargeEndReplay(row: ChargeSession) {
-  const settings = await batteryRoomSettings(useDb(), row.siteId)
-  const status = await cardOf(useDb(), row.siteId, row.batteryId, settings.timeZone)
+async function chargeEndReplay(row: ChargeSession, db: DbOrTx = useDb()) {
+  const settings = await batteryRoomSettings(db, row.siteId)
+  const status = await cardOf(db, row.siteId, row.batteryId, settings.timeZone)
   return { item: row, status, currency: settings.currency, replayed: true }
 }
 
@@ -112,11 +112,11 @@ export async function endChargeSession(actor: Actor, found: ChargeSession, body:
     }).where(and(eq(cs.id, found.id), isNull(cs.endedAt))).returning()
     if (!session) {
       const [now] = await tx.select().from(cs).where(eq(cs.id, found.id))
-      if (now && sameChargeEnd(now, actor.user.id, body)) return chargeEndReplay(now)
+      if (now && sameChargeEnd(now, actor.user.id, body)) return chargeEndReplay(now, tx)
       throw createError({ statusCode: 409, message: 'Someone ended this charge at the same moment; reload.' })
     }
     await writeAudit(tx, { actor, siteId: found.siteId, action: 'charge_off', entity: 'charge_session', entityId: found.id, before: found, after: session })
-    await recomputeSubjects(tx, found.siteId, [{ kind: 'battery', id: battery!.id }], { lock: false, ctx: await cachedSiteContext(actor, found.siteId) })
+    await recomputeSubjects(tx, found.siteId, [{ kind: 'battery', id: battery!.id }], { lock: false, ctx: await cachedSiteContext(actor, found.siteId, tx) })
     const status = await cardOf(tx, found.siteId, battery!.id, settings.timeZone)
     return { item: session, status, currency: settings.currency }
   })

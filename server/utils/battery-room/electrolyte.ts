@@ -52,7 +52,7 @@ export async function recordElectrolyteCheck(actor: Actor, battery: BatteryRow, 
         await tx.insert(tables.cellReadings).values(summary.cells.map(c => ({ checkId: check!.id, ...c })))
       }
       await writeAudit(tx, { actor, siteId, action: 'electrolyte_check', entity: 'electrolyte_check', entityId: check!.id, after: { ...check, cells: summary.cells }, note: warnings.map(w => w.message).join(' ') || undefined })
-      await recomputeSubjects(tx, siteId, [{ kind: 'battery', id: battery.id }], { lock: false, ctx: await cachedSiteContext(actor, siteId) })
+      await recomputeSubjects(tx, siteId, [{ kind: 'battery', id: battery.id }], { lock: false, ctx: await cachedSiteContext(actor, siteId, tx) })
       const [after] = await loadBatteryRows(tx, { siteId, batteryIds: [battery.id] })
       return { item: check!, cells: summary.cells, lowCells: summary.lowCells, replayed: false, warnings, status: batteryRoomStatus(after!, settings.timeZone, new Date()) }
     })

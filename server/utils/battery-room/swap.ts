@@ -77,7 +77,7 @@ export async function recordBatterySwap(actor: Actor, body: SwapInput) {
       const again = ownRecord(stored, actor)
       if (again) return { item: again, replayed: true, warnings: [] as FitReason[] }
       if (atError) throw atError
-      const ctx = await cachedSiteContext(actor, siteId)
+      const ctx = await cachedSiteContext(actor, siteId, tx)
       const settings = ctx.settings
       if (truck.power !== 'electric') throw badField('truckId', `Truck ${truck.fleetNumber} is not electric; it takes no battery.`)
       const meter = truckNow?.hourMeter ?? truck.hourMeter
