@@ -111,6 +111,7 @@ export async function correctRecord<Row extends CorrectionRow>(
     const constraint = pgConstraint(error)
     // the same retry key sent twice at once: the first one stored it
     if (constraint?.endsWith('_idem')) return run()
+    if (constraint === 'battery_status_one_per_truck') throw createError({ statusCode: 409, message: 'That correction would leave two batteries in one truck; correct the later battery changes of that truck first.' })
     if (constraint?.endsWith('_corrected_once')) throw createError({ statusCode: 409, message: `Someone corrected that ${noun} at the same moment; reload and correct the latest one.` })
     throw error
   }
