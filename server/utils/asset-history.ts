@@ -14,6 +14,8 @@ export interface HistoryRecord {
   reason: string | null
   /** the record's correctable values, to fill in the "Correct this" form */
   values: Record<string, unknown>
+  /** serial or fleet number of each asset id among the values (set by the history route) */
+  labels?: Record<string, string>
 }
 
 export interface HistoryEntry {
@@ -62,9 +64,26 @@ export function recordEntry(entry: HistoryEntry, kind: CorrectableKind, row: { i
 export async function correctableTimeline(actor: Actor, siteId: string, items: HistoryEntry[]): Promise<HistoryEntry[]> {
   const [site] = await useDb().select({ settings: tables.sites.settings }).from(tables.sites).where(eq(tables.sites.id, siteId))
   const windowDays = parseSiteSettings(site?.settings).correctionWindowDays
-  return items.map(h => (h.record
-    ? { ...h, mayCorrect: !h.record.correctedById && correctionAllowed(actor, CORRECTION_ABILITIES[h.record.kind], siteId, new Date(h.at), windowDays) === 'yes' }
-    : h))
+  const names = await assetNames(items.flatMap(h => Object.entries(h.record?.values ?? {}).filter(([k, v]) => k.endsWith('Id') && typeof v === 'string').map(([, v]) => v as string)))
+  return items.map((h) => {
+    if (!h.record) return h
+    const labels = Object.fromEntries(Object.entries(h.record.values).filter(([, v]) => typeof v === 'string' && names.has(v)).map(([k, v]) => [k, names.get(v as string)!]))
+    const mayCorrect = !h.record.correctedById && correctionAllowed(actor, CORRECTION_ABILITIES[h.record.kind], siteId, new Date(h.at), windowDays) === 'yes'
+    return { ...h, record: { ...h.record, labels }, mayCorrect }
+  })
+}
+
+/** Battery serials, truck fleet numbers and cylinder serials of the given ids. */
+async function assetNames(ids: string[]): Promise<Map<string, string>> {
+  const unique = [...new Set(ids)]
+  if (unique.length === 0) return new Map()
+  const db = useDb()
+  const [b, t, c] = await Promise.all([
+    db.select({ id: tables.batteries.id, name: tables.batteries.serial }).from(tables.batteries).where(inArray(tables.batteries.id, unique)),
+    db.select({ id: tables.trucks.id, name: tables.trucks.fleetNumber }).from(tables.trucks).where(inArray(tables.trucks.id, unique)),
+    db.select({ id: tables.lpCylinders.id, name: tables.lpCylinders.serial }).from(tables.lpCylinders).where(inArray(tables.lpCylinders.id, unique)),
+  ])
+  return new Map([...b, ...t, ...c].map(r => [r.id, r.name]))
 }
 
 export const HISTORY_CSV_COLUMNS = ['at', 'title', 'who', 'detail', 'recordKind', 'recordId', 'corrects', 'correctedBy', 'correctionReason'] as const

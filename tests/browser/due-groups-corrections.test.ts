@@ -4,7 +4,8 @@ import { mkdirSync } from 'node:fs'
 import { eq } from 'drizzle-orm'
 import type { Browser } from 'playwright-core'
 import { builtServer } from '../support/http'
-import { charger, closeTestDb, site, tables, user, useTestDb } from '../support/db'
+import { battery, charger, closeTestDb, refreshReadModels, site, tables, user, useTestDb } from '../support/db'
+import { fittedTruck } from '../support/battery-room'
 import { DESKTOP, PHONE, launchChromium, signInAt } from '../support/chromium'
 import { endedCharges, oldBattery } from '../support/due'
 
@@ -61,7 +62,6 @@ describe('grouped due list and corrections in the browser', () => {
     await row.getByRole('button', { name: 'Correct this' }).click()
     const form = page.getByRole('form', { name: /Correct this electrolyte check/ })
     await form.locator('input[name="waterAddedGal"]').fill('1.5')
-    await form.locator('input[name="waterAddedGal"]').dispatchEvent('change')
     await form.locator('textarea[name="reason"]').fill('Read the jug wrong.')
     await form.getByRole('button', { name: 'Save correction' }).click()
     await expect.poll(() => page.getByText('Why corrected: Read the jug wrong.').count()).toBe(1)
@@ -70,6 +70,28 @@ describe('grouped due list and corrections in the browser', () => {
     expect(rows).toHaveLength(2)
     expect(rows.find(r => r.correctsId)?.waterAddedGal).toBe(1.5)
     await page.screenshot({ path: 'screenshots/battery-history-correction-phone.png', fullPage: true })
+    await context.close()
+  })
+
+  it('a battery change corrected on the truck\'s page to the battery typed by its serial moves both batteries', async () => {
+    const truck = await fittedTruck(siteId)
+    const wrong = await battery({ siteId })
+    const right = await battery({ siteId })
+    await useTestDb().insert(tables.batterySwaps).values({ siteId, userId: lead.id, truckId: truck.id, batteryInId: wrong.id, hourMeter: 12, at: new Date(Date.now() - 600_000) })
+    await refreshReadModels(siteId, [{ kind: 'battery', id: wrong.id }, { kind: 'truck', id: truck.id }])
+    const { page, context } = await signInAt(browser, lead, `/trucks/${truck.id}`, DESKTOP)
+    const row = page.locator('li').filter({ hasText: `Battery ${wrong.serial} fitted` }).first()
+    await row.getByRole('button', { name: 'Correct this' }).click()
+    const form = page.getByRole('form', { name: /Correct this battery change/ })
+    expect(await form.locator('input[name="batteryInId"]').inputValue()).toBe(wrong.serial)
+    await form.locator('input[name="batteryInId"]').fill(right.serial)
+    await form.locator('textarea[name="reason"]').fill('Scanned the battery beside it.')
+    await form.getByRole('button', { name: 'Save correction' }).click()
+    await expect.poll(() => page.getByText('Why corrected: Scanned the battery beside it.').count()).toBe(1)
+    const placeOf = async (id: string) => (await useTestDb().select().from(tables.batteryStatus).where(eq(tables.batteryStatus.batteryId, id)))[0]?.truckId ?? null
+    expect(await placeOf(right.id)).toBe(truck.id)
+    expect(await placeOf(wrong.id)).toBeNull()
+    await page.screenshot({ path: 'screenshots/truck-history-correction-desktop.png', fullPage: true })
     await context.close()
   })
 })
