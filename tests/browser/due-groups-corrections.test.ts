@@ -14,6 +14,8 @@ await setup(builtServer)
 // The lead's due list as groups by kind (phone and desktop), and correcting an electrolyte check from a
 // battery's history: the original struck through beside its correction, with why.
 let browser: Browser
+// the machine that runs these may be busy: wait for the page as long as a person would
+const SLOW = { timeout: 15_000 }
 let siteId: string
 let batteryId: string
 let lead: { email: string, password: string, id: string }
@@ -41,15 +43,15 @@ describe('grouped due list and corrections in the browser', () => {
     it(`the due list shows kinds with counts, worst first, and opens a group (${viewport.width} px)`, async () => {
       const { page, context } = await signInAt(browser, lead, '/due', viewport)
       const groups = page.getByTestId('due-groups')
-      await expect.poll(() => groups.locator('[data-due-group]').count()).toBeGreaterThan(1)
+      await expect.poll(() => groups.locator('[data-due-group]').count(), SLOW).toBeGreaterThan(1)
       const first = groups.locator('[data-due-group]').first()
       expect(await first.textContent()).toMatch(/Overdue/)
       expect(await first.textContent()).toMatch(/\d+ overdue/)
       expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(viewport.width)
       await first.getByRole('button').first().click()
-      await expect.poll(() => first.getByRole('button').first().getAttribute('aria-expanded')).toBe('true')
+      await expect.poll(() => first.getByRole('button').first().getAttribute('aria-expanded'), SLOW).toBe('true')
       const rows = viewport === PHONE ? first.locator('[data-due-kind]') : first.locator('table tbody tr')
-      await expect.poll(() => rows.count()).toBeGreaterThan(0)
+      await expect.poll(() => rows.count(), SLOW).toBeGreaterThan(0)
       expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(viewport.width)
       await page.screenshot({ path: `screenshots/due-groups-${viewport === PHONE ? 'phone' : 'desktop'}.png`, fullPage: true })
       await context.close()
@@ -64,8 +66,8 @@ describe('grouped due list and corrections in the browser', () => {
     await form.locator('input[name="waterAddedGal"]').fill('1.5')
     await form.locator('textarea[name="reason"]').fill('Read the jug wrong.')
     await form.getByRole('button', { name: 'Save correction' }).click()
-    await expect.poll(() => page.getByText('Why corrected: Read the jug wrong.').count()).toBe(1)
-    await expect.poll(() => page.locator('.line-through').filter({ hasText: 'Electrolyte level check' }).count()).toBe(1)
+    await expect.poll(() => page.getByText('Why corrected: Read the jug wrong.').count(), SLOW).toBe(1)
+    await expect.poll(() => page.locator('.line-through').filter({ hasText: 'Electrolyte level check' }).count(), SLOW).toBe(1)
     const rows = await useTestDb().select().from(tables.electrolyteChecks).where(eq(tables.electrolyteChecks.batteryId, batteryId))
     expect(rows).toHaveLength(2)
     expect(rows.find(r => r.correctsId)?.waterAddedGal).toBe(1.5)
@@ -87,7 +89,7 @@ describe('grouped due list and corrections in the browser', () => {
     await form.locator('input[name="batteryInId"]').fill(right.serial)
     await form.locator('textarea[name="reason"]').fill('Scanned the battery beside it.')
     await form.getByRole('button', { name: 'Save correction' }).click()
-    await expect.poll(() => page.getByText('Why corrected: Scanned the battery beside it.').count()).toBe(1)
+    await expect.poll(() => page.getByText('Why corrected: Scanned the battery beside it.').count(), SLOW).toBe(1)
     const placeOf = async (id: string) => (await useTestDb().select().from(tables.batteryStatus).where(eq(tables.batteryStatus.batteryId, id)))[0]?.truckId ?? null
     expect(await placeOf(right.id)).toBe(truck.id)
     expect(await placeOf(wrong.id)).toBeNull()
