@@ -128,3 +128,24 @@ export async function correctionRoute<S extends z.ZodType<CorrectionInput>, R ex
   setResponseStatus(event, result.replayed ? 200 : 201)
   return result
 }
+
+/**
+ * A corrected hour meter must sit between the truck's readings before and after the record (swaps,
+ * cylinder changes, completions that stand): a truck's hours only go up, and its hours-based schedules
+ * count from them.
+ */
+export async function hourMeterInOrder(tx: Transaction, truckId: string, recordId: string, at: Date, hourMeter: number) {
+  const readings = (table: string, subject: string) => sql`
+    SELECT r.at, r.hour_meter FROM ${sql.raw(table)} r
+    WHERE r.${sql.raw(subject)} = ${truckId} AND r.hour_meter IS NOT NULL AND r.id <> ${recordId} AND ${isEffectiveRecord(table, 'r')}`
+  const [around] = await tx.execute(sql`
+    SELECT max(hour_meter) FILTER (WHERE at <= ${at.toISOString()}::timestamptz) AS before,
+           min(hour_meter) FILTER (WHERE at > ${at.toISOString()}::timestamptz) AS after
+    FROM (${readings('battery_swaps', 'truck_id')} UNION ALL ${readings('cylinder_exchanges', 'truck_id')} UNION ALL ${readings('schedule_completions', 'subject_id')}) x`) as unknown as { before: number | null, after: number | null }[]
+  if (around?.before !== null && around?.before !== undefined && hourMeter < around.before) {
+    throw badField('hourMeter', `The hour meter read ${around.before} h at an earlier record of this truck; check the reading.`)
+  }
+  if (around?.after !== null && around?.after !== undefined && hourMeter > around.after) {
+    throw badField('hourMeter', `The hour meter read ${around.after} h at a later record of this truck; correct that one too, or check the reading.`)
+  }
+}

@@ -125,6 +125,12 @@ describe('record corrections', () => {
     expect(moved.status).toBe(409)
     expect(moved.body.message).toMatch(/latest cylinder change/)
     expect((await correct(admin, 'co-reading', randomUUID(), correctionBody('co-reading', w))).status).toBe(404)
+    const truck = await fittedTruck(w.siteId)
+    const older = await freshRecord('battery-swap', { ...w, truckId: truck.id }, hoursAgo(2))
+    await useTestDb().insert(tables.batterySwaps).values({ siteId: w.siteId, userId: w.userId, truckId: truck.id, batteryInId: w.batteryId, hourMeter: 30, at: hoursAgo(1) })
+    const meter = await correct(admin, 'battery-swap', older, { ...correctionBody('battery-swap', w), truckId: truck.id, hourMeter: 31 })
+    expect(meter.status).toBe(400)
+    expect(meter.body.data.fields.hourMeter).toMatch(/30 h at a later record/)
   })
 
   it('a repeat with the same retry key answers the stored correction', async () => {

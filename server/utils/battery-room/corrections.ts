@@ -33,6 +33,7 @@ export async function correctBatterySwap(actor: Actor, input: WithId<SwapCorrect
     if (truck.power !== 'electric') throw badField('truckId', `Truck ${truck.fleetNumber} is not electric; it takes no battery.`)
     await batteryAtSite(tx, original.siteId, input.batteryInId, 'batteryInId')
     if (input.batteryOutId) await batteryAtSite(tx, original.siteId, input.batteryOutId, 'batteryOutId')
+    await hourMeterInOrder(tx, truck.id, original.id, original.at, input.hourMeter)
     return {
       values: {
         truckId: truck.id, batteryInId: input.batteryInId, batteryOutId: input.batteryOutId, hourMeter: input.hourMeter,

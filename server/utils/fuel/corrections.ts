@@ -46,6 +46,7 @@ const exchangeSpec: CorrectionKindSpec<typeof tables.cylinderExchanges.$inferSel
 // to the cage full, the right one is on the truck.
 export async function correctCylinderExchange(actor: Actor, input: WithId<ExchangeCorrection>) {
   return correctRecord(actor, exchangeSpec, input.id, input, async (tx, original) => {
+    if (input.hourMeter !== null) await hourMeterInOrder(tx, original.truckId, original.id, original.at, input.hourMeter)
     if (input.cylinderOnId === original.cylinderOnId) return { values: { truckId: original.truckId, cylinderOffId: original.cylinderOffId, cylinderOnId: original.cylinderOnId, hourMeter: input.hourMeter } }
     const x = tables.cylinderExchanges
     const [latest] = await tx.select({ id: x.id }).from(x)
