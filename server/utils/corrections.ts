@@ -135,7 +135,7 @@ export async function correctionRoute<S extends z.ZodType<CorrectionInput>, R ex
  * count from them.
  */
 export async function hourMeterInOrder(tx: Transaction, truckId: string, recordId: string, at: Date, hourMeter: number) {
-  const readings = (table: string, subject: string) => sql`
+  const readings = (table: Parameters<typeof isEffectiveRecord>[0], subject: string) => sql`
     SELECT r.at, r.hour_meter FROM ${sql.raw(table)} r
     WHERE r.${sql.raw(subject)} = ${truckId} AND r.hour_meter IS NOT NULL AND r.id <> ${recordId} AND ${isEffectiveRecord(table, 'r')}`
   const [around] = await tx.execute(sql`
