@@ -14,7 +14,8 @@ export default defineConfig({
       { resolve: { alias }, test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node' } },
       await defineVitestProject({
         // IndexedDB (the device outbox) from a general-purpose in-memory implementation
-        test: { name: 'nuxt', include: ['tests/nuxt/**/*.test.ts'], environment: 'nuxt', setupFiles: ['fake-indexeddb/auto'] },
+        // starting the Nuxt runtime takes more than the default 10 s on a busy 2-core machine
+        test: { name: 'nuxt', include: ['tests/nuxt/**/*.test.ts'], environment: 'nuxt', setupFiles: ['fake-indexeddb/auto'], hookTimeout: 60_000 },
       }),
       {
         resolve: { alias },

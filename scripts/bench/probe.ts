@@ -1,7 +1,8 @@
 // `npx tsx scripts/bench/probe.ts`: each route one request at a time with the read cache off, for the
-// latency of one request on its own (BAYWARD_PROBE_SECONDS, 5 by default).
+// latency of one request on its own (BAYWARD_PROBE_SECONDS, 5 by default; BAYWARD_BENCH_ONLY picks routes).
 import { fileURLToPath } from 'node:url'
 import { drive } from './load'
+import { wanted } from './routes'
 import { startServer } from './server'
 import { BENCH, benchDatabaseUrl, benchId } from './shape'
 
@@ -22,6 +23,7 @@ try {
     ['list', get(`/api/batteries?siteId=${benchId('site:1')}&page=3&pageSize=50&sort=capacityAh`, lead)],
   ]
   for (const [name, requests] of routes) {
+    if (name !== 'health' && !wanted(name)) continue
     await drive(name, server.base, { connections: 1, duration: 1, requests })
     const f = await drive(name, server.base, { connections: 1, duration: seconds, requests })
     console.log(`${name.padEnd(7)} ${f.rps.toFixed(0).padStart(6)} req/s  p50 ${f.p50.toFixed(1)} ms  p95 ${f.p95.toFixed(1)} ms  errors ${f.errors}`)

@@ -132,10 +132,11 @@ export const tagCounters = pgTable('tag_counters', {
 
 // Counters per site that every write to the site's records moves on (statement triggers in migration
 // 0004 keep them; nothing in the application writes them). A site's revision is the sum of its slots:
-// each database connection bumps its own slot, so concurrent writes at one site do not queue on one row.
+// each database connection bumps its own slot (pid mod 64, migration 0009), so concurrent writes at one
+// site seldom queue on one row.
 // Read models cached in a server process are keyed by the revision, so a change at the site is seen by
 // the next request, whichever process served the write.
-export const SITE_REVISION_SLOTS = 16
+export const SITE_REVISION_SLOTS = 64
 export const siteRevisions = pgTable('site_revisions', {
   siteId: uuid().notNull(),
   slot: smallint().notNull(),

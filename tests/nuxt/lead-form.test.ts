@@ -1,0 +1,38 @@
+import { describe, expect, it } from 'vitest'
+import { scheduleCreateSchema } from '../../shared/utils/schedule-schemas'
+import { useLeadForm } from '../../app/composables/useLeadForm'
+
+// A lead's form: the shared schema before sending (worded by the form's hints), one send, and the
+// server's refusal at the fields and in words.
+const body = { siteId: '7b0c6a3e-5a0b-4c41-9a57-1d1f0f4b2c11', title: 'Extinguisher yearly maintenance', subjectKind: 'area', every: 1, unit: 'year', dueSoonDays: 14, responsibleRole: 'safety_lead', source: '' }
+
+describe('useLeadForm', () => {
+  it('runs the schema first: field messages (hints where given), nothing sent', async () => {
+    let sent = 0
+    const form = useLeadForm({ every: 'A whole number from 1 to 1000.' })
+    expect(await form.submit(scheduleCreateSchema, { ...body, title: 'x', every: 0 }, async () => sent++)).toBeUndefined()
+    expect(sent).toBe(0)
+    expect(form.fields.value.every).toBe('A whole number from 1 to 1000.')
+    expect(form.fields.value.title).toBeTruthy()
+    expect(form.problem.value).toBe('Check the highlighted fields.')
+  })
+
+  it('sends the parsed body once and clears the messages', async () => {
+    const form = useLeadForm()
+    form.refuse({ every: 'Required.' })
+    const sent: unknown[] = []
+    expect(await form.submit(scheduleCreateSchema, body, async data => (sent.push(data), 'ok'))).toBe('ok')
+    expect(sent).toHaveLength(1)
+    expect(form.fields.value).toEqual({})
+    expect(form.problem.value).toBe('')
+    expect(form.saving.value).toBe(false)
+  })
+
+  it('a refusal from the server lands at its fields and in words', async () => {
+    const form = useLeadForm()
+    const refusal = { statusCode: 400, data: { message: 'A schedule with that name exists.', data: { fields: { title: 'Pick another name.' } } } }
+    expect(await form.submit(scheduleCreateSchema, body, async () => Promise.reject(refusal))).toBeUndefined()
+    expect(form.fields.value).toEqual({ title: 'Pick another name.' })
+    expect(form.problem.value).toContain('A schedule with that name exists.')
+  })
+})
