@@ -15,4 +15,5 @@ export const SITE_SETTING_VIEWS: { key: keyof SiteSettings, label: string, sourc
   { key: 'requalYearsProofPressure', label: 'Requalification years — proof pressure', source: '49 CFR 180.209 (from memory)' },
   { key: 'requalYearsExternalVisual', label: 'Requalification years — external visual', source: '49 CFR 180.209' },
   { key: 'digestHour', label: 'Daily digest e-mail at (site hour, 0–23)', source: 'site choice' },
+  { key: 'correctionWindowDays', label: 'Records correctable by their recorders for (days; later only leads)', source: 'site choice' },
 ]

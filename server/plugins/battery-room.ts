@@ -9,6 +9,8 @@ const FLAG_TONES: Record<string, StatusTone> = {
   wateringOverdue: 'warning', weakCell: 'warning', ranHot: 'warning', wateringDue: 'caution', equalizeDue: 'notice',
 }
 const number = new Intl.NumberFormat('en-US', { maximumFractionDigits: 1 })
+const swapValues = (w: typeof tables.batterySwaps.$inferSelect) => ({ truckId: w.truckId, batteryOutId: w.batteryOutId, batteryInId: w.batteryInId, hourMeter: w.hourMeter })
+const chargeValues = (r: typeof tables.chargeSessions.$inferSelect) => ({ ampHoursReturned: r.ampHoursReturned, endTempF: r.endTempF, outcome: r.outcome, equalize: r.equalize })
 
 // The battery room describes batteries (state and care flags from battery_status and their obligations)
 // and electric trucks (the battery they hold), and adds swaps, charges and electrolyte checks to the timelines.
@@ -42,7 +44,7 @@ export default defineNitroPlugin(() => {
     const c = tables.chargeSessions
     const e = tables.electrolyteChecks
     const [swaps, charges, checks] = await Promise.all([
-      db.select({ id: s.id, at: s.at, batteryInId: s.batteryInId, truck: tables.trucks.fleetNumber, who: tables.users.name, overrideReason: s.overrideReason })
+      db.select({ w: s, truck: tables.trucks.fleetNumber, who: tables.users.name })
         .from(s).innerJoin(tables.trucks, eq(tables.trucks.id, s.truckId)).innerJoin(tables.users, eq(tables.users.id, s.userId))
         .where(or(eq(s.batteryInId, batteryId), eq(s.batteryOutId, batteryId))).orderBy(desc(s.at)).limit(limit),
       db.select({ row: c, charger: tables.chargers.name, who: tables.users.name })
@@ -52,14 +54,17 @@ export default defineNitroPlugin(() => {
         .from(e).innerJoin(tables.users, eq(tables.users.id, e.userId))
         .where(eq(e.batteryId, batteryId)).orderBy(desc(e.at)).limit(limit),
     ])
-    const entries: HistoryEntry[] = swaps.map(w => ({
+    const [swapsBy, chargesBy, checksBy] = await Promise.all([
+      correctedByOf(s, swaps.map(x => x.w.id)), correctedByOf(c, charges.map(x => x.row.id)), correctedByOf(e, checks.map(x => x.row.id)),
+    ])
+    const entries: HistoryEntry[] = swaps.map(({ w, truck, who }) => recordEntry({
       id: `swap-${w.id}-${w.batteryInId === batteryId ? 'in' : 'out'}`,
       at: w.at,
-      title: w.batteryInId === batteryId ? `Put in truck ${w.truck}` : `Taken out of truck ${w.truck}`,
-      who: w.who,
+      title: w.batteryInId === batteryId ? `Put in truck ${truck}` : `Taken out of truck ${truck}`,
+      who,
       detail: w.overrideReason ? `Override: ${w.overrideReason}` : null,
       tone: w.overrideReason ? 'warning' : undefined,
-    }))
+    }, 'battery-swap', w, swapsBy, swapValues(w)))
     for (const { row, charger, who } of charges) {
       entries.push({ id: `charge-${row.id}`, at: row.at, title: `${row.equalize ? 'Equalize' : 'Charge'} on ${charger}`, who, detail: row.overrideReason ? `Override: ${row.overrideReason}` : null })
       if (row.endedAt) {
@@ -70,7 +75,7 @@ export default defineNitroPlugin(() => {
           row.endTempF !== null ? `${number.format(row.endTempF)} °F` : null,
           row.ranHot ? 'ran hot' : null,
         ].filter(Boolean)
-        entries.push({ id: `charge-end-${row.id}`, at: row.endedAt, title: `Off charger ${charger}`, who, detail: bits.join(' · '), tone: row.ranHot ? 'warning' : undefined })
+        entries.push(recordEntry({ id: `charge-end-${row.id}`, at: row.endedAt, title: `Off charger ${charger}`, who, detail: bits.join(' · '), tone: row.ranHot ? 'warning' : undefined }, 'charge-session', row, chargesBy, chargeValues(row)))
       }
     }
     for (const { row, who } of checks) {
@@ -81,21 +86,22 @@ export default defineNitroPlugin(() => {
         row.spread !== null ? `spread ${row.spread.toFixed(3)}` : null,
         row.lowCellCount ? `${row.lowCellCount} low cell${row.lowCellCount === 1 ? '' : 's'}` : null,
       ].filter(Boolean)
-      entries.push({ id: `check-${row.id}`, at: row.at, title: row.scope === 'every_cell' ? 'Every-cell reading' : row.scope === 'pilot_cell' ? 'Pilot-cell reading' : 'Electrolyte level check', who, detail: bits.join(' · '), tone: row.lowCellCount ? 'warning' : undefined })
+      entries.push(recordEntry({ id: `check-${row.id}`, at: row.at, title: row.scope === 'every_cell' ? 'Every-cell reading' : row.scope === 'pilot_cell' ? 'Pilot-cell reading' : 'Electrolyte level check', who, detail: bits.join(' · '), tone: row.lowCellCount ? 'warning' : undefined }, 'electrolyte-check', row, checksBy, { level: row.level, waterAddedGal: row.waterAddedGal }))
     }
     return entries
   })
 
   registerHistorySource('truck', async (truckId, limit) => {
     const s = tables.batterySwaps
-    const rows = await useDb().select({ id: s.id, at: s.at, hourMeter: s.hourMeter, serial: tables.batteries.serial, who: tables.users.name, overrideReason: s.overrideReason })
+    const rows = await useDb().select({ r: s, serial: tables.batteries.serial, who: tables.users.name })
       .from(s).innerJoin(tables.batteries, eq(tables.batteries.id, s.batteryInId)).innerJoin(tables.users, eq(tables.users.id, s.userId))
       .where(eq(s.truckId, truckId)).orderBy(desc(s.at)).limit(limit)
-    return rows.map(r => ({
-      id: `swap-${r.id}`, at: r.at, title: `Battery ${r.serial} fitted`, who: r.who,
+    const by = await correctedByOf(s, rows.map(x => x.r.id))
+    return rows.map(({ r, serial, who }) => recordEntry({
+      id: `swap-${r.id}`, at: r.at, title: `Battery ${serial} fitted`, who,
       detail: [r.hourMeter !== null ? `${number.format(r.hourMeter)} h` : null, r.overrideReason ? `Override: ${r.overrideReason}` : null].filter(Boolean).join(' · ') || null,
       tone: r.overrideReason ? 'warning' as const : undefined,
-    }))
+    }, 'battery-swap', r, by, swapValues(r)))
   })
 
   registerHistorySource('charger', async (chargerId, limit) => {
@@ -103,9 +109,13 @@ export default defineNitroPlugin(() => {
     const rows = await useDb().select({ row: c, serial: tables.batteries.serial, who: tables.users.name })
       .from(c).innerJoin(tables.batteries, eq(tables.batteries.id, c.batteryId)).innerJoin(tables.users, eq(tables.users.id, c.userId))
       .where(eq(c.chargerId, chargerId)).orderBy(desc(c.at)).limit(limit)
-    return rows.map(({ row, serial, who }) => ({
-      id: `charge-${row.id}`, at: row.at, title: `Charged battery ${serial}`, who,
-      detail: row.endedAt ? `${row.outcome ?? 'ended'}${row.gridKwh !== null ? ` · ${number.format(row.gridKwh)} kWh` : ''}` : 'on charge now',
-    }))
+    const by = await correctedByOf(c, rows.map(x => x.row.id))
+    return rows.map(({ row, serial, who }) => {
+      const entry: HistoryEntry = {
+        id: `charge-${row.id}`, at: row.at, title: `Charged battery ${serial}`, who,
+        detail: row.endedAt ? `${row.outcome ?? 'ended'}${row.ampHoursReturned !== null ? ` · ${number.format(row.ampHoursReturned)} Ah` : ''}${row.gridKwh !== null ? ` · ${number.format(row.gridKwh)} kWh` : ''}` : 'on charge now',
+      }
+      return row.endedAt ? recordEntry(entry, 'charge-session', row, by, chargeValues(row)) : entry
+    })
   })
 })

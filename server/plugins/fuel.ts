@@ -61,31 +61,36 @@ export default defineNitroPlugin(() => {
     const requals = await db.select({ q: tables.requalifications, who: tables.users.name }).from(tables.requalifications)
       .innerJoin(tables.users, eq(tables.users.id, tables.requalifications.userId))
       .where(eq(tables.requalifications.cylinderId, id)).orderBy(desc(tables.requalifications.at)).limit(limit)
+    const [refillsBy, exchangesBy, requalsBy] = await Promise.all([
+      correctedByOf(tables.cylinderRefills, refills.map(x => x.r.id)), correctedByOf(tables.cylinderExchanges, exchanges.map(x => x.e.id)),
+      correctedByOf(tables.requalifications, requals.map(x => x.q.id)),
+    ])
     return [
-      ...refills.map(({ r, who }): HistoryEntry => ({
+      ...refills.map(({ r, who }): HistoryEntry => recordEntry({
         id: `refill-${r.id}`,
         at: r.at,
         who,
         title: r.refused ? 'Refill refused' : `Refilled: ${lb(r.netAddedLb)} added`,
         detail: r.refused ? r.refusalReasons.join(' ') : `Limit ${lb(r.fillLimitLb)}; ${r.gallonsAt60F === null ? '—' : `${r.gallonsAt60F.toFixed(1)} gal at 60 °F`}${r.note ? ` · ${r.note}` : ''}`,
         tone: r.refused ? 'danger' : 'safe',
-      })),
-      ...exchanges.map(({ e, who, truck }): HistoryEntry => ({
+      }, 'cylinder-refill', r, refillsBy, { grossBeforeLb: r.grossBeforeLb, grossAfterLb: r.grossAfterLb, measuredTareLb: r.measuredTareLb, productSg: r.productSg }),
+      ),
+      ...exchanges.map(({ e, who, truck }): HistoryEntry => recordEntry({
         id: `exchange-${e.id}-${e.cylinderOnId === id ? 'on' : 'off'}`,
         at: e.at,
         who,
         title: e.cylinderOnId === id ? `Put on truck ${truck}` : `Taken off truck ${truck} (to the cage, empty)`,
         detail: e.note || null,
         tone: 'notice',
-      })),
-      ...requals.map(({ q, who }): HistoryEntry => ({
+      }, 'cylinder-exchange', e, exchangesBy, { cylinderOnId: e.cylinderOnId, hourMeter: e.hourMeter })),
+      ...requals.map(({ q, who }): HistoryEntry => recordEntry({
         id: `requal-${q.id}`,
         at: q.at,
         who,
         title: q.passed ? `Requalified (${REQUALIFICATION_METHOD_LABELS[q.method].toLowerCase()})` : 'Condemned at requalification',
         detail: `Performed ${q.performedOn}; marked ${q.marking || '—'}${q.nextDueOn ? `; next due ${q.nextDueOn}` : ''}${q.note ? ` · ${q.note}` : ''}`,
         tone: q.passed ? 'safe' : 'danger',
-      })),
+      }, 'requalification', q, requalsBy, { method: q.method, marking: q.marking, passed: q.passed })),
     ]
   })
 
@@ -99,18 +104,34 @@ export default defineNitroPlugin(() => {
     const tests = await db.select({ t: tables.emissionsTests, who: tables.users.name }).from(tables.emissionsTests)
       .innerJoin(tables.users, eq(tables.users.id, tables.emissionsTests.userId))
       .where(eq(tables.emissionsTests.truckId, id)).orderBy(desc(tables.emissionsTests.at)).limit(limit)
+    const [exchangesBy, testsBy] = await Promise.all([
+      correctedByOf(tables.cylinderExchanges, exchanges.map(x => x.e.id)), correctedByOf(tables.emissionsTests, tests.map(x => x.t.id)),
+    ])
     return [
-      ...exchanges.map(({ e, who, onSerial }): HistoryEntry => ({
+      ...exchanges.map(({ e, who, onSerial }): HistoryEntry => recordEntry({
         id: `exchange-${e.id}`, at: e.at, who, title: `Cylinder changed: ${onSerial} fitted`, detail: e.note || null, tone: 'notice',
-      })),
-      ...tests.map(({ t, who }): HistoryEntry => ({
+      }, 'cylinder-exchange', e, exchangesBy, { cylinderOnId: e.cylinderOnId, hourMeter: e.hourMeter })),
+      ...tests.map(({ t, who }): HistoryEntry => recordEntry({
         id: `emissions-${t.id}`,
         at: t.at,
         who,
         title: t.passed ? `Emissions test passed (${t.testedOn})` : `Emissions test failed (${t.testedOn})`,
         detail: `CO ${t.coIdlePct} % idle, ${t.coHighIdlePct} % high idle; tested by ${t.testerName}; next due ${t.nextDueOn}${t.reasons.length ? ` · ${t.reasons.join(' ')}` : ''}`,
         tone: t.passed ? 'safe' : 'danger',
+      }, 'emissions-test', t, testsBy, {
+        testerName: t.testerName, coIdlePct: t.coIdlePct, coHighIdlePct: t.coHighIdlePct, hcPpm: t.hcPpm, co2Pct: t.co2Pct, o2Pct: t.o2Pct,
+        idleRpm: t.idleRpm, highIdleRpm: t.highIdleRpm, certificateUploadId: t.certificateUploadId,
       })),
     ]
+  })
+  registerHistorySource('area', async (id, limit): Promise<HistoryEntry[]> => {
+    const r = tables.coReadings
+    const rows = await useDb().select({ r, who: tables.users.name }).from(r).innerJoin(tables.users, eq(tables.users.id, r.userId))
+      .where(eq(r.areaId, id)).orderBy(desc(r.at)).limit(limit)
+    const by = await correctedByOf(r, rows.map(x => x.r.id))
+    return rows.map(({ r: row, who }) => recordEntry({
+      id: `co-${row.id}`, at: row.at, who, title: `CO reading ${row.ppm} ppm (${row.takenOn})`, detail: `${row.durationHours} h${row.note ? ` · ${row.note}` : ''}`,
+      tone: row.ppm > CO_LIMITS.nioshCeiling.ppm ? 'danger' : undefined,
+    }, 'co-reading', row, by, { ppm: row.ppm, durationHours: row.durationHours }))
   })
 })

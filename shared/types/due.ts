@@ -23,11 +23,22 @@ export interface DueItem {
   action: { label: string, to: string }
 }
 
+/** One kind of obligation in the list: how many in each state; the list's groups come worst state first. */
+export interface DueGroup {
+  kind: DueKind
+  label: string
+  counts: Record<ObligationState, number>
+  worst: ObligationState
+  total: number
+}
+
 export interface DueListReply {
   site: { id: string, name: string, timeZone: string }
   today: string
   items: DueItem[]
   counts: Record<ObligationState, number>
+  /** every obligation of the filter grouped by kind (not only the page's), worst state first */
+  groups: DueGroup[]
   total: number
   meta: { queries: number, ms: number }
 }

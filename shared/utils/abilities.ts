@@ -59,6 +59,7 @@ export const ABILITIES = {
   'incident.view': at(LEADS, 'see the incidents'),
   'log.view': at(FLOOR, 'see area logs, their reports and follow-ups'),
   'log.record': at(FLOOR, 'fill in or correct area logs'),
+  'record.correct-late': at(LEADS, 'correct a record after the site\'s correction window'),
   'log.sign': at(['safety_lead'], 'sign area logs'),
   'checklist.edit': at(LEADS, 'change the area checklists'),
   'followup.close': at(LEADS, 'close someone else\'s follow-up'),

@@ -30,6 +30,8 @@ export const siteSettingsSchema = z.object({
   requalYearsExternalVisual: z.number().int().min(1).max(12).default(5),
   /** Site-local hour (0–23) the daily due-list digest goes to each lead (site policy). */
   digestHour: z.number().int().min(0).max(23).default(6),
+  /** Days after a record in which whoever may record it may correct it; later only leads (site policy). */
+  correctionWindowDays: z.number().int().min(0).max(366).default(7),
 })
 
 export type SiteSettings = z.infer<typeof siteSettingsSchema>

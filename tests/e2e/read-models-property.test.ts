@@ -4,17 +4,18 @@ import { setup } from '@nuxt/test-utils/e2e'
 import fc from 'fast-check'
 import { and, eq, sql } from 'drizzle-orm'
 import { builtServer, signIn, type Client } from '../support/http'
-import { area, battery, closeTestDb, rebuildSite, refreshReadModels, site, tables, user, useTestDb } from '../support/db'
+import { area, battery, closeTestDb, rebuildSite, site, tables, user, useTestDb } from '../support/db'
 import { fittedTruck, pastCharge, putInTruck, qualify, roomCharger } from '../support/battery-room'
 import { freshCylinder, lpTransferQualification, lpTruck, passingInspection } from '../support/fuel'
 import { CHARGING_KEYS, daysFrom, todayIn } from '../support/due'
 import { readModelsFromRecords, storedReadModels } from '../support/read-models'
+import { CORRECTABLE_KINDS, CORRECTION_PATHS, type CorrectableKind } from '../../shared/utils/correction-schemas'
 
 process.env.BAYWARD_MAIL_TICK_SECONDS = '0'
 await setup(builtServer)
 
-// Random sequences of records, sent through the API as the floor would send them (and correction rows
-// written as a correction will be: a new row, then the rule module's recompute of what it touches).
+// Random sequences of records, sent through the API as the floor would send them, corrections of any
+// standing record (or of a correction) among them.
 // After each sequence the read models kept on write must equal `rebuild-state`'s from scratch, and the
 // battery and truck read models must equal the rule module's on facts worked out here from the records.
 
@@ -31,7 +32,9 @@ const command = fc.oneof(
   fc.record({ t: fc.constant('log' as const), item: fc.nat(CHARGING_KEYS.length - 1), pass: fc.boolean(), daysAgo: fc.nat(3) }),
   fc.record({ t: fc.constant('logCorrect' as const), pick: fc.nat(20), pass: fc.boolean() }),
   fc.record({ t: fc.constant('complete' as const), which: fc.nat(2), subject: fc.nat(3), daysAgo: fc.nat(60) }),
-  fc.record({ t: fc.constant('correct' as const), table: fc.constantFrom('check', 'charge', 'swap'), pick: fc.nat(20) }),
+  fc.record({ t: fc.constant('co' as const), ppm: fc.integer({ min: 0, max: 60 }), daysAgo: fc.nat(3) }),
+  fc.record({ t: fc.constant('requal' as const), cylinder: fc.nat(2) }),
+  fc.record({ t: fc.constant('correct' as const), kind: fc.constantFrom(...CORRECTABLE_KINDS), pick: fc.nat(20), n: fc.integer({ min: 20, max: 900 }), flip: fc.boolean(), other: fc.nat(3) }),
 )
 type Command = typeof command extends fc.Arbitrary<infer T> ? T : never
 
@@ -139,32 +142,40 @@ async function apply(w: World, c: Command): Promise<number> {
       const s = w.schedules[c.which]!
       return (await lead.post(`/api/schedules/custom/${s.id}/completions`, { subjectId: s.subject[c.subject % s.subject.length], doneOn: daysFrom(todayIn(), -c.daysAgo), ...key })).status
     }
+    case 'co':
+      return (await lead.post('/api/fuel/co-readings', { siteId, areaId: w.areaId, takenOn: daysFrom(todayIn(), -c.daysAgo), readings: [{ ppm: c.ppm, durationHours: 8 }] })).status
+    case 'requal':
+      return (await lead.post(`/api/cylinders/${w.cylinders[c.cylinder]}/requalifications`, { performedOn: todayIn(), method: 'external_visual', passed: true })).status
     case 'correct':
-      return (await correctDirectly(w, c.table, c.pick)) ? 201 : 0
+      return correctThroughApi(w, c)
   }
 }
 
-// A correction row as the correction routes will write it: a copy of a standing record with one value
-// changed, pointing at it; then the recompute of the subjects it touches.
-async function correctDirectly(w: World, table: 'check' | 'charge' | 'swap', pick: number): Promise<boolean> {
-  const db = useTestDb()
-  const t = { check: tables.electrolyteChecks, charge: tables.chargeSessions, swap: tables.batterySwaps }[table]
-  const rows = await db.select().from(t).where(and(eq(t.siteId, w.siteId), sql`NOT EXISTS (SELECT 1 FROM ${t} x WHERE x.corrects_id = ${t.id})`)).orderBy(t.recordedAt)
-  const row = rows[pick % Math.max(1, rows.length)] as Record<string, unknown> | undefined
-  if (!row) return false
-  const changed: Record<string, unknown> = { ...row, id: randomUUID(), idempotencyKey: null, correctsId: row.id, correctionReason: 'Wrong value entered', recordedAt: new Date() }
-  if (table === 'check') changed.waterAddedGal = Number(row.waterAddedGal) > 0 ? 0 : 0.5
-  if (table === 'charge') {
-    if (!row.endedAt) return false
-    changed.equalize = !row.equalize
-    changed.countedCycle = !row.countedCycle
+const CORRECTED_TABLES = {
+  'battery-swap': tables.batterySwaps, 'charge-session': tables.chargeSessions, 'electrolyte-check': tables.electrolyteChecks,
+  'cylinder-refill': tables.cylinderRefills, 'cylinder-exchange': tables.cylinderExchanges, 'requalification': tables.requalifications,
+  'emissions-test': tables.emissionsTests, 'co-reading': tables.coReadings,
+} as const
+
+// A correction through its route of a standing record of the kind (the latest of its chain), with values changed:
+// another battery or cylinder, other amp-hours and outcome, other water, other tailpipe figures.
+async function correctThroughApi(w: World, c: Extract<Command, { t: 'correct' }>): Promise<number> {
+  const t = CORRECTED_TABLES[c.kind as CorrectableKind] as typeof tables.batterySwaps
+  const rows = await useTestDb().select().from(t).where(and(eq(t.siteId, w.siteId), sql`NOT EXISTS (SELECT 1 FROM ${t} x WHERE x.corrects_id = ${t.id})`)).orderBy(t.recordedAt) as Record<string, unknown>[]
+  const row = rows[c.pick % Math.max(1, rows.length)]
+  if (!row) return 0
+  const values: Record<CorrectableKind, () => Record<string, unknown>> = {
+    'battery-swap': () => ({ truckId: row.truckId, batteryOutId: row.batteryOutId, batteryInId: c.flip ? w.batteries[c.other] : row.batteryInId, hourMeter: Number(row.hourMeter ?? 0) + 1 }),
+    'charge-session': () => ({ ampHoursReturned: c.n, endTempF: row.endTempF ?? 100, outcome: c.flip ? 'interrupted' : 'complete', equalize: !row.equalize }),
+    'electrolyte-check': () => ({ level: c.flip ? 'low' : 'ok', waterAddedGal: Number(row.waterAddedGal) > 0 ? 0 : 0.5 }),
+    'cylinder-refill': () => ({ grossBeforeLb: 31, grossAfterLb: 40 + (c.n % 20) }),
+    'cylinder-exchange': () => ({ cylinderOnId: c.flip ? w.cylinders[c.other % w.cylinders.length] : row.cylinderOnId, hourMeter: row.hourMeter }),
+    'requalification': () => ({ method: row.method, marking: row.marking }),
+    'emissions-test': () => ({ testerName: 'Invented Tailpipe Services', coIdlePct: c.flip ? 1.6 : 0.4, coHighIdlePct: 0.5 }),
+    'co-reading': () => ({ ppm: c.n % 60, durationHours: row.durationHours }),
   }
-  if (table === 'swap') changed.hourMeter = row.hourMeter === null ? null : Number(row.hourMeter) + 1
-  await db.insert(t as typeof tables.batterySwaps).values(changed as typeof tables.batterySwaps.$inferInsert)
-  const subjects = [row.batteryId, row.batteryInId, row.batteryOutId].filter((v): v is string => typeof v === 'string').map(id => ({ kind: 'battery' as const, id }))
-  if (typeof row.truckId === 'string') subjects.push({ kind: 'truck' as never, id: row.truckId })
-  await refreshReadModels(w.siteId, subjects)
-  return true
+  const body = { ...values[c.kind as CorrectableKind](), reason: 'Wrong value entered', idempotencyKey: randomUUID() }
+  return (await w.lead.post(`${CORRECTION_PATHS[c.kind as CorrectableKind]}/${row.id}/corrections`, body)).status
 }
 
 describe('read models kept on write', () => {
@@ -181,7 +192,8 @@ describe('read models kept on write', () => {
       const w = await world()
       for (const c of commands) {
         const status = await apply(w, c)
-        if (status >= 200 && status < 300) stored[c.t] = (stored[c.t] ?? 0) + 1
+        const name = c.t === 'correct' ? `correct:${c.kind}` : c.t
+        if (status >= 200 && status < 300) stored[name] = (stored[name] ?? 0) + 1
       }
       const kept = await storedReadModels(w.siteId)
       await rebuildSite(w.siteId)

@@ -53,6 +53,7 @@ export interface DueReply {
   today: string
   items: { id: string, kind: string, subject: { id: string, label: string, tagCode: string | null }, dueOn: string | null, state: string, lastDoneOn: string | null, remaining: number | null, action: { to: string }, responsibleRole: string }[]
   counts: Record<string, number>
+  groups: { kind: string, label: string, counts: Record<string, number>, worst: string, total: number }[]
   total: number
   meta: { queries: number, ms: number }
 }

@@ -12,6 +12,8 @@ import {
 import { fittedTruck, openCharge, readyBattery, roomCharger, tagFor } from './battery-room'
 import { PNG_BYTES, freshCylinder, lpTruck, passingInspection, upload } from './fuel'
 import { CHARGING_KEYS, allPass, todayIn } from './due'
+import { correctionBody, freshRecord } from './corrections'
+import { CORRECTION_PATHS, type CorrectableKind } from '../../shared/utils/correction-schemas'
 
 // One request per route file that reaches the route's guard, for the role × route matrix
 // (tests/e2e/access-matrix.test.ts). Each example gets the shared world and the caller, makes whatever
@@ -72,6 +74,15 @@ const customSchedule = async (w: World) => (await useTestDb().insert(tables.sche
   siteId: w.siteId, kind: 'custom', title: 'Eyewash station yearly inspection', appliesTo: 'Areas', subjectKind: 'area', rule: 'days',
   every: 1, everyUnit: 'year', dueSoonDays: 14, responsibleRole: 'technician', source: 'ANSI/ISEA Z358.1 (from memory)',
 }).returning())[0]!
+
+/** A correction of a fresh record of the kind (a record stands corrected once, so each request gets its own). */
+const correction = (kind: CorrectableKind): Example => ({
+  run: async (x) => {
+    const rw = { ...x.w, userId: x.w.techId, truckId: (await fittedTruck(x.w.siteId)).id, areaId: x.w.fuelId }
+    const id = await freshRecord(kind, rw)
+    return () => x.c.post(`${CORRECTION_PATHS[kind]}/${id}/corrections`, correctionBody(kind, rw))
+  },
+})
 
 type Kind = 'batteries' | 'trucks' | 'chargers' | 'cylinders' | 'areas'
 const existing: Record<Kind, (w: World) => string> = {
@@ -267,6 +278,15 @@ export const ROUTE_EXAMPLES: Record<string, Example> = {
     },
   },
   'server/api/history/[kind]/[id].get.ts': get(w => `/api/history/battery/${w.batteryId}`),
+  'server/api/history/[kind]/[id]/export.get.ts': get(w => `/api/history/battery/${w.batteryId}/export`),
+  'server/api/battery-room/swaps/[id]/corrections.post.ts': correction('battery-swap'),
+  'server/api/battery-room/charges/[id]/corrections.post.ts': correction('charge-session'),
+  'server/api/battery-room/checks/[id]/corrections.post.ts': correction('electrolyte-check'),
+  'server/api/fuel/refills/[id]/corrections.post.ts': correction('cylinder-refill'),
+  'server/api/fuel/cylinder-exchanges/[id]/corrections.post.ts': correction('cylinder-exchange'),
+  'server/api/fuel/requalifications/[id]/corrections.post.ts': correction('requalification'),
+  'server/api/fuel/emissions-tests/[id]/corrections.post.ts': correction('emissions-test'),
+  'server/api/fuel/co-readings/[id]/corrections.post.ts': correction('co-reading'),
   'server/api/tags/[code].get.ts': get(w => `/api/tags/${w.batteryTag}`),
   'server/api/tags/[code]/qr.get.ts': get(w => `/api/tags/${w.batteryTag}/qr`),
   'server/api/tags/[code]/retag.post.ts': {

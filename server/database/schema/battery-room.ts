@@ -22,7 +22,7 @@ export const batterySwaps = pgTable('battery_swaps', {
   index().on(t.batteryOutId, t.at),
   index().on(t.userId),
   uniqueIndex('battery_swaps_idem').on(t.idempotencyKey).where(sql`${t.idempotencyKey} IS NOT NULL`),
-  index().on(t.correctsId),
+  uniqueIndex('battery_swaps_corrected_once').on(t.correctsId),
 ])
 
 // A charge session opens when a battery goes on a charger and is closed once when it comes off.
@@ -53,7 +53,7 @@ export const chargeSessions = pgTable('charge_sessions', {
   uniqueIndex('charge_sessions_idem').on(t.idempotencyKey).where(sql`${t.idempotencyKey} IS NOT NULL`),
   index().on(t.userId),
   index().on(t.endedBy),
-  index().on(t.correctsId),
+  uniqueIndex('charge_sessions_corrected_once').on(t.correctsId),
 ])
 
 export const electrolyteChecks = pgTable('electrolyte_checks', {
@@ -76,7 +76,7 @@ export const electrolyteChecks = pgTable('electrolyte_checks', {
   index().on(t.batteryId, t.at),
   uniqueIndex('electrolyte_checks_idem').on(t.idempotencyKey).where(sql`${t.idempotencyKey} IS NOT NULL`),
   index().on(t.userId),
-  index().on(t.correctsId),
+  uniqueIndex('electrolyte_checks_corrected_once').on(t.correctsId),
 ])
 
 export const cellReadings = pgTable('cell_readings', {

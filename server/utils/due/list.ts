@@ -1,10 +1,10 @@
 import { sql, type SQL } from 'drizzle-orm'
 import { createError } from 'h3'
 import type { Role } from '../../../shared/types/auth'
-import type { DueItem, DueListReply } from '../../../shared/types/due'
+import type { DueGroup, DueItem, DueListReply } from '../../../shared/types/due'
 import type { ObligationState } from '../../../shared/utils/due-dates'
 import { localDate } from '../../../shared/utils/due-dates'
-import { obligationActionPath, type DueKind, type DueSubject, type DueSubjectKind } from '../../../shared/utils/due-schedules'
+import { DUE_KIND_LABELS, obligationActionPath, type DueKind, type DueSubject, type DueSubjectKind } from '../../../shared/utils/due-schedules'
 import type { DueQuery } from '../../../shared/utils/schedule-schemas'
 import { rowsOf, type SqlRunner } from './effective'
 
@@ -98,7 +98,7 @@ export async function readDueList(db: SqlRunner, siteId: string, opts: DueOption
   const shown = shownRows(siteId, today, opts)
   const limit = Math.min(opts.limit, 1_000_000)
   const [counted, rows] = await Promise.all([
-    rowsOf<{ state: ObligationState, n: number }>(db, sql`SELECT shown_state AS state, count(*)::int AS n FROM (${shown}) s GROUP BY 1`),
+    rowsOf<{ kind: DueKind, state: ObligationState, n: number }>(db, sql`SELECT kind, shown_state AS state, count(*)::int AS n FROM (${shown}) s GROUP BY 1, 2`),
     rowsOf<Row>(db, sql`
       SELECT p.id, p.kind, p.schedule_id AS "scheduleId", p.rule_key AS "ruleKey", p.what, p.subject_kind AS "subjectKind", p.subject_id AS "subjectId",
         p.label, p.tag_code AS "tagCode", p.area_id AS "areaId", a.name AS "areaName", p.person_id AS "personId", p.period_start::text AS "periodStart",
@@ -113,15 +113,33 @@ export async function readDueList(db: SqlRunner, siteId: string, opts: DueOption
       ORDER BY ${ORDER[opts.sort]}`),
   ])
   const counts: Record<ObligationState, number> = { overdue: 0, due_soon: 0, upcoming: 0, done: 0 }
-  for (const c of counted) counts[c.state] = Number(c.n)
+  for (const c of counted) counts[c.state] += Number(c.n)
   return {
     site,
     today,
     items: rows.map(toObligation),
     counts,
+    groups: dueGroups(counted),
     total: counts.overdue + counts.due_soon + counts.upcoming + counts.done,
     meta: { queries: 3, ms: Date.now() - started },
   }
+}
+
+const STATE_ORDER: ObligationState[] = ['overdue', 'due_soon', 'upcoming', 'done']
+
+/** Counts per kind and state as groups: the worst state first, then the most in it, then by name. */
+export function dueGroups(counted: readonly { kind: DueKind, state: ObligationState, n: number }[]): DueGroup[] {
+  const byKind = new Map<DueKind, DueGroup>()
+  for (const c of counted) {
+    const g = byKind.get(c.kind) ?? { kind: c.kind, label: DUE_KIND_LABELS[c.kind], counts: { overdue: 0, due_soon: 0, upcoming: 0, done: 0 }, worst: 'done', total: 0 }
+    g.counts[c.state] += Number(c.n)
+    g.total += Number(c.n)
+    byKind.set(c.kind, g)
+  }
+  const groups = [...byKind.values()]
+  for (const g of groups) g.worst = STATE_ORDER.find(st => g.counts[st] > 0) ?? 'done'
+  const rank = (g: DueGroup) => STATE_ORDER.indexOf(g.worst)
+  return groups.sort((a, b) => rank(a) - rank(b) || b.counts[b.worst] - a.counts[a.worst] || a.label.localeCompare(b.label))
 }
 
 function toObligation(r: Row): Obligation {

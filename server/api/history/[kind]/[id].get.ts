@@ -4,10 +4,11 @@ import { ASSET_KINDS } from '#shared/utils/asset-schemas'
 const ParamsSchema = z.object({ kind: z.enum(ASSET_KINDS), id: z.uuid() })
 const QuerySchema = z.object({ limit: z.coerce.number().int().min(1).max(500).default(100) })
 
-// The asset's timeline: every edit and event, newest first, with who and when.
+// The asset's timeline: every edit and event, newest first, with who and when; corrections beside the
+// rows they replace, and which rows the person may correct now.
 export default defineAbilityHandler('site.member', async (event) => {
   const { kind, id } = validateParams(event, ParamsSchema)
   const { limit } = validateQuery(event, QuerySchema)
-  await findAssetForActor(event, kind, id)
-  return { items: await assetTimeline(kind, id, limit) }
+  const { actor, row } = await findAssetForActor(event, kind, id)
+  return { items: await correctableTimeline(actor, row.siteId, await assetTimeline(kind, id, limit)) }
 })

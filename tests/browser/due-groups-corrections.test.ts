@@ -1,0 +1,99 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { setup } from '@nuxt/test-utils/e2e'
+import { mkdirSync } from 'node:fs'
+import { eq } from 'drizzle-orm'
+import type { Browser } from 'playwright-core'
+import { builtServer } from '../support/http'
+import { battery, charger, closeTestDb, refreshReadModels, site, tables, user, useTestDb } from '../support/db'
+import { fittedTruck } from '../support/battery-room'
+import { DESKTOP, PHONE, launchChromium, signInAt } from '../support/chromium'
+import { endedCharges, oldBattery } from '../support/due'
+
+await setup(builtServer)
+
+// The lead's due list as groups by kind (phone and desktop), and correcting an electrolyte check from a
+// battery's history: the original struck through beside its correction, with why.
+let browser: Browser
+// the machine that runs these may be busy: wait for the page as long as a person would
+const SLOW = { timeout: 15_000 }
+let siteId: string
+let batteryId: string
+let lead: { email: string, password: string, id: string }
+
+beforeAll(async () => {
+  browser = await launchChromium()
+  mkdirSync('screenshots', { recursive: true })
+  siteId = (await site({ name: `Harbor Point DC ${Date.now()}` })).id
+  lead = await user({ siteId, roles: ['facilities_lead', 'technician'], name: 'Femi Facilities' })
+  const ch = await charger({ siteId })
+  for (let i = 0; i < 6; i++) {
+    const b = await oldBattery(siteId, 20 + i)
+    await endedCharges(siteId, b.id, ch.id, lead.id, i % 2 ? [300, 280, 260, 240, 220, 200] : [40, 30])
+    batteryId = b.id
+  }
+  await useTestDb().insert(tables.electrolyteChecks).values({ siteId, userId: lead.id, batteryId, level: 'ok', waterAddedGal: 0.5, at: new Date(Date.now() - 3_600_000) })
+}, 120_000)
+afterAll(async () => {
+  await browser?.close()
+  await closeTestDb()
+})
+
+describe('grouped due list and corrections in the browser', () => {
+  for (const viewport of [PHONE, DESKTOP]) {
+    it(`the due list shows kinds with counts, worst first, and opens a group (${viewport.width} px)`, async () => {
+      const { page, context } = await signInAt(browser, lead, '/due', viewport)
+      const groups = page.getByTestId('due-groups')
+      await expect.poll(() => groups.locator('[data-due-group]').count(), SLOW).toBeGreaterThan(1)
+      const first = groups.locator('[data-due-group]').first()
+      expect(await first.textContent()).toMatch(/Overdue/)
+      expect(await first.textContent()).toMatch(/\d+ overdue/)
+      expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(viewport.width)
+      await first.getByRole('button').first().click()
+      await expect.poll(() => first.getByRole('button').first().getAttribute('aria-expanded'), SLOW).toBe('true')
+      const rows = viewport === PHONE ? first.locator('[data-due-kind]') : first.locator('table tbody tr')
+      await expect.poll(() => rows.count(), SLOW).toBeGreaterThan(0)
+      expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(viewport.width)
+      await page.screenshot({ path: `screenshots/due-groups-${viewport === PHONE ? 'phone' : 'desktop'}.png`, fullPage: true })
+      await context.close()
+    })
+  }
+
+  it('a battery\'s history offers Correct this; the original is struck through beside the correction', async () => {
+    const { page, context } = await signInAt(browser, lead, `/batteries/${batteryId}`, PHONE)
+    const row = page.locator('li').filter({ hasText: 'Electrolyte level check' }).first()
+    await row.getByRole('button', { name: 'Correct this' }).click()
+    const form = page.getByRole('form', { name: /Correct this electrolyte check/ })
+    await form.locator('input[name="waterAddedGal"]').fill('1.5')
+    await form.locator('textarea[name="reason"]').fill('Read the jug wrong.')
+    await form.getByRole('button', { name: 'Save correction' }).click()
+    await expect.poll(() => page.getByText('Why corrected: Read the jug wrong.').count(), SLOW).toBe(1)
+    await expect.poll(() => page.locator('.line-through').filter({ hasText: 'Electrolyte level check' }).count(), SLOW).toBe(1)
+    const rows = await useTestDb().select().from(tables.electrolyteChecks).where(eq(tables.electrolyteChecks.batteryId, batteryId))
+    expect(rows).toHaveLength(2)
+    expect(rows.find(r => r.correctsId)?.waterAddedGal).toBe(1.5)
+    await page.screenshot({ path: 'screenshots/battery-history-correction-phone.png', fullPage: true })
+    await context.close()
+  })
+
+  it('a battery change corrected on the truck\'s page to the battery typed by its serial moves both batteries', async () => {
+    const truck = await fittedTruck(siteId)
+    const wrong = await battery({ siteId })
+    const right = await battery({ siteId })
+    await useTestDb().insert(tables.batterySwaps).values({ siteId, userId: lead.id, truckId: truck.id, batteryInId: wrong.id, hourMeter: 12, at: new Date(Date.now() - 600_000) })
+    await refreshReadModels(siteId, [{ kind: 'battery', id: wrong.id }, { kind: 'truck', id: truck.id }])
+    const { page, context } = await signInAt(browser, lead, `/trucks/${truck.id}`, DESKTOP)
+    const row = page.locator('li').filter({ hasText: `Battery ${wrong.serial} fitted` }).first()
+    await row.getByRole('button', { name: 'Correct this' }).click()
+    const form = page.getByRole('form', { name: /Correct this battery change/ })
+    expect(await form.locator('input[name="batteryInId"]').inputValue()).toBe(wrong.serial)
+    await form.locator('input[name="batteryInId"]').fill(right.serial)
+    await form.locator('textarea[name="reason"]').fill('Scanned the battery beside it.')
+    await form.getByRole('button', { name: 'Save correction' }).click()
+    await expect.poll(() => page.getByText('Why corrected: Scanned the battery beside it.').count(), SLOW).toBe(1)
+    const placeOf = async (id: string) => (await useTestDb().select().from(tables.batteryStatus).where(eq(tables.batteryStatus.batteryId, id)))[0]?.truckId ?? null
+    expect(await placeOf(right.id)).toBe(truck.id)
+    expect(await placeOf(wrong.id)).toBeNull()
+    await page.screenshot({ path: 'screenshots/truck-history-correction-desktop.png', fullPage: true })
+    await context.close()
+  })
+})

@@ -1,0 +1,69 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { setup } from '@nuxt/test-utils/e2e'
+import { builtServer } from '../support/http'
+import { charger, closeTestDb, refreshReadModels, site, tables, useTestDb } from '../support/db'
+import { daysFrom, dueList, endedCharges, oldBattery, person, todayIn, type DueReply } from '../support/due'
+import { lpTruck } from '../support/fuel'
+import type { Client } from '../support/http'
+
+await setup(builtServer)
+
+// The due list grouped by kind: each group's counts by state are those of the whole filtered list (not
+// only the page), the worst state comes first, and filters narrow the groups as they narrow the rows.
+const RANK = ['overdue', 'due_soon', 'upcoming', 'done']
+
+function groupsFromItems(list: DueReply) {
+  const by = new Map<string, Record<string, number>>()
+  for (const i of list.items) {
+    const c = by.get(i.kind) ?? { overdue: 0, due_soon: 0, upcoming: 0, done: 0 }
+    c[i.state] = (c[i.state] ?? 0) + 1
+    by.set(i.kind, c)
+  }
+  return Object.fromEntries(by)
+}
+
+describe('due list grouped by kind', () => {
+  let siteId: string
+  let lead: Client
+  beforeAll(async () => {
+    siteId = (await site()).id
+    const p = await person(siteId, ['facilities_lead'])
+    lead = p.client
+    const ch = await charger({ siteId })
+    // batteries in every state of watering: charged long ago (overdue), a while ago, and not at all
+    for (const [i, hours] of [[0, [300, 280, 260, 240, 220, 200]], [1, [48, 36, 24]], [2, []]] as const) {
+      const b = await oldBattery(siteId, 20 + i)
+      if (hours.length) await endedCharges(siteId, b.id, ch.id, p.id, [...hours])
+    }
+    const t = await lpTruck(siteId)
+    const testedOn = daysFrom(todayIn(), -400)
+    await useTestDb().insert(tables.emissionsTests).values({ siteId, userId: p.id, truckId: t.id, testedOn, testerName: 'Invented Tailpipe Services', coIdlePct: 0.4, coHighIdlePct: 0.3, passed: true, nextDueOn: daysFrom(testedOn, 365) })
+    await refreshReadModels(siteId, [{ kind: 'truck', id: t.id }])
+  })
+  afterAll(closeTestDb)
+
+  it('counts every obligation of the filter by kind and state, worst state first, even past the page', async () => {
+    const all = await dueList(lead, { siteId, role: 'all', limit: 20000 })
+    const page = await dueList(lead, { siteId, role: 'all', limit: 1 })
+    expect(page.items).toHaveLength(1)
+    expect(page.groups).toEqual(all.groups)
+    const expected = groupsFromItems(all)
+    expect(Object.fromEntries(all.groups.map(g => [g.kind, g.counts]))).toEqual(expected)
+    expect(all.groups.reduce((n, g) => n + g.total, 0)).toBe(all.total)
+    const ranks = all.groups.map(g => RANK.indexOf(g.worst))
+    expect(ranks).toEqual([...ranks].sort((a, b) => a - b))
+    for (const g of all.groups) expect(g.worst).toBe(RANK.find(s => g.counts[s]! > 0))
+    expect(all.groups[0]!.worst).toBe('overdue')
+    expect(all.groups.find(g => g.kind === 'emissions_test')?.counts.overdue).toBe(1)
+  })
+
+  it('filters narrow the groups: a state keeps only its counts, a kind only its group', async () => {
+    const overdue = await dueList(lead, { siteId, role: 'all', state: 'overdue' })
+    expect(overdue.groups.length).toBeGreaterThan(0)
+    for (const g of overdue.groups) expect(g.counts).toMatchObject({ due_soon: 0, upcoming: 0, done: 0 })
+    const watering = await dueList(lead, { siteId, role: 'all', kind: 'battery_watering', limit: 2 })
+    expect(watering.groups.map(g => g.kind)).toEqual(['battery_watering'])
+    expect(watering.groups[0]!.total).toBe(watering.total)
+    expect(watering.groups[0]!.label).toMatch(/water/i)
+  })
+})
