@@ -121,7 +121,8 @@ export function scheduleObligation(schedule: ScheduleDefinition, subject: Obliga
     ? { dueOn: p.dueOnOverride, remaining: null }
     : nextDueOn(schedule, {
         lastDoneOn: p.lastDoneOn, startOn: p.startOn, ruleDueOn: p.ruleDueOn,
-        countSinceDone: p.count ? p.count.now - p.count.atDone : undefined, countReachedOn: p.count?.reachedOn ?? null,
+        // a meter read lower than at the last completion (a back-dated record) counts as no hours since, not an error
+        countSinceDone: p.count ? Math.max(0, p.count.now - p.count.atDone) : undefined, countReachedOn: p.count?.reachedOn ?? null,
       })
   return {
     ruleKey: scheduleRuleKey(schedule),

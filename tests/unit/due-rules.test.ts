@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest'
-import { chargesProgress, hoursAsOf, hoursProgress, obligationRemaining, obligationStateAt } from '../../shared/utils/due-rules'
+import { chargesProgress, hoursAsOf, hoursProgress, obligationRemaining, obligationStateAt, scheduleObligation } from '../../shared/utils/due-rules'
 import { customObligations } from '../../shared/utils/derived-custom'
 import { truckObligations, truckStatusFrom, type TruckFacts } from '../../shared/utils/derived-subjects'
 import { defaultSchedules, type ScheduleDefinition } from '../../shared/utils/due-schedules'
@@ -97,5 +97,18 @@ describe('the effective record', () => {
     expect(standingVersion(rows, 'a')?.id).toBe('c')
     expect(standingVersion(rows, 'd')?.id).toBe('d')
     expect(standingVersion(rows, 'x')).toBeNull()
+  })
+})
+
+describe('a meter read lower than at the last completion', () => {
+  it('counts as no hours since, so the obligation stays upcoming instead of failing the write', () => {
+    const every250h = added({ subjectKind: 'truck', rule: 'hours', every: 250, everyUnit: null })
+    const truck = { kind: 'truck' as const, id: 't1', label: 'LK-07', tagCode: 'T-00007', areaId: null }
+    const o = scheduleObligation(every250h, truck, {
+      lastDoneOn: '2025-03-01', startOn: '2025-01-15', ruleDueOn: null,
+      count: { unit: 'hours', atDone: 1300, now: 1262.5, reachedOn: null },
+    })
+    expect(o.dueOn).toBeNull()
+    expect(obligationStateAt(o, '2025-03-10')).toBe('upcoming')
   })
 })
