@@ -30,6 +30,10 @@ export const siteSettingsSchema = z.object({
   requalYearsExternalVisual: z.number().int().min(1).max(12).default(5),
   /** Site-local hour (0–23) the daily due-list digest goes to each lead (site policy). */
   digestHour: z.number().int().min(0).max(23).default(6),
+  /** Site-local times each shift begins; a truck in use is due its pre-shift check after each (29 CFR 1910.178(q)(7)). */
+  shiftStarts: z.array(z.string().regex(/^([01]\d|2[0-3]):[0-5]\d$/, 'A time as HH:MM.')).min(1).max(6).default(['06:00', '14:00', '22:00']),
+  /** What inspecting or taking a truck does when the operator holds no current evaluation on its class (1910.178(l)). */
+  truckAuthorisationPolicy: z.enum(['warn', 'block']).default('warn'),
 })
 
 export type SiteSettings = z.infer<typeof siteSettingsSchema>

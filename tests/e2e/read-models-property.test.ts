@@ -9,6 +9,7 @@ import { fittedTruck, pastCharge, putInTruck, qualify, roomCharger } from '../su
 import { freshCylinder, lpTransferQualification, lpTruck, passingInspection } from '../support/fuel'
 import { CHARGING_KEYS, daysFrom, todayIn } from '../support/due'
 import { readModelsFromRecords, storedReadModels } from '../support/read-models'
+import { INSPECTION_COMMANDS, applyInspection } from '../support/property-inspection'
 
 process.env.BAYWARD_MAIL_TICK_SECONDS = '0'
 await setup(builtServer)
@@ -32,6 +33,8 @@ const command = fc.oneof(
   fc.record({ t: fc.constant('logCorrect' as const), pick: fc.nat(20), pass: fc.boolean() }),
   fc.record({ t: fc.constant('complete' as const), which: fc.nat(2), subject: fc.nat(3), daysAgo: fc.nat(60) }),
   fc.record({ t: fc.constant('correct' as const), table: fc.constantFrom('check', 'charge', 'swap'), pick: fc.nat(20) }),
+  // pre-shift inspections (a critical failure holds the truck) and returns to service
+  ...INSPECTION_COMMANDS,
 )
 type Command = typeof command extends fc.Arbitrary<infer T> ? T : never
 
@@ -141,6 +144,9 @@ async function apply(w: World, c: Command): Promise<number> {
     }
     case 'correct':
       return (await correctDirectly(w, c.table, c.pick)) ? 201 : 0
+    case 'inspect':
+    case 'returnToService':
+      return applyInspection(w, c, meterOf)
   }
 }
 
