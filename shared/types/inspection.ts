@@ -19,3 +19,16 @@ export interface InspectionRecorded {
   authorisation: string | null
   followUpId: string | null
 }
+
+/** GET /api/inspection/shift */
+export type TruckCheckState = 'held' | 'checked' | 'unchecked'
+
+export interface ShiftInspectionStatus {
+  shiftStartedAt: string
+  /** trucks used today (a battery or cylinder change, or a check) with no check since the shift began */
+  unchecked: { id: string, fleetNumber: string, tagCode: string | null, lastInspectionAt: string | null }[]
+  /** trucks on an inspection hold, oldest first, with how long */
+  held: { id: string, fleetNumber: string, tagCode: string | null, since: string, hours: number, reason: string }[]
+  /** every truck in service: held, checked this shift, or not */
+  stateOf: Record<string, TruckCheckState>
+}

@@ -206,6 +206,26 @@ describe('pre-shift truck inspection', () => {
     expect(item.dueOn <= today).toBe(true)
   })
 
+  it('the shift list names trucks used today and not checked since the shift began, and held trucks with their age; the board shows each truck\'s check', async () => {
+    const s = (await site()).id
+    await sitePolicy(s, { shiftStarts: ['00:00'] })
+    const op = await user({ siteId: s, roles: ['operator'] })
+    const c = await signIn(op)
+    const [used, checked, held, idle] = [await fittedTruck(s), await fittedTruck(s), await fittedTruck(s), await fittedTruck(s)]
+    const b = await battery({ siteId: s })
+    await putInTruck(b.id, used.id, op.id)
+    expect((await inspect(c, checked.id, { answers: answers('electric') })).status).toBe(201)
+    expect((await inspect(c, held.id, { answers: answers('electric', { parking_brake: 'Rolls on the ramp' }) })).status).toBe(201)
+    const res = await c.get(`/api/inspection/shift?siteId=${s}`)
+    expect(res.status).toBe(200)
+    expect(res.body.unchecked.map((t: { id: string }) => t.id)).toEqual([used.id])
+    expect(res.body.held).toMatchObject([{ id: held.id, hours: 0 }])
+    expect(res.body.stateOf).toMatchObject({ [used.id]: 'unchecked', [checked.id]: 'checked', [held.id]: 'held', [idle.id]: 'unchecked' })
+    const board = await c.get(`/api/battery-room/board?siteId=${s}`)
+    expect(board.body.trucks.find((t: { id: string }) => t.id === held.id).inspection).toBe('held')
+    expect(board.body.trucks.find((t: { id: string }) => t.id === checked.id).inspection).toBe('checked')
+  })
+
   it('a lead saves a new checklist version; records keep the version they were made on', async () => {
     const t = await fittedTruck(siteId)
     const old = await inspect(operator, t.id, { answers: answers('electric') })

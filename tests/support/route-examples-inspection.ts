@@ -23,6 +23,7 @@ export const INSPECTION_EXAMPLES: Record<string, Example> = {
       return () => x.c.post(`/api/trucks/${t.id}/return-to-service`, { whatWasDone: 'Replaced the horn fuse' })
     },
   },
+  'server/api/inspection/shift.get.ts': { run: x => () => x.c.get(`/api/inspection/shift?siteId=${x.w.siteId}`) },
   'server/api/inspection-templates/[power].put.ts': {
     run: x => () => x.c.put('/api/inspection-templates/lp_gas', { siteId: x.w.siteId, title: 'LP-gas truck — pre-shift check', items: DEFAULT_INSPECTION_ITEMS.lp_gas }),
   },
