@@ -3,7 +3,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { setup } from '@nuxt/test-utils/e2e'
 import type { Browser, Page } from 'playwright-core'
 import { builtServer } from '../support/http'
-import { closeTestDb, site, user } from '../support/db'
+import { eq } from 'drizzle-orm'
+import { closeTestDb, site, tables, user, useTestDb } from '../support/db'
 import { PHONE, launchChromium, signInAt } from '../support/chromium'
 import { fittedTruck, tagFor } from '../support/battery-room'
 import { lpTruck } from '../support/fuel'
@@ -25,6 +26,7 @@ beforeAll(async () => {
   await classQualification(operator.id, 5)
   people.operator = operator
   people.technician = await user({ siteId, roles: ['technician'] })
+  people.admin = await user({ siteId, roles: ['admin'] })
 })
 afterAll(async () => {
   await browser?.close()
@@ -64,6 +66,18 @@ describe('pre-shift check in the browser, at phone width', () => {
     await tech.getByRole('button', { name: 'Return to service' }).click()
     await expect.poll(() => tech.getByText('Out of service after its pre-shift check').count()).toBe(0)
     await tech.context().close()
+  })
+
+  it('an admin sets the class policy and the shift start times on the site settings', async () => {
+    const page = await signedIn(people.admin!, '/site')
+    await page.getByLabel('Operator not authorised for the truck\'s class, or evaluation lapsed').selectOption('block')
+    await page.getByLabel('Shifts begin at (site time, HH:MM, comma between)').fill('05:30, 13:30, 21:30')
+    await page.getByRole('button', { name: 'Save settings' }).click()
+    await expect.poll(() => page.getByText('Site settings saved.').isVisible()).toBe(true)
+    const [row] = await useTestDb().select({ settings: tables.sites.settings }).from(tables.sites).where(eq(tables.sites.id, siteId))
+    expect(row!.settings).toMatchObject({ truckAuthorisationPolicy: 'block', shiftStarts: ['05:30', '13:30', '21:30'] })
+    await useTestDb().update(tables.sites).set({ settings: { ...(row!.settings as object), truckAuthorisationPolicy: 'warn' } }).where(eq(tables.sites.id, siteId))
+    await page.context().close()
   })
 
   it('the LP-gas checklist carries the cylinder items', async () => {
