@@ -18,6 +18,7 @@ import { writeElectrolyteChecks } from './seed/electrolyte'
 import { buildCylinders, simulateFuelStation } from './seed/fuel'
 import { writeCoReadings, writeEmissionsTests } from './seed/compliance'
 import { writeAreaLogs } from './seed/area-logs'
+import { writeInspections } from './seed/inspections'
 import { insertSchedules } from './seed/schedules'
 import { writeBatteryHolds, writeTagsAndAudit } from './seed/registry'
 import { countRows, insertSeedRows, truncateSchemaTables } from './seed/database'
@@ -72,6 +73,7 @@ async function buildDemo(now: Date) {
   writeAreaLogs(ctx)
 
   rows.trucks.push(...fleet.trucks)
+  writeInspections(ctx, fleet.trucks)
   rows.batteries.push(...fleet.batteries.map(b => b.row))
   rows.chargers.push(...fleet.chargers)
   rows.lpCylinders.push(...cylinders.map(c => c.row))

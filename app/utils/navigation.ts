@@ -20,6 +20,7 @@ export const NAV_GROUP_LABELS: Record<NavGroup, string> = {
 export const NAV_ITEMS: NavItem[] = [
   { to: '/', label: 'Home', icon: 'home', ability: 'site.member', group: 'start' },
   { to: '/scan', label: 'Scan', icon: 'scan', ability: 'site.member', group: 'start' },
+  { to: '/inspect', label: 'Pre-shift check', icon: 'clipboard', ability: 'inspection.record', group: 'start' },
   { to: '/bay', label: 'Bay board', icon: 'board', ability: 'site.member', group: 'battery' },
   { to: '/swap', label: 'Change battery', icon: 'swap', ability: 'swap.record', group: 'battery' },
   { to: '/charge', label: 'Charge', icon: 'plug', ability: 'charge.record', group: 'battery' },

@@ -30,6 +30,8 @@ export const TAG_ACTIONS: TagAction[] = [
   { key: 'charge-on', label: 'Put on charge', kinds: ['battery'], ability: 'charge.record', states: ['needs_charge'], to: a => `/charge?battery=${a.code}`, primary: true },
   { key: 'charge-off', label: 'Take off charge', kinds: ['battery'], ability: 'charge.record', states: ['on_charge'], to: a => `/charge?battery=${a.code}`, primary: true },
   { key: 'charger-on', label: 'Put a battery on', kinds: ['charger'], ability: 'charge.record', to: a => `/charge?charger=${a.code}`, primary: true },
+  { key: 'truck-return', label: 'Return to service', kinds: ['truck'], ability: 'inspection.return', states: ['inspection_hold'], to: a => `/inspect?truck=${a.id}#return`, primary: true },
+  { key: 'truck-inspect', label: 'Pre-shift check', kinds: ['truck'], ability: 'inspection.record', to: a => `/inspect?truck=${a.id}`, primary: true },
   { key: 'truck-swap', label: 'Change its battery', kinds: ['truck'], ability: 'swap.record', states: ['battery_in', 'battery_needed'], to: a => `/swap?truck=${a.code}`, primary: true },
   { key: 'cylinder-on-truck', label: 'Put on a truck', kinds: ['cylinder'], ability: 'cylinder.exchange', states: ['full'], to: a => `/exchange?on=${a.code}`, primary: true },
   { key: 'cylinder-refill', label: 'Refill', kinds: ['cylinder'], ability: 'refill.record', states: ['empty'], to: a => `/refill?code=${a.code}`, primary: true },

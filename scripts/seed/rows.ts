@@ -31,6 +31,8 @@ export const SEED_TABLES = {
   areaLogs: schema.areaLogs,
   areaLogEntries: schema.areaLogEntries,
   followUps: schema.followUps,
+  truckInspectionTemplates: schema.truckInspectionTemplates,
+  truckInspections: schema.truckInspections,
 } as const
 
 export type SeedTableName = keyof typeof SEED_TABLES

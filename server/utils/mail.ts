@@ -92,7 +92,7 @@ export interface AlertInput {
   userIds?: readonly string[]
 }
 
-function appLink(path: string): string {
+export function appLink(path: string): string {
   const base = (useRuntimeConfig().public.baseUrl as string | undefined) || 'http://localhost:3000'
   return new URL(path, base).toString()
 }

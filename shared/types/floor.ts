@@ -54,7 +54,7 @@ export interface CylinderLookup {
 }
 
 /** POST /api/battery-room/swaps */
-export interface SwapAnswer { item: { id: string }, replayed: boolean, warnings: FitReason[], overridden?: FitReason[] }
+export interface SwapAnswer { item: { id: string }, replayed: boolean, warnings: FitReason[], overridden?: FitReason[], /** why the operator is not authorised for the truck's class (site policy: warn) */ authorisation?: string }
 /** POST /api/battery-room/charges */
 export interface ChargeOnAnswer { item: { id: string }, replayed: boolean }
 /** POST /api/battery-room/charges/:id/end */
@@ -64,7 +64,7 @@ export interface CheckAnswer { item: { id: string, meanCorrectedSg: number | nul
 /** POST /api/cylinders/:id/refills */
 export interface RefillAnswer { item: { id: string, netAddedLb: number | null, gallonsAt60F: number | null }, cylinder: { id: string, status: string }, repeated: boolean }
 /** POST /api/trucks/:id/cylinder-exchanges */
-export interface ExchangeAnswer { item: { id: string }, repeated: boolean }
+export interface ExchangeAnswer { item: { id: string }, repeated: boolean, /** why the operator is not authorised for the truck's class (site policy: warn) */ authorisation?: string }
 /** POST /api/cylinders/:id/requalifications */
 export interface RequalificationAnswer { requalification: { dueOn: string } }
 /** POST /api/trucks/:id/emissions-tests */

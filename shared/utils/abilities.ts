@@ -80,6 +80,12 @@ export const ABILITIES = {
   'site.edit': at(ADMINS, 'change the site\'s settings'),
   'site.create': { scope: 'any-site', roles: ADMINS, does: 'add a site' },
 
+  // pre-shift truck inspection and who may drive (29 CFR 1910.178(q)(7), (l)(4))
+  'inspection.record': at(EVERYONE, 'record a truck\'s pre-shift inspection'),
+  'inspection.return': at(FLOOR, 'return a truck to service after a failed inspection, saying what was done'),
+  'inspection.template-edit': at(LEADS, 'change the pre-shift truck checklists'),
+  'retraining.record': at(['safety_lead', 'admin'], 'record an event that calls for an operator\'s retraining'),
+
   // who is told (alerts and digests go to the holders at the site)
   'notice.checklist-failed': at(['safety_lead'], 'be told of a failed checklist item'),
   'notice.incident': at(['safety_lead'], 'be told of an incident'),
@@ -87,6 +93,7 @@ export const ABILITIES = {
   'notice.cylinder-refused': at(['safety_lead', 'facilities_lead'], 'be told of a refused cylinder fill'),
   'notice.co-ceiling': at(['safety_lead'], 'be told of CO above the ceiling'),
   'notice.digest': at(['facilities_lead', 'safety_lead'], 'get the daily due-list digest'),
+  'notice.truck-hold': at(['facilities_lead', 'safety_lead'], 'be told of a truck taken out of service by its inspection'),
 } as const satisfies Record<string, AbilityRule>
 
 export type Ability = keyof typeof ABILITIES

@@ -4,6 +4,7 @@ import { dayBefore, hoursAsOf, plusInterval, scheduleObligation, type HourReadin
 import { customObligations, type CompletionFact } from './derived-custom'
 import { cylinderRequalificationDue } from './fuel-policy'
 import type { RequalificationMethod } from './requalification'
+import { inspectionHold, type InspectionFact } from './truck-inspection'
 
 // Obligations of every subject but batteries, and the truck status row, from effective records.
 
@@ -26,6 +27,10 @@ export interface TruckFacts {
   /** the latest effective emissions test */
   lastEmissions: { testedOn: string, passed: boolean } | null
   completions: CompletionFact[]
+  /** pre-shift inspections with a failed critical item since the last return to service */
+  failedInspections?: InspectionFact[]
+  lastReturnAt?: Date | null
+  lastInspectionAt?: Date | null
 }
 
 export interface TruckStatusRow {
@@ -33,11 +38,21 @@ export interface TruckStatusRow {
   siteId: string
   hourMeter: number
   hourMeterAt: Date | null
+  lastInspectionAt: Date | null
+  holdInspectionId: string | null
+  holdSince: Date | null
+  holdBy: string | null
+  holdReason: string | null
 }
 
 export function truckStatusFrom(f: TruckFacts): TruckStatusRow {
   const last = f.readings.at(-1) ?? null
-  return { truckId: f.id, siteId: f.siteId, hourMeter: last ? last.hours : f.registeredHours, hourMeterAt: last?.at ?? null }
+  const hold = inspectionHold(f.failedInspections ?? [], f.lastReturnAt ?? null)
+  return {
+    truckId: f.id, siteId: f.siteId, hourMeter: last ? last.hours : f.registeredHours, hourMeterAt: last?.at ?? null,
+    lastInspectionAt: f.lastInspectionAt ?? null,
+    holdInspectionId: hold?.inspectionId ?? null, holdSince: hold?.since ?? null, holdBy: hold?.byUserId ?? null, holdReason: hold?.reason ?? null,
+  }
 }
 
 /** When the next emissions test is due after one on `testedOn`: the schedule's interval, or its retest window after a fail. */
@@ -164,6 +179,8 @@ export interface OperatorFacts {
   memberSince: Date
   /** per truck class, the latest qualification record */
   truckQualifications: { expiresOn: string, evaluatedOn: string | null }[]
+  /** the latest event calling for retraining (1910.178(l)(4)(ii)), if any */
+  retraining?: { happenedOn: string, reason: string } | null
 }
 
 // 29 CFR 1910.178(l)(4)(iii): due at the earliest of each class's expiry and its evaluation plus the interval.
@@ -174,10 +191,13 @@ export function operatorObligations(f: OperatorFacts, schedules: readonly Schedu
   const dues = f.truckQualifications.map(q => (q.evaluatedOn ? [q.expiresOn, plusInterval(q.evaluatedOn, s.every ?? 3, s.everyUnit)].sort()[0]! : q.expiresOn))
   const evaluated = f.truckQualifications.map(q => q.evaluatedOn).filter((d): d is string => !!d).sort().at(-1) ?? null
   const none = dues.length === 0
+  // an incident, a near miss or a new truck type after the latest evaluation makes one due from that day
+  const called = f.retraining && (!evaluated || f.retraining.happenedOn >= evaluated) ? f.retraining : null
+  const dueOn = none ? localDate(f.memberSince, timeZone) : dues.sort()[0]!
   return [scheduleObligation(s, subject, {
     lastDoneOn: evaluated, startOn: localDate(f.memberSince, timeZone),
-    dueOnOverride: none ? localDate(f.memberSince, timeZone) : dues.sort()[0],
-    detail: none ? 'No truck evaluation on record' : null,
+    dueOnOverride: called && called.happenedOn < dueOn ? called.happenedOn : dueOn,
+    detail: called ? `Retraining called for on ${called.happenedOn}` : none ? 'No truck evaluation on record' : null,
   })]
 }
 

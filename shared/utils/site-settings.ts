@@ -32,6 +32,10 @@ export const siteSettingsSchema = z.object({
   digestHour: z.number().int().min(0).max(23).default(6),
   /** Days after a record in which whoever may record it may correct it; later only leads (site policy). */
   correctionWindowDays: z.number().int().min(0).max(366).default(7),
+  /** Site-local times each shift begins; a truck in use is due its pre-shift check after each (29 CFR 1910.178(q)(7)). */
+  shiftStarts: z.array(z.string().regex(/^([01]\d|2[0-3]):[0-5]\d$/, 'A time as HH:MM.')).min(1).max(6).default(['06:00', '14:00', '22:00']),
+  /** What inspecting or taking a truck does when the operator holds no current evaluation on its class (1910.178(l)). */
+  truckAuthorisationPolicy: z.enum(['warn', 'block']).default('warn'),
 })
 
 export type SiteSettings = z.infer<typeof siteSettingsSchema>

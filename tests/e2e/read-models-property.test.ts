@@ -10,6 +10,7 @@ import { freshCylinder, lpTransferQualification, lpTruck, passingInspection } fr
 import { CHARGING_KEYS, daysFrom, todayIn } from '../support/due'
 import { readModelsFromRecords, storedReadModels } from '../support/read-models'
 import { CORRECTABLE_KINDS, CORRECTION_PATHS, type CorrectableKind } from '../../shared/utils/correction-schemas'
+import { INSPECTION_COMMANDS, applyInspection } from '../support/property-inspection'
 
 process.env.BAYWARD_MAIL_TICK_SECONDS = '0'
 await setup(builtServer)
@@ -35,6 +36,8 @@ const command = fc.oneof(
   fc.record({ t: fc.constant('co' as const), ppm: fc.integer({ min: 0, max: 60 }), daysAgo: fc.nat(3) }),
   fc.record({ t: fc.constant('requal' as const), cylinder: fc.nat(2) }),
   fc.record({ t: fc.constant('correct' as const), kind: fc.constantFrom(...CORRECTABLE_KINDS), pick: fc.nat(20), n: fc.integer({ min: 20, max: 900 }), flip: fc.boolean(), other: fc.nat(3) }),
+  // pre-shift inspections (a critical failure holds the truck) and returns to service
+  ...INSPECTION_COMMANDS,
 )
 type Command = typeof command extends fc.Arbitrary<infer T> ? T : never
 
@@ -148,6 +151,9 @@ async function apply(w: World, c: Command): Promise<number> {
       return (await lead.post(`/api/cylinders/${w.cylinders[c.cylinder]}/requalifications`, { performedOn: todayIn(), method: 'external_visual', passed: true })).status
     case 'correct':
       return correctThroughApi(w, c)
+    case 'inspect':
+    case 'returnToService':
+      return applyInspection(w, c, meterOf)
   }
 }
 

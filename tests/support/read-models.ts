@@ -6,6 +6,7 @@ import type { CompletionFact } from '../../shared/utils/derived-custom'
 import type { ObligationRecord } from '../../shared/utils/due-rules'
 import { loadSiteContext } from '../../server/utils/due/site-context'
 import { tables, useTestDb } from './db'
+import { inspectionFactsFromRecords } from './read-models-inspection'
 
 // The read models of a site as stored (for comparing the incremental ones with a rebuild), and the same
 // read models worked out here in TypeScript straight from the site's records — the effective-record rule
@@ -83,8 +84,11 @@ export async function readModelsFromRecords(siteId: string) {
     obligations.push(...batteryObligations(facts, ctx.schedules, ctx.timeZone))
   }
   const truckStatus = []
+  const inspectionsOf = await inspectionFactsFromRecords(siteId)
   for (const t of trucks) {
+    const { readings: inspected, ...inspection } = inspectionsOf(t.id)
     const readings = [
+      ...inspected,
       ...s.filter(x => x.truckId === t.id && x.hourMeter !== null),
       ...effectiveRecords(exchanges).filter(x => x.truckId === t.id && x.hourMeter !== null),
       ...effectiveRecords(completionRows).filter(x => x.subjectId === t.id && x.hourMeter !== null),
@@ -95,6 +99,7 @@ export async function readModelsFromRecords(siteId: string) {
       id: t.id, siteId, fleetNumber: t.fleetNumber, tagCode: tagOf.get(t.id) ?? null, homeAreaId: t.homeAreaId, power: t.power,
       outOfService: t.outOfService, createdAt: t.createdAt, registeredHours: t.hourMeter, readings,
       lastEmissions: test ? { testedOn: test.testedOn, passed: test.passed } : null, completions: completions.filter(x => x.subjectId === t.id),
+      ...inspection,
     }
     truckStatus.push(truckStatusFrom(facts))
     obligations.push(...truckObligations(facts, ctx.schedules, ctx.timeZone))

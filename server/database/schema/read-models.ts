@@ -60,6 +60,11 @@ export const truckStatus = pgTable('truck_status', {
   hourMeter: doublePrecision().notNull().default(0),
   hourMeterAt: timestamp({ withTimezone: true }),
   lastInspectionAt: timestamp({ withTimezone: true }),
+  /** an inspection hold (29 CFR 1910.178(q)(7)): the inspection that placed it, since when, by whom, why */
+  holdInspectionId: uuid(),
+  holdSince: timestamp({ withTimezone: true }),
+  holdBy: uuid(),
+  holdReason: text(),
   computedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
 }, t => [index().on(t.siteId)])
 

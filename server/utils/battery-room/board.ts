@@ -15,7 +15,7 @@ export const boardCacheKey = (query: BoardQuery) => `board:${query.areaId ?? ''}
 export async function computeBoard(query: BoardQuery) {
   const db = useDb()
   const now = new Date()
-  const [settings, areas, rows, trucks] = await Promise.all([
+  const [settings, areas, rows, trucks, checks] = await Promise.all([
     batteryRoomSettings(db, query.siteId),
     db.select({ id: tables.areas.id, name: tables.areas.name }).from(tables.areas)
       .where(and(eq(tables.areas.siteId, query.siteId), eq(tables.areas.kind, 'charging_area'), eq(tables.areas.archived, false)))
@@ -24,6 +24,7 @@ export async function computeBoard(query: BoardQuery) {
     db.select().from(tables.trucks)
       .where(and(eq(tables.trucks.siteId, query.siteId), eq(tables.trucks.power, 'electric')))
       .orderBy(asc(tables.trucks.fleetNumber)),
+    shiftInspectionStatus(db, query.siteId, now),
   ])
   if (query.areaId && !areas.some(a => a.id === query.areaId)) throw createError({ statusCode: 404, message: 'No such charging area at this site.' })
   const cards = rows.map(r => batteryCard(r, settings.timeZone, now))
@@ -53,7 +54,7 @@ export async function computeBoard(query: BoardQuery) {
     areas,
     policy: { coolDownMinutes: settings.coolDownMinutes, cellSpreadThreshold: settings.cellSpreadThreshold },
     batteries: cards,
-    trucks: trucks.map(t => ({ id: t.id, fleetNumber: t.fleetNumber, systemVoltage: t.systemVoltage, outOfService: t.outOfService, batteryId: byTruck.get(t.id)?.id ?? null })),
+    trucks: trucks.map(t => ({ id: t.id, fleetNumber: t.fleetNumber, systemVoltage: t.systemVoltage, outOfService: t.outOfService, batteryId: byTruck.get(t.id)?.id ?? null, inspection: checks.stateOf[t.id] ?? null })),
     suggestion,
   }
 }

@@ -60,7 +60,7 @@ export async function recordBatterySwap(actor: Actor, body: SwapInput) {
         tx.select().from(tables.batterySwaps).where(eq(tables.batterySwaps.idempotencyKey, body.idempotencyKey)),
         loadBatteryRows(tx, { siteId: actor.siteIds, batteryIds: [body.batteryInId] }),
         holdsBatteryChangingQualification(tx, actor.user.id, at, body.truckId),
-        tx.select({ hourMeter: tables.truckStatus.hourMeter }).from(tables.truckStatus).where(eq(tables.truckStatus.truckId, body.truckId)),
+        tx.select({ hourMeter: tables.truckStatus.hourMeter, holdReason: tables.truckStatus.holdReason }).from(tables.truckStatus).where(eq(tables.truckStatus.truckId, body.truckId)),
       ])
       if (!truck) throw createError({ statusCode: 404, message: 'No such truck.' })
       const siteId = truck.siteId
@@ -80,6 +80,9 @@ export async function recordBatterySwap(actor: Actor, body: SwapInput) {
       const ctx = await cachedSiteContext(actor, siteId, tx)
       const settings = ctx.settings
       if (truck.power !== 'electric') throw badField('truckId', `Truck ${truck.fleetNumber} is not electric; it takes no battery.`)
+      // a truck that failed a critical item of its pre-shift check stays out of service (29 CFR 1910.178(q)(7))
+      if (truckNow?.holdReason) throw refusal([{ code: 'inspection_hold', message: holdRefusal(truck.fleetNumber, truckNow.holdReason) }], { overridable: false })
+      const authorisation = await checkTruckAuthorisation(tx, actor, truck)
       const meter = truckNow?.hourMeter ?? truck.hourMeter
       if (body.hourMeter < meter) throw badField('hourMeter', `The hour meter last read ${meter} h; check the reading.`)
 
@@ -132,7 +135,7 @@ export async function recordBatterySwap(actor: Actor, body: SwapInput) {
       const inserted = tx.insert(tables.batterySwaps).values(values).returning().then(rows => rows)
       const audited = writeAudit(tx, {
         actor, siteId, action: overridden.length ? 'swap_override' : 'swap', entity: 'battery_swap', entityId: values.id,
-        after: values, note: overridden.length ? body.overrideReason : warnings.map(w => w.message).join(' ') || undefined,
+        after: values, note: overridden.length ? body.overrideReason : [...warnings.map(w => w.message), authorisation ?? ''].join(' ').trim() || undefined,
       })
       const subjects: SubjectRef[] = [
         { kind: 'battery', id: batteryIn.id }, ...(body.batteryOutId ? [{ kind: 'battery' as const, id: body.batteryOutId }] : []), { kind: 'truck', id: truck.id },
@@ -140,7 +143,7 @@ export async function recordBatterySwap(actor: Actor, body: SwapInput) {
       const computed = computeReadModels(tx, ctx, { battery: subjects.filter(x => x.kind === 'battery').map(x => x.id), truck: [truck.id] })
       const [[swap], , models] = await Promise.all([inserted, audited, computed])
       await writeReadModels(tx, { siteId, subjectIds: subjects.map(x => x.id) }, models)
-      return { item: swap!, replayed: false, warnings, overridden }
+      return { item: swap!, replayed: false, warnings, overridden, ...(authorisation ? { authorisation } : {}) }
     })
   }
   catch (error) {

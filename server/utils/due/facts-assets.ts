@@ -21,6 +21,17 @@ const lastPass = (areaIdColumn: string, itemKey: string) => sql`(
   WHERE l.area_id = ${sql.raw(areaIdColumn)} AND ${isEffectiveRecord('area_log_entries', 'e')}
   ORDER BY l.period_start DESC, e.at DESC LIMIT 1)`
 
+// The last return to service, the last inspection, and the inspections with a failed critical item since
+// that return (the inspection hold is read from them by shared/utils/truck-inspection.ts).
+const inspectionFacts = sql`
+    LEFT JOIN LATERAL (SELECT max(r.at) AS at FROM truck_returns r WHERE r.truck_id = t.id) rt ON true
+    LEFT JOIN LATERAL (SELECT max(i.at) AS at FROM truck_inspections i WHERE i.truck_id = t.id) li ON true
+    LEFT JOIN LATERAL (
+      SELECT json_agg(json_build_array(i.id, ${epochMs('i.at')}, i.user_id, u.name, i.critical_failed) ORDER BY i.at) AS list
+      FROM truck_inspections i JOIN users u ON u.id = i.user_id
+      WHERE i.truck_id = t.id AND cardinality(i.critical_failed) > 0 AND (rt.at IS NULL OR i.at > rt.at)
+    ) ins ON true`
+
 export interface TruckFactsQuery {
   siteId: string
   truckIds?: readonly string[]
@@ -48,10 +59,14 @@ export async function loadTruckFactsFor(db: SqlRunner, q: TruckFactsQuery, compl
     readings: [number, number][] | null
     testedOn: string | null
     passed: boolean | null
+    returnMs: number | null
+    inspectedMs: number | null
+    failed: [string, number, string, string, string[]][] | null
   }>(db, sql`
     SELECT t.id, t.site_id AS "siteId", t.fleet_number AS "fleetNumber", ${liveTag('truck', 't.id')} AS "tagCode", t.home_area_id AS "homeAreaId",
       t.power, t.out_of_service AS "outOfService", ${epochMs('t.created_at')} AS "createdMs", t.hour_meter AS "registeredHours",
-      rd.list AS readings, et.tested_on::text AS "testedOn", et.passed
+      rd.list AS readings, et.tested_on::text AS "testedOn", et.passed,
+      ${epochMs('rt.at')} AS "returnMs", ${epochMs('li.at')} AS "inspectedMs", ins.list AS failed
     FROM trucks t
     LEFT JOIN LATERAL (
       SELECT json_agg(json_build_array(${epochMs('r.at')}, r.hour_meter) ORDER BY r.at, r.recorded_at) AS list FROM (
@@ -61,8 +76,12 @@ export async function loadTruckFactsFor(db: SqlRunner, q: TruckFactsQuery, compl
           SELECT c.at, c.recorded_at, c.hour_meter FROM schedule_completions c
           WHERE c.subject_id = t.id AND c.hour_meter IS NOT NULL AND ${isEffectiveRecord('schedule_completions', 'c')}
           ORDER BY c.at DESC, c.recorded_at DESC LIMIT ${limit})
+        UNION ALL (
+          SELECT i.at, i.recorded_at, i.hour_meter FROM truck_inspections i
+          WHERE i.truck_id = t.id AND i.hour_meter IS NOT NULL ORDER BY i.at DESC, i.recorded_at DESC LIMIT ${limit})
       ) r
     ) rd ON true
+    ${inspectionFacts}
     LEFT JOIN LATERAL (
       SELECT x.tested_on, x.passed FROM emissions_tests x WHERE x.truck_id = t.id AND ${isEffectiveRecord('emissions_tests', 'x')}
       ORDER BY x.tested_on DESC, x.recorded_at DESC LIMIT 1
@@ -75,6 +94,8 @@ export async function loadTruckFactsFor(db: SqlRunner, q: TruckFactsQuery, compl
     readings: (r.readings ?? []).map(([at, hours]) => ({ at: new Date(Number(at)), hours: Number(hours) })),
     lastEmissions: r.testedOn ? { testedOn: r.testedOn, passed: !!r.passed } : null,
     completions: bySubject.get(r.id) ?? [],
+    lastReturnAt: dateFromMs(r.returnMs), lastInspectionAt: dateFromMs(r.inspectedMs),
+    failedInspections: (r.failed ?? []).map(([id, atMs, userId, userName, criticalFailed]) => ({ id, at: new Date(Number(atMs)), userId, userName, criticalFailed })),
   }))
 }
 

@@ -9,8 +9,10 @@ import { groupCompletions } from './facts-battery'
 
 export async function loadOperatorFactsFor(db: SqlRunner, siteId: string, userIds?: readonly string[]): Promise<OperatorFacts[]> {
   if (userIds && userIds.length === 0) return []
-  const rows = await rowsOf<{ userId: string, name: string, memberMs: number, quals: [string, string | null][] | null }>(db, sql`
-    SELECT u.id AS "userId", u.name, ${epochMs('m.created_at')} AS "memberMs", q.list AS quals
+  const rows = await rowsOf<{ userId: string, name: string, memberMs: number, quals: [string, string | null][] | null, retrainOn: string | null, retrainReason: string | null }>(db, sql`
+    SELECT u.id AS "userId", u.name, ${epochMs('m.created_at')} AS "memberMs", q.list AS quals,
+      (SELECT r.happened_on::text FROM retraining_triggers r WHERE r.person_id = u.id ORDER BY r.happened_on DESC, r.recorded_at DESC LIMIT 1) AS "retrainOn",
+      (SELECT r.reason FROM retraining_triggers r WHERE r.person_id = u.id ORDER BY r.happened_on DESC, r.recorded_at DESC LIMIT 1) AS "retrainReason"
     FROM memberships m JOIN users u ON u.id = m.user_id
     LEFT JOIN LATERAL (
       SELECT json_agg(json_build_array(x.expires_on::text, x.evaluated_on::text)) AS list FROM (
@@ -23,6 +25,7 @@ export async function loadOperatorFactsFor(db: SqlRunner, siteId: string, userId
   return rows.map(r => ({
     userId: r.userId, siteId, name: r.name, memberSince: dateFromMs(r.memberMs)!,
     truckQualifications: (r.quals ?? []).map(([expiresOn, evaluatedOn]) => ({ expiresOn, evaluatedOn })),
+    retraining: r.retrainOn ? { happenedOn: r.retrainOn, reason: r.retrainReason ?? '' } : null,
   }))
 }
 

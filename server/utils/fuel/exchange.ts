@@ -42,6 +42,13 @@ export async function recordExchange(actor: Actor, req: ExchangeRequest) {
       }
     }
     const at = eventTime(req.at, 'at')
+    // a truck that failed a critical item of its pre-shift check stays out of service (29 CFR 1910.178(q)(7))
+    const [held] = await tx.select({ reason: tables.truckStatus.holdReason }).from(tables.truckStatus).where(eq(tables.truckStatus.truckId, truck.id))
+    if (held?.reason) {
+      const message = holdRefusal(truck.fleetNumber, held.reason)
+      throw createError({ statusCode: 409, message, data: { reasons: [message], code: 'inspection_hold' } })
+    }
+    const authorisation = await checkTruckAuthorisation(tx, actor, truck)
     const ids = [...new Set([req.cylinderOnId, req.cylinderOffId].filter((v): v is string => !!v))].sort()
     const locked = await tx.select().from(tables.lpCylinders)
       .where(and(inArray(tables.lpCylinders.id, ids), eq(tables.lpCylinders.siteId, truck.siteId)))
@@ -76,10 +83,10 @@ export async function recordExchange(actor: Actor, req: ExchangeRequest) {
       siteId: truck.siteId, userId: actor.user.id, at, truckId: truck.id, cylinderOffId: current?.id ?? null, cylinderOnId: on.id,
       idempotencyKey: req.idempotencyKey ?? null, note: req.note, hourMeter: req.hourMeter,
     }).returning()
-    await writeAudit(tx, { actor, siteId: truck.siteId, action: 'exchange', entity: 'cylinder_exchange', entityId: exchange!.id, after: exchange })
+    await writeAudit(tx, { actor, siteId: truck.siteId, action: 'exchange', entity: 'cylinder_exchange', entityId: exchange!.id, after: exchange, note: authorisation ?? undefined })
     await recomputeSubjects(tx, truck.siteId, [
       { kind: 'truck', id: truck.id }, { kind: 'cylinder', id: on.id }, ...(current ? [{ kind: 'cylinder' as const, id: current.id }] : []),
     ], { lock: false })
-    return { exchange: exchange!, repeated: false }
+    return { exchange: exchange!, repeated: false, authorisation }
   })
 }

@@ -27,5 +27,5 @@ export default defineAbilityHandler('cylinder.exchange', async (event): Promise<
     else throw error
   }
   setResponseStatus(event, result.repeated ? 200 : 201)
-  return { item: result.exchange, repeated: result.repeated }
+  return { item: result.exchange, repeated: result.repeated, ...('authorisation' in result && result.authorisation ? { authorisation: result.authorisation } : {}) }
 })

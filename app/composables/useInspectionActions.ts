@@ -1,0 +1,26 @@
+import type { InspectionRecorded } from '#shared/types/inspection'
+import type { FloorOutcome, FloorRecordWords } from '~/composables/useFloorForm'
+
+// Pre-shift truck inspection: the record (through the device outbox) and the return to service.
+export function useInspectionActions() {
+  const toast = useToast()
+  const { submitFloorRecord } = useFloorSubmit()
+  const truckKeys = (id: string) => [`inspection-${id}`, `truck-${id}`, `history-truck-${id}`, 'bay-board']
+
+  async function recordInspection(truckId: string, body: Record<string, unknown> & { idempotencyKey: string }, words: FloorRecordWords): Promise<FloorOutcome<InspectionRecorded>> {
+    const outcome = await submitFloorRecord<InspectionRecorded>({ kind: 'inspection', url: `/api/trucks/${truckId}/inspections`, body, atField: 'at', ...words })
+    if (outcome.state === 'saved') {
+      await Promise.all([refreshNuxtData(truckKeys(truckId)), refreshDue()])
+      toast.show('Pre-shift check recorded.')
+    }
+    return outcome
+  }
+
+  async function returnToService(truckId: string, whatWasDone: string) {
+    await $fetch(`/api/trucks/${truckId}/return-to-service`, { method: 'POST', body: { whatWasDone } })
+    await Promise.all([refreshNuxtData(truckKeys(truckId)), refreshDue()])
+    toast.show('Truck returned to service.', 'safe')
+  }
+
+  return { recordInspection, returnToService }
+}

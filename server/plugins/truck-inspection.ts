@@ -1,0 +1,36 @@
+import type { HistoryEntry } from '../utils/asset-history'
+
+// Pre-shift inspections on a truck: the inspection hold as the truck's state (29 CFR 1910.178(q)(7)), the
+// last check as a flag, and the checks and returns to service on its timeline.
+export default defineNitroPlugin(() => {
+  registerAssetStatus('truck', async (row) => {
+    const [s] = await useDb().select({ holdReason: tables.truckStatus.holdReason, lastInspectionAt: tables.truckStatus.lastInspectionAt })
+      .from(tables.truckStatus).where(eq(tables.truckStatus.truckId, row.id))
+    if (s?.holdReason) {
+      return { state: 'inspection_hold', label: 'Out of service after inspection', tone: 'danger' as const, flags: [{ key: 'inspection_hold', label: s.holdReason, tone: 'danger' as const }] }
+    }
+    const at = s?.lastInspectionAt
+    return { flags: [at
+      ? { key: 'inspection', label: `Last pre-shift check ${at.toISOString().slice(0, 16).replace('T', ' ')} UTC`, tone: 'neutral' as const }
+      : { key: 'inspection', label: 'No pre-shift check on record', tone: 'caution' as const }] }
+  })
+
+  registerHistorySource('truck', async (truckId, limit): Promise<HistoryEntry[]> => {
+    const db = useDb()
+    const i = tables.truckInspections
+    const r = tables.truckReturns
+    const [checks, returns] = await Promise.all([
+      db.select({ row: i, who: tables.users.name }).from(i).innerJoin(tables.users, eq(tables.users.id, i.userId)).where(eq(i.truckId, truckId)).orderBy(desc(i.at)).limit(limit),
+      db.select({ row: r, who: tables.users.name }).from(r).innerJoin(tables.users, eq(tables.users.id, r.userId)).where(eq(r.truckId, truckId)).orderBy(desc(r.at)).limit(limit),
+    ])
+    return [
+      ...checks.map(({ row, who }): HistoryEntry => ({
+        id: `inspection-${row.id}`, at: row.at, who,
+        title: row.criticalFailed.length ? 'Pre-shift check failed: out of service' : row.failedCount ? `Pre-shift check: ${row.failedCount} item(s) failed` : 'Pre-shift check passed',
+        detail: [row.criticalFailed.join('; '), row.hourMeter !== null ? `${row.hourMeter} h` : null].filter(Boolean).join(' · ') || null,
+        tone: row.criticalFailed.length ? 'danger' : row.failedCount ? 'warning' : 'safe',
+      })),
+      ...returns.map(({ row, who }): HistoryEntry => ({ id: `return-${row.id}`, at: row.at, who, title: 'Returned to service', detail: row.whatWasDone, tone: 'safe' })),
+    ]
+  })
+})
