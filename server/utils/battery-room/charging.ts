@@ -37,12 +37,12 @@ export async function startChargeSession(actor: Actor, battery: Pick<BatteryRow,
       if (again) return { item: again, replayed: true }
       const [row] = await loadBatteryRows(tx, { siteId, batteryIds: [locked.id] })
       const hard: FitReason[] = []
-      if (row?.truckId) hard.push({ code: 'in_truck', message: `Battery ${locked.serial} is in truck ${row.truckFleetNumber}; change it out of the truck first.` })
-      if (row?.chargeSessionId) hard.push({ code: 'already_on_charge', message: `Battery ${locked.serial} is already on charger ${row.chargerName}.` })
-      if (locked.outOfService) hard.push({ code: 'battery_out_of_service', message: `Battery ${locked.serial} is out of service; return it to service first.` })
-      if (charger.outOfService) hard.push({ code: 'charger_out_of_service', message: `Charger ${charger.name} is out of service.` })
+      if (row?.truckId) hard.push({ code: 'in_truck', params: { battery: locked.serial, truck: row.truckFleetNumber ?? '' }, message: `Battery ${locked.serial} is in truck ${row.truckFleetNumber}; change it out of the truck first.` })
+      if (row?.chargeSessionId) hard.push({ code: 'already_on_charge', params: { battery: locked.serial, charger: row.chargerName ?? '' }, message: `Battery ${locked.serial} is already on charger ${row.chargerName}.` })
+      if (locked.outOfService) hard.push({ code: 'battery_out_of_service', params: { battery: locked.serial }, message: `Battery ${locked.serial} is out of service; return it to service first.` })
+      if (charger.outOfService) hard.push({ code: 'charger_out_of_service', params: { charger: charger.name }, message: `Charger ${charger.name} is out of service.` })
       const [busy] = await tx.select({ id: cs.id }).from(cs).where(and(eq(cs.chargerId, charger.id), isNull(cs.endedAt), isNull(cs.correctsId)))
-      if (busy) hard.push({ code: 'charger_busy', message: `Charger ${charger.name} already has a battery on it; take that one off first.` })
+      if (busy) hard.push({ code: 'charger_busy', params: { charger: charger.name }, message: `Charger ${charger.name} already has a battery on it; take that one off first.` })
       if (hard.length) throw refusal(hard, { overridable: false })
       const soft = chargerBatteryMatch(charger, locked)
       if (soft.length && !body.overrideReason) throw refusal(soft, { overridable: true, overrideReasonMinLength: OVERRIDE_REASON_MIN_LENGTH })
@@ -62,7 +62,7 @@ export async function startChargeSession(actor: Actor, battery: Pick<BatteryRow,
       if (row) return { item: row, replayed: true }
     }
     if (constraint === 'charge_sessions_open_battery' || constraint === 'charge_sessions_open_charger') {
-      throw refusal([{ code: 'charger_busy', message: 'That battery or charger went on charge at the same moment; reload and check.' }], { overridable: false })
+      throw refusal([{ code: 'charger_busy', params: { variant: 'same_moment' }, message: 'That battery or charger went on charge at the same moment; reload and check.' }], { overridable: false })
     }
     throw error
   }
