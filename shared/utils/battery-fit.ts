@@ -1,4 +1,5 @@
 import type { BatteryState } from './battery-state'
+import { isLithiumIon } from './chemistry-rules'
 
 export type BatteryChemistry = 'flooded_lead_acid' | 'agm' | 'gel' | 'lithium_ion'
 
@@ -169,7 +170,10 @@ export function chargerBatteryMatch(charger: ChargerSpec, battery: BatterySpec):
       message: `Charger puts out ${withUnit(charger.outputVoltage, 'V')}; this battery is ${withUnit(battery.voltage, 'V')}.`,
     })
   }
-  if (!charger.chemistryProfiles.includes(battery.chemistry)) {
+  // a charger that records no profiles at all cannot be checked: a lithium-ion battery goes on with a warning
+  // (CHARGER_PROFILE_UNRECORDED, chemistry-rules.ts) rather than a refusal
+  const unrecorded = charger.chemistryProfiles.length === 0 && isLithiumIon(battery.chemistry)
+  if (!unrecorded && !charger.chemistryProfiles.includes(battery.chemistry)) {
     reasons.push({
       code: 'charger_profile_missing',
       params: { chemistry: battery.chemistry, chemistries: charger.chemistryProfiles },
