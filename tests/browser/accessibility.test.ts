@@ -50,7 +50,7 @@ describe('accessibility', () => {
         }
         expect(found).toEqual([])
         await context.close()
-      }, 240_000)
+      }, 480_000)
     }
   }
 })
