@@ -44,6 +44,18 @@ describe('languages', () => {
     expect((await page(c.cookie, 'en-US')).html).toContain('Scan a tag')
   })
 
+  it('renders the site settings page (temperatures in the site\'s units) in the person\'s language', async () => {
+    const metric = (await site({ unitSystem: 'metric' })).id
+    const who = await user({ siteId: metric, roles: ['admin'] })
+    const c = await signIn(who)
+    await c.put('/api/me/language', { language: 'es' })
+    const res = await fetch(url('/site'), { headers: { cookie: c.cookie! } })
+    expect(res.status).toBe(200)
+    const html = await res.text()
+    expect(/<html[^>]*\slang="([^"]+)"/.exec(html)?.[1]).toBe('es')
+    expect(html).toContain('Specific-gravity reference temperature (°C)')
+  })
+
   it('refuses a language Bayward is not written in with a 400 and keeps the setting', async () => {
     const who = await user({ siteId, roles: ['operator'] })
     const c = await signIn(who)
