@@ -2,11 +2,10 @@ import { fileURLToPath } from 'node:url'
 
 // Bayward: Nuxt 4 app (app/, server/, shared/), PostgreSQL through Drizzle, sealed-cookie sessions.
 export default defineNuxtConfig({
-  modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', '@vueuse/nuxt', 'nuxt-auth-utils', '@nuxt/eslint', '@vite-pwa/nuxt'],
+  modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', '@vueuse/nuxt', 'nuxt-auth-utils', '@nuxt/eslint', '@vite-pwa/nuxt', '@nuxtjs/i18n'],
   devtools: { enabled: false },
   app: {
     head: {
-      htmlAttrs: { lang: 'en' },
       title: 'Bayward',
       meta: [
         { name: 'viewport', content: 'width=device-width, initial-scale=1, viewport-fit=cover' },
@@ -70,6 +69,16 @@ export default defineNuxtConfig({
     },
   },
   eslint: { config: { stylistic: true } },
+  // English and Spanish. The words are in the bundle (i18n/i18n.config.ts imports both JSON files), so the app
+  // opened offline from the service worker has them; no prefix, so printed /t/<code> URLs never change. The
+  // language is the person's setting (users.language, set in app/plugins/language.ts), else the browser's.
+  i18n: {
+    strategy: 'no_prefix',
+    defaultLocale: 'en',
+    locales: [{ code: 'en', language: 'en-US', name: 'English' }, { code: 'es', language: 'es-US', name: 'Español' }],
+    vueI18n: './i18n.config.ts',
+    detectBrowserLanguage: { useCookie: false, fallbackLocale: 'en' },
+  },
   pwa: {
     strategies: 'injectManifest',
     srcDir: fileURLToPath(new URL('./service-worker', import.meta.url)),

@@ -29,12 +29,6 @@ export type FloorFormOptions<B, A> = {
   | { sendNow: (body: B) => Promise<A> }
 )
 
-// User-visible words of the kit (one place, for translation).
-const WORDS = {
-  checkFields: 'Check the fields marked below.',
-  noConnection: 'No connection to Bayward: nothing was saved. Try again when the connection is back.',
-}
-
 /** Records from the device outbox: the kept record with its key, or the server's answer. */
 export function useFloorSubmit() {
   const outbox = useOutboxStore()
@@ -45,6 +39,8 @@ export function useFloorSubmit() {
 // idempotency key, busy / saved / kept / refused, the done card's outcome, "another", pre-fill from the URL.
 export function useFloorForm<B extends object, A = unknown>(options: FloorFormOptions<B, A>) {
   const route = useRoute()
+  // the kit's own words (floor.* in i18n/locales), from the app's one i18n (callable outside a component too)
+  const { t } = useNuxtApp().$i18n
   const key = ref(newIdempotencyKey())
   const busy = ref(false)
   const fields = ref<Record<string, string>>({})
@@ -66,7 +62,7 @@ export function useFloorForm<B extends object, A = unknown>(options: FloorFormOp
     const result = schema.safeParse(body)
     if (result.success) return true
     fields.value = fieldMessages(result.error)
-    problem.value = fields.value._ ?? WORDS.checkFields
+    problem.value = fields.value._ ?? t('floor.check_fields')
     return false
   }
 
@@ -85,7 +81,7 @@ export function useFloorForm<B extends object, A = unknown>(options: FloorFormOp
     }
     catch (error) {
       const r = parseRefusal(error)
-      if (!r) problem.value = WORDS.noConnection
+      if (!r) problem.value = t('floor.no_connection')
       else if (r.reasons.length) refusal.value = r
       else {
         fields.value = r.fields

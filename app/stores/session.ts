@@ -3,9 +3,11 @@ import { del, get, set } from 'idb-keyval'
 import { ROLES, type Role, type SiteMembership } from '#shared/types/auth'
 import { can as holds, type Ability } from '#shared/utils/abilities'
 import type { UnitSystem } from '#shared/utils/units'
+import type { Language } from '#shared/utils/languages'
 
 interface MeResponse {
-  user: { id: string, email: string, name: string }
+  // language is absent in a copy kept on the device before languages existed
+  user: { id: string, email: string, name: string, language?: Language | null }
   memberships: SiteMembership[]
   sites: { id: string, name: string, timeZone: string, unitSystem: UnitSystem }[]
 }
@@ -55,6 +57,12 @@ export const useSessionStore = defineStore('session', () => {
     }, { immediate: true })
   }
 
+  /** Saves the person's language (null: follow the browser) and shows the app in it. */
+  async function chooseLanguage(language: Language | null) {
+    await $fetch('/api/me/language', { method: 'PUT', body: { language } })
+    if (me.value) me.value = { ...me.value, user: { ...me.value.user, language } }
+  }
+
   function chooseSite(id: string) {
     siteCookie.value = id
   }
@@ -65,5 +73,5 @@ export const useSessionStore = defineStore('session', () => {
     await del('me', deviceDb()).catch(() => undefined)
   }
 
-  return { me, signedIn, sites, currentSite, siteId, roles, units, primaryRole, can, canAt, load, chooseSite, signOut }
+  return { me, signedIn, sites, currentSite, siteId, roles, units, primaryRole, can, canAt, load, chooseSite, chooseLanguage, signOut }
 })

@@ -1,5 +1,10 @@
-/** One reason the server gave, with its code when it sent one ({ code, message } objects). */
-export interface RefusalReason { code: string | null, message: string }
+import type { ReasonParams } from '#shared/utils/battery-fit'
+
+/**
+ * One reason the server gave: its code and numbers when it sent them ({ code, message, params }), and its
+ * English words, shown when this language has no words for the code (useReasonWords).
+ */
+export interface RefusalReason { code: string | null, message: string, params?: ReasonParams }
 
 /** A refusal as the client shows it, whatever shape the route answered with. */
 export interface Refusal {
@@ -23,10 +28,12 @@ export function parseRefusal(error: unknown): Refusal | null {
   const status = e?.statusCode ?? e?.status ?? 0
   if (!status) return null
   const data = (e?.data?.data ?? {}) as Record<string, unknown>
-  const reasons = (Array.isArray(data.reasons) ? data.reasons : []).map((r: unknown): RefusalReason => (typeof r === 'string'
-    ? { code: null, message: r }
-    : { code: typeof (r as RefusalReason)?.code === 'string' ? (r as RefusalReason).code : null, message: String((r as RefusalReason)?.message ?? '') }))
-    .filter(r => r.message)
+  const reasons = (Array.isArray(data.reasons) ? data.reasons : []).map((r: unknown): RefusalReason => {
+    if (typeof r === 'string') return { code: null, message: r }
+    const given = r as Partial<RefusalReason> | null
+    const params = given?.params && typeof given.params === 'object' ? given.params : undefined
+    return { code: typeof given?.code === 'string' ? given.code : null, message: String(given?.message ?? ''), ...(params ? { params } : {}) }
+  }).filter(r => r.message)
   const fields = data.fields && typeof data.fields === 'object' ? data.fields as Record<string, string> : {}
   const message = e?.data?.message || reasons[0]?.message || e?.data?.statusMessage || `Bayward refused it (${status}).`
   return { status, message, reasons, fields, overridable: data.overridable === true, offerQuarantine: data.offerQuarantine === true, data }

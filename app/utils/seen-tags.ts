@@ -65,7 +65,7 @@ export async function lookupOrSeen<T extends object>(scope: string, code: string
 }
 
 /** "Tue 14:05"-style time a device copy dates from, or null for an answer fresh from the server. */
-export function seenAsOf(value: unknown): string | null {
+export function seenAsOf(value: unknown, languageTag = 'en-US'): string | null {
   const at = (value as Seen<object> | null)?.seenAt
-  return at ? new Date(at).toLocaleString('en-US', { weekday: 'short', month: 'short', day: 'numeric', hour: 'numeric', minute: '2-digit' }) : null
+  return at ? new Date(at).toLocaleString(languageTag, { weekday: 'short', month: 'short', day: 'numeric', hour: 'numeric', minute: '2-digit' }) : null
 }

@@ -1,5 +1,6 @@
 import type { AssetKind } from '#shared/utils/asset-schemas'
 import { can, type Ability } from '#shared/utils/abilities'
+import { chargesInTruck } from '#shared/utils/chemistry-rules'
 
 export interface TagAsset {
   kind: AssetKind
@@ -7,6 +8,8 @@ export interface TagAsset {
   code: string
   state: string
   outOfService: boolean
+  /** a battery's chemistry (chemistry-rules.ts decides what it is offered) */
+  chemistry?: string | null
 }
 
 export interface TagAction {
@@ -20,14 +23,18 @@ export interface TagAction {
   /** where it goes */
   to: (asset: TagAsset) => string
   primary?: boolean
+  /** a further test on the asset (its chemistry), beyond kind and state */
+  fits?: (asset: TagAsset) => boolean
 }
 
 // The actions a scanned tag offers, by asset kind, state and role. Feature modules add theirs here;
 // the tag page shows the first four that fit, primary ones first.
 export const TAG_ACTIONS: TagAction[] = [
   { key: 'swap-in', label: 'Put in a truck', kinds: ['battery'], ability: 'swap.record', states: ['ready'], to: a => `/swap?in=${a.code}`, primary: true },
-  { key: 'reading', label: 'Take a reading', kinds: ['battery'], ability: 'reading.record', states: ['ready', 'cooling', 'needs_charge'], to: a => `/check?battery=${a.code}` },
+  { key: 'reading', label: 'Take a reading', kinds: ['battery'], ability: 'reading.record', states: ['ready', 'cooling', 'needs_charge'], to: a => `/check?battery=${a.code}`, fits: a => !a.chemistry || a.chemistry === 'flooded_lead_acid' },
   { key: 'charge-on', label: 'Put on charge', kinds: ['battery'], ability: 'charge.record', states: ['needs_charge'], to: a => `/charge?battery=${a.code}`, primary: true },
+  // lithium-ion is charged in the truck during breaks (opportunity charging)
+  { key: 'charge-in-truck', label: 'Put on charge in the truck', kinds: ['battery'], ability: 'charge.record', states: ['in_truck'], to: a => `/charge?battery=${a.code}`, fits: a => chargesInTruck(a.chemistry ?? '') },
   { key: 'charge-off', label: 'Take off charge', kinds: ['battery'], ability: 'charge.record', states: ['on_charge'], to: a => `/charge?battery=${a.code}`, primary: true },
   { key: 'charger-on', label: 'Put a battery on', kinds: ['charger'], ability: 'charge.record', to: a => `/charge?charger=${a.code}`, primary: true },
   { key: 'truck-return', label: 'Return to service', kinds: ['truck'], ability: 'inspection.return', states: ['inspection_hold'], to: a => `/inspect?truck=${a.id}#return`, primary: true },
@@ -49,6 +56,7 @@ export function actionsFor(asset: TagAsset, roles: readonly Role[], limit = 4): 
     .filter(a => a.kinds.includes(asset.kind)
       && roles.length > 0 && can(roles, a.ability)
       && (!a.states || a.states.includes(asset.state))
+      && (!a.fits || a.fits(asset))
       && !(a.key === 'hold' && asset.outOfService))
     .sort((a, b) => Number(!!b.primary) - Number(!!a.primary))
     .slice(0, limit)

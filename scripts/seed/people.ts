@@ -5,6 +5,7 @@ import type { Random } from './random'
 import type { AreaRow, SeedRows } from './rows'
 import { DEMO_SIGN_INS } from './sign-ins'
 import { defaultSiteSettings } from '../../shared/utils/site-settings'
+import { defaultSgReferenceTempF } from '../../shared/utils/units'
 
 export const DEMO_ORGANIZATION = 'Quillmere Cold Logistics'
 
@@ -46,7 +47,8 @@ export function buildOrganization(rows: SeedRows, newId: () => string, registere
       name: siteNames[key],
       timeZone: SITE_TIME_ZONE,
       unitSystem: key === 'mb' ? 'us' : 'metric',
-      settings: defaultSiteSettings(),
+      // the metric site reads specific gravity against 25 °C (77 °F)
+      settings: { ...defaultSiteSettings(), sgReferenceTempF: defaultSgReferenceTempF(key === 'mb' ? 'us' : 'metric') },
       createdAt: registeredAt,
       updatedAt: registeredAt,
     })

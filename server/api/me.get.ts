@@ -5,5 +5,6 @@ export default defineAbilityHandler('account.self', async (event) => {
     ? await useDb().select({ id: tables.sites.id, name: tables.sites.name, timeZone: tables.sites.timeZone, unitSystem: tables.sites.unitSystem })
         .from(tables.sites).where(inArray(tables.sites.id, actor.siteIds))
     : []
-  return { user: actor.user, memberships: actor.memberships, sites }
+  const [row] = await useDb().select({ language: tables.users.language }).from(tables.users).where(eq(tables.users.id, actor.user.id))
+  return { user: { ...actor.user, language: isLanguage(row?.language) ? row.language : null }, memberships: actor.memberships, sites }
 })

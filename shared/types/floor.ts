@@ -56,7 +56,7 @@ export interface CylinderLookup {
 /** POST /api/battery-room/swaps */
 export interface SwapAnswer { item: { id: string }, replayed: boolean, warnings: FitReason[], overridden?: FitReason[], /** why the operator is not authorised for the truck's class (site policy: warn) */ authorisation?: string }
 /** POST /api/battery-room/charges */
-export interface ChargeOnAnswer { item: { id: string }, replayed: boolean }
+export interface ChargeOnAnswer { item: { id: string }, replayed: boolean, warnings?: FitReason[] }
 /** POST /api/battery-room/charges/:id/end */
 export interface ChargeOffAnswer { item: { gridKwh: number | null, energyCost: number | null, countedCycle: boolean, ranHot: boolean }, currency: string }
 /** POST /api/battery-room/checks (a repeated key answers the stored check without the cell list) */

@@ -1,4 +1,5 @@
 import type { BatteryState } from './battery-state'
+import { isLithiumIon } from './chemistry-rules'
 
 export type BatteryChemistry = 'flooded_lead_acid' | 'agm' | 'gel' | 'lithium_ion'
 
@@ -41,10 +42,17 @@ export interface ChargerSpec {
   maxCurrentA: number
 }
 
-/** Why a battery cannot go where it was asked to: a stable snake_case code and plain words with the numbers. */
+/** A reason's numbers and names, for the words in the reader's language (`refusal.<code>` in i18n/locales). */
+export type ReasonParams = Record<string, string | number | string[]>
+
+/**
+ * Why a battery cannot go where it was asked to: a stable snake_case code, plain English words with the
+ * numbers (the fallback), and the numbers and codes themselves (`params`) for the client's own language.
+ */
 export interface FitReason {
   code: string
   message: string
+  params?: ReasonParams
 }
 
 const quantity = new Intl.NumberFormat('en-US', { maximumFractionDigits: 2 })
@@ -79,18 +87,21 @@ export function batteryTruckFit(truck: TruckBatterySpec, battery: BatterySpec): 
   if (Math.abs(battery.voltage - truck.systemVoltage) > TOLERANCE) {
     reasons.push({
       code: 'voltage_mismatch',
+      params: { battery: battery.voltage, truck: truck.systemVoltage },
       message: `Battery is ${withUnit(battery.voltage, 'V')}; this truck takes ${withUnit(truck.systemVoltage, 'V')}.`,
     })
   }
   if (!sameConnector(battery.connector, truck.connector)) {
     reasons.push({
       code: 'connector_mismatch',
+      params: { battery: battery.connector.trim(), truck: truck.connector.trim() },
       message: `Battery connector is ${battery.connector.trim() || 'not recorded'}; this truck takes ${truck.connector.trim() || 'a connector not recorded'}.`,
     })
   }
   if (!truck.allowedChemistries.includes(battery.chemistry)) {
     reasons.push({
       code: 'chemistry_not_allowed',
+      params: { chemistry: battery.chemistry, chemistries: truck.allowedChemistries },
       message: `This truck is not approved for ${BATTERY_CHEMISTRY_LABELS[battery.chemistry]} batteries (approved: ${chemistryList(truck.allowedChemistries)}).`,
     })
   }
@@ -111,6 +122,7 @@ export function batteryTruckFit(truck: TruckBatterySpec, battery: BatterySpec): 
       if (d.battery > d.compartment + TOLERANCE) {
         reasons.push({
           code: d.code,
+          params: { battery: d.battery, compartment: d.compartment },
           message: `Battery is ${withUnit(d.battery, 'in')} ${d.word}; the compartment takes ${withUnit(d.compartment, 'in')}.`,
         })
       }
@@ -133,12 +145,14 @@ export function batteryTruckFit(truck: TruckBatterySpec, battery: BatterySpec): 
     if (recorded(truck.minBatteryWeightLb) && battery.weightLb < truck.minBatteryWeightLb - TOLERANCE) {
       reasons.push({
         code: 'under_minimum_weight',
+        params: { battery: battery.weightLb, truck: truck.minBatteryWeightLb },
         message: `Battery weighs ${withUnit(battery.weightLb, 'lb')}; this truck's nameplate minimum is ${withUnit(truck.minBatteryWeightLb, 'lb')} — a light battery upsets the counterweight.`,
       })
     }
     if (recorded(truck.maxBatteryWeightLb) && battery.weightLb > truck.maxBatteryWeightLb + TOLERANCE) {
       reasons.push({
         code: 'over_maximum_weight',
+        params: { battery: battery.weightLb, truck: truck.maxBatteryWeightLb },
         message: `Battery weighs ${withUnit(battery.weightLb, 'lb')}; this truck's nameplate maximum is ${withUnit(truck.maxBatteryWeightLb, 'lb')} — a heavy battery overloads the truck.`,
       })
     }
@@ -152,12 +166,17 @@ export function chargerBatteryMatch(charger: ChargerSpec, battery: BatterySpec):
   if (Math.abs(charger.outputVoltage - battery.voltage) > TOLERANCE) {
     reasons.push({
       code: 'charger_voltage_mismatch',
+      params: { charger: charger.outputVoltage, battery: battery.voltage },
       message: `Charger puts out ${withUnit(charger.outputVoltage, 'V')}; this battery is ${withUnit(battery.voltage, 'V')}.`,
     })
   }
-  if (!charger.chemistryProfiles.includes(battery.chemistry)) {
+  // a charger that records no profiles at all cannot be checked: a lithium-ion battery goes on with a warning
+  // (CHARGER_PROFILE_UNRECORDED, chemistry-rules.ts) rather than a refusal
+  const unrecorded = charger.chemistryProfiles.length === 0 && isLithiumIon(battery.chemistry)
+  if (!unrecorded && !charger.chemistryProfiles.includes(battery.chemistry)) {
     reasons.push({
       code: 'charger_profile_missing',
+      params: { chemistry: battery.chemistry, chemistries: charger.chemistryProfiles },
       message: `Charger has no ${BATTERY_CHEMISTRY_LABELS[battery.chemistry]} profile (it has: ${chemistryList(charger.chemistryProfiles)}).`,
     })
   }
@@ -165,18 +184,21 @@ export function chargerBatteryMatch(charger: ChargerSpec, battery: BatterySpec):
   if (!recorded(battery.capacityAh)) {
     reasons.push({
       code: 'capacity_unknown',
+      params: { min: charger.minCapacityAh, max: charger.maxCapacityAh },
       message: `Battery capacity is not recorded; this charger is rated for ${range}.`,
     })
   }
   else if (battery.capacityAh < charger.minCapacityAh - TOLERANCE) {
     reasons.push({
       code: 'capacity_below_charger_range',
+      params: { battery: battery.capacityAh, min: charger.minCapacityAh, max: charger.maxCapacityAh },
       message: `Battery is ${withUnit(battery.capacityAh, 'Ah')}; this charger is rated for ${range} and would charge it too hard.`,
     })
   }
   else if (battery.capacityAh > charger.maxCapacityAh + TOLERANCE) {
     reasons.push({
       code: 'capacity_above_charger_range',
+      params: { battery: battery.capacityAh, min: charger.minCapacityAh, max: charger.maxCapacityAh },
       message: `Battery is ${withUnit(battery.capacityAh, 'Ah')}; this charger is rated for ${range} and cannot charge it fully in time.`,
     })
   }
@@ -208,14 +230,14 @@ export function batteryReadinessReasons(facts: BatteryReadinessFacts): FitReason
     reasons.push({ code: 'already_in_truck', message: 'Battery is already in a truck; log it out of that truck first.' })
   }
   if (facts.state === 'on_charge') {
-    reasons.push({ code: 'not_charged', message: 'Battery is still on charge; let the charge finish.' })
+    reasons.push({ code: 'not_charged', message: 'Battery is still on charge; let the charge finish.', params: { variant: 'on_charge' } })
   }
   if (facts.state === 'needs_charge') {
-    reasons.push({ code: 'not_charged', message: 'Battery has not been charged since it last came out of a truck.' })
+    reasons.push({ code: 'not_charged', message: 'Battery has not been charged since it last came out of a truck.', params: { variant: 'needs_charge' } })
   }
   if (facts.state === 'cooling') {
     const left = facts.coolingMinutesLeft > 0 ? `${minutesText(facts.coolingMinutesLeft)} left` : 'almost done'
-    reasons.push({ code: 'still_cooling', message: `Battery is still cooling after its charge: ${left}.` })
+    reasons.push({ code: 'still_cooling', message: `Battery is still cooling after its charge: ${left}.`, params: { minutes: Math.max(0, Math.ceil(facts.coolingMinutesLeft)) } })
   }
   if (facts.wateringOverdue) {
     reasons.push({ code: 'watering_overdue', message: 'Watering is overdue; check levels and water it before it goes out.' })

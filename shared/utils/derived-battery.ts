@@ -4,6 +4,7 @@ import { localDate } from './due-dates'
 import type { ScheduleDefinition } from './due-schedules'
 import { chargesProgress, scheduleObligation, type ObligationRecord, type ObligationSubject } from './due-rules'
 import { customObligations, type CompletionFact } from './derived-custom'
+import { coolDownMinutesFor } from './chemistry-rules'
 
 // A battery's read models from its effective records: the status row the Bay board, the tag page and the
 // floor forms read, and its obligations (watering, equalize, every-cell reading, lead-added schedules).
@@ -115,7 +116,8 @@ export function batteryStatusFrom(f: BatteryFacts, policy: BatteryStatusPolicy):
     siteId: f.siteId,
     state,
     stateSince: since,
-    readyAt: state === 'charged' ? new Date(ended!.endedAt.getTime() + policy.coolDownMinutes * 60_000) : null,
+    // the site's cool-down for lead-acid; none for lithium-ion (chemistry-rules.ts)
+    readyAt: state === 'charged' ? new Date(ended!.endedAt.getTime() + coolDownMinutesFor(f.chemistry, policy.coolDownMinutes) * 60_000) : null,
     truckId: inTruck ? f.lastIn!.truckId : null,
     chargeSessionId: f.openCharge?.id ?? null,
     chargerId: f.openCharge?.chargerId ?? null,

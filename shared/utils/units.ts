@@ -126,3 +126,26 @@ export function formatLength(inches: number, system: UnitSystem, options?: UnitF
 export function formatArea(ft2: number, system: UnitSystem, options?: UnitFormatOptions): string {
   return system === 'metric' ? formatQuantity(ft2ToM2(ft2), 'm²', options) : formatQuantity(ft2, 'ft²', options)
 }
+
+/** What a floor form and a setting take and show, in the site's units; Bayward stores °F, US gallons and pounds. */
+export type EntryQuantity = 'temperature' | 'volume' | 'weight'
+
+export const ENTRY_UNITS: Record<UnitSystem, Record<EntryQuantity, string>> = {
+  us: { temperature: '°F', volume: 'US gal', weight: 'lb' },
+  metric: { temperature: '°C', volume: 'L', weight: 'kg' },
+}
+
+/** A value typed in the site's units, in the unit Bayward stores (°F, US gal, lb). */
+export function toStoredUnits(quantity: EntryQuantity, value: number, system: UnitSystem): number {
+  if (system === 'us') return value
+  return quantity === 'temperature' ? celsiusToFahrenheit(value) : quantity === 'volume' ? litresToUsGal(value) : kgToLb(value)
+}
+
+/** A stored value (°F, US gal, lb) in the site's units, for showing and for pre-filling a field. */
+export function fromStoredUnits(quantity: EntryQuantity, value: number, system: UnitSystem): number {
+  if (system === 'us') return value
+  return quantity === 'temperature' ? fahrenheitToCelsius(value) : quantity === 'volume' ? usGalToLitres(value) : lbToKg(value)
+}
+
+/** The specific-gravity reference temperature a new site starts with: 25 °C (77 °F) metric, 80 °F US (TM 5-1185). */
+export const defaultSgReferenceTempF = (system: UnitSystem): number => (system === 'metric' ? 77 : 80)

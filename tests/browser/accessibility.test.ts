@@ -3,14 +3,15 @@ import { setup, url } from '@nuxt/test-utils/e2e'
 import AxeBuilder from '@axe-core/playwright'
 import type { Browser } from 'playwright-core'
 import { builtServer } from '../support/http'
-import { closeTestDb, site, user } from '../support/db'
+import { eq } from 'drizzle-orm'
+import { closeTestDb, site, tables, user, useTestDb } from '../support/db'
 import { DESKTOP, PHONE, launchChromium, newContext } from '../support/chromium'
 import { LANGUAGES, MAIN_PAGES } from '../support/pages'
 
 await setup(builtServer)
 
 let browser: Browser
-let everyone: { email: string, password: string }
+let everyone: { id: string, email: string, password: string }
 
 beforeAll(async () => {
   browser = await launchChromium()
@@ -28,6 +29,7 @@ describe('accessibility', () => {
   for (const language of LANGUAGES) {
     for (const [width, viewport] of [['phone', PHONE], ['desktop', DESKTOP]] as const) {
       it(`every main page has no serious or critical axe violation (${language}, ${width})`, async () => {
+        await useTestDb().update(tables.users).set({ language }).where(eq(tables.users.id, everyone.id))
         const context = await newContext(browser, url('/'), viewport)
         const page = await context.newPage()
         await page.goto(url('/sign-in'))
@@ -39,6 +41,8 @@ describe('accessibility', () => {
         for (const path of ['/sign-in', ...MAIN_PAGES]) {
           await page.goto(url(path))
           await page.waitForLoadState('networkidle')
+          // the sign-in page comes before the person is known; every other page is in their language
+          if (path !== '/sign-in') expect([path, await page.getAttribute('html', 'lang')]).toEqual([path, language])
           const result = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa']).options({ resultTypes: ['violations'] }).analyze()
           for (const v of result.violations.filter(v => v.impact === 'serious' || v.impact === 'critical')) {
             found.push(`${path}: ${v.id} (${v.impact}) ${v.nodes.slice(0, 3).map(n => n.target.join(' ')).join(' | ')}`)
@@ -46,7 +50,7 @@ describe('accessibility', () => {
         }
         expect(found).toEqual([])
         await context.close()
-      }, 240_000)
+      }, 480_000)
     }
   }
 })

@@ -29,7 +29,7 @@ describe('sign-in, sign-out and the session', () => {
 
     const me = await c.get('/api/me')
     expect(me.status).toBe(200)
-    expect(me.body.user).toEqual({ id: who.id, email: who.email, name: who.name })
+    expect(me.body.user).toEqual({ id: who.id, email: who.email, name: who.name, language: null })
     const bySite = Object.fromEntries(me.body.memberships.map((m: { siteId: string, roles: string[] }) => [m.siteId, [...m.roles].sort()]))
     expect(bySite).toEqual({ [siteA.id]: ['facilities_lead', 'technician'], [siteB.id]: ['operator'] })
     expect(me.body.sites.map((s: { id: string }) => s.id).sort()).toEqual([siteA.id, siteB.id].sort())

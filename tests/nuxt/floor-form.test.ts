@@ -3,6 +3,7 @@ import { swapBodySchema } from '../../shared/utils/battery-room-schemas'
 import { parseRefusal } from '../../app/utils/refusal'
 import { newIdempotencyKey } from '../../app/utils/idempotency'
 import { useFloorForm } from '../../app/composables/useFloorForm'
+import { useReasonWords } from '../../app/composables/useReasonWords'
 
 // The floor-form kit: one refusal parser for every shape the routes answer, the shared schema before
 // sending, and the states a form goes through.
@@ -20,6 +21,32 @@ describe('parseRefusal', () => {
       reasons: [], fields: { hourMeter: 'Not below 0.' }, message: 'Check the form.',
     })
     expect(parseRefusal(fetchError(403, {}))?.message).toBe('Bayward refused it (403).')
+  })
+
+  it('keeps a reason\'s code and params, and says it in the reader\'s language, the English words when it has none', async () => {
+    const refusal = parseRefusal(fetchError(409, { message: 'x', data: { reasons: [
+      { code: 'under_minimum_weight', message: 'Battery weighs 1,850 lb; minimum is 2,100 lb.', params: { battery: 1850, truck: 2100 } },
+      { code: 'charger_profile_missing', message: 'Charger has no lithium-ion profile.', params: { chemistry: 'lithium_ion', chemistries: ['flooded_lead_acid', 'agm'] } },
+      { code: 'not_charged', message: 'Battery is still on charge.', params: { variant: 'on_charge' } },
+      { code: 'a_code_with_no_words', message: 'Words from the server.' },
+    ] } }))!
+    expect(refusal.reasons[0]).toEqual({ code: 'under_minimum_weight', message: 'Battery weighs 1,850 lb; minimum is 2,100 lb.', params: { battery: 1850, truck: 2100 } })
+    const { reasonText } = useReasonWords()
+    const { $i18n } = useNuxtApp()
+    try {
+      await $i18n.setLocale('es')
+      expect(refusal.reasons.map(reasonText)).toEqual([
+        'La batería pesa 1,850 lb; el mínimo de la placa es 2,100 lb. Una batería liviana afecta el contrapeso.',
+        'El cargador no tiene perfil para litio-ion (tiene: plomo-ácido inundada, AGM).',
+        'La batería sigue cargando; deje que termine la carga.',
+        'Words from the server.',
+      ])
+      await $i18n.setLocale('en')
+      expect(reasonText(refusal.reasons[2]!)).toBe('Battery is still on charge; let the charge finish.')
+    }
+    finally {
+      await $i18n.setLocale('en')
+    }
   })
 
   it('no answer at all is no refusal', () => {

@@ -4,5 +4,5 @@ export const MAIN_PAGES = ['/', '/scan', '/bay', '/swap', '/charge', '/check', '
   '/trucks', '/batteries', '/batteries/new', '/cylinders', '/labels', '/people', '/site',
   '/due', '/schedules', '/logs', '/incidents', '/ventilation', '/calendar', '/account'] as const
 
-export const LANGUAGES = ['en'] as const
+export const LANGUAGES = ['en', 'es'] as const
 export type Language = typeof LANGUAGES[number]

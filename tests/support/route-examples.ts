@@ -179,6 +179,7 @@ export const ROUTE_EXAMPLES: Record<string, Example> = {
   'server/routes/calendar/[token].ics.ts': get(w => `/calendar/${w.calendarToken}.ics`),
 
   'server/api/me.get.ts': get(() => '/api/me'),
+  'server/api/me/language.put.ts': { run: x => () => x.c.put('/api/me/language', { language: 'es' }) },
   'server/api/sites/index.get.ts': get(() => '/api/sites'),
   'server/api/sites/index.post.ts': post(() => '/api/sites', () => ({ name: uniqueName('Annex') })),
   'server/api/sites/[id].patch.ts': { run: x => () => x.c.patch(`/api/sites/${x.w.siteId}`, { address: '1 Quay Road' }) },

@@ -65,25 +65,27 @@ describe('batteryTruckFit', () => {
 
   it('voltage mismatch', () => {
     const reasons = batteryTruckFit(truck(), battery({ voltage: 36, cellCount: 18 }))
-    expect(reasons).toEqual([{ code: 'voltage_mismatch', message: 'Battery is 36 V; this truck takes 48 V.' }])
+    expect(reasons).toMatchObject([{ code: 'voltage_mismatch', message: 'Battery is 36 V; this truck takes 48 V.' }])
+    // the numbers travel raw beside the English words, for the reader's own language
+    expect(reasons[0]!.params).toEqual({ battery: 36, truck: 48 })
   })
 
   it('connector mismatch, ignoring case and spacing', () => {
     expect(batteryTruckFit(truck(), battery({ connector: '  350a  RED ' }))).toEqual([])
     const reasons = batteryTruckFit(truck(), battery({ connector: '350A gray' }))
-    expect(reasons).toEqual([{ code: 'connector_mismatch', message: 'Battery connector is 350A gray; this truck takes 350A red.' }])
+    expect(reasons).toMatchObject([{ code: 'connector_mismatch', message: 'Battery connector is 350A gray; this truck takes 350A red.' }])
   })
 
   it('chemistry not approved for the truck', () => {
     const reasons = batteryTruckFit(truck(), battery({ chemistry: 'lithium_ion' }))
-    expect(reasons).toEqual([{
+    expect(reasons).toMatchObject([{
       code: 'chemistry_not_allowed',
       message: 'This truck is not approved for lithium-ion batteries (approved: flooded lead-acid, AGM).',
     }])
   })
 
   it('says which compartment dimension is exceeded, without rotating the battery', () => {
-    expect(batteryTruckFit(truck(), battery({ lengthIn: 39 }))).toEqual([
+    expect(batteryTruckFit(truck(), battery({ lengthIn: 39 }))).toMatchObject([
       { code: 'too_long_for_compartment', message: 'Battery is 39 in long; the compartment takes 38.5 in.' },
     ])
     expect(codes(batteryTruckFit(truck(), battery({ widthIn: 20.75 })))).toEqual(['too_wide_for_compartment'])
@@ -100,7 +102,7 @@ describe('batteryTruckFit', () => {
 
   // Nameplate gives the minimum (and maximum) battery weight [mem, ANSI/ITSDF B56.1; the clause number is unchecked]
   it('under the nameplate minimum weight [mem, ANSI/ITSDF B56.1; the clause number is unchecked]', () => {
-    expect(batteryTruckFit(truck(), battery({ weightLb: 1850 }))).toEqual([{
+    expect(batteryTruckFit(truck(), battery({ weightLb: 1850 }))).toMatchObject([{
       code: 'under_minimum_weight',
       message: 'Battery weighs 1,850 lb; this truck\'s nameplate minimum is 2,000 lb — a light battery upsets the counterweight.',
     }])
@@ -126,7 +128,7 @@ describe('batteryTruckFit', () => {
   })
 
   it('over the nameplate maximum weight [mem, ANSI/ITSDF B56.1; the clause number is unchecked]', () => {
-    expect(batteryTruckFit(truck(), battery({ weightLb: 2525 }))).toEqual([{
+    expect(batteryTruckFit(truck(), battery({ weightLb: 2525 }))).toMatchObject([{
       code: 'over_maximum_weight',
       message: 'Battery weighs 2,525 lb; this truck\'s nameplate maximum is 2,400 lb — a heavy battery overloads the truck.',
     }])
@@ -142,23 +144,23 @@ describe('chargerBatteryMatch', () => {
   })
 
   it('output voltage mismatch', () => {
-    expect(chargerBatteryMatch(charger({ outputVoltage: 36 }), battery())).toEqual([
+    expect(chargerBatteryMatch(charger({ outputVoltage: 36 }), battery())).toMatchObject([
       { code: 'charger_voltage_mismatch', message: 'Charger puts out 36 V; this battery is 48 V.' },
     ])
   })
 
   it('no profile for the battery chemistry', () => {
-    expect(chargerBatteryMatch(charger(), battery({ chemistry: 'agm' }))).toEqual([
+    expect(chargerBatteryMatch(charger(), battery({ chemistry: 'agm' }))).toMatchObject([
       { code: 'charger_profile_missing', message: 'Charger has no AGM profile (it has: flooded lead-acid).' },
     ])
   })
 
   it('capacity below or above the charger range', () => {
-    expect(chargerBatteryMatch(charger(), battery({ capacityAh: 600 }))).toEqual([{
+    expect(chargerBatteryMatch(charger(), battery({ capacityAh: 600 }))).toMatchObject([{
       code: 'capacity_below_charger_range',
       message: 'Battery is 600 Ah; this charger is rated for 750–1,000 Ah and would charge it too hard.',
     }])
-    expect(chargerBatteryMatch(charger(), battery({ capacityAh: 1200 }))).toEqual([{
+    expect(chargerBatteryMatch(charger(), battery({ capacityAh: 1200 }))).toMatchObject([{
       code: 'capacity_above_charger_range',
       message: 'Battery is 1,200 Ah; this charger is rated for 750–1,000 Ah and cannot charge it fully in time.',
     }])
@@ -185,7 +187,7 @@ describe('batteryReadinessReasons', () => {
   })
 
   it('still cooling, with the time left', () => {
-    expect(batteryReadinessReasons(facts({ state: 'cooling', coolingMinutesLeft: 95 }))).toEqual([
+    expect(batteryReadinessReasons(facts({ state: 'cooling', coolingMinutesLeft: 95 }))).toMatchObject([
       { code: 'still_cooling', message: 'Battery is still cooling after its charge: 1 h 35 min left.' },
     ])
     expect(batteryReadinessReasons(facts({ state: 'cooling', coolingMinutesLeft: 40 }))[0]!.message).toContain('40 min left')

@@ -13,6 +13,7 @@ import {
   specificGravityFromOpenCircuitVolts,
   stateOfChargeFromSpecificGravity,
 } from '../../shared/utils/specific-gravity'
+import { celsiusToFahrenheit } from '../../shared/utils/units'
 
 describe('correctedSpecificGravity', () => {
   // Worked examples referenced to 80 °F, 0.004 per 10 °F [pub, in several battery and engine manuals]
@@ -34,6 +35,17 @@ describe('correctedSpecificGravity', () => {
   it('default policy is 80 °F and 0.004 per 10 °F [pub, US Army TM 5-1185 reference temperature]', () => {
     expect(DEFAULT_SG_POLICY.referenceTempF).toBe(80)
     expect(DEFAULT_SG_POLICY.correctionPerDegF * 10).toBeCloseTo(0.004, 12)
+  })
+
+  // 0.004 per 10 °F is about 0.0007 per °C [pub, battery makers' manuals; common practice]: a metric site reads °C,
+  // converted at the edge (units.ts) to the stored °F, with its reference at 25 °C (77 °F).
+  it('1.280 read at 35 °C corrected to 25 °C gives about 1.287 [pub, battery makers\' manuals, common practice]', () => {
+    const metric = { referenceTempF: celsiusToFahrenheit(25), correctionPerDegF: DEFAULT_SG_POLICY.correctionPerDegF }
+    expect(metric.referenceTempF).toBeCloseTo(77, 12)
+    expect(correctedSpecificGravity(1.280, celsiusToFahrenheit(35), metric)).toBeCloseTo(1.287, 3)
+    expect(formatSpecificGravity(correctedSpecificGravity(1.280, celsiusToFahrenheit(35), metric))).toBe('1.287')
+    // per degree Celsius: 0.0004 × 9/5 = 0.00072, "about 0.0007 per °C"
+    expect(DEFAULT_SG_POLICY.correctionPerDegF * 9 / 5).toBeCloseTo(0.0007, 4)
   })
 
   it('IEEE 450 policy: 0.001 per 3 °F from 77 °F [mem]', () => {

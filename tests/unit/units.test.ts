@@ -1,6 +1,10 @@
 import { describe, it, expect } from 'vitest'
 import { unit } from 'mathjs'
 import {
+  ENTRY_UNITS,
+  defaultSgReferenceTempF,
+  fromStoredUnits,
+  toStoredUnits,
   celsiusToFahrenheit,
   cfmToM3PerHour,
   fahrenheitToCelsius,
@@ -105,5 +109,26 @@ describe('display formatting', () => {
 
   it('shows a dash for a value that is not a number', () => {
     expect(formatWeight(Number.NaN, 'us')).toBe('—')
+  })
+})
+
+// What a form on a metric site sends is converted to the stored US units, checked against mathjs (a general-purpose
+// library this project did not write) rather than against our own factors.
+describe('entry in the site\'s units', () => {
+  it('converts °C, L and kg to the stored °F, US gal and lb, and back', () => {
+    expect(toStoredUnits('temperature', 25, 'metric')).toBeCloseTo(unit(25, 'degC').toNumber('degF'), 9)
+    expect(toStoredUnits('volume', 2, 'metric')).toBeCloseTo(unit(2, 'L').toNumber('gal'), 9)
+    expect(toStoredUnits('weight', 1000, 'metric')).toBeCloseTo(unit(1000, 'kg').toNumber('lbm'), 9)
+    for (const q of ['temperature', 'volume', 'weight'] as const) {
+      expect(fromStoredUnits(q, toStoredUnits(q, 37.5, 'metric'), 'metric')).toBeCloseTo(37.5, 9)
+      expect(toStoredUnits(q, 37.5, 'us')).toBe(37.5)
+    }
+  })
+
+  it('names the units a site types in; a metric site reads specific gravity against 25 °C (77 °F)', () => {
+    expect(ENTRY_UNITS.metric).toEqual({ temperature: '°C', volume: 'L', weight: 'kg' })
+    expect(ENTRY_UNITS.us).toEqual({ temperature: '°F', volume: 'US gal', weight: 'lb' })
+    expect(defaultSgReferenceTempF('metric')).toBeCloseTo(unit(25, 'degC').toNumber('degF'), 9)
+    expect(defaultSgReferenceTempF('us')).toBe(80)
   })
 })

@@ -9,7 +9,7 @@ export default defineAbilityHandler('site.create', async (event) => {
   const [anchor] = await db.select({ organizationId: tables.sites.organizationId }).from(tables.sites).where(eq(tables.sites.id, adminSites[0]!))
   try {
     return await db.transaction(async (tx) => {
-      const [site] = await tx.insert(tables.sites).values({ ...body, organizationId: anchor!.organizationId, settings: defaultSiteSettings() }).returning()
+      const [site] = await tx.insert(tables.sites).values({ ...body, organizationId: anchor!.organizationId, settings: { ...defaultSiteSettings(), sgReferenceTempF: defaultSgReferenceTempF(body.unitSystem ?? 'us') } }).returning()
       await tx.insert(tables.memberships).values({ userId: actor.user.id, siteId: site!.id, role: 'admin' })
       await writeAudit(tx, { actor, siteId: site!.id, action: 'create', entity: 'site', entityId: site!.id, after: site })
       setResponseStatus(event, 201)

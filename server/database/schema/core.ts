@@ -43,6 +43,8 @@ export const users = pgTable('users', {
   active: boolean().notNull().default(true),
   /** sessions signed in before this stop working */
   passwordChangedAt: timestamp({ withTimezone: true }),
+  /** the language the person reads Bayward in ('en', 'es'); null follows the browser's Accept-Language */
+  language: text(),
   ...timestamps,
 }, t => [uniqueIndex('users_email_lower_idx').on(sql`lower(${t.email})`)])
 

@@ -1,6 +1,7 @@
 import type { z } from 'zod'
 import type { FitReason } from '#shared/utils/battery-fit'
 import { chargerBatteryMatch } from '#shared/utils/battery-fit'
+import { CHARGER_PROFILE_UNRECORDED, NO_EQUALIZE, chargesInTruck, isLithiumIon, takesEqualize } from '#shared/utils/chemistry-rules'
 import { gridEnergyKwh, energyCost, isCountedCycle, ranHot } from '#shared/utils/charging'
 import { OVERRIDE_REASON_MIN_LENGTH, type chargeEndSchema, type chargeStartSchema } from '#shared/utils/battery-room-schemas'
 import type { DbOrTx } from '../db'
@@ -37,22 +38,24 @@ export async function startChargeSession(actor: Actor, battery: Pick<BatteryRow,
       if (again) return { item: again, replayed: true }
       const [row] = await loadBatteryRows(tx, { siteId, batteryIds: [locked.id] })
       const hard: FitReason[] = []
-      if (row?.truckId) hard.push({ code: 'in_truck', message: `Battery ${locked.serial} is in truck ${row.truckFleetNumber}; change it out of the truck first.` })
-      if (row?.chargeSessionId) hard.push({ code: 'already_on_charge', message: `Battery ${locked.serial} is already on charger ${row.chargerName}.` })
-      if (locked.outOfService) hard.push({ code: 'battery_out_of_service', message: `Battery ${locked.serial} is out of service; return it to service first.` })
-      if (charger.outOfService) hard.push({ code: 'charger_out_of_service', message: `Charger ${charger.name} is out of service.` })
+      // lithium-ion charges in the truck during breaks (opportunity charging); lead-acid comes out first
+      if (row?.truckId && !chargesInTruck(locked.chemistry)) hard.push({ code: 'in_truck', params: { battery: locked.serial, truck: row.truckFleetNumber ?? '' }, message: `Battery ${locked.serial} is in truck ${row.truckFleetNumber}; change it out of the truck first.` })
+      if (row?.chargeSessionId) hard.push({ code: 'already_on_charge', params: { battery: locked.serial, charger: row.chargerName ?? '' }, message: `Battery ${locked.serial} is already on charger ${row.chargerName}.` })
+      if (locked.outOfService) hard.push({ code: 'battery_out_of_service', params: { battery: locked.serial }, message: `Battery ${locked.serial} is out of service; return it to service first.` })
+      if (charger.outOfService) hard.push({ code: 'charger_out_of_service', params: { charger: charger.name }, message: `Charger ${charger.name} is out of service.` })
       const [busy] = await tx.select({ id: cs.id }).from(cs).where(and(eq(cs.chargerId, charger.id), isNull(cs.endedAt), isNull(cs.correctsId)))
-      if (busy) hard.push({ code: 'charger_busy', message: `Charger ${charger.name} already has a battery on it; take that one off first.` })
+      if (busy) hard.push({ code: 'charger_busy', params: { charger: charger.name }, message: `Charger ${charger.name} already has a battery on it; take that one off first.` })
       if (hard.length) throw refusal(hard, { overridable: false })
       const soft = chargerBatteryMatch(charger, locked)
       if (soft.length && !body.overrideReason) throw refusal(soft, { overridable: true, overrideReasonMinLength: OVERRIDE_REASON_MIN_LENGTH })
+      const warnings = isLithiumIon(locked.chemistry) && charger.chemistryProfiles.length === 0 ? [CHARGER_PROFILE_UNRECORDED] : []
       const [session] = await tx.insert(cs).values({
         siteId, userId: actor.user.id, at, idempotencyKey: body.idempotencyKey, note: body.note,
         batteryId: locked.id, chargerId: charger.id, overrideReason: soft.length ? body.overrideReason : null,
       }).returning()
       await writeAudit(tx, { actor, siteId, action: 'charge_on', entity: 'charge_session', entityId: session!.id, after: session, note: soft.length ? body.overrideReason : undefined })
       await recomputeSubjects(tx, siteId, [{ kind: 'battery', id: locked.id }], { lock: false, ctx: await cachedSiteContext(actor, siteId, tx) })
-      return { item: session!, replayed: false, overridden: soft }
+      return { item: session!, replayed: false, overridden: soft, warnings }
     })
   }
   catch (error) {
@@ -62,7 +65,7 @@ export async function startChargeSession(actor: Actor, battery: Pick<BatteryRow,
       if (row) return { item: row, replayed: true }
     }
     if (constraint === 'charge_sessions_open_battery' || constraint === 'charge_sessions_open_charger') {
-      throw refusal([{ code: 'charger_busy', message: 'That battery or charger went on charge at the same moment; reload and check.' }], { overridable: false })
+      throw refusal([{ code: 'charger_busy', params: { variant: 'same_moment' }, message: 'That battery or charger went on charge at the same moment; reload and check.' }], { overridable: false })
     }
     throw error
   }
@@ -101,6 +104,7 @@ export async function endChargeSession(actor: Actor, found: ChargeSession, body:
   const settings = await batteryRoomSettings(useDb(), found.siteId)
   return useDb().transaction(async (tx) => {
     const [battery] = await tx.select().from(tables.batteries).where(eq(tables.batteries.id, found.batteryId)).for('update')
+    if (body.equalize && !takesEqualize(battery!.chemistry)) throw refusal([NO_EQUALIZE], { overridable: false, fields: { equalize: NO_EQUALIZE.message } }, 400)
     const [charger] = await tx.select().from(tables.chargers).where(eq(tables.chargers.id, found.chargerId))
     const gridKwh = gridEnergyKwh(body.ampHoursReturned, battery!.voltage, charger!.efficiency)
     const countedCycle = isCountedCycle({ complete: body.outcome === 'complete', ampHoursReturned: body.ampHoursReturned, ratedAh: battery!.capacityAh })

@@ -1,5 +1,6 @@
 import type { z } from 'zod'
 import type { FitReason } from '#shared/utils/battery-fit'
+import { NO_ELECTROLYTE_READING, takesElectrolyteReadings } from '#shared/utils/chemistry-rules'
 import {
   WATER_AFTER_CHARGE_CAUTION, justFinishedCharge, summarizeElectrolyteReadings, wateringBeforeChargeCaution, type electrolyteCheckSchema,
 } from '#shared/utils/battery-room-schemas'
@@ -18,6 +19,7 @@ export async function recordElectrolyteCheck(actor: Actor, battery: BatteryRow, 
   const stored = async (db: DbOrTx) => ownRecord((await db.select().from(ec).where(eq(ec.idempotencyKey, body.idempotencyKey)))[0], actor)
   const replay = await stored(useDb())
   if (replay) return { item: replay, replayed: true, warnings: [] as FitReason[] }
+  if (!takesElectrolyteReadings(battery.chemistry)) throw refusal([NO_ELECTROLYTE_READING], { overridable: false, fields: { batteryId: NO_ELECTROLYTE_READING.message } }, 400)
   if (battery.chemistry !== 'flooded_lead_acid') throw badField('batteryId', 'Only flooded lead-acid batteries take water and hydrometer readings.')
   const cellCount = Number(battery.cellCount)
   const outside = body.cells.findIndex(c => c.cellNumber > cellCount)

@@ -90,17 +90,17 @@ export async function recordBatterySwap(actor: Actor, body: SwapInput) {
       const hard: FitReason[] = []
       const current = locked.find(b => b.currentTruckId === truck.id)
       if (body.batteryOutId && current?.id !== body.batteryOutId) {
-        hard.push({ code: 'battery_out_not_in_truck', message: current ? `Truck ${truck.fleetNumber} holds battery ${current.serial}, not the one scanned as coming out.` : `Truck ${truck.fleetNumber} has no battery recorded in it; leave "battery out" empty.` })
+        hard.push({ code: 'battery_out_not_in_truck', params: { truck: truck.fleetNumber, battery: current?.serial ?? '', ...(current ? {} : { variant: 'empty_truck' }) }, message: current ? `Truck ${truck.fleetNumber} holds battery ${current.serial}, not the one scanned as coming out.` : `Truck ${truck.fleetNumber} has no battery recorded in it; leave "battery out" empty.` })
       }
       if (!body.batteryOutId && current) {
-        hard.push({ code: 'truck_has_battery', message: `Truck ${truck.fleetNumber} holds battery ${current.serial}; scan it as the battery coming out.` })
+        hard.push({ code: 'truck_has_battery', params: { truck: truck.fleetNumber, battery: current.serial }, message: `Truck ${truck.fleetNumber} holds battery ${current.serial}; scan it as the battery coming out.` })
       }
       const row = rowsIn.find(f => f.id === batteryIn.id)
       if (!row) throw createError({ statusCode: 404, message: 'No such battery at this site.' })
       if (batteryIn.currentTruckId) {
         hard.push(batteryIn.currentTruckId === truck.id
-          ? { code: 'already_in_this_truck', message: `Battery ${batteryIn.serial} is already in truck ${truck.fleetNumber}.` }
-          : { code: 'in_another_truck', message: `Battery ${batteryIn.serial} is already in truck ${row.truckFleetNumber ?? 'another truck'}; someone has just taken it. Pick another battery.` })
+          ? { code: 'already_in_this_truck', params: { battery: batteryIn.serial, truck: truck.fleetNumber }, message: `Battery ${batteryIn.serial} is already in truck ${truck.fleetNumber}.` }
+          : { code: 'in_another_truck', params: { battery: batteryIn.serial, truck: row.truckFleetNumber ?? '' }, message: `Battery ${batteryIn.serial} is already in truck ${row.truckFleetNumber ?? 'another truck'}; someone has just taken it. Pick another battery.` })
       }
       const warnings: FitReason[] = []
       if (!qualified) {
@@ -152,7 +152,7 @@ export async function recordBatterySwap(actor: Actor, body: SwapInput) {
       if (row) return { item: row, replayed: true, warnings: [] as FitReason[] }
     }
     if (pgConstraint(error) === 'battery_status_one_per_truck') {
-      throw refusal([{ code: 'in_another_truck', message: 'That battery or truck changed at the same moment; someone has just taken it. Pick another battery.' }], { overridable: false })
+      throw refusal([{ code: 'in_another_truck', params: { variant: 'same_moment' }, message: 'That battery or truck changed at the same moment; someone has just taken it. Pick another battery.' }], { overridable: false })
     }
     throw error
   }

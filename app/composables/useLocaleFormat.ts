@@ -1,0 +1,22 @@
+import { LANGUAGE_TAGS, isLanguage } from '#shared/utils/languages'
+
+// Numbers, money and dates as the reader's language writes them on a US floor (en-US, es-US). Intl with the
+// regional tag: the bare 'es' would write 1850 without its comma and a 24-hour clock.
+const formatters = new Map<string, Intl.NumberFormat | Intl.DateTimeFormat>()
+function cached<T extends Intl.NumberFormat | Intl.DateTimeFormat>(key: string, make: () => T): T {
+  let f = formatters.get(key)
+  if (!f) formatters.set(key, (f = make()))
+  return f as T
+}
+
+export function useLocaleFormat() {
+  const { locale } = useNuxtApp().$i18n
+  const tag = () => LANGUAGE_TAGS[isLanguage(locale.value) ? locale.value : 'en']
+  return {
+    /** the BCP 47 tag of the reader's language (en-US, es-US) */
+    tag,
+    number: (value: number, maximumFractionDigits = 2) => cached(`n${tag()}${maximumFractionDigits}`, () => new Intl.NumberFormat(tag(), { maximumFractionDigits })).format(value),
+    money: (value: number, currency: string) => cached(`m${tag()}${currency}`, () => new Intl.NumberFormat(tag(), { style: 'currency', currency })).format(value),
+    dateTime: (at: string | Date) => cached(`d${tag()}`, () => new Intl.DateTimeFormat(tag(), { dateStyle: 'medium', timeStyle: 'short' })).format(new Date(at)),
+  }
+}
