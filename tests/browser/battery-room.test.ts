@@ -117,7 +117,8 @@ describe('battery room on the floor', () => {
     for (const [name, viewport] of [['phone', PHONE], ['desktop', DESKTOP]] as const) {
       const page = await signedIn(people.technician!, '/bay', viewport)
       await page.getByRole('heading', { name: 'Bay board' }).waitFor()
-      await page.getByLabel('Battery for truck').selectOption({ label: `${t.fleetNumber} · 36 V` })
+      // the option also names the truck's pre-shift state; the truck is picked by its id
+      await page.getByLabel('Battery for truck').selectOption(t.id)
       await page.getByLabel('Suggested battery').waitFor()
       await page.screenshot({ path: `screenshots/battery-room-bay-${name}.png`, fullPage: true })
       await page.goto(url(`/charge?battery=${code}`))
