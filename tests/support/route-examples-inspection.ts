@@ -24,6 +24,7 @@ export const INSPECTION_EXAMPLES: Record<string, Example> = {
     },
   },
   'server/api/inspection/shift.get.ts': { run: x => () => x.c.get(`/api/inspection/shift?siteId=${x.w.siteId}`) },
+  'server/api/inspection-templates/index.get.ts': { run: x => () => x.c.get(`/api/inspection-templates?siteId=${x.w.siteId}`) },
   'server/api/inspection-templates/[power].put.ts': {
     run: x => () => x.c.put('/api/inspection-templates/lp_gas', { siteId: x.w.siteId, title: 'LP-gas truck — pre-shift check', items: DEFAULT_INSPECTION_ITEMS.lp_gas }),
   },
