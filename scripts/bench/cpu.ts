@@ -50,8 +50,10 @@ try {
   await new Promise(r => setTimeout(r, 5000))
   const idlePerMs = (cpuMs(server.pid) - idle0) / (performance.now() - idleT0)
   console.log(`idle   app ${(idlePerMs * 1000).toFixed(0)} ms CPU a second`)
+  // BAYWARD_CPU_EXTRA=/api/me,/api/sites: more paths, read as the lead
+  for (const extra of process.env.BAYWARD_CPU_EXTRA?.split(',').filter(Boolean) ?? []) routes.push([extra, () => extra, lead])
   for (const [name, path, cookie] of routes) {
-    if (name !== 'health' && !wanted(name)) continue
+    if (name !== 'health' && !name.startsWith('/') && !wanted(name)) continue
     for (let i = 0; i < Number(process.env.BAYWARD_CPU_WARMUP ?? 20); i++) await (await fetch(server.base + path(i), { headers: { cookie, 'accept': 'application/json', 'accept-encoding': encoding } })).text()
     const app0 = cpuMs(server.pid), pg0 = pgCpuMs(), t0 = performance.now()
     let bytes = 0
