@@ -49,7 +49,7 @@ export async function measurePass(server: BenchServer, sql: postgres.Sql, label:
   await measureGet('board', 'GET /api/battery-room/board (200 batteries)', 16, () => [get(`/api/battery-room/board?siteId=${site1}&areaId=${area1}`, leadCookie)])
   await measureGet('due', 'GET /api/due (a 500-battery site, first 200 obligations)', 16, () => [get(`/api/due?siteId=${site1}`, leadCookie)])
   // what the due page asks for: the groups and counts, then a group opened 50 at a time
-  await measureGet('due-page', 'GET /api/due as the due page opens (groups and counts)', 16, () => [get(`/api/due?siteId=${site1}&role=all&sort=due&limit=1`, leadCookie)])
+  await measureGet('due-page', 'GET /api/due as the due page opens (groups and counts)', 16, () => [get(`/api/due?siteId=${site1}&role=all&sort=due&limit=0`, leadCookie)])
   await measureGet('due-group', 'GET /api/due, one group opened (50 waterings)', 16, () => [get(`/api/due?siteId=${site1}&role=all&sort=due&kind=battery_watering&limit=50`, leadCookie)])
   await measureGet('list', 'GET /api/batteries (page 3 of 50, by Ah)', 16, () => [get(`/api/batteries?siteId=${site1}&page=3&pageSize=50&sort=capacityAh`, leadCookie)])
   const twoTrucks = wanted('swap') ? await runSwaps(server, sql, leadCookie, label, figures) : undefined
