@@ -1,3 +1,4 @@
+import type { Sql } from 'postgres'
 import { CoTwaGrouper, StandingTally, cellNumber, coTwaVerdict, type AuditPackStamp, type CoTwaRow } from '#shared/utils/audit-pack'
 import { AID_DISCLAIMER } from '#shared/utils/disclaimer'
 import { AuditPdf } from './pdf'
@@ -43,7 +44,8 @@ export const auditPackJob = defineJob('audit-pack', async (input: AuditPackInput
   const stamp: AuditPackStamp = { siteName: input.siteName, from: input.from, to: input.to, madeAt: siteClock(new Date(), input.timeZone), madeBy: input.madeBy }
   const pdf = await AuditPdf.create(stamp)
   const zip = new PackZip()
-  const client = useDb().$client
+  // the pool's own client, for its cursors (drizzle has none)
+  const client = (useDb() as unknown as { $client: Sql }).$client
   const certificates: { key: string, name: string }[] = []
   const counts: Record<string, number> = {}
 
