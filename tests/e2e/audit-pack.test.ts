@@ -102,7 +102,8 @@ describe('audit pack', () => {
     expect(text).toContain('Correction by')
     expect(text).toContain('Eyewash flow was weak')
     expect(text).toContain('Replaced by a correction')
-    expect(text).toContain('Tailpipe certificate AQ-07.pdf')
+    // the certificate's name wraps in its column
+    expect(text).toMatch(/Tailpipe certificate\s[\s\S]*AQ-07\.pdf/)
     expect(text).toMatch(/Failed pre-fill inspection/)
     expect(text).toContain('38.8') // the 8-h TWA of 38.75 ppm, to one decimal
     expect(text).toContain('Over the site limit 35 ppm')
@@ -147,6 +148,6 @@ describe('audit pack', () => {
     expect((await safety.client.post('/api/audit-packs', { siteId: '00000000-0000-4000-8000-000000000000', from, to })).status).toBe(404)
     expect((await safety.client.post('/api/audit-packs', { siteId, from: 'last year', to })).status).toBe(400)
     expect((await safety.client.get('/api/audit-packs/00000000-0000-4000-8000-000000000000/pdf')).status).toBe(404)
-    expect((await safety.client.get(`/api/audit-packs/00000000-0000-4000-8000-000000000000/tar`)).status).toBe(400)
+    expect((await safety.client.get('/api/audit-packs/00000000-0000-4000-8000-000000000000/tar')).status).toBe(404)
   })
 })
