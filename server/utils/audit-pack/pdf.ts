@@ -34,6 +34,16 @@ export class AuditPdf {
     doc.setTitle(`Audit pack · ${stamp.siteName} · ${stamp.from} to ${stamp.to}`)
     doc.setCreator('Bayward')
     const font = await doc.embedFont(robotoFlex(), { subset: true })
+    // Encoding a text lays it out with fontkit (about a quarter of a millisecond a cell); a pack repeats most
+    // of its cells (areas, items, people, results), so each distinct text is encoded once. The first encoding
+    // has already marked its glyphs for the subset, so reusing it changes nothing in the file.
+    const encode = font.encodeText.bind(font)
+    const encoded = new Map<string, ReturnType<PDFFont['encodeText']>>()
+    font.encodeText = (text: string) => {
+      let e = encoded.get(text)
+      if (!e) encoded.set(text, e = encode(text))
+      return e
+    }
     const pdf = new AuditPdf(doc, font, stamp)
     pdf.newPage()
     return pdf
@@ -55,18 +65,36 @@ export class AuditPdf {
     }
   }
 
+  // Widths from each character's advance, kept once per character: the font's own measure lays the text out
+  // with fontkit on every call, which for thousands of cells costs seconds. Kerning is left out, so 2 % spare.
+  private readonly advance = new Map<string, number>()
+  private measure(t: string, size: number): number {
+    let width = 0
+    for (const ch of t) {
+      let w = this.advance.get(ch)
+      if (w === undefined) {
+        w = this.font.widthOfTextAtSize(ch, 1000) / 1000
+        this.advance.set(ch, w)
+      }
+      width += w
+    }
+    return width * size * 1.02
+  }
+
   private text(t: string, x: number, size: number, color = INK) {
     this.page.drawText(t, { x, y: this.y - size, size, font: this.font, color })
   }
 
   /** Words wrapped to `width` at `size`, at most `max` lines (the last cut with an ellipsis). */
   wrap(t: string, width: number, size = SIZE, max = MAX_LINES): string[] {
+    const clean = printable(t)
+    if (!clean.includes('\n') && this.measure(clean, size) <= width) return [clean]
     const lines: string[] = []
-    for (const paragraph of printable(t).split('\n')) {
+    for (const paragraph of clean.split('\n')) {
       let line = ''
       for (const word of paragraph.split(/\s+/).filter(Boolean)) {
         const next = line ? `${line} ${word}` : word
-        if (this.font.widthOfTextAtSize(next, size) <= width) line = next
+        if (this.measure(next, size) <= width) line = next
         else {
           if (line) lines.push(line)
           line = this.fit(word, width, size)
@@ -79,9 +107,9 @@ export class AuditPdf {
   }
 
   private fit(t: string, width: number, size: number): string {
-    if (this.font.widthOfTextAtSize(t, size) <= width) return t
+    if (this.measure(t, size) <= width) return t
     let s = t
-    while (s.length > 1 && this.font.widthOfTextAtSize(`${s}…`, size) > width) s = s.slice(0, -1)
+    while (s.length > 1 && this.measure(`${s}…`, size) > width) s = s.slice(0, -1)
     return `${s}…`
   }
 
@@ -140,7 +168,7 @@ export class AuditPdf {
         const y = this.y - 2 - n * LINE - SIZE
         this.page.drawText(line, { x: x + pad, y, size: SIZE, font: this.font, color: o.color })
         if (o.struck && i < wrapped.length - 1) {
-          const w = this.font.widthOfTextAtSize(line, SIZE)
+          const w = this.measure(line, SIZE) / 1.02
           this.page.drawLine({ start: { x: x + pad, y: y + SIZE * 0.32 }, end: { x: x + pad + w, y: y + SIZE * 0.32 }, thickness: 0.5, color: o.color })
         }
       })
