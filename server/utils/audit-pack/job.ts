@@ -22,7 +22,8 @@ export interface AuditPackInput {
 
 export interface AuditPackResult { pages: number, bytes: number, zipBytes: number, certificates: number, counts: Record<string, number> }
 
-const BATCH = 500
+// rows per cursor fetch; between batches the job lets the server's other requests run
+const BATCH = 250
 
 export const auditZipKey = (jobId: string) => `jobs:${jobId}-zip`
 export const readAuditZip = (jobId: string) => readStoredFile(auditZipKey(jobId))
@@ -75,6 +76,7 @@ export const auditPackJob = defineJob('audit-pack', async (input: AuditPackInput
         onRow?.(r)
       }
       csv.push(csvChunk(fields, rows, false))
+      await new Promise(resolve => setImmediate(resolve))
     }
     csv.end()
     const rows = tally.standing + tally.replaced
