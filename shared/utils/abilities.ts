@@ -71,6 +71,7 @@ export const ABILITIES = {
   'tag.retag': at(LEADS, 're-tag an asset'),
   'label.print': at(LEADS, 'print label sheets'),
   'report.view': at(LEADS, 'see the ventilation check and the overrides report'),
+  'audit-pack.make': at(LEADS, 'make an audit pack of the site\'s records for an inspector'),
   'upload.create': at(EVERYONE, 'upload a certificate or photo'),
   'user.view': at(LEADS, 'see the people of the site'),
   'user.manage': at(ADMINS, 'add people, change their accounts or send them a password link'),
