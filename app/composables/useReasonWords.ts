@@ -1,20 +1,30 @@
 import type { ReasonParams } from '#shared/utils/battery-fit'
+import type { UnitSystem } from '#shared/utils/units'
 
 /** A reason as the server sends it: a code with its numbers and names, and English words as the fallback. */
 export interface CodedReason { code?: string | null, message: string, params?: ReasonParams }
 
+/** A parameter sent in a stored unit (`over_lb: 1.6`), shown in the site's units under its bare name (`{over}`). */
+const STORED_UNIT_FORMAT: Record<string, (value: number, system: UnitSystem) => string> = {
+  lb: formatWeight, gal: formatVolume, in: formatLength, f: formatTemperature,
+}
+
 // The server's reasons in the reader's language: `refusal.<code>_<variant>` or `refusal.<code>` with the
-// numbers formatted for the language and chemistry codes named; the server's English words when this
-// language has no words for the code.
+// numbers formatted for the language, values in stored units shown in the site's units, chemistry codes
+// and pre-fill inspection items named; the server's English words when this language has no words for the code.
 export function useReasonWords() {
   const { t, te, locale } = useNuxtApp().$i18n
   const { number } = useLocaleFormat()
+  const { units } = storeToRefs(useSessionStore())
   const chemistry = (code: string) => (te(`chemistry.${code}`) ? t(`chemistry.${code}`) : code)
+  const listItem = (name: string) => (name === 'items' ? (key: string) => (te(`refill.item.${key}`) ? t(`refill.item.${key}`) : key) : chemistry)
 
   function named(params: ReasonParams = {}): Record<string, string> {
     const out: Record<string, string> = {}
     for (const [name, value] of Object.entries(params)) {
-      if (Array.isArray(value)) out[name] = value.length ? value.map(chemistry).join(', ') : t('chemistry.none')
+      const unit = /_(lb|gal|in|f)$/.exec(name)?.[1]
+      if (Array.isArray(value)) out[name] = value.length ? value.map(listItem(name)).join(name === 'items' ? '; ' : ', ') : t('chemistry.none')
+      else if (typeof value === 'number' && unit) out[name.slice(0, -unit.length - 1)] = STORED_UNIT_FORMAT[unit]!(value, units.value)
       else if (typeof value === 'number') out[name] = number(value)
       else out[name] = name === 'chemistry' ? chemistry(value) : value
     }

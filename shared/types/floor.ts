@@ -46,8 +46,8 @@ export interface CylinderLookup {
   item: { id: string, serial: string, tagCode: string | null, status: string, waterCapacityLb: number, tareLb: number, nominalPropaneLb: number, outOfService: boolean }
   truck: { id: string, fleetNumber: string } | null
   requalification: { dueOn: string, status: 'current' | 'due_soon' | 'overdue', daysLeft: number }
-  fillBlocks: string[]
-  mountBlocks: string[]
+  fillBlocks: FitReason[]
+  mountBlocks: FitReason[]
   fillLimitLb: number | null
   lpTransfer: { current: boolean, expiresOn: string | null }
   roles: string[]
