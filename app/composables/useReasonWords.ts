@@ -11,7 +11,7 @@ const STORED_UNIT_FORMAT: Record<string, (value: number, system: UnitSystem) => 
 
 // The server's reasons in the reader's language: `refusal.<code>_<variant>` or `refusal.<code>` with the
 // numbers formatted for the language, values in stored units shown in the site's units, chemistry codes
-// and pre-fill inspection items named; the server's English words when this language has no words for the code.
+// pre-fill inspection items and other closed codes (`reason_word.<param>.<code>`) named; the server's English words when this language has no words for the code.
 export function useReasonWords() {
   const { t, te, locale } = useNuxtApp().$i18n
   const { number } = useLocaleFormat()
@@ -26,7 +26,7 @@ export function useReasonWords() {
       if (Array.isArray(value)) out[name] = value.length ? value.map(listItem(name)).join(name === 'items' ? '; ' : ', ') : t('chemistry.none')
       else if (typeof value === 'number' && unit) out[name.slice(0, -unit.length - 1)] = STORED_UNIT_FORMAT[unit]!(value, units.value)
       else if (typeof value === 'number') out[name] = number(value)
-      else out[name] = name === 'chemistry' ? chemistry(value) : value
+      else out[name] = name === 'chemistry' ? chemistry(value) : te(`reason_word.${name}.${value}`) ? t(`reason_word.${name}.${value}`) : value
     }
     return out
   }

@@ -68,7 +68,7 @@ export interface ExchangeAnswer { item: { id: string }, repeated: boolean, /** w
 /** POST /api/cylinders/:id/requalifications */
 export interface RequalificationAnswer { requalification: { dueOn: string } }
 /** POST /api/trucks/:id/emissions-tests */
-export interface EmissionsTestAnswer { item: { id: string, passed: boolean, nextDueOn: string }, verdict: { pass: boolean, reasons: string[] }, policy: EmissionsPolicy, source: string }
+export interface EmissionsTestAnswer { item: { id: string, passed: boolean, nextDueOn: string }, verdict: { pass: boolean, reasons: string[], findings: FitReason[] }, policy: EmissionsPolicy, source: string }
 /** POST /api/fuel/co-readings */
 export interface CoReadingsAnswer { items: { id: string, ppm: number, durationHours: number }[], alert: boolean, assessment: { twaPpm: number }, limits: object }
 /** POST /api/incidents */
