@@ -72,6 +72,16 @@ export function litresToUsGal(litres: number): number {
   return litres / LITRES_PER_US_GAL
 }
 
+/** A liquid's density in pounds per US gallon, in kilograms per litre. */
+export function lbPerGalToKgPerLitre(lbPerGal: number): number {
+  return lbPerGal * KG_PER_LB / LITRES_PER_US_GAL
+}
+
+/** A liquid's density (stored lb per US gal) as the site reads it: '4.2 lb/gal' or '0.503 kg/L'. */
+export function formatDensity(lbPerGal: number, system: UnitSystem): string {
+  return system === 'metric' ? `${lbPerGalToKgPerLitre(lbPerGal).toFixed(3)} kg/L` : `${lbPerGal} lb/gal`
+}
+
 export interface UnitFormatOptions {
   /** Fixed number of decimals; by default 0 from 100 up, 1 from 1 up, 2 below 1. */
   decimals?: number
