@@ -1,13 +1,7 @@
 import type { ReasonParams } from '#shared/utils/battery-fit'
-import type { UnitSystem } from '#shared/utils/units'
 
 /** A reason as the server sends it: a code with its numbers and names, and English words as the fallback. */
 export interface CodedReason { code?: string | null, message: string, params?: ReasonParams }
-
-/** A parameter sent in a stored unit (`over_lb: 1.6`), shown in the site's units under its bare name (`{over}`). */
-const STORED_UNIT_FORMAT: Record<string, (value: number, system: UnitSystem) => string> = {
-  lb: formatWeight, gal: formatVolume, in: formatLength, f: formatTemperature,
-}
 
 // The server's reasons in the reader's language: `refusal.<code>_<variant>` or `refusal.<code>` with the
 // numbers formatted for the language, values in stored units shown in the site's units, chemistry codes
@@ -22,9 +16,9 @@ export function useReasonWords() {
   function named(params: ReasonParams = {}): Record<string, string> {
     const out: Record<string, string> = {}
     for (const [name, value] of Object.entries(params)) {
-      const unit = /_(lb|gal|in|f)$/.exec(name)?.[1]
-      if (Array.isArray(value)) out[name] = value.length ? value.map(listItem(name)).join(name === 'items' ? '; ' : ', ') : t('chemistry.none')
-      else if (typeof value === 'number' && unit) out[name.slice(0, -unit.length - 1)] = STORED_UNIT_FORMAT[unit]!(value, units.value)
+      const stored = typeof value === 'number' ? storedUnitParam(name, value, units.value) : null
+      if (stored) out[stored[0]] = stored[1]
+      else if (Array.isArray(value)) out[name] = value.length ? value.map(listItem(name)).join(name === 'items' ? '; ' : ', ') : t('chemistry.none')
       else if (typeof value === 'number') out[name] = number(value)
       else out[name] = name === 'chemistry' ? chemistry(value) : te(`reason_word.${name}.${value}`) ? t(`reason_word.${name}.${value}`) : value
     }

@@ -10,6 +10,7 @@ import {
   fahrenheitToCelsius,
   formatAirflow,
   formatDensity,
+  storedUnitParam,
   lbPerGalToKgPerLitre,
   formatArea,
   formatLength,
@@ -136,6 +137,15 @@ describe('entry in the site\'s units', () => {
   it('a scale read in kg on a metric site is checked in pounds: 17.5 kg of propane (mathjs kg → lbm)', () => {
     expect(toStoredUnits('weight', 17.5, 'metric')).toBeCloseTo(unit(17.5, 'kg').toNumber('lbm'), 9)
     expect(formatWeight(toStoredUnits('weight', 17.5, 'metric'), 'metric')).toBe('17.5 kg')
+  })
+
+  it('a reason\'s stored-unit parameter reads in the site\'s units under its bare name (mathjs lbm → kg, inch → mm, degF → degC, gal → L)', () => {
+    expect(storedUnitParam('over_lb', 1.61, 'metric')).toEqual(['over', `${unit(1.61, 'lbm').toNumber('kg').toFixed(2)} kg`])
+    expect(storedUnitParam('battery_in', 39, 'metric')).toEqual(['battery', `${Math.round(unit(39, 'inch').toNumber('mm'))} mm`])
+    expect(storedUnitParam('end_f', 96, 'metric')).toEqual(['end', `${unit(96, 'degF').toNumber('degC').toFixed(1)} °C`])
+    expect(storedUnitParam('water_gal', 2, 'metric')).toEqual(['water', `${unit(2, 'gal').toNumber('L').toFixed(1)} L`])
+    expect(storedUnitParam('over_lb', 1.6, 'us')).toEqual(['over', '1.6 lb'])
+    expect(storedUnitParam('percent', 42, 'metric')).toBeNull()
   })
 
   it('names the units a site types in; a metric site reads specific gravity against 25 °C (77 °F)', () => {

@@ -87,7 +87,7 @@ export async function recordEmissionsTest(actor: Actor, truck: FuelTruckRow, bod
     await writeAudit(tx, { actor, siteId: truck.siteId, action: verdict.pass ? 'emissions_passed' : 'emissions_failed', entity: 'emissions_test', entityId: item!.id, after: item })
     await recomputeSubjects(tx, truck.siteId, [{ kind: 'truck', id: truck.id }], { lock: false })
     if (!verdict.pass) {
-      await notifyFailedEmissionsTest(tx, { siteId: truck.siteId, truckId: truck.id, fleetNumber: truck.fleetNumber, testedOn: body.testedOn, reasons: verdict.reasons, retestBy: nextDueOn })
+      await notifyFailedEmissionsTest(tx, { siteId: truck.siteId, truckId: truck.id, fleetNumber: truck.fleetNumber, testedOn: body.testedOn, reasons: verdict.findings, retestBy: nextDueOn })
     }
     return { item: item!, verdict, policy, source: EMISSIONS_POLICY_SOURCE }
   })

@@ -104,7 +104,7 @@ export async function recordRefill(actor: Actor, cylinderId: string, input: Refi
     if (refused) {
       const [tag] = await tx.select({ code: tables.tags.code }).from(tables.tags)
         .where(and(eq(tables.tags.assetKind, 'cylinder'), eq(tables.tags.assetId, cylinderId), isNull(tables.tags.retiredAt)))
-      await notifyRefusedCylinder(tx, { siteId: cylinder.siteId, cylinderId, code: tag?.code ?? cylinder.serial, reasons: reasons.map(r => r.message), by: actor.user.name })
+      await notifyRefusedCylinder(tx, { siteId: cylinder.siteId, cylinderId, code: tag?.code ?? cylinder.serial, reasons, by: actor.user.name })
     }
     await recomputeSubjects(tx, cylinder.siteId, [{ kind: 'cylinder', id: cylinderId }], { lock: false })
     return {
