@@ -40,7 +40,7 @@ export function useFloorSubmit() {
 export function useFloorForm<B extends object, A = unknown>(options: FloorFormOptions<B, A>) {
   const route = useRoute()
   // the kit's own words (floor.* in i18n/locales), from the app's one i18n (callable outside a component too)
-  const { t } = useNuxtApp().$i18n
+  const { t, locale } = useNuxtApp().$i18n
   const key = ref(newIdempotencyKey())
   const busy = ref(false)
   const fields = ref<Record<string, string>>({})
@@ -61,7 +61,7 @@ export function useFloorForm<B extends object, A = unknown>(options: FloorFormOp
     if (!schema) return true
     const result = schema.safeParse(body)
     if (result.success) return true
-    fields.value = fieldMessages(result.error)
+    fields.value = fieldMessages(result.error, issueWordsFor(t, locale.value))
     problem.value = fields.value._ ?? t('floor.check_fields')
     return false
   }

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { swapBodySchema } from '../../shared/utils/battery-room-schemas'
+import { chargeEndSchema, swapBodySchema } from '../../shared/utils/battery-room-schemas'
 import { parseRefusal } from '../../app/utils/refusal'
 import { newIdempotencyKey } from '../../app/utils/idempotency'
 import { useFloorForm } from '../../app/composables/useFloorForm'
@@ -93,6 +93,22 @@ describe('useFloorForm', () => {
     const keys = new Set(Array.from({ length: 50 }, newIdempotencyKey))
     expect(keys.size).toBe(50)
     for (const k of keys) expect(k).toMatch(/^[0-9a-f]{8}-[0-9a-f]{4}-4[0-9a-f]{3}-[89ab][0-9a-f]{3}-[0-9a-f]{12}$/)
+  })
+
+  it('says the shared schema\'s issues in Spanish from their codes, never a limit in the stored unit', async () => {
+    const { $i18n } = useNuxtApp()
+    try {
+      await $i18n.setLocale('es')
+      const form = useFloorForm({ schema: chargeEndSchema, send: async () => ({ state: 'saved' as const, data: {}, key: 'k' }) })
+      expect(await form.submit({ ampHoursReturned: -1, endTempF: 500, outcome: 'maybe', packStateOfChargePct: 150 })).toBeNull()
+      expect(form.fields.value).toMatchObject({
+        ampHoursReturned: 'No menos de 0.', endTempF: 'Parece incorrecto; revise la lectura.', outcome: 'Elija una opción.', packStateOfChargePct: 'No más de 100.',
+      })
+      expect((await form.submit({ ampHoursReturned: Number.NaN, endTempF: 90, outcome: 'complete' }), form.fields.value.ampHoursReturned)).toBe('Escriba un número.')
+    }
+    finally {
+      await $i18n.setLocale('en')
+    }
   })
 
   it('runs the shared schema first: field messages at the field, nothing sent', async () => {
