@@ -24,7 +24,7 @@ interface DemoAssets { truck: Row, lpTruck: Row, battery: Row, cylinder: Row }
 
 // Every floor form at phone width, as the technician (and the facilities lead for the emissions test) meets it,
 // filled from the demo's own assets where the form takes a code from the URL.
-const floorForms: { email: string, forms: FloorShot[] }[] = [
+const floorForms: { email: string, forms: FloorShot[], site?: string }[] = [
   { email: 'technician@millbrook.example', forms: [
     { name: 'swap', path: a => `/swap?truck=${a.truck.tagCode}`, ready: 'Hour meter (h)' },
     { name: 'charge', path: a => `/charge?battery=${a.battery.tagCode}`, ready: 'Battery' },
@@ -44,6 +44,12 @@ const floorForms: { email: string, forms: FloorShot[] }[] = [
   ] },
   { email: 'facilities@millbrook.example', forms: [
     { name: 'emissions-test', path: a => `/emissions?truck=${a.lpTruck.id}`, ready: 'Tested on' },
+  ] },
+  // a metric site: weights in kg, temperatures in °C, volumes in L
+  { email: 'technician@fenwick.example', site: 'metric', forms: [
+    { name: 'refill', path: a => `/refill?code=${a.cylinder.tagCode}`, ready: 'Cylinder code' },
+    { name: 'cage', path: () => '/cage', ready: 'Propane stored' },
+    { name: 'charge', path: a => `/charge?battery=${a.battery.tagCode}`, ready: 'Battery' },
   ] },
 ]
 
@@ -83,7 +89,7 @@ async function shootFloorForms(browser: Browser, base: string) {
         if (language === 'en') await page.getByText(form.ready, { exact: true }).first().waitFor({ timeout: 10_000 }).catch(() => undefined)
         else await page.waitForTimeout(1500)
         await form.act?.(page)
-        const file = `screenshots/form-${form.name}-${language}-phone.png`
+        const file = `screenshots/form-${form.name}${who.site ? `-${who.site}` : ''}-${language}-phone.png`
         await page.screenshot({ path: file, fullPage: true })
         console.log(file)
       }
