@@ -47,7 +47,7 @@ export async function recordExchange(actor: Actor, req: ExchangeRequest) {
       .orderBy(asc(tables.lpCylinders.id)).for('update')
     const [current] = await tx.select().from(tables.lpCylinders).where(eq(tables.lpCylinders.currentTruckId, truck.id)).for('update')
     const on = locked.find(c => c.id === req.cylinderOnId)
-    if (!on) throw createError({ statusCode: 400, message: 'Pick a cylinder at this site.', data: { fields: { cylinderOnCode: 'No such cylinder at this site.' } } })
+    if (!on) throw createError({ statusCode: 400, message: 'Pick a cylinder at this site.', data: { code: 'exchange_pick_cylinder', fields: { cylinderOnCode: 'No such cylinder at this site.' } } })
     if ((current?.id ?? null) !== req.cylinderOffId) {
       const currentCode = current ? (await liveCylinderTag(tx, current.id)) ?? current.serial : null
       throw createError({
@@ -61,11 +61,11 @@ export async function recordExchange(actor: Actor, req: ExchangeRequest) {
         },
       })
     }
-    if (on.id === current?.id) throw createError({ statusCode: 400, message: 'The cylinder going on is the one already on the truck.', data: { fields: { cylinderOnCode: 'Already on this truck.' } } })
+    if (on.id === current?.id) throw createError({ statusCode: 400, message: 'The cylinder going on is the one already on the truck.', data: { code: 'exchange_same_cylinder', fields: { cylinderOnCode: 'Already on this truck.' } } })
     if (req.hourMeter !== null) {
       const [now] = await tx.select({ hourMeter: tables.truckStatus.hourMeter }).from(tables.truckStatus).where(eq(tables.truckStatus.truckId, truck.id))
       const meter = now?.hourMeter ?? truck.hourMeter
-      if (req.hourMeter < meter) throw createError({ statusCode: 400, message: `The hour meter last read ${meter} h; check the reading.`, data: { fields: { hourMeter: `The hour meter last read ${meter} h; check the reading.` } } })
+      if (req.hourMeter < meter) throw createError({ statusCode: 400, message: `The hour meter last read ${meter} h; check the reading.`, data: { code: 'hour_meter_back', params: { meter }, fields: { hourMeter: `The hour meter last read ${meter} h; check the reading.` } } })
     }
     const facts = await fuelSiteFacts(tx, truck.siteId)
     const onCode = (await liveCylinderTag(tx, on.id)) ?? on.serial

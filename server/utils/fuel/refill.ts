@@ -62,7 +62,7 @@ export async function recordRefill(actor: Actor, cylinderId: string, input: Refi
     }
     let tareFlagged = false
     if (input.measuredTareLb !== null) {
-      if (input.measuredTareLb <= 0) throw createError({ statusCode: 400, message: 'Measured tare must be above 0.', data: { fields: { measuredTareLb: 'Above 0 lb.' } } })
+      if (input.measuredTareLb <= 0) throw createError({ statusCode: 400, message: 'Measured tare must be above 0.', data: { code: 'tare_not_positive', fields: { measuredTareLb: 'Above 0.' } } })
       tareFlagged = tareLossFlagsRequalification(cylinder.tareLb, input.measuredTareLb)
       if (tareFlagged) {
         checkReasons.push(tareLossReason(input.measuredTareLb, cylinder.tareLb, TARE_LOSS_REQUALIFICATION_PERCENT))
