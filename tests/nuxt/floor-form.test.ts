@@ -106,7 +106,11 @@ describe('useFloorForm', () => {
       })
       expect((await form.submit({ ampHoursReturned: Number.NaN, endTempF: 90, outcome: 'complete' }), form.fields.value.ampHoursReturned)).toBe('Escriba un número.')
       // a coded refusal from the server (data.code) at the field it names, in Spanish
-      const refused = useFloorForm({ sendNow: async () => { throw fetchError(400, { message: 'The requalification date is in the future.', data: { code: 'requal_future_date', fields: { performedOn: 'Not after today.' } } }) } })
+      const refused = useFloorForm({
+        sendNow: async () => {
+          throw fetchError(400, { message: 'The requalification date is in the future.', data: { code: 'requal_future_date', fields: { performedOn: 'Not after today.' } } })
+        },
+      })
       expect(await refused.submit({})).toBeNull()
       expect(refused.fields.value).toEqual({ performedOn: 'La fecha de recalificación es en el futuro.' })
       expect(refused.problem.value).toBe('Revise los campos marcados abajo.')
