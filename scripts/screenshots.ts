@@ -1,5 +1,6 @@
 // Screenshots of the main pages for each demo role at phone and desktop widths, and of every floor form at
-// phone width, into screenshots/.
+// phone width in each language (form-<name>-<language>-phone.png), into screenshots/. FLOOR_ONLY=1 takes the
+// floor forms alone.
 // Uses the running demo (BASE_URL, default http://localhost:3000), or starts the built server on
 // port 3100 (BAYWARD_SCREENSHOT_PORT) against the demo database when nothing answers there.
 import { spawn, type ChildProcess } from 'node:child_process'
@@ -23,7 +24,7 @@ interface DemoAssets { truck: Row, lpTruck: Row, battery: Row, cylinder: Row }
 
 // Every floor form at phone width, as the technician (and the facilities lead for the emissions test) meets it,
 // filled from the demo's own assets where the form takes a code from the URL.
-const floorForms: { email: string, forms: FloorShot[] }[] = [
+const floorForms: { email: string, forms: FloorShot[], site?: string }[] = [
   { email: 'technician@millbrook.example', forms: [
     { name: 'swap', path: a => `/swap?truck=${a.truck.tagCode}`, ready: 'Hour meter (h)' },
     { name: 'charge', path: a => `/charge?battery=${a.battery.tagCode}`, ready: 'Battery' },
@@ -34,12 +35,21 @@ const floorForms: { email: string, forms: FloorShot[] }[] = [
     { name: 'area-log', path: () => '/logs', ready: 'Area' },
     { name: 'co-readings', path: () => '/co', ready: 'Date', act: async (page) => {
       await page.getByLabel('CO (ppm) #1').fill('35')
-      await page.getByLabel('Hours #1').fill('4')
+      await page.getByLabel(/^(Hours|Horas) #1$/).fill('4')
     } },
+    { name: 'cage', path: () => '/cage', ready: 'Propane stored' },
+    { name: 'inspect', path: a => `/inspect?truck=${a.lpTruck.id}`, ready: 'Hour meter (h)' },
+    { name: 'inspect-electric', path: a => `/inspect?truck=${a.truck.id}`, ready: 'Hour meter (h)' },
     { name: 'incident', path: () => '/incidents', ready: 'Where', act: async page => page.getByText('Electrolyte spill').click() },
   ] },
   { email: 'facilities@millbrook.example', forms: [
     { name: 'emissions-test', path: a => `/emissions?truck=${a.lpTruck.id}`, ready: 'Tested on' },
+  ] },
+  // a metric site: weights in kg, temperatures in °C, volumes in L
+  { email: 'technician@fenwick.example', site: 'metric', forms: [
+    { name: 'refill', path: a => `/refill?code=${a.cylinder.tagCode}`, ready: 'Cylinder code' },
+    { name: 'cage', path: () => '/cage', ready: 'Propane stored' },
+    { name: 'charge', path: a => `/charge?battery=${a.battery.tagCode}`, ready: 'Battery' },
   ] },
 ]
 
@@ -60,7 +70,9 @@ async function demoAssets(page: Page): Promise<DemoAssets> {
 }
 
 async function shootFloorForms(browser: Browser, base: string) {
-  for (const who of floorForms) {
+  // FLOOR_ONLY=<part of an e-mail> takes only that person's forms
+  const only = process.env.FLOOR_ONLY && process.env.FLOOR_ONLY !== '1' ? process.env.FLOOR_ONLY : ''
+  for (const who of floorForms.filter(w => w.email.includes(only))) {
     const context = await browser.newContext({ viewport: viewports.phone, baseURL: base, serviceWorkers: 'block' })
     const page = await context.newPage()
     await page.goto('/sign-in')
@@ -69,15 +81,22 @@ async function shootFloorForms(browser: Browser, base: string) {
     await page.getByRole('button', { name: 'Sign in' }).click()
     await page.waitForURL(u => !u.pathname.startsWith('/sign-in'))
     const assets = await demoAssets(page)
-    for (const form of who.forms) {
-      await page.goto(form.path(assets))
-      await page.waitForLoadState('networkidle')
-      await page.getByText(form.ready, { exact: true }).first().waitFor({ timeout: 10_000 }).catch(() => undefined)
-      await form.act?.(page)
-      const file = `screenshots/form-${form.name}-phone.png`
-      await page.screenshot({ path: file, fullPage: true })
-      console.log(file)
+    const { user } = await (await page.request.get('/api/me')).json() as { user: { language: string | null } }
+    for (const language of ['en', 'es'] as const) {
+      await page.request.put('/api/me/language', { data: { language } })
+      for (const form of who.forms) {
+        await page.goto(form.path(assets))
+        await page.waitForLoadState('networkidle')
+        // the ready words are English; in another language wait for the page to settle instead
+        if (language === 'en') await page.getByText(form.ready, { exact: true }).first().waitFor({ timeout: 10_000 }).catch(() => undefined)
+        else await page.waitForTimeout(1500)
+        await form.act?.(page)
+        const file = `screenshots/form-${form.name}${who.site ? `-${who.site}` : ''}-${language}-phone.png`
+        await page.screenshot({ path: file, fullPage: true })
+        console.log(file)
+      }
     }
+    await page.request.put('/api/me/language', { data: { language: user.language } })
     await context.close()
   }
 }
@@ -106,7 +125,7 @@ async function main() {
   mkdirSync('screenshots', { recursive: true })
   const browser = await chromium.launch({ executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium', args: CHROMIUM_ARGS })
   try {
-    for (const s of shots) {
+    for (const s of process.env.FLOOR_ONLY ? [] : shots) {
       for (const [vp, viewport] of Object.entries(viewports)) {
         const context = await browser.newContext({ viewport, baseURL: base })
         const page = await context.newPage()

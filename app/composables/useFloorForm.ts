@@ -1,6 +1,7 @@
 import type { Ref } from 'vue'
 import type { ZodType } from 'zod'
 import type { OutboxRecordInput } from '~/stores/outbox'
+import type { CodedReason } from './useReasonWords'
 
 /** A record the server stored ('saved', with its answer) or one kept on this device to send later ('kept'). */
 export type FloorOutcome<T> = { state: 'saved', data: T, key: string } | { state: 'kept', key: string }
@@ -40,7 +41,8 @@ export function useFloorSubmit() {
 export function useFloorForm<B extends object, A = unknown>(options: FloorFormOptions<B, A>) {
   const route = useRoute()
   // the kit's own words (floor.* in i18n/locales), from the app's one i18n (callable outside a component too)
-  const { t } = useNuxtApp().$i18n
+  const { t, locale } = useNuxtApp().$i18n
+  const { reasonText } = useReasonWords()
   const key = ref(newIdempotencyKey())
   const busy = ref(false)
   const fields = ref<Record<string, string>>({})
@@ -61,7 +63,7 @@ export function useFloorForm<B extends object, A = unknown>(options: FloorFormOp
     if (!schema) return true
     const result = schema.safeParse(body)
     if (result.success) return true
-    fields.value = fieldMessages(result.error)
+    fields.value = fieldMessages(result.error, issueWordsFor(t, locale.value))
     problem.value = fields.value._ ?? t('floor.check_fields')
     return false
   }
@@ -84,8 +86,12 @@ export function useFloorForm<B extends object, A = unknown>(options: FloorFormOp
       if (!r) problem.value = t('floor.no_connection')
       else if (r.reasons.length) refusal.value = r
       else {
-        fields.value = r.fields
-        problem.value = r.message
+        // a coded 400/409 (data.code, data.params) in the reader's words, at each field it names
+        const coded = typeof r.data.code === 'string' && locale.value !== 'en'
+          ? reasonText({ code: r.data.code, message: r.message, params: r.data.params as CodedReason['params'] })
+          : null
+        fields.value = coded ? Object.fromEntries(Object.keys(r.fields).map(k => [k, coded])) : r.fields
+        problem.value = coded && Object.keys(r.fields).length ? t('floor.check_fields') : coded ?? r.message
       }
       return null
     }

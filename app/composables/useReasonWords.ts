@@ -4,19 +4,23 @@ import type { ReasonParams } from '#shared/utils/battery-fit'
 export interface CodedReason { code?: string | null, message: string, params?: ReasonParams }
 
 // The server's reasons in the reader's language: `refusal.<code>_<variant>` or `refusal.<code>` with the
-// numbers formatted for the language and chemistry codes named; the server's English words when this
-// language has no words for the code.
+// numbers formatted for the language, values in stored units shown in the site's units, chemistry codes
+// pre-fill inspection items and other closed codes (`reason_word.<param>.<code>`) named; the server's English words when this language has no words for the code.
 export function useReasonWords() {
   const { t, te, locale } = useNuxtApp().$i18n
   const { number } = useLocaleFormat()
+  const { units } = storeToRefs(useSessionStore())
   const chemistry = (code: string) => (te(`chemistry.${code}`) ? t(`chemistry.${code}`) : code)
+  const listItem = (name: string) => (name === 'items' ? (key: string) => (te(`refill.item.${key}`) ? t(`refill.item.${key}`) : key) : chemistry)
 
   function named(params: ReasonParams = {}): Record<string, string> {
     const out: Record<string, string> = {}
     for (const [name, value] of Object.entries(params)) {
-      if (Array.isArray(value)) out[name] = value.length ? value.map(chemistry).join(', ') : t('chemistry.none')
+      const stored = typeof value === 'number' ? storedUnitParam(name, value, units.value) : null
+      if (stored) out[stored[0]] = stored[1]
+      else if (Array.isArray(value)) out[name] = value.length ? value.map(listItem(name)).join(name === 'items' ? '; ' : ', ') : t('chemistry.none')
       else if (typeof value === 'number') out[name] = number(value)
-      else out[name] = name === 'chemistry' ? chemistry(value) : value
+      else out[name] = name === 'chemistry' ? chemistry(value) : te(`reason_word.${name}.${value}`) ? t(`reason_word.${name}.${value}`) : value
     }
     return out
   }

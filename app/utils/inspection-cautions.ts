@@ -1,13 +1,6 @@
-// The cautions the pre-shift check shows, by the truck's power (product.md, "Cautions shown in context").
+// The cautions the pre-shift check shows, by the truck's power (product.md, "Cautions shown in context"); keys of
+// i18n/locales (caution.inspect_<power>.<what>), shown in the reader's language by UiCautions.
 export const INSPECTION_CAUTIONS: Readonly<Record<'electric' | 'lp_gas', readonly string[]>> = {
-  electric: [
-    'Walk round with the forks down, controls in neutral and the parking brake set.',
-    'Pull the battery plug by its handle, never by the cable.',
-    'A failed item marked critical means the truck stays parked until it is put right.',
-  ],
-  lp_gas: [
-    'Walk round with the forks down, engine off and the parking brake set.',
-    'Smell gas? Do not start the engine: close the cylinder valve, keep flames and sparks away, tell a lead.',
-    'A failed item marked critical means the truck stays parked until it is put right.',
-  ],
+  electric: ['caution.inspect_electric.walk_round', 'caution.inspect_electric.plug_handle', 'caution.inspect.critical_parked'],
+  lp_gas: ['caution.inspect_lp_gas.walk_round', 'caution.inspect_lp_gas.gas_smell', 'caution.inspect.critical_parked'],
 }

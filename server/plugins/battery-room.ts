@@ -73,6 +73,7 @@ export default defineNitroPlugin(() => {
           row.ampHoursReturned !== null ? `${number.format(row.ampHoursReturned)} Ah` : null,
           row.gridKwh !== null ? `${number.format(row.gridKwh)} kWh` : null,
           row.endTempF !== null ? `${number.format(row.endTempF)} °F` : null,
+          row.packStateOfChargePct !== null ? `pack display ${number.format(row.packStateOfChargePct)} % charged` : null,
           row.ranHot ? 'ran hot' : null,
         ].filter(Boolean)
         entries.push(recordEntry({ id: `charge-end-${row.id}`, at: row.endedAt, title: `Off charger ${charger}`, who, detail: bits.join(' · '), tone: row.ranHot ? 'warning' : undefined }, 'charge-session', row, chargesBy, chargeValues(row)))

@@ -5,6 +5,9 @@ import type { Ability } from '#shared/utils/abilities'
 import { MAIL_MAX_ATTEMPTS, mailRetryDelaySeconds, digestDue } from '#shared/utils/mail-schedule'
 import type { DbOrTx } from './db'
 import type { Obligation } from './due/list'
+import type { FitReason } from '#shared/utils/battery-fit'
+import type { UnitSystem } from '#shared/utils/units'
+import { mailReason, mailWords, type MailT } from './mail-words'
 
 // The outbox: every message is written to mail_messages inside the transaction of the record that
 // caused it, then delivered after the response; a failed delivery is kept and tried again later.
@@ -76,16 +79,19 @@ export async function queueMail(tx: DbOrTx, messages: OutgoingMail | OutgoingMai
 export async function peopleWhoHold(tx: DbOrTx, siteId: string, ability: Ability) {
   const roles = rolesWith(ability)
   if (roles.length === 0) return []
-  return tx.selectDistinct({ id: tables.users.id, email: tables.users.email, name: tables.users.name })
+  return tx.selectDistinct({ id: tables.users.id, email: tables.users.email, name: tables.users.name, language: tables.users.language })
     .from(tables.memberships).innerJoin(tables.users, eq(tables.users.id, tables.memberships.userId))
     .where(and(eq(tables.memberships.siteId, siteId), inArray(tables.memberships.role, [...roles]), eq(tables.users.active, true)))
 }
 
+/** An alert's words: fixed text, or written per recipient in their language (mail-words.ts). */
+export type AlertText = string | ((t: MailT, units: UnitSystem) => string)
+
 export interface AlertInput {
   siteId: string
   kind: string
-  subject: string
-  body: string
+  subject: AlertText
+  body: AlertText
   /** who gets it: everyone at the site who holds this notice in the permissions map */
   audience: Ability
   /** and these people too (a follow-up owner) */
@@ -97,43 +103,49 @@ export function appLink(path: string): string {
   return new URL(path, base).toString()
 }
 
-// An immediate alert: one outbox message per recipient, in the caller's transaction.
+// An immediate alert: one outbox message per recipient, in the caller's transaction, in each recipient's language.
 export async function queueAlert(tx: DbOrTx, alert: AlertInput): Promise<MailRow[]> {
   const people = await peopleWhoHold(tx, alert.siteId, alert.audience)
   const extra = alert.userIds?.length
-    ? await tx.select({ id: tables.users.id, email: tables.users.email, name: tables.users.name }).from(tables.users)
+    ? await tx.select({ id: tables.users.id, email: tables.users.email, name: tables.users.name, language: tables.users.language }).from(tables.users)
         .where(and(inArray(tables.users.id, [...alert.userIds]), eq(tables.users.active, true)))
     : []
+  const [place] = await tx.select({ unitSystem: tables.sites.unitSystem }).from(tables.sites).where(eq(tables.sites.id, alert.siteId))
+  const units = place?.unitSystem ?? 'us'
   const to = new Map([...people, ...extra].map(p => [p.email.toLowerCase(), p]))
-  return queueMail(tx, [...to.values()].map(p => ({
-    siteId: alert.siteId, to: p.email, kind: alert.kind, subject: `[Bayward] ${alert.subject}`,
-    body: `Hello ${p.name.split(' ')[0]},\n\n${alert.body}\n\n— Bayward`,
-  })))
+  return queueMail(tx, [...to.values()].map((p) => {
+    const t = mailWords(p.language)
+    const say = (text: AlertText) => (typeof text === 'string' ? text : text(t, units))
+    return {
+      siteId: alert.siteId, to: p.email, kind: alert.kind, subject: `[Bayward] ${say(alert.subject)}`,
+      body: `${t('mail.hello', { name: p.name.split(' ')[0]! })}\n\n${say(alert.body)}\n\n— Bayward`,
+    }
+  }))
 }
 
 // Alerts the fuel-station routes raise; call inside the transaction that stores the record, then
 // deliverMailSoon() after it commits.
-export function notifyFailedEmissionsTest(tx: DbOrTx, a: { siteId: string, truckId: string, fleetNumber: string, testedOn: string, reasons: string[], retestBy: string }) {
+export function notifyFailedEmissionsTest(tx: DbOrTx, a: { siteId: string, truckId: string, fleetNumber: string, testedOn: string, reasons: FitReason[], retestBy: string }) {
   return queueAlert(tx, {
     siteId: a.siteId, kind: 'alert:emissions_failed', audience: 'notice.emissions-failed',
-    subject: `Emissions test failed: truck ${a.fleetNumber}`,
-    body: `Truck ${a.fleetNumber} failed its emissions test on ${a.testedOn}.\n${a.reasons.join('\n')}\nRetest by ${a.retestBy}.\n\n${appLink(`/emissions?truck=${a.truckId}`)}`,
+    subject: t => t('mail.emissions_failed_subject', { truck: a.fleetNumber }),
+    body: (t, units) => [t('mail.emissions_failed', { truck: a.fleetNumber, on: a.testedOn }), ...a.reasons.map(r => mailReason(t, r, units)), t('mail.retest_by', { on: a.retestBy }), '', appLink(`/emissions?truck=${a.truckId}`)].join('\n'),
   })
 }
 
-export function notifyRefusedCylinder(tx: DbOrTx, a: { siteId: string, cylinderId: string, code: string, reasons: string[], by: string }) {
+export function notifyRefusedCylinder(tx: DbOrTx, a: { siteId: string, cylinderId: string, code: string, reasons: FitReason[], by: string }) {
   return queueAlert(tx, {
     siteId: a.siteId, kind: 'alert:cylinder_refused', audience: 'notice.cylinder-refused',
-    subject: `Cylinder ${a.code} refused at the fuel station`,
-    body: `${a.by} was refused a fill of cylinder ${a.code}:\n${a.reasons.join('\n')}\n\n${appLink(`/cylinders/${a.cylinderId}`)}`,
+    subject: t => t('mail.cylinder_refused_subject', { cylinder: a.code }),
+    body: (t, units) => [t('mail.cylinder_refused', { who: a.by, cylinder: a.code }), ...a.reasons.map(r => mailReason(t, r, units)), '', appLink(`/cylinders/${a.cylinderId}`)].join('\n'),
   })
 }
 
 export function notifyCoAboveCeiling(tx: DbOrTx, a: { siteId: string, areaId: string, areaName: string, takenOn: string, peakPpm: number, ceilingPpm: number }) {
   return queueAlert(tx, {
     siteId: a.siteId, kind: 'alert:co_ceiling', audience: 'notice.co-ceiling',
-    subject: `CO above ${a.ceilingPpm} ppm in ${a.areaName}`,
-    body: `A CO reading of ${a.peakPpm} ppm was recorded in ${a.areaName} on ${a.takenOn}, above the ${a.ceilingPpm} ppm ceiling (NIOSH). Clear the area, ventilate, and find the source.\n\n${appLink(`/co?area=${a.areaId}`)}`,
+    subject: t => t('mail.co_ceiling_subject', { ceiling: a.ceilingPpm, area: a.areaName }),
+    body: t => `${t('mail.co_ceiling', { peak: a.peakPpm, area: a.areaName, on: a.takenOn, ceiling: a.ceilingPpm })}\n\n${appLink(`/co?area=${a.areaId}`)}`,
   })
 }
 

@@ -69,8 +69,8 @@ export interface CylinderLookup {
   item: { id: string, serial: string, tagCode: string | null, status: string, waterCapacityLb: number, tareLb: number, nominalPropaneLb: number, outOfService: boolean }
   truck: { id: string, fleetNumber: string } | null
   requalification: { dueOn: string, status: 'current' | 'due_soon' | 'overdue', daysLeft: number }
-  fillBlocks: string[]
-  mountBlocks: string[]
+  fillBlocks: FitReason[]
+  mountBlocks: FitReason[]
   fillLimitLb: number | null
   lpTransfer: { current: boolean, expiresOn: string | null }
   roles: string[]
@@ -91,7 +91,7 @@ export interface ExchangeAnswer { item: { id: string }, repeated: boolean, /** w
 /** POST /api/cylinders/:id/requalifications */
 export interface RequalificationAnswer { requalification: { dueOn: string } }
 /** POST /api/trucks/:id/emissions-tests */
-export interface EmissionsTestAnswer { item: { id: string, passed: boolean, nextDueOn: string }, verdict: { pass: boolean, reasons: string[] }, policy: EmissionsPolicy, source: string }
+export interface EmissionsTestAnswer { item: { id: string, passed: boolean, nextDueOn: string }, verdict: { pass: boolean, reasons: string[], findings: FitReason[] }, policy: EmissionsPolicy, source: string }
 /** POST /api/fuel/co-readings */
 export interface CoReadingsAnswer { items: { id: string, ppm: number, durationHours: number }[], alert: boolean, assessment: { twaPpm: number }, limits: object }
 /** POST /api/incidents */

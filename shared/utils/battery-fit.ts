@@ -42,7 +42,10 @@ export interface ChargerSpec {
   maxCurrentA: number
 }
 
-/** A reason's numbers and names, for the words in the reader's language (`refusal.<code>` in i18n/locales). */
+/**
+ * A reason's numbers and names, for the words in the reader's language (`refusal.<code>` in i18n/locales). A
+ * name ending in a stored unit (`_lb`, `_in`, `_gal`, `_f`) holds a value in that unit, shown in the site's units.
+ */
 export type ReasonParams = Record<string, string | number | string[]>
 
 /**
@@ -122,7 +125,7 @@ export function batteryTruckFit(truck: TruckBatterySpec, battery: BatterySpec): 
       if (d.battery > d.compartment + TOLERANCE) {
         reasons.push({
           code: d.code,
-          params: { battery: d.battery, compartment: d.compartment },
+          params: { battery_in: d.battery, compartment_in: d.compartment },
           message: `Battery is ${withUnit(d.battery, 'in')} ${d.word}; the compartment takes ${withUnit(d.compartment, 'in')}.`,
         })
       }
@@ -145,14 +148,14 @@ export function batteryTruckFit(truck: TruckBatterySpec, battery: BatterySpec): 
     if (recorded(truck.minBatteryWeightLb) && battery.weightLb < truck.minBatteryWeightLb - TOLERANCE) {
       reasons.push({
         code: 'under_minimum_weight',
-        params: { battery: battery.weightLb, truck: truck.minBatteryWeightLb },
+        params: { battery_lb: battery.weightLb, truck_lb: truck.minBatteryWeightLb },
         message: `Battery weighs ${withUnit(battery.weightLb, 'lb')}; this truck's nameplate minimum is ${withUnit(truck.minBatteryWeightLb, 'lb')} — a light battery upsets the counterweight.`,
       })
     }
     if (recorded(truck.maxBatteryWeightLb) && battery.weightLb > truck.maxBatteryWeightLb + TOLERANCE) {
       reasons.push({
         code: 'over_maximum_weight',
-        params: { battery: battery.weightLb, truck: truck.maxBatteryWeightLb },
+        params: { battery_lb: battery.weightLb, truck_lb: truck.maxBatteryWeightLb },
         message: `Battery weighs ${withUnit(battery.weightLb, 'lb')}; this truck's nameplate maximum is ${withUnit(truck.maxBatteryWeightLb, 'lb')} — a heavy battery overloads the truck.`,
       })
     }

@@ -54,6 +54,8 @@ export const chargeEndSchema = z.object({
   endTempF: z.number({ error: 'Temperature must be a number.' }).min(0, 'Below 0 °F looks wrong.').max(200, 'Above 200 °F looks wrong.'),
   equalize: z.boolean().default(false),
   outcome: z.enum(CHARGE_OUTCOMES, { error: 'Complete or interrupted?' }),
+  /** A lithium-ion pack's state of charge, %, as its display shows it (no hydrometer on sealed cells). */
+  packStateOfChargePct: z.number({ error: 'State of charge must be a number.' }).min(0, 'State of charge is 0–100 %.').max(100, 'State of charge is 0–100 %.').nullable().default(null),
   /** Carried for the device outbox; a charge ends once, so a repeat is recognised by the same user and readings. */
   idempotencyKey: idempotencyKey.optional(),
   endedAt: eventTimeField,

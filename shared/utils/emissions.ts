@@ -1,3 +1,4 @@
+import type { FitReason } from './battery-fit'
 import { addCalendarInterval } from './due-dates'
 
 // Tailpipe tests of combustion lift trucks, judged against a site policy.
@@ -50,8 +51,10 @@ export interface EmissionsReadings {
 
 export interface EmissionsVerdict {
   pass: boolean
-  /** Why the test failed; empty when it passed. */
+  /** Why the test failed, in English words; empty when it passed. */
   reasons: string[]
+  /** The same reasons coded, for the reader's language (`refusal.emissions_*` in i18n/locales). */
+  findings: FitReason[]
   /** Remarks that do not fail the test. */
   notes: string[]
   /** False when the policy sets no CO % limit for this fuel. */
@@ -71,42 +74,43 @@ export function assessEmissionsTest(
 ): EmissionsVerdict {
   const limit = coLimitFor(readings.fuel, policy)
   const fuelLabel = ENGINE_FUEL_LABELS[readings.fuel]
-  const reasons: string[] = []
+  const findings: FitReason[] = []
   const notes: string[] = []
+  const verdict = (judgedOnCo: boolean): EmissionsVerdict => ({ pass: findings.length === 0, reasons: findings.map(f => f.message), findings, notes, judgedOnCo })
 
-  const percentFields: Array<[string, number | null | undefined]> = [
-    ['CO at idle', readings.coIdlePercent],
-    ['CO at high idle', readings.coHighIdlePercent],
-    ['CO2', readings.co2Percent],
-    ['O2', readings.o2Percent],
+  const percentFields: Array<[string, string, number | null | undefined]> = [
+    ['co_idle', 'CO at idle', readings.coIdlePercent],
+    ['co_high_idle', 'CO at high idle', readings.coHighIdlePercent],
+    ['co2', 'CO2', readings.co2Percent],
+    ['o2', 'O2', readings.o2Percent],
   ]
-  for (const [name, value] of percentFields) {
+  for (const [variant, name, value] of percentFields) {
     if (value !== null && value !== undefined && (!Number.isFinite(value) || value < 0 || value > 100)) {
-      reasons.push(`${name} reading ${value} % is not a valid percentage.`)
+      findings.push({ code: 'emissions_bad_percent', message: `${name} reading ${value} % is not a valid percentage.`, params: { variant, value: String(value) } })
     }
   }
   if (readings.hcPpm !== null && readings.hcPpm !== undefined && (!Number.isFinite(readings.hcPpm) || readings.hcPpm < 0)) {
-    reasons.push(`HC reading ${readings.hcPpm} ppm is not valid.`)
+    findings.push({ code: 'emissions_bad_hc', message: `HC reading ${readings.hcPpm} ppm is not valid.`, params: { value: String(readings.hcPpm) } })
   }
 
   if (limit === null) {
     notes.push(`${fuelLabel} trucks are not judged on CO % by this policy.`)
-    return { pass: reasons.length === 0, reasons, notes, judgedOnCo: false }
+    return verdict(false)
   }
 
-  const coChecks: Array<[string, number | null | undefined]> = [
-    ['idle', readings.coIdlePercent],
-    ['high idle', readings.coHighIdlePercent],
+  const coChecks: Array<[string, string, number | null | undefined]> = [
+    ['idle', 'idle', readings.coIdlePercent],
+    ['high_idle', 'high idle', readings.coHighIdlePercent],
   ]
-  for (const [mode, value] of coChecks) {
+  for (const [variant, mode, value] of coChecks) {
     if (value === null || value === undefined) {
-      reasons.push(`CO at ${mode} was not recorded.`)
+      findings.push({ code: 'emissions_co_missing', message: `CO at ${mode} was not recorded.`, params: { variant } })
     }
     else if (Number.isFinite(value) && value > limit) {
-      reasons.push(`CO at ${mode} is ${value} %, above the ${limit} % limit for ${fuelLabel} trucks.`)
+      findings.push({ code: 'emissions_co_over', message: `CO at ${mode} is ${value} %, above the ${limit} % limit for ${fuelLabel} trucks.`, params: { variant, value, limit, fuel: readings.fuel } })
     }
   }
-  return { pass: reasons.length === 0, reasons, notes, judgedOnCo: true }
+  return verdict(true)
 }
 
 // Passed: due again one interval later (default one year). Failed: retest within the policy's window.

@@ -72,6 +72,16 @@ export function litresToUsGal(litres: number): number {
   return litres / LITRES_PER_US_GAL
 }
 
+/** A liquid's density in pounds per US gallon, in kilograms per litre. */
+export function lbPerGalToKgPerLitre(lbPerGal: number): number {
+  return lbPerGal * KG_PER_LB / LITRES_PER_US_GAL
+}
+
+/** A liquid's density (stored lb per US gal) as the site reads it: '4.2 lb/gal' or '0.503 kg/L'. */
+export function formatDensity(lbPerGal: number, system: UnitSystem): string {
+  return system === 'metric' ? `${lbPerGalToKgPerLitre(lbPerGal).toFixed(3)} kg/L` : `${lbPerGal} lb/gal`
+}
+
 export interface UnitFormatOptions {
   /** Fixed number of decimals; by default 0 from 100 up, 1 from 1 up, 2 below 1. */
   decimals?: number
@@ -149,3 +159,16 @@ export function fromStoredUnits(quantity: EntryQuantity, value: number, system: 
 
 /** The specific-gravity reference temperature a new site starts with: 25 °C (77 °F) metric, 80 °F US (TM 5-1185). */
 export const defaultSgReferenceTempF = (system: UnitSystem): number => (system === 'metric' ? 77 : 80)
+
+const STORED_UNIT_FORMATS: Record<string, (value: number, system: UnitSystem) => string> = {
+  lb: formatWeight, gal: formatVolume, in: formatLength, f: formatTemperature,
+}
+
+/**
+ * A reason's parameter sent in a stored unit, named by its suffix (`over_lb: 1.6`), as the site reads it under
+ * its bare name (`['over', '0.73 kg']`); null for a parameter with no unit suffix.
+ */
+export function storedUnitParam(name: string, value: number, system: UnitSystem): [name: string, text: string] | null {
+  const unit = /_(lb|gal|in|f)$/.exec(name)?.[1]
+  return unit ? [name.slice(0, -unit.length - 1), STORED_UNIT_FORMATS[unit]!(value, system)] : null
+}

@@ -82,6 +82,23 @@ describe('lithium-ion batteries', () => {
     expect((await chargeOff(on.body.item.id)).status).toBe(200)
   })
 
+  it('takes the state of charge off the pack display (0–100 %): out of range is a 400 at the field, in range is stored and in the history', async () => {
+    const li = await lithium()
+    const on = await chargeOn({ batteryId: li.id, chargerId: (await lithiumCharger()).id, at: hoursAgo(4).toISOString() })
+    for (const bad of [101, -1, 'full']) {
+      const res = await chargeOff(on.body.item.id, { packStateOfChargePct: bad })
+      expect(res.status, String(bad)).toBe(400)
+      expect(res.body.data.fields.packStateOfChargePct).toMatch(/State of charge/)
+    }
+    const [open] = await useTestDb().select().from(tables.chargeSessions).where(eq(tables.chargeSessions.id, on.body.item.id))
+    expect(open!.endedAt).toBeNull()
+    expect((await chargeOff(on.body.item.id, { packStateOfChargePct: 96 })).status).toBe(200)
+    const [ended] = await useTestDb().select().from(tables.chargeSessions).where(eq(tables.chargeSessions.id, on.body.item.id))
+    expect(ended!.packStateOfChargePct).toBe(96)
+    const history = await tech.get(`/api/history/battery/${li.id}`)
+    expect(JSON.stringify(history.body)).toContain('pack display 96 % charged')
+  })
+
   it('needs a charger with a lithium-ion profile: one without is refused (override allowed), one recording no profiles warns', async () => {
     const leadOnly = await roomCharger(siteId, areaId, { chemistryProfiles: ['flooded_lead_acid'] })
     const refused = await chargeOn({ batteryId: (await lithium()).id, chargerId: leadOnly.id })

@@ -54,7 +54,7 @@ describe('cylinder exchange on a truck', () => {
     const c = await freshCylinder(siteId, { areaId, status })
     const res = await operator.post(`/api/trucks/${t.id}/cylinder-exchanges`, { cylinderOnId: c.id, cylinderOffId: null })
     expect(res.status, JSON.stringify(res.body)).toBe(409)
-    expect(res.body.data.reasons.join(' ')).toContain(words)
+    expect(res.body.data.reasons.map((r: { message: string }) => r.message).join(' ')).toContain(words)
     expect(await exchangesOf(t.id)).toHaveLength(0)
   })
 
@@ -63,12 +63,12 @@ describe('cylinder exchange on a truck', () => {
     const old = await freshCylinder(siteId, { areaId, status: 'full', manufactureYear: 2010, manufactureMonth: 3 })
     const res = await operator.post(`/api/trucks/${t.id}/cylinder-exchanges`, { cylinderOnId: old.id, cylinderOffId: null })
     expect(res.status).toBe(409)
-    expect(res.body.data.reasons.join(' ')).toContain('2022-03-31')
+    expect(res.body.data.reasons.map((r: { message: string }) => r.message).join(' ')).toContain('2022-03-31')
     const held = await freshCylinder(siteId, { areaId, status: 'full' })
     await useTestDb().update(tables.lpCylinders).set({ outOfService: true, outOfServiceReason: 'Valve sticking' }).where(eq(tables.lpCylinders.id, held.id))
     const res2 = await operator.post(`/api/trucks/${t.id}/cylinder-exchanges`, { cylinderOnId: held.id, cylinderOffId: null })
     expect(res2.status).toBe(409)
-    expect(res2.body.data.reasons.join(' ')).toContain('Valve sticking')
+    expect(res2.body.data.reasons.map((r: { message: string }) => r.message).join(' ')).toContain('Valve sticking')
   })
 
   it('refuses when the cylinder named as coming off is not the truck\'s, and on a truck that is not LP-gas', async () => {

@@ -57,7 +57,7 @@ describe('cylinder refill', () => {
     const c = await freshCylinder(siteId, { areaId })
     const res = await tech.post(`/api/cylinders/${c.id}/refills`, { inspection: { ...passingInspection(), dents: 'fail' } })
     expect(res.status, JSON.stringify(res.body)).toBe(422)
-    expect(res.body.data.reasons[0]).toContain('No dents')
+    expect(res.body.data.reasons[0].message).toContain('No dents')
     expect(res.body.data.offerQuarantine).toBe(true)
     const [stored] = await refillsOf(c.id)
     expect(stored).toMatchObject({ refused: true, netAddedLb: null })
@@ -73,7 +73,7 @@ describe('cylinder refill', () => {
 
     const again = await tech.post(`/api/cylinders/${c.id}/refills`, { inspection: passingInspection(), ...FILL })
     expect(again.status).toBe(409)
-    expect(again.body.data.reasons[0]).toContain('quarantined')
+    expect(again.body.data.reasons[0].message).toContain('quarantined')
   })
 
   it('a cylinder past its requalification date is refused (409) and says when it was due', async () => {
@@ -81,7 +81,7 @@ describe('cylinder refill', () => {
     const c = await freshCylinder(siteId, { areaId, manufactureYear: 2010, manufactureMonth: 3 })
     const res = await tech.post(`/api/cylinders/${c.id}/refills`, { inspection: passingInspection(), ...FILL })
     expect(res.status, JSON.stringify(res.body)).toBe(409)
-    expect(res.body.data.reasons.join(' ')).toContain('Requalification was due on 2022-03-31')
+    expect(res.body.data.reasons.map((r: { message: string }) => r.message).join(' ')).toContain('Requalification was due on 2022-03-31')
     const [stored] = await refillsOf(c.id)
     expect(stored?.refused).toBe(true)
     expect((await storedCylinder(c.id)).status).toBe('empty')
@@ -116,7 +116,7 @@ describe('cylinder refill', () => {
     expect((await storedCylinder(c.id)).status).toBe('condemned')
     const fill = await tech.post(`/api/cylinders/${c.id}/refills`, { inspection: passingInspection(), ...FILL })
     expect(fill.status).toBe(409)
-    expect(fill.body.data.reasons[0]).toContain('condemned')
+    expect(fill.body.data.reasons[0].message).toContain('condemned')
   })
 
   it('an overfill is refused (422), stored with the overfill, and the cylinder is not released as full', async () => {
@@ -124,7 +124,7 @@ describe('cylinder refill', () => {
     // 65 − 30 = 35 lb in the cylinder, above the 33.39 lb limit
     const res = await tech.post(`/api/cylinders/${c.id}/refills`, { inspection: passingInspection(), grossBeforeLb: 31, grossAfterLb: 65 })
     expect(res.status, JSON.stringify(res.body)).toBe(422)
-    expect(res.body.data.reasons[0]).toMatch(/Overfilled by 1\.6 lb/)
+    expect(res.body.data.reasons[0].message).toMatch(/Overfilled by 1\.6 lb/)
     const [stored] = await refillsOf(c.id)
     expect(stored).toMatchObject({ refused: true, overfilled: true })
     expect((await storedCylinder(c.id)).status).toBe('empty')
@@ -134,7 +134,7 @@ describe('cylinder refill', () => {
     const c = await freshCylinder(siteId, { areaId })
     const res = await tech.post(`/api/cylinders/${c.id}/refills`, { inspection: passingInspection(), ...FILL, measuredTareLb: 28.5 })
     expect(res.status, JSON.stringify(res.body)).toBe(422)
-    expect(res.body.data.reasons[0]).toContain('5.0 % below the stamped 30 lb')
+    expect(res.body.data.reasons[0].message).toContain('5.0 % below the stamped 30 lb')
     const [stored] = await refillsOf(c.id)
     expect(stored?.tareFlagged).toBe(true)
   })
@@ -155,7 +155,7 @@ describe('cylinder refill', () => {
     const c = await freshCylinder(siteId, { areaId, status: 'in_use', currentTruckId: t.id })
     const res = await tech.post(`/api/cylinders/${c.id}/refills`, { inspection: passingInspection(), ...FILL })
     expect(res.status).toBe(409)
-    expect(res.body.data.reasons[0]).toContain(`truck ${t.fleetNumber}`)
+    expect(res.body.data.reasons[0].message).toContain(`truck ${t.fleetNumber}`)
   })
 
   it('without a current LP-gas transfer qualification: 403 with the reason, nothing stored', async () => {
@@ -179,7 +179,7 @@ describe('cylinder refill', () => {
     expect(res.status, JSON.stringify(res.body)).toBe(200)
     expect(res.body.item.id).toBe(c.id)
     expect(res.body.requalification).toMatchObject({ dueOn: '2022-03-31', status: 'overdue' })
-    expect(res.body.fillBlocks[0]).toContain('2022-03-31')
+    expect(res.body.fillBlocks[0].message).toContain('2022-03-31')
     expect(res.body.lpTransfer.current).toBe(true)
     expect(techId).toBeTruthy()
   })

@@ -1,9 +1,11 @@
 import { describe, expect, it } from 'vitest'
-import { swapBodySchema } from '../../shared/utils/battery-room-schemas'
+import { chargeEndSchema, swapBodySchema } from '../../shared/utils/battery-room-schemas'
 import { parseRefusal } from '../../app/utils/refusal'
 import { newIdempotencyKey } from '../../app/utils/idempotency'
 import { useFloorForm } from '../../app/composables/useFloorForm'
 import { useReasonWords } from '../../app/composables/useReasonWords'
+import { useSessionStore } from '../../app/stores/session'
+import { overfillReason, prefillFailedReason, tareLossReason } from '../../shared/utils/fuel-reasons'
 
 // The floor-form kit: one refusal parser for every shape the routes answer, the shared schema before
 // sending, and the states a form goes through.
@@ -25,12 +27,12 @@ describe('parseRefusal', () => {
 
   it('keeps a reason\'s code and params, and says it in the reader\'s language, the English words when it has none', async () => {
     const refusal = parseRefusal(fetchError(409, { message: 'x', data: { reasons: [
-      { code: 'under_minimum_weight', message: 'Battery weighs 1,850 lb; minimum is 2,100 lb.', params: { battery: 1850, truck: 2100 } },
+      { code: 'under_minimum_weight', message: 'Battery weighs 1,850 lb; minimum is 2,100 lb.', params: { battery_lb: 1850, truck_lb: 2100 } },
       { code: 'charger_profile_missing', message: 'Charger has no lithium-ion profile.', params: { chemistry: 'lithium_ion', chemistries: ['flooded_lead_acid', 'agm'] } },
       { code: 'not_charged', message: 'Battery is still on charge.', params: { variant: 'on_charge' } },
       { code: 'a_code_with_no_words', message: 'Words from the server.' },
     ] } }))!
-    expect(refusal.reasons[0]).toEqual({ code: 'under_minimum_weight', message: 'Battery weighs 1,850 lb; minimum is 2,100 lb.', params: { battery: 1850, truck: 2100 } })
+    expect(refusal.reasons[0]).toEqual({ code: 'under_minimum_weight', message: 'Battery weighs 1,850 lb; minimum is 2,100 lb.', params: { battery_lb: 1850, truck_lb: 2100 } })
     const { reasonText } = useReasonWords()
     const { $i18n } = useNuxtApp()
     try {
@@ -49,6 +51,37 @@ describe('parseRefusal', () => {
     }
   })
 
+  it('shows a value sent in stored pounds or inches in the site\'s units: kg and mm on a metric site, in Spanish', async () => {
+    const session = useSessionStore()
+    const { reasonText } = useReasonWords()
+    const { $i18n } = useNuxtApp()
+    const reasons = [
+      overfillReason(1.6, 38.5, 80.2, 48),
+      tareLossReason(28.5, 30, 5),
+      prefillFailedReason(['dents', 'relief_valve'], ['No dents', 'Relief valve in good order']),
+      { code: 'too_long_for_compartment', message: 'Battery is 39 in long; the compartment takes 38.5 in.', params: { battery_in: 39, compartment_in: 38.5 } },
+    ]
+    try {
+      session.me = { user: { id: 'u', email: 'ana@example.test', name: 'Ana' }, memberships: [], sites: [{ id: 's', name: 'Dock', timeZone: 'America/Chicago', unitSystem: 'metric' }] }
+      await $i18n.setLocale('es')
+      // 1.6 lb = 0.7257… kg, 38.5 lb = 17.46… kg, 80.2 lb = 36.38… kg, 28.5 lb = 12.93 kg, 30 lb = 13.6 kg (1 lb = 0.45359237 kg);
+      // 39 in = 990.6 mm, 38.5 in = 977.9 mm (1 in = 25.4 mm)
+      expect(reasons.map(reasonText)).toEqual([
+        'Sobrellenado por 0.73 kg: el límite es 17.5 kg (capacidad de agua 36.4 kg × 48 %). Saque el exceso antes de que el cilindro salga de la estación y vuelva a pesarlo.',
+        'El peso tara medido, 12.9 kg, está 5 % abajo del marcado 13.6 kg (5 % o más): mande el cilindro a recalificación antes de llenarlo.',
+        'No pasó la inspección antes del llenado: Sin abolladuras; Válvula de alivio en buen estado. No llene este cilindro.',
+        'La batería mide 991 mm de largo; el compartimento acepta 978 mm.',
+      ])
+      session.me = { ...session.me, sites: [{ id: 's', name: 'Dock', timeZone: 'America/Chicago', unitSystem: 'us' }] }
+      await $i18n.setLocale('en')
+      expect(reasonText(reasons[0]!)).toBe('Overfilled by 1.6 lb: the limit is 38.5 lb (water capacity 80.2 lb × 48 %). Remove the excess before the cylinder leaves the station, then weigh it again.')
+    }
+    finally {
+      session.me = null
+      await $i18n.setLocale('en')
+    }
+  })
+
   it('no answer at all is no refusal', () => {
     expect(parseRefusal(new TypeError('Failed to fetch'))).toBeNull()
     expect(parseRefusal(undefined)).toBeNull()
@@ -60,6 +93,31 @@ describe('useFloorForm', () => {
     const keys = new Set(Array.from({ length: 50 }, newIdempotencyKey))
     expect(keys.size).toBe(50)
     for (const k of keys) expect(k).toMatch(/^[0-9a-f]{8}-[0-9a-f]{4}-4[0-9a-f]{3}-[89ab][0-9a-f]{3}-[0-9a-f]{12}$/)
+  })
+
+  it('says the shared schema\'s issues in Spanish from their codes, never a limit in the stored unit', async () => {
+    const { $i18n } = useNuxtApp()
+    try {
+      await $i18n.setLocale('es')
+      const form = useFloorForm({ schema: chargeEndSchema, send: async () => ({ state: 'saved' as const, data: {}, key: 'k' }) })
+      expect(await form.submit({ ampHoursReturned: -1, endTempF: 500, outcome: 'maybe', packStateOfChargePct: 150 })).toBeNull()
+      expect(form.fields.value).toMatchObject({
+        ampHoursReturned: 'No menos de 0.', endTempF: 'Parece incorrecto; revise la lectura.', outcome: 'Elija una opción.', packStateOfChargePct: 'No más de 100.',
+      })
+      expect((await form.submit({ ampHoursReturned: Number.NaN, endTempF: 90, outcome: 'complete' }), form.fields.value.ampHoursReturned)).toBe('Escriba un número.')
+      // a coded refusal from the server (data.code) at the field it names, in Spanish
+      const refused = useFloorForm({
+        sendNow: async () => {
+          throw fetchError(400, { message: 'The requalification date is in the future.', data: { code: 'requal_future_date', fields: { performedOn: 'Not after today.' } } })
+        },
+      })
+      expect(await refused.submit({})).toBeNull()
+      expect(refused.fields.value).toEqual({ performedOn: 'La fecha de recalificación es en el futuro.' })
+      expect(refused.problem.value).toBe('Revise los campos marcados abajo.')
+    }
+    finally {
+      await $i18n.setLocale('en')
+    }
   })
 
   it('runs the shared schema first: field messages at the field, nothing sent', async () => {

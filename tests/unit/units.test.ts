@@ -9,6 +9,9 @@ import {
   cfmToM3PerHour,
   fahrenheitToCelsius,
   formatAirflow,
+  formatDensity,
+  storedUnitParam,
+  lbPerGalToKgPerLitre,
   formatArea,
   formatLength,
   formatRoomVolume,
@@ -123,6 +126,26 @@ describe('entry in the site\'s units', () => {
       expect(fromStoredUnits(q, toStoredUnits(q, 37.5, 'metric'), 'metric')).toBeCloseTo(37.5, 9)
       expect(toStoredUnits(q, 37.5, 'us')).toBe(37.5)
     }
+  })
+
+  it('propane density 4.2 lb/US gal in kg/L (mathjs lbm/gal → kg/L), for the refill form\'s volume note', () => {
+    expect(lbPerGalToKgPerLitre(4.2)).toBeCloseTo(unit(4.2, 'lbm/gal').toNumber('kg/L'), 12)
+    expect(formatDensity(4.2, 'metric')).toBe(`${unit(4.2, 'lbm/gal').toNumber('kg/L').toFixed(3)} kg/L`)
+    expect(formatDensity(4.2, 'us')).toBe('4.2 lb/gal')
+  })
+
+  it('a scale read in kg on a metric site is checked in pounds: 17.5 kg of propane (mathjs kg → lbm)', () => {
+    expect(toStoredUnits('weight', 17.5, 'metric')).toBeCloseTo(unit(17.5, 'kg').toNumber('lbm'), 9)
+    expect(formatWeight(toStoredUnits('weight', 17.5, 'metric'), 'metric')).toBe('17.5 kg')
+  })
+
+  it('a reason\'s stored-unit parameter reads in the site\'s units under its bare name (mathjs lbm → kg, inch → mm, degF → degC, gal → L)', () => {
+    expect(storedUnitParam('over_lb', 1.61, 'metric')).toEqual(['over', `${unit(1.61, 'lbm').toNumber('kg').toFixed(2)} kg`])
+    expect(storedUnitParam('battery_in', 39, 'metric')).toEqual(['battery', `${Math.round(unit(39, 'inch').toNumber('mm'))} mm`])
+    expect(storedUnitParam('end_f', 96, 'metric')).toEqual(['end', `${unit(96, 'degF').toNumber('degC').toFixed(1)} °C`])
+    expect(storedUnitParam('water_gal', 2, 'metric')).toEqual(['water', `${unit(2, 'gal').toNumber('L').toFixed(1)} L`])
+    expect(storedUnitParam('over_lb', 1.6, 'us')).toEqual(['over', '1.6 lb'])
+    expect(storedUnitParam('percent', 42, 'metric')).toBeNull()
   })
 
   it('names the units a site types in; a metric site reads specific gravity against 25 °C (77 °F)', () => {

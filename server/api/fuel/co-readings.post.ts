@@ -7,7 +7,7 @@ export default defineAbilityHandler('co.record', async (event): Promise<CoReadin
   const body = await validateBody(event, coReadingsSchema)
   const actor = await requireAbility(event, 'co.record', body.siteId)
   const [area] = await useDb().select().from(tables.areas).where(and(eq(tables.areas.id, body.areaId), eq(tables.areas.siteId, body.siteId)))
-  if (!area) throw createError({ statusCode: 400, message: 'Pick an area at this site.', data: { fields: { areaId: 'Pick an area at this site.' } } })
+  if (!area) throw createError({ statusCode: 400, message: 'Pick an area at this site.', data: { code: 'area_missing', fields: { areaId: 'Pick an area at this site.' } } })
   const result = await recordCoReadings(actor, area, body)
   setResponseStatus(event, 201)
   return result

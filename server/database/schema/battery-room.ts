@@ -34,6 +34,8 @@ export const chargeSessions = pgTable('charge_sessions', {
   endedBy: uuid().references(() => users.id),
   ampHoursReturned: doublePrecision(),
   endTempF: doublePrecision(),
+  /** a lithium-ion pack's state of charge, %, read off its own display when the charge ended */
+  packStateOfChargePct: doublePrecision(),
   equalize: boolean().notNull().default(false),
   outcome: chargeOutcomeEnum(),
   gridKwh: doublePrecision(),

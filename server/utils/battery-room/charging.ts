@@ -109,7 +109,7 @@ export async function endChargeSession(actor: Actor, found: ChargeSession, body:
     const gridKwh = gridEnergyKwh(body.ampHoursReturned, battery!.voltage, charger!.efficiency)
     const countedCycle = isCountedCycle({ complete: body.outcome === 'complete', ampHoursReturned: body.ampHoursReturned, ratedAh: battery!.capacityAh })
     const [session] = await tx.update(cs).set({
-      endedAt, endedBy: actor.user.id, ampHoursReturned: body.ampHoursReturned, endTempF: body.endTempF,
+      endedAt, endedBy: actor.user.id, ampHoursReturned: body.ampHoursReturned, endTempF: body.endTempF, packStateOfChargePct: body.packStateOfChargePct,
       equalize: body.equalize, outcome: body.outcome, gridKwh, energyCost: energyCost(gridKwh, settings.tariffPerKwh),
       countedCycle, ranHot: ranHot(body.endTempF, settings.maxChargeTempF),
       note: body.note ? [found.note, body.note].filter(Boolean).join('\n') : found.note,

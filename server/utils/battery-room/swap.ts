@@ -81,7 +81,7 @@ export async function recordBatterySwap(actor: Actor, body: SwapInput) {
       const settings = ctx.settings
       if (truck.power !== 'electric') throw badField('truckId', `Truck ${truck.fleetNumber} is not electric; it takes no battery.`)
       // a truck that failed a critical item of its pre-shift check stays out of service (29 CFR 1910.178(q)(7))
-      if (truckNow?.holdReason) throw refusal([{ code: 'inspection_hold', message: holdRefusal(truck.fleetNumber, truckNow.holdReason) }], { overridable: false })
+      if (truckNow?.holdReason) throw refusal([{ code: 'inspection_hold', message: holdRefusal(truck.fleetNumber, truckNow.holdReason), params: { truck: truck.fleetNumber, reason: truckNow.holdReason } }], { overridable: false })
       const authorisation = await checkTruckAuthorisation(tx, actor, truck)
       const meter = truckNow?.hourMeter ?? truck.hourMeter
       if (body.hourMeter < meter) throw badField('hourMeter', `The hour meter last read ${meter} h; check the reading.`)

@@ -9,7 +9,7 @@ type AreaRow = typeof tables.areas.$inferSelect
 export async function recordCoReadings(actor: Actor, area: AreaRow, body: CoReadingsInput) {
   const db = useDb()
   const facts = await fuelSiteFacts(db, area.siteId)
-  if (body.takenOn > facts.today) throw createError({ statusCode: 400, message: 'The date is in the future.', data: { fields: { takenOn: 'Not after today.' } } })
+  if (body.takenOn > facts.today) throw createError({ statusCode: 400, message: 'The date is in the future.', data: { code: 'future_date', fields: { takenOn: 'Not after today.' } } })
   const ceiling = CO_LIMITS.nioshCeiling.ppm
   const r = tables.coReadings
   const result = await db.transaction(async (tx) => {

@@ -62,7 +62,7 @@ export async function correctCylinderExchange(actor: Actor, input: WithId<Exchan
     if (!right) throw fail(400, 'Pick a cylinder at this site.', 'cylinderOnId')
     if (right.id === original.cylinderOffId) throw fail(400, 'That is the cylinder that came off.', 'cylinderOnId')
     const reasons = cylinderMountBlocks(right, await fuelSiteFacts(tx, original.siteId), (await liveCylinderTag(tx, right.id)) ?? right.serial)
-    if (reasons.length) throw createError({ statusCode: 409, message: reasons[0]!, data: { reasons } })
+    if (reasons.length) throw createError({ statusCode: 409, message: reasons[0]!.message, data: { reasons } })
     const now = new Date()
     return {
       values: { truckId: original.truckId, cylinderOffId: original.cylinderOffId, cylinderOnId: right.id, hourMeter: input.hourMeter },

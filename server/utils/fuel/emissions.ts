@@ -66,11 +66,11 @@ export async function emissionsOverview(siteIds: string[]) {
 export async function recordEmissionsTest(actor: Actor, truck: FuelTruckRow, body: EmissionsTestInput) {
   const db = useDb()
   const facts = await fuelSiteFacts(db, truck.siteId)
-  if (body.testedOn > facts.today) throw createError({ statusCode: 400, message: 'The test date is in the future.', data: { fields: { testedOn: 'Not after today.' } } })
+  if (body.testedOn > facts.today) throw createError({ statusCode: 400, message: 'The test date is in the future.', data: { code: 'future_date', fields: { testedOn: 'Not after today.' } } })
   if (body.certificateUploadId) {
     const [upload] = await db.select({ id: tables.uploads.id }).from(tables.uploads)
       .where(and(eq(tables.uploads.id, body.certificateUploadId), eq(tables.uploads.siteId, truck.siteId)))
-    if (!upload) throw createError({ statusCode: 400, message: 'Upload the certificate again.', data: { fields: { certificateUploadId: 'No such file at this site.' } } })
+    if (!upload) throw createError({ statusCode: 400, message: 'Upload the certificate again.', data: { code: 'certificate_missing', fields: { certificateUploadId: 'No such file at this site.' } } })
   }
   const policy = emissionsPolicyFromSettings(facts.settings)
   const verdict = assessEmissionsTest({
@@ -87,7 +87,7 @@ export async function recordEmissionsTest(actor: Actor, truck: FuelTruckRow, bod
     await writeAudit(tx, { actor, siteId: truck.siteId, action: verdict.pass ? 'emissions_passed' : 'emissions_failed', entity: 'emissions_test', entityId: item!.id, after: item })
     await recomputeSubjects(tx, truck.siteId, [{ kind: 'truck', id: truck.id }], { lock: false })
     if (!verdict.pass) {
-      await notifyFailedEmissionsTest(tx, { siteId: truck.siteId, truckId: truck.id, fleetNumber: truck.fleetNumber, testedOn: body.testedOn, reasons: verdict.reasons, retestBy: nextDueOn })
+      await notifyFailedEmissionsTest(tx, { siteId: truck.siteId, truckId: truck.id, fleetNumber: truck.fleetNumber, testedOn: body.testedOn, reasons: verdict.findings, retestBy: nextDueOn })
     }
     return { item: item!, verdict, policy, source: EMISSIONS_POLICY_SOURCE }
   })

@@ -1,17 +1,9 @@
+import type { FitReason } from '#shared/utils/battery-fit'
 import type { Actor } from '../auth'
 
 // Why a cylinder may not go on a truck; empty when it may.
-export function cylinderMountBlocks(cylinder: FuelCylinderRow, facts: FuelSiteFacts, code: string): string[] {
-  const name = `Cylinder ${code}`
-  const reasons: string[] = []
-  if (cylinder.status === 'condemned') reasons.push(`${name} is condemned.`)
-  else if (cylinder.status === 'quarantined') reasons.push(`${name} is quarantined${cylinder.outOfServiceReason ? `: ${cylinder.outOfServiceReason}` : ''}.`)
-  else if (cylinder.outOfService) reasons.push(`${name} is out of service${cylinder.outOfServiceReason ? `: ${cylinder.outOfServiceReason}` : ''}.`)
-  if (cylinder.status === 'in_use') reasons.push(`${name} is already on a truck.`)
-  if (cylinder.status === 'empty') reasons.push(`${name} is empty. Take a full cylinder from the cage.`)
-  const requal = cylinderRequalification(cylinder, facts)
-  if (requal.status === 'overdue') reasons.push(`${name} was due for requalification on ${requal.dueOn} and may not be used.`)
-  return reasons
+export function cylinderMountBlocks(cylinder: FuelCylinderRow, facts: FuelSiteFacts, code: string): FitReason[] {
+  return mountReasons(cylinder, cylinderRequalification(cylinder, facts), code)
 }
 
 interface ExchangeRequest {
@@ -46,7 +38,7 @@ export async function recordExchange(actor: Actor, req: ExchangeRequest) {
     const [held] = await tx.select({ reason: tables.truckStatus.holdReason }).from(tables.truckStatus).where(eq(tables.truckStatus.truckId, truck.id))
     if (held?.reason) {
       const message = holdRefusal(truck.fleetNumber, held.reason)
-      throw createError({ statusCode: 409, message, data: { reasons: [message], code: 'inspection_hold' } })
+      throw createError({ statusCode: 409, message, data: { reasons: [{ code: 'inspection_hold', message, params: { truck: truck.fleetNumber, reason: held.reason } }], code: 'inspection_hold' } })
     }
     const authorisation = await checkTruckAuthorisation(tx, actor, truck)
     const ids = [...new Set([req.cylinderOnId, req.cylinderOffId].filter((v): v is string => !!v))].sort()
@@ -55,25 +47,30 @@ export async function recordExchange(actor: Actor, req: ExchangeRequest) {
       .orderBy(asc(tables.lpCylinders.id)).for('update')
     const [current] = await tx.select().from(tables.lpCylinders).where(eq(tables.lpCylinders.currentTruckId, truck.id)).for('update')
     const on = locked.find(c => c.id === req.cylinderOnId)
-    if (!on) throw createError({ statusCode: 400, message: 'Pick a cylinder at this site.', data: { fields: { cylinderOnCode: 'No such cylinder at this site.' } } })
+    if (!on) throw createError({ statusCode: 400, message: 'Pick a cylinder at this site.', data: { code: 'exchange_pick_cylinder', fields: { cylinderOnCode: 'No such cylinder at this site.' } } })
     if ((current?.id ?? null) !== req.cylinderOffId) {
       const currentCode = current ? (await liveCylinderTag(tx, current.id)) ?? current.serial : null
       throw createError({
         statusCode: 409,
         message: current ? `Truck ${truck.fleetNumber} carries cylinder ${currentCode}; take that one off.` : `Truck ${truck.fleetNumber} has no cylinder on record; there is none to take off.`,
-        data: { reasons: ['The cylinder coming off is not the one on record for this truck.'], currentCylinderId: current?.id ?? null },
+        data: {
+          reasons: [current
+            ? { code: 'exchange_off_mismatch', message: `Truck ${truck.fleetNumber} carries cylinder ${currentCode}; take that one off.`, params: { truck: truck.fleetNumber, cylinder: currentCode! } }
+            : { code: 'exchange_off_none', message: `Truck ${truck.fleetNumber} has no cylinder on record; there is none to take off.`, params: { truck: truck.fleetNumber } }],
+          currentCylinderId: current?.id ?? null,
+        },
       })
     }
-    if (on.id === current?.id) throw createError({ statusCode: 400, message: 'The cylinder going on is the one already on the truck.', data: { fields: { cylinderOnCode: 'Already on this truck.' } } })
+    if (on.id === current?.id) throw createError({ statusCode: 400, message: 'The cylinder going on is the one already on the truck.', data: { code: 'exchange_same_cylinder', fields: { cylinderOnCode: 'Already on this truck.' } } })
     if (req.hourMeter !== null) {
       const [now] = await tx.select({ hourMeter: tables.truckStatus.hourMeter }).from(tables.truckStatus).where(eq(tables.truckStatus.truckId, truck.id))
       const meter = now?.hourMeter ?? truck.hourMeter
-      if (req.hourMeter < meter) throw createError({ statusCode: 400, message: `The hour meter last read ${meter} h; check the reading.`, data: { fields: { hourMeter: `The hour meter last read ${meter} h; check the reading.` } } })
+      if (req.hourMeter < meter) throw createError({ statusCode: 400, message: `The hour meter last read ${meter} h; check the reading.`, data: { code: 'hour_meter_back', params: { meter }, fields: { hourMeter: `The hour meter last read ${meter} h; check the reading.` } } })
     }
     const facts = await fuelSiteFacts(tx, truck.siteId)
     const onCode = (await liveCylinderTag(tx, on.id)) ?? on.serial
     const reasons = cylinderMountBlocks(on, facts, onCode)
-    if (reasons.length) throw createError({ statusCode: 409, message: reasons[0]!, data: { reasons } })
+    if (reasons.length) throw createError({ statusCode: 409, message: reasons[0]!.message, data: { reasons } })
     const now = new Date()
     if (current) {
       await tx.update(tables.lpCylinders).set({ status: 'empty', currentTruckId: null, statusChangedAt: now }).where(eq(tables.lpCylinders.id, current.id))

@@ -1,23 +1,15 @@
+import type { FitReason } from '#shared/utils/battery-fit'
 import type { RefillInput } from '#shared/utils/fuel-schemas'
 import type { DbOrTx } from '../db'
 import type { Actor } from '../auth'
 
 // Reasons the cylinder's own state forbids a fill (answered 409): condemned, quarantined, out of
 // service, on a truck, or past its requalification date.
-export async function cylinderFillBlocks(db: DbOrTx, cylinder: FuelCylinderRow, facts: FuelSiteFacts): Promise<string[]> {
-  const reasons: string[] = []
-  if (cylinder.status === 'condemned') reasons.push('This cylinder is condemned and may never be filled again.')
-  if (cylinder.status === 'quarantined') reasons.push(`This cylinder is quarantined${cylinder.outOfServiceReason ? `: ${cylinder.outOfServiceReason}` : ''}.`)
-  else if (cylinder.outOfService) reasons.push(`This cylinder is out of service${cylinder.outOfServiceReason ? `: ${cylinder.outOfServiceReason}` : ''}.`)
-  if (cylinder.status === 'in_use') {
-    const truck = cylinder.currentTruckId ? await truckLabel(db, cylinder.currentTruckId) : 'a truck'
-    reasons.push(`This cylinder is on ${truck}. Take it off the truck (a cylinder exchange) before refilling.`)
-  }
-  const requal = cylinderRequalification(cylinder, facts)
-  if (requal.status === 'overdue') {
-    reasons.push(`Requalification was due on ${requal.dueOn}. A cylinder past its requalification date cannot be filled until it is requalified.`)
-  }
-  return reasons
+export async function cylinderFillBlocks(db: DbOrTx, cylinder: FuelCylinderRow, facts: FuelSiteFacts): Promise<FitReason[]> {
+  const [truck] = cylinder.status === 'in_use' && cylinder.currentTruckId
+    ? await db.select({ fleetNumber: tables.trucks.fleetNumber }).from(tables.trucks).where(eq(tables.trucks.id, cylinder.currentTruckId))
+    : []
+  return fillStateReasons(cylinder, cylinderRequalification(cylinder, facts), truck?.fleetNumber ?? null)
 }
 
 export interface RefillOutcome {
@@ -25,16 +17,14 @@ export interface RefillOutcome {
   cylinder: FuelCylinderRow
   /** 409: the cylinder's state forbids filling; 422: this fill failed its checks; 201: filled */
   status: 201 | 409 | 422 | 200
-  reasons: string[]
+  reasons: FitReason[]
   /** the technician should be offered to quarantine the cylinder */
   offerQuarantine: boolean
 }
 
-function inspectionFailures(inspection: RefillInput['inspection']): string[] {
-  return PREFILL_INSPECTION_ITEMS.filter(i => inspection[i.key] === 'fail').map(i => i.label)
+function inspectionFailures(inspection: RefillInput['inspection']) {
+  return PREFILL_INSPECTION_ITEMS.filter(i => inspection[i.key] === 'fail')
 }
-
-const lb = (v: number) => `${Math.round(v * 10) / 10} lb`
 
 // One refill attempt, stored whether it passes or not. A refused attempt leaves the cylinder's status
 // as it was; a passed one makes it full. The cylinder row is locked for the whole check.
@@ -47,15 +37,15 @@ export async function recordRefill(actor: Actor, cylinderId: string, input: Refi
       const [earlier] = await tx.select().from(tables.cylinderRefills).where(eq(tables.cylinderRefills.idempotencyKey, input.idempotencyKey))
       if (earlier) {
         if (earlier.cylinderId !== cylinderId || earlier.userId !== actor.user.id) throw createError({ statusCode: 409, message: 'That idempotency key was used for another record.' })
-        return { refill: earlier, cylinder, status: 200 as const, reasons: earlier.refusalReasons, offerQuarantine: false }
+        return { refill: earlier, cylinder, status: 200 as const, reasons: earlier.refusalReasons.map(message => ({ code: 'refill_refused', message })), offerQuarantine: false }
       }
     }
     const at = eventTime(input.at, 'at')
     const facts = await fuelSiteFacts(tx, cylinder.siteId)
     const stateReasons = await cylinderFillBlocks(tx, cylinder, facts)
     const failed = inspectionFailures(input.inspection)
-    const checkReasons: string[] = []
-    if (failed.length) checkReasons.push(`Failed pre-fill inspection: ${failed.join('; ')}. Do not fill this cylinder.`)
+    const checkReasons: FitReason[] = []
+    if (failed.length) checkReasons.push(prefillFailedReason(failed.map(i => i.key), failed.map(i => i.label)))
 
     const sg = input.productSg ?? PROPANE_DEFAULT_SG
     let fill: FillAssessment | null = null
@@ -67,17 +57,15 @@ export async function recordRefill(actor: Actor, cylinderId: string, input: Refi
       }
       fill = assessed
       if (assessed.overfilled) {
-        const percent = maxFillingDensityPercent(sg)
-        checkReasons.push(`Overfilled by ${lb(assessed.overfillLb)}: the limit is ${lb(assessed.fillLimitLb)} (water capacity ${lb(cylinder.waterCapacityLb)} × ${percent} %). Remove the excess before the cylinder leaves the station, then weigh it again.`)
+        checkReasons.push(overfillReason(assessed.overfillLb, assessed.fillLimitLb, cylinder.waterCapacityLb, maxFillingDensityPercent(sg)))
       }
     }
     let tareFlagged = false
     if (input.measuredTareLb !== null) {
-      if (input.measuredTareLb <= 0) throw createError({ statusCode: 400, message: 'Measured tare must be above 0.', data: { fields: { measuredTareLb: 'Above 0 lb.' } } })
+      if (input.measuredTareLb <= 0) throw createError({ statusCode: 400, message: 'Measured tare must be above 0.', data: { code: 'tare_not_positive', fields: { measuredTareLb: 'Above 0.' } } })
       tareFlagged = tareLossFlagsRequalification(cylinder.tareLb, input.measuredTareLb)
       if (tareFlagged) {
-        const loss = (cylinder.tareLb - input.measuredTareLb) / cylinder.tareLb * 100
-        checkReasons.push(`Measured tare ${lb(input.measuredTareLb)} is ${loss.toFixed(1)} % below the stamped ${lb(cylinder.tareLb)} (${TARE_LOSS_REQUALIFICATION_PERCENT} % or more): send the cylinder for requalification before filling.`)
+        checkReasons.push(tareLossReason(input.measuredTareLb, cylinder.tareLb, TARE_LOSS_REQUALIFICATION_PERCENT))
       }
     }
     const reasons = [...stateReasons, ...checkReasons]
@@ -91,7 +79,7 @@ export async function recordRefill(actor: Actor, cylinderId: string, input: Refi
       note: input.note,
       inspection: input.inspection,
       refused,
-      refusalReasons: reasons,
+      refusalReasons: reasons.map(r => r.message),
       grossBeforeLb: input.grossBeforeLb,
       grossAfterLb: input.grossAfterLb,
       measuredTareLb: input.measuredTareLb,
@@ -110,7 +98,7 @@ export async function recordRefill(actor: Actor, cylinderId: string, input: Refi
     }
     await writeAudit(tx, {
       actor, siteId: cylinder.siteId, action: refused ? 'refill_refused' : 'refill', entity: 'cylinder_refill', entityId: refill!.id,
-      after: refill, note: refused ? reasons.join(' ') : undefined,
+      after: refill, note: refused ? reasons.map(r => r.message).join(' ') : undefined,
     })
     // the safety leads hear of a refused cylinder at once (queued with the record, sent after the answer)
     if (refused) {

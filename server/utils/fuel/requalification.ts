@@ -6,15 +6,15 @@ export async function recordRequalification(actor: Actor, cylinder: FuelCylinder
     const [locked] = await tx.select().from(tables.lpCylinders).where(eq(tables.lpCylinders.id, cylinder.id)).for('update')
     if (!locked) throw createError({ statusCode: 404, message: 'No such LP cylinder.' })
     const facts = await fuelSiteFacts(tx, locked.siteId)
-    if (input.performedOn > facts.today) throw createError({ statusCode: 400, message: 'The requalification date is in the future.', data: { fields: { performedOn: 'Not after today.' } } })
+    if (input.performedOn > facts.today) throw createError({ statusCode: 400, message: 'The requalification date is in the future.', data: { code: 'requal_future_date', fields: { performedOn: 'Not after today.' } } })
     const made = `${locked.manufactureYear}-${String(locked.manufactureMonth).padStart(2, '0')}`
-    if (input.performedOn.slice(0, 7) < made) throw createError({ statusCode: 400, message: 'The requalification date is before the cylinder was made.', data: { fields: { performedOn: `Not before ${made}.` } } })
-    if (locked.status === 'condemned') throw createError({ statusCode: 409, message: 'This cylinder is condemned; it cannot be requalified.' })
-    if (!input.passed && locked.status === 'in_use') throw createError({ statusCode: 409, message: 'This cylinder is on a truck. Take it off the truck first (a cylinder exchange).' })
+    if (input.performedOn.slice(0, 7) < made) throw createError({ statusCode: 400, message: 'The requalification date is before the cylinder was made.', data: { code: 'requal_before_made', params: { made }, fields: { performedOn: `Not before ${made}.` } } })
+    if (locked.status === 'condemned') throw createError({ statusCode: 409, message: 'This cylinder is condemned; it cannot be requalified.', data: { code: 'requal_condemned' } })
+    if (!input.passed && locked.status === 'in_use') throw createError({ statusCode: 409, message: 'This cylinder is on a truck. Take it off the truck first (a cylinder exchange).', data: { code: 'requal_on_truck' } })
     const suffix = REQUALIFICATION_MARK_SUFFIX[input.method]
     const marking = input.marking || `${input.performedOn.slice(5, 7)}-${input.performedOn.slice(2, 4)}${suffix ? ` ${suffix}` : ''}`
     if (suffix && !new RegExp(`\\b${suffix}\\b`).test(marking)) {
-      throw createError({ statusCode: 400, message: `An ${REQUALIFICATION_METHOD_LABELS[input.method].toLowerCase()} is marked with "${suffix}" after the date.`, data: { fields: { marking: `Include "${suffix}" (49 CFR 180.209).` } } })
+      throw createError({ statusCode: 400, message: `An ${REQUALIFICATION_METHOD_LABELS[input.method].toLowerCase()} is marked with "${suffix}" after the date.`, data: { code: 'requal_marking_suffix', params: { suffix }, fields: { marking: `Include "${suffix}" (49 CFR 180.209).` } } })
     }
     const nextDueOn = input.passed ? nextRequalificationDue(input.performedOn, input.method, requalificationYearsFromSettings(facts.settings)) : null
     const [row] = await tx.insert(tables.requalifications).values({

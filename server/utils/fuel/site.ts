@@ -60,18 +60,6 @@ export async function lpTransferStanding(db: DbOrTx, userId: string, today: stri
   return { current: !!expiresOn && expiresOn >= today, expiresOn }
 }
 
-export function lpTransferRefusal(standing: LpTransferStanding): string | null {
-  if (standing.current) return null
-  return standing.expiresOn
-    ? `Your LP-gas transfer qualification expired on ${standing.expiresOn}. Only people with a current one may refill cylinders; ask your safety lead to record your retraining.`
-    : 'Only people trained for LP-gas transfer may refill cylinders, and there is no LP-gas transfer qualification on your record. Ask your safety lead.'
-}
-
-export async function truckLabel(db: DbOrTx, truckId: string): Promise<string> {
-  const [t] = await db.select({ fleetNumber: tables.trucks.fleetNumber }).from(tables.trucks).where(eq(tables.trucks.id, truckId))
-  return t ? `truck ${t.fleetNumber}` : 'a truck'
-}
-
 // A cylinder at the site by tag code (live or retired) or by serial, as scanned or typed.
 export async function findCylinderByCode(db: DbOrTx, siteId: string, raw: string): Promise<FuelCylinderRow | null> {
   const code = raw.trim()

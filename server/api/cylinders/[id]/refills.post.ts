@@ -9,8 +9,8 @@ export default defineAbilityHandler('refill.record', async (event): Promise<Refi
   const { actor, row } = await findAssetForActor(event, 'cylinder', id)
   requireActorCan(actor, 'refill.record', row.siteId)
   const facts = await fuelSiteFacts(useDb(), row.siteId)
-  const refusal = lpTransferRefusal(await lpTransferStanding(useDb(), actor.user.id, facts.today))
-  if (refusal) throw createError({ statusCode: 403, message: refusal, data: { reasons: [refusal] } })
+  const refusal = lpTransferReason(await lpTransferStanding(useDb(), actor.user.id, facts.today))
+  if (refusal) throw createError({ statusCode: 403, message: refusal.message, data: { reasons: [refusal] } })
   let outcome: RefillOutcome
   try {
     outcome = await recordRefill(actor, id, body)
@@ -24,7 +24,7 @@ export default defineAbilityHandler('refill.record', async (event): Promise<Refi
     deliverMailSoon()
     throw createError({
       statusCode: outcome.status,
-      message: outcome.reasons[0] ?? 'Refill refused.',
+      message: outcome.reasons[0]?.message ?? 'Refill refused.',
       data: { reasons: outcome.reasons, refillId: outcome.refill.id, offerQuarantine: outcome.offerQuarantine },
     })
   }

@@ -9,12 +9,12 @@ export default defineAbilityHandler('cylinder.exchange', async (event): Promise<
   requireActorCan(actor, 'cylinder.exchange', row.siteId)
   const truck = row as unknown as FuelTruckRow
   if (truck.power !== 'lp_gas') {
-    throw createError({ statusCode: 409, message: `Truck ${truck.fleetNumber} does not run on LP-gas; it takes no cylinder.`, data: { reasons: ['Not an LP-gas truck.'] } })
+    throw createError({ statusCode: 409, message: `Truck ${truck.fleetNumber} does not run on LP-gas; it takes no cylinder.`, data: { reasons: [{ code: 'exchange_not_lp', message: `Truck ${truck.fleetNumber} does not run on LP-gas; it takes no cylinder.`, params: { truck: truck.fleetNumber } }] } })
   }
   let cylinderOnId = body.cylinderOnId
   if (!cylinderOnId && body.cylinderOnCode) {
     const found = await findCylinderByCode(useDb(), truck.siteId, body.cylinderOnCode)
-    if (!found) throw createError({ statusCode: 400, message: `No cylinder "${body.cylinderOnCode}" at this site.`, data: { fields: { cylinderOnCode: 'No such cylinder at this site.' } } })
+    if (!found) throw createError({ statusCode: 400, message: `No cylinder "${body.cylinderOnCode}" at this site.`, data: { code: 'exchange_no_cylinder', params: { code: body.cylinderOnCode }, fields: { cylinderOnCode: 'No such cylinder at this site.' } } })
     cylinderOnId = found.id
   }
   const request = { truck, cylinderOnId: cylinderOnId!, cylinderOffId: body.cylinderOffId, at: body.at, idempotencyKey: body.idempotencyKey, note: body.note, hourMeter: body.hourMeter }

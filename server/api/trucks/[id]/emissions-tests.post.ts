@@ -8,7 +8,7 @@ export default defineAbilityHandler('emissions.record', async (event): Promise<E
   const { actor, truck } = await requireCombustionTruck(event, id)
   requireActorCan(actor, 'emissions.record', truck.siteId)
   if (!isCombustionPower(truck.power)) {
-    throw createError({ statusCode: 409, message: `Truck ${truck.fleetNumber} is electric; it has no tailpipe to test.`, data: { reasons: ['Not a combustion truck.'] } })
+    throw createError({ statusCode: 409, message: `Truck ${truck.fleetNumber} is electric; it has no tailpipe to test.`, data: { reasons: [{ code: 'emissions_electric', message: `Truck ${truck.fleetNumber} is electric; it has no tailpipe to test.`, params: { truck: truck.fleetNumber } }] } })
   }
   const result = await recordEmissionsTest(actor, truck, body)
   setResponseStatus(event, 201)

@@ -1,0 +1,25 @@
+import type { DueKind } from '#shared/utils/due-schedules'
+import type { ObligationState } from '#shared/utils/due-dates'
+import type { DueItem } from '~/stores/due'
+
+// The due list's words in the reader's language: states, built-in task names and their one-tap actions
+// (due.kind.<kind>, due.action.<kind>), and "when". A task a lead added keeps the words the lead wrote.
+export function useDueWords() {
+  const { t, te } = useNuxtApp().$i18n
+  const kindLabel = (kind: DueKind | string, fallback: string) => (kind !== 'custom' && te(`due.kind.${kind}`) ? t(`due.kind.${kind}`) : fallback)
+  return {
+    stateLabel: (state: ObligationState) => t(`due.state.${state}`),
+    kindLabel,
+    /** the item's task name: the built-in name in the reader's words, else what the server said */
+    what: (item: Pick<DueItem, 'kind' | 'what'>) => (DUE_KIND_LABELS[item.kind as DueKind] === item.what ? kindLabel(item.kind, item.what) : item.what),
+    actionLabel: (item: Pick<DueItem, 'kind' | 'action'>) => (item.kind !== 'custom' && te(`due.action.${item.kind}`) ? t(`due.action.${item.kind}`) : item.action.label),
+    when: (item: Pick<DueItem, 'dueOn' | 'state' | 'remaining'>, today: string): string => {
+      if (item.state === 'done') return item.dueOn ? t('due.when.done_on', { on: item.dueOn }) : t('due.state.done')
+      if (!item.dueOn) return item.remaining !== null && item.remaining <= 0 ? t('due.when.now') : t('due.when.to_go', { n: item.remaining ?? '?' })
+      const days = calendarDaysBetween(today, item.dueOn)
+      if (days === 0) return t('due.when.today')
+      if (days < 0) return t('due.when.overdue', { n: -days, on: item.dueOn }, -days)
+      return t('due.when.in', { n: days, on: item.dueOn }, days)
+    },
+  }
+}

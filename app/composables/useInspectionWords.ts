@@ -1,0 +1,20 @@
+import type { InspectionItem, InspectionPower } from '#shared/utils/truck-inspection'
+import { DEFAULT_INSPECTION_ITEMS, DEFAULT_INSPECTION_TITLES } from '#shared/utils/truck-inspection'
+
+// The default checklist's English words by item key, to tell an unedited item from one a lead has reworded.
+const DEFAULT_WORDS = new Map(Object.values(DEFAULT_INSPECTION_ITEMS).flat().map(i => [i.key, i]))
+
+// The pre-shift checklist in the reader's language: an item still worded as the default list has words in
+// every language (inspect.item.<key>); an item a lead wrote or reworded is shown as the lead wrote it.
+export function useInspectionWords() {
+  const { t, te } = useNuxtApp().$i18n
+  const known = (item: InspectionItem) => DEFAULT_WORDS.get(item.key)?.label === item.label && te(`inspect.item.${item.key}`)
+  return {
+    itemLabel: (item: InspectionItem) => (known(item) ? t(`inspect.item.${item.key}`) : item.label),
+    itemHint: (item: InspectionItem) => (item.hint && known(item) && te(`inspect.hint.${item.key}`) ? t(`inspect.hint.${item.key}`) : item.hint),
+    templateTitle: (title: string) => {
+      const power = (Object.keys(DEFAULT_INSPECTION_TITLES) as InspectionPower[]).find(p => DEFAULT_INSPECTION_TITLES[p] === title)
+      return power ? t(`inspect.template_${power}`) : title
+    },
+  }
+}

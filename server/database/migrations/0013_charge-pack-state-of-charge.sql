@@ -1,0 +1,1 @@
+ALTER TABLE "charge_sessions" ADD COLUMN "pack_state_of_charge_pct" double precision;

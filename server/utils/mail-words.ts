@@ -1,0 +1,52 @@
+import type { FitReason } from '#shared/utils/battery-fit'
+import type { Language } from '#shared/utils/languages'
+import { isLanguage } from '#shared/utils/languages'
+import type { UnitSystem } from '#shared/utils/units'
+import en from '../../i18n/locales/en.json'
+import es from '../../i18n/locales/es.json'
+
+// E-mail words in the recipient's language, from the same locale files the screens read (mail.*, refusal.*):
+// the person's `users.language`, English when they have none. Values in stored units (`over_lb`) are written
+// in the site's units, as on the screen.
+
+type Tree = { [key: string]: string | Tree }
+const MESSAGES: Record<Language, Tree> = { en, es }
+
+/** One message by dotted key with {named} parameters; the English words when this language lacks the key. */
+export type MailT = (key: string, params?: Record<string, string | number>) => string
+
+function lookup(tree: Tree, key: string): string | undefined {
+  let node: string | Tree | undefined = tree
+  for (const part of key.split('.')) node = typeof node === 'object' ? node[part] : undefined
+  return typeof node === 'string' ? node : undefined
+}
+
+export function mailLanguage(setting: string | null | undefined): Language {
+  return isLanguage(setting) ? setting : 'en'
+}
+
+export function mailWords(language: string | null | undefined): MailT {
+  const tree = MESSAGES[mailLanguage(language)]
+  return (key, params = {}) => {
+    const text = lookup(tree, key) ?? lookup(MESSAGES.en, key) ?? key
+    // the singular of a "one | many" message unless the count says otherwise
+    const plural = text.split(' | ')
+    const chosen = plural.length === 2 ? plural[typeof params.n === 'number' && params.n !== 1 ? 1 : 0]! : text
+    return chosen.replace(/\{(\w+)\}/g, (whole, name: string) => (name in params ? String(params[name]) : whole))
+  }
+}
+
+/** A coded reason in the recipient's words; the server's English when the language has no words for its code. */
+export function mailReason(t: MailT, reason: FitReason, units: UnitSystem): string {
+  const key = `refusal.${reason.code}${typeof reason.params?.variant === 'string' ? `_${reason.params.variant}` : ''}`
+  if (!lookup(MESSAGES.en, key)) return reason.message
+  const params: Record<string, string | number> = {}
+  for (const [name, value] of Object.entries(reason.params ?? {})) {
+    const stored = typeof value === 'number' ? storedUnitParam(name, value, units) : null
+    if (stored) params[stored[0]] = stored[1]
+    else if (Array.isArray(value)) params[name] = value.map(v => (name === 'items' ? t(`refill.item.${v}`) : t(`chemistry.${v}`))).join(name === 'items' ? '; ' : ', ')
+    else if (typeof value === 'string' && lookup(MESSAGES.en, `reason_word.${name}.${value}`)) params[name] = t(`reason_word.${name}.${value}`)
+    else params[name] = value
+  }
+  return t(key, params)
+}
