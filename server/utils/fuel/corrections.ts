@@ -17,8 +17,8 @@ const refillSpec: CorrectionKindSpec<typeof tables.cylinderRefills.$inferSelect>
 // the figures of a fill needs a current LP-gas transfer qualification, as whoever records one does.
 export async function correctRefill(actor: Actor, input: WithId<RefillCorrection>) {
   return correctRecord(actor, refillSpec, input.id, input, async (tx, original) => {
-    const refusal = lpTransferRefusal(await lpTransferStanding(tx, actor.user.id, (await fuelSiteFacts(tx, original.siteId)).today))
-    if (refusal) throw createError({ statusCode: 403, message: refusal, data: { reasons: [refusal] } })
+    const refusal = lpTransferReason(await lpTransferStanding(tx, actor.user.id, (await fuelSiteFacts(tx, original.siteId)).today))
+    if (refusal) throw createError({ statusCode: 403, message: refusal.message, data: { reasons: [refusal] } })
     if (original.refused) throw fail(409, 'A refused refill stays as recorded: nothing went into the cylinder. Record a new refill if it was filled.')
     if (input.grossBeforeLb === null || input.grossAfterLb === null) throw fail(400, 'Weigh the cylinder before and after filling.', input.grossBeforeLb === null ? 'grossBeforeLb' : 'grossAfterLb')
     const [cylinder] = await tx.select().from(tables.lpCylinders).where(eq(tables.lpCylinders.id, original.cylinderId))
