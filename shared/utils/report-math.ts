@@ -49,7 +49,11 @@ export function nextQuarters(isoDate: string, n: number): string[] {
   const out: string[] = []
   for (let i = 0; i < n; i++) {
     out.push(`${year} Q${q}`)
-    if (++q > 4) { q = 1; year++ }
+    q += 1
+    if (q > 4) {
+      q = 1
+      year += 1
+    }
   }
   return out
 }

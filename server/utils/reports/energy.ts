@@ -55,7 +55,11 @@ export function monthsBetween(from: string, to: string): string[] {
   const end = to.slice(0, 7)
   for (let s = from.slice(0, 7); s <= end; s = `${y}-${String(m).padStart(2, '0')}`) {
     out.push(s)
-    if (++m > 12) { m = 1; y++ }
+    m += 1
+    if (m > 12) {
+      m = 1
+      y += 1
+    }
   }
   return out
 }
