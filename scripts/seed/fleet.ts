@@ -233,6 +233,8 @@ export function buildFleet(ctx: SeedContext): Fleet {
       manufacturedOn: addCalendarInterval(inServiceOn, -rand.int(30, 120), 'day'),
       inServiceOn,
       ratedCycles: 1500,
+      // an invented price, about 0.16 per watt-hour of rated capacity, rounded to tens
+      replacementPrice: Math.round((spec.voltage * ah * 0.16) / 10) * 10,
       notes: plan?.notes ?? '',
       createdAt: ctx.registeredAt,
       updatedAt: ctx.registeredAt,

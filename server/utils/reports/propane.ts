@@ -17,8 +17,8 @@ async function propaneRows(scope: ReportScope) {
       WITH ${scopeCte(scope)}
       SELECT to_char(r.at AT TIME ZONE scope.tz, 'YYYY-MM') AS month, count(*) FILTER (WHERE NOT r.refused)::int AS refills,
              count(*) FILTER (WHERE r.refused)::int AS refused, coalesce(sum(r.net_added_lb) FILTER (WHERE NOT r.refused), 0)::float8 AS lb,
-             coalesce(sum(r.gallons_at_60f) FILTER (WHERE NOT r.refused), 0)::float8 AS gal,
-             coalesce(sum(r.gallons_at_60f * ${price}) FILTER (WHERE NOT r.refused), 0)::float8 AS cost
+             coalesce(sum(r.gallons_at60_f) FILTER (WHERE NOT r.refused), 0)::float8 AS gal,
+             coalesce(sum(r.gallons_at60_f * ${price}) FILTER (WHERE NOT r.refused), 0)::float8 AS cost
       FROM scope JOIN sites st ON st.id = scope.site_id
       JOIN cylinder_refills r ON r.site_id = scope.site_id AND r.at >= scope.t0 AND r.at < scope.t1
       WHERE ${isEffectiveRecord('cylinder_refills', 'r')}
@@ -33,12 +33,12 @@ async function propaneRows(scope: ReportScope) {
     rowsOf<{ truck: string, changes: number, lb: number, cost: number }>(db, sql`
       WITH ${scopeCte(scope)}
       SELECT t.fleet_number || CASE WHEN ${scope.siteIds.length > 1} THEN ' · ' || scope.site_name ELSE '' END AS truck, count(*)::int AS changes,
-             coalesce(sum(f.net_added_lb), 0)::float8 AS lb, coalesce(sum(f.gallons_at_60f * ${price}), 0)::float8 AS cost
+             coalesce(sum(f.net_added_lb), 0)::float8 AS lb, coalesce(sum(f.gallons_at60_f * ${price}), 0)::float8 AS cost
       FROM scope JOIN sites st ON st.id = scope.site_id
       JOIN cylinder_exchanges x ON x.site_id = scope.site_id AND x.at >= scope.t0 AND x.at < scope.t1
       JOIN trucks t ON t.id = x.truck_id
       LEFT JOIN LATERAL (
-        SELECT r.net_added_lb, r.gallons_at_60f FROM cylinder_refills r
+        SELECT r.net_added_lb, r.gallons_at60_f FROM cylinder_refills r
         WHERE r.cylinder_id = x.cylinder_on_id AND r.at <= x.at AND NOT r.refused AND ${isEffectiveRecord('cylinder_refills', 'r')}
         ORDER BY r.at DESC LIMIT 1) f ON true
       WHERE ${isEffectiveRecord('cylinder_exchanges', 'x')}
