@@ -84,3 +84,30 @@ export function batteryRisk(f: BatteryRiskFacts): number {
   const fade = f.capacityRatio === null ? 0 : Math.min(Math.max((1 - f.capacityRatio) / 0.2, 0), 1)
   return Math.round(used * 60 + (f.weakCell ? 20 : 0) + spread * 10 + fade * 10)
 }
+
+/** Every month from `from` to `to` as YYYY-MM, so a month without charges shows as zero. */
+export function monthsBetween(from: string, to: string): string[] {
+  const out: string[] = []
+  let y = Number(from.slice(0, 4))
+  let m = Number(from.slice(5, 7))
+  const end = to.slice(0, 7)
+  for (let s = from.slice(0, 7); s <= end; s = `${y}-${String(m).padStart(2, '0')}`) {
+    out.push(s)
+    m += 1
+    if (m > 12) {
+      m = 1
+      y += 1
+    }
+  }
+  return out
+}
+
+/** The same span of last month as `today`'s month so far: its first day to the same day (or its last). */
+export function sameDaysLastMonth(today: string): { from: string, to: string } {
+  const y = Number(today.slice(0, 4))
+  const m = Number(today.slice(5, 7))
+  const [ly, lm] = m === 1 ? [y - 1, 12] : [y, m - 1]
+  const lastDay = new Date(Date.UTC(ly, lm, 0)).getUTCDate()
+  const month = `${ly}-${String(lm).padStart(2, '0')}`
+  return { from: `${month}-01`, to: `${month}-${String(Math.min(Number(today.slice(8, 10)), lastDay)).padStart(2, '0')}` }
+}

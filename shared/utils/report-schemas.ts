@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { isoDateSchema } from './iso-date'
+import { daysInRange } from './area-checklists'
 
 /** The longest range one report covers (days): three years of monthly figures. */
 export const REPORT_MAX_DAYS = 3 * 366
@@ -11,11 +12,6 @@ export function defaultReportRange(today: Date = new Date()): { from: string, to
   back.setUTCFullYear(back.getUTCFullYear() - 1)
   back.setUTCDate(back.getUTCDate() + 1)
   return { from: back.toISOString().slice(0, 10), to }
-}
-
-/** Days from `from` to `to`, both counted. */
-export function daysInRange(from: string, to: string): number {
-  return Math.round((Date.parse(`${to}T00:00:00Z`) - Date.parse(`${from}T00:00:00Z`)) / 86_400_000) + 1
 }
 
 // ?siteId=<uuid>|all&from=YYYY-MM-DD&to=YYYY-MM-DD&format=json|csv&section=<key>

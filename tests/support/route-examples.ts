@@ -15,6 +15,7 @@ import { CHARGING_KEYS, allPass, todayIn } from './due'
 import { correctionBody, freshRecord } from './corrections'
 import { CORRECTION_PATHS, type CorrectableKind } from '../../shared/utils/correction-schemas'
 import { INSPECTION_EXAMPLES } from './route-examples-inspection'
+import { REPORT_EXAMPLES } from './route-examples-reports'
 
 // One request per route file that reaches the route's guard, for the role × route matrix
 // (tests/e2e/access-matrix.test.ts). Each example gets the shared world and the caller, makes whatever
@@ -152,6 +153,7 @@ const today = () => todayIn()
 export const ROUTE_EXAMPLES: Record<string, Example> = {
   ...registry('areas'), ...registry('batteries'), ...registry('chargers'), ...registry('cylinders'), ...registry('trucks'),
   ...INSPECTION_EXAMPLES,
+  ...REPORT_EXAMPLES,
 
   'server/api/health.get.ts': get(() => '/api/health'),
   'server/api/auth/sign-in.post.ts': {

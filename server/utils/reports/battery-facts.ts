@@ -4,7 +4,7 @@ import { num, numOrNull, scopeCte, type ReportScope } from './scope'
 /** The recent window a battery's rate and capacity are read over (days). */
 export const RECENT_DAYS = 90
 
-export interface BatteryFacts {
+export interface BatteryReportFacts {
   id: string
   serial: string
   site: string
@@ -28,7 +28,7 @@ export interface BatteryFacts {
 // Every battery of the scope's sites with its counts from battery_status and, over the RECENT_DAYS before
 // the range's end and the RECENT_DAYS before that, its counted charges and mean Ah returned per counted
 // charge (standing charge sessions only).
-export async function batteryFacts(scope: ReportScope): Promise<BatteryFacts[]> {
+export async function batteryFacts(scope: ReportScope): Promise<BatteryReportFacts[]> {
   const rows = await rowsOf<Record<string, unknown>>(useDb(), sql`
     WITH ${scopeCte(scope)},
     recent AS (

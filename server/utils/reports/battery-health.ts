@@ -1,9 +1,8 @@
+import { monthsBetween, batteryRisk, SG_SPREAD_ACT, SG_SPREAD_WARN } from '#shared/utils/report-math'
 import type { ReportResponse } from '#shared/types/reports'
-import { batteryRisk, SG_SPREAD_ACT, SG_SPREAD_WARN } from '#shared/utils/report-math'
 import { isEffectiveRecord, rowsOf, uuidArray } from '../due/effective'
 import { batteryFacts, RECENT_DAYS, yearsBetween } from './battery-facts'
 import { chartSvg } from './chart'
-import { monthsBetween } from './energy'
 import { num, numOrNull, scopeCte, type ReportScope } from './scope'
 
 // Mean Ah returned per counted charge, the mean cell spread and the checks that found low cells, per month

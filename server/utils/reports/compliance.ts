@@ -1,9 +1,9 @@
+import { monthsBetween } from '#shared/utils/report-math'
 import type { ReportResponse } from '#shared/types/reports'
 import { CO_LIMITS } from '#shared/utils/co-exposure'
-import { daysInRange } from '#shared/utils/report-schemas'
+import { daysInRange } from '#shared/utils/area-checklists'
 import { isEffectiveRecord, rowsOf } from '../due/effective'
 import { chartSvg } from './chart'
-import { monthsBetween } from './energy'
 import { num, numOrNull, scopeCte, type ReportScope } from './scope'
 
 const siteSuffix = (scope: ReportScope) => sql`CASE WHEN ${scope.siteIds.length > 1} THEN ' · ' || scope.site_name ELSE '' END`

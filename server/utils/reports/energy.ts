@@ -1,6 +1,6 @@
 import type { ReportResponse } from '#shared/types/reports'
-import { daysInRange } from '#shared/utils/report-schemas'
-import { changeWords, hoursOnChargePerDay } from '#shared/utils/report-math'
+import { daysInRange } from '#shared/utils/area-checklists'
+import { hoursOnChargePerDay, monthsBetween } from '#shared/utils/report-math'
 import { isEffectiveRecord, rowsOf } from '../due/effective'
 import { chartSvg } from './chart'
 import { money, num, scopeCte, type ReportScope } from './scope'
@@ -47,23 +47,6 @@ async function chargeGroups(scope: ReportScope) {
   return { months, chargers, areas: [...areas.values()].sort((a, b) => b.kwh - a.kwh) }
 }
 
-/** Every month from `from` to `to` as YYYY-MM, so a month without charges shows as zero. */
-export function monthsBetween(from: string, to: string): string[] {
-  const out: string[] = []
-  let y = Number(from.slice(0, 4))
-  let m = Number(from.slice(5, 7))
-  const end = to.slice(0, 7)
-  for (let s = from.slice(0, 7); s <= end; s = `${y}-${String(m).padStart(2, '0')}`) {
-    out.push(s)
-    m += 1
-    if (m > 12) {
-      m = 1
-      y += 1
-    }
-  }
-  return out
-}
-
 export async function energyReport(scope: ReportScope): Promise<ReportResponse> {
   const { months, chargers, areas } = await chargeGroups(scope)
   const byMonth = new Map(months.map(m => [m.key, m]))
@@ -74,8 +57,6 @@ export async function energyReport(scope: ReportScope): Promise<ReportResponse> 
   })
   const days = daysInRange(scope.from, scope.to)
   const total = monthRows.reduce((t, r) => ({ kwh: t.kwh + r.kwh, cost: t.cost + r.cost, charges: t.charges + r.charges }), { kwh: 0, cost: 0, charges: 0 })
-  const last = monthRows.at(-1)
-  const before = monthRows.at(-2)
   const cur = scope.currency
   return {
     kind: 'energy',
@@ -86,7 +67,7 @@ export async function energyReport(scope: ReportScope): Promise<ReportResponse> 
     figures: [
       { label: 'Energy drawn', value: `${Math.round(total.kwh).toLocaleString('en-US')} kWh`, detail: `${total.charges} charges` },
       { label: 'Energy cost', value: money(total.cost, cur), detail: total.kwh > 0 ? `${money(total.cost / total.kwh, cur)} per kWh` : undefined },
-      ...(last ? [{ label: `Energy in ${last.month}`, value: `${Math.round(last.kwh).toLocaleString('en-US')} kWh`, detail: changeWords(last.kwh, before?.kwh ?? 0, before?.month ?? 'the month before') }] : []),
+      { label: 'Mean per month', value: `${Math.round(total.kwh / Math.max(monthList.length, 1)).toLocaleString('en-US')} kWh`, detail: `over ${monthList.length} months` },
     ],
     sections: [
       {

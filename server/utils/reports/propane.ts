@@ -1,9 +1,9 @@
+import { monthsBetween } from '#shared/utils/report-math'
 import type { ReportResponse } from '#shared/types/reports'
 import { PROPANE_LB_PER_GAL_60F } from '#shared/utils/lp-gas'
 import { KG_PER_LB, LITRES_PER_US_GAL } from '#shared/utils/units'
 import { isEffectiveRecord, rowsOf } from '../due/effective'
 import { chartSvg } from './chart'
-import { monthsBetween } from './energy'
 import { money, num, scopeCte, type ReportScope } from './scope'
 
 // Standing refills in the range by month (net pounds, gallons at 60 °F as recorded, cost at the site's

@@ -30,7 +30,7 @@ export async function replacementReport(scope: ReportScope): Promise<ReportRespo
     sites: scope.sites.map(s => ({ id: s.id, name: s.name })),
     figures: [
       { label: 'Due in the next 12 months', value: String(year.batteries), detail: `from ${scope.to}` },
-      { label: 'Their replacement cost', value: money(year.cost, cur), detail: year.unpriced ? `${year.unpriced} without a price` : 'every one priced' },
+      { label: 'Their replacement cost', value: money(year.cost, cur), detail: year.unpriced ? `${year.unpriced} without a price` : undefined },
       { label: `Due in ${quarters[0]}`, value: String(byQuarter[0]?.batteries ?? 0) },
     ],
     sections: [
