@@ -12,7 +12,7 @@ const WARMUP_S = 2
 export const SWAP_LIMIT = Number(process.env.BAYWARD_BENCH_SWAPS ?? 800)
 const SWAP_WARMUP = 100
 
-// BAYWARD_BENCH_ONLY=tag,board runs only those routes (and the trivial one): tag, board, due, list, swap.
+// BAYWARD_BENCH_ONLY=tag,board runs only those routes (and the trivial one): tag, board, due, list, report, swap.
 const ONLY = process.env.BAYWARD_BENCH_ONLY?.split(',').map(s => s.trim()).filter(Boolean)
 export const wanted = (key: string) => !ONLY || ONLY.includes(key)
 
@@ -49,6 +49,10 @@ export async function measurePass(server: BenchServer, sql: postgres.Sql, label:
   await measureGet('board', 'GET /api/battery-room/board (200 batteries)', 16, () => [get(`/api/battery-room/board?siteId=${site1}&areaId=${area1}`, leadCookie)])
   await measureGet('due', 'GET /api/due (a 500-battery site)', 16, () => [get(`/api/due?siteId=${site1}`, leadCookie)])
   await measureGet('list', 'GET /api/batteries (page 3 of 50, by Ah)', 16, () => [get(`/api/batteries?siteId=${site1}&page=3&pageSize=50&sort=capacityAh`, leadCookie)])
+  // Reports over a year: one site, and all of the lead's sites (BAYWARD_BENCH_ONLY=report)
+  await measureGet('report', 'GET /api/reports/energy (a site, a year)', 4, () => [get(`/api/reports/energy?siteId=${site1}`, leadCookie)])
+  await measureGet('report', 'GET /api/reports/energy (all the lead\'s sites, a year)', 2, () => [get('/api/reports/energy?siteId=all', leadCookie)])
+  await measureGet('report', 'GET /api/reports/battery-health (a site, a year)', 4, () => [get(`/api/reports/battery-health?siteId=${site1}`, leadCookie)])
   const twoTrucks = wanted('swap') ? await runSwaps(server, sql, leadCookie, label, figures) : undefined
   return { figures, twoTrucks, memory: memory.stop() }
 }
