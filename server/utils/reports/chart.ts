@@ -33,15 +33,18 @@ export function chartSvg(spec: ChartSpec): string | null {
   const height = spec.height ?? 300
   const chart = echarts.init(null, null, { renderer: 'svg', ssr: true, width, height })
   const twoAxes = spec.kind === 'bar' && spec.series.some(s => s.type === 'line')
+  // counts (batteries, swaps, tests) get whole-number ticks on the left axis
+  const wholeLeft = spec.series.filter(s => !(twoAxes && s.type === 'line')).every(s => s.data.every(v => v === null || Number.isInteger(v)))
   chart.setOption({
     animation: false,
     color: [...SERIES_COLOURS],
     textStyle: { fontFamily: 'Roboto Flex, system-ui, sans-serif', fontSize: 14, color: '#334155' },
-    grid: { left: 8, right: 8, top: 48, bottom: 8, containLabel: true },
-    legend: { show: spec.series.length > 1, top: 0, type: 'plain', textStyle: { fontSize: 13 } },
+    // a legend of more than three series wraps to a second line on a phone's width
+    grid: { left: 8, right: 8, top: spec.series.length > 3 ? 80 : 48, bottom: 8, containLabel: true },
+    legend: { show: spec.series.length > 1, top: 0, textStyle: { fontSize: 13 } },
     xAxis: { type: 'category', data: spec.categories, axisLabel: { hideOverlap: true, rotate: spec.categories.length > 6 ? 45 : 0, fontSize: 13 } },
     yAxis: [
-      { type: 'value', name: spec.unit, splitLine: { lineStyle: { color: '#e2e8f0' } } },
+      { type: 'value', name: spec.unit, minInterval: wholeLeft ? 1 : undefined, splitLine: { lineStyle: { color: '#e2e8f0' } } },
       ...(twoAxes ? [{ type: 'value', name: spec.secondUnit ?? '', splitLine: { show: false } }] : []),
     ],
     series: spec.series.map(s => ({
