@@ -1,7 +1,9 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { setup } from '@nuxt/test-utils/e2e'
 import { builtServer, signIn, type Client } from '../support/http'
-import { area, battery, closeTestDb, rebuildSite, site, tables, truck, user, useTestDb } from '../support/db'
+import { eq } from 'drizzle-orm'
+import { area, battery, closeTestDb, cylinder, rebuildSite, site, tables, truck, user, useTestDb } from '../support/db'
+import { defaultSiteSettings } from '../../shared/utils/site-settings'
 import { roomCharger } from '../support/battery-room'
 import type { ReportResponse } from '../../shared/types/reports'
 
@@ -47,6 +49,22 @@ describe('reports', () => {
     const [first] = await db.insert(tables.batterySwaps).values(swap('2026-03-15T12:00:00Z', cooling)).returning()
     await db.insert(tables.batterySwaps).values(swap('2026-03-15T12:10:00Z', { ...cooling, correctsId: first!.id, correctionReason: 'time' }))
     await db.insert(tables.batterySwaps).values(swap('2026-03-16T20:00:00Z'))
+    // indoor CO on 5 March: 100 ppm for 4 h corrected to 20 ppm, and 40 ppm for 4 h
+    const co = (ppm: number, over: Record<string, unknown> = {}) => ({ siteId: siteA, userId: techRow.id, areaId, takenOn: '2026-03-05', ppm, durationHours: 4, ...over })
+    const [misread] = await db.insert(tables.coReadings).values(co(100)).returning()
+    await db.insert(tables.coReadings).values([co(20, { correctsId: misread!.id, correctionReason: 'meter units' }), co(40)])
+    // propane in March at 3.00 a gallon: 33.6 lb (8 gal), 20 lb corrected to 16.8 lb (4 gal), one refused
+    await db.update(tables.sites).set({ settings: { ...defaultSiteSettings(), propanePerGal: 3 } }).where(eq(tables.sites.id, siteA))
+    const cyl = await cylinder({ siteId: siteA })
+    const refill = (at: string, lb: number | null, over: Record<string, unknown> = {}) => ({
+      siteId: siteA, userId: techRow.id, cylinderId: cyl.id, at: new Date(at), inspection: {}, netAddedLb: lb, gallonsAt60F: lb === null ? null : lb / 4.2, ...over,
+    })
+    const [heavy] = await db.insert(tables.cylinderRefills).values(refill('2026-03-20T15:00:00Z', 20)).returning()
+    await db.insert(tables.cylinderRefills).values([
+      refill('2026-03-20T15:00:00Z', 16.8, { correctsId: heavy!.id, correctionReason: 'scale tare' }),
+      refill('2026-03-21T15:00:00Z', 33.6),
+      refill('2026-03-22T15:00:00Z', null, { refused: true, refusalReasons: ['Past its requalification date'] }),
+    ])
     await rebuildSite(siteA)
   })
   afterAll(closeTestDb)
@@ -100,6 +118,25 @@ describe('reports', () => {
     const hours = section(res.body, 'hour').rows
     expect(hours.find(h => h.hour === '07:00')).toMatchObject({ swaps: 1, shortfalls: 1 })
     expect(hours.reduce((s, h) => s + Number(h.swaps), 0)).toBe(2)
+  })
+
+  it('compliance: a day\'s CO TWA is Σ(ppm × h) ÷ 8 over the standing readings', async () => {
+    const res = await report(safety, 'compliance', `siteId=${siteA}&${range}`)
+    const row = section(res.body, 'co').rows.find(r => r.area === 'North room')!
+    // (20 × 4 + 40 × 4) ÷ 8 = 30 ppm (29 CFR 1910.1000(d)(1)(i)); the 100 ppm misreading is out
+    expect(row).toMatchObject({ days: 1, overSite: 0, overPel: 0 })
+    expect(row.meanTwa).toBeCloseTo(30, 9)
+  })
+
+  it('propane: a corrected refill counts once; the refused one is counted apart, with its reason', async () => {
+    const res = await report(lead, 'propane', `siteId=${siteA}&${range}`)
+    const march = section(res.body, 'month').rows.find(r => r.month === '2026-03')!
+    // 16.8 + 33.6 = 50.4 lb; ÷ 4.2 lb/gal = 12 gal; × 3.00 = 36.00
+    expect(march).toMatchObject({ refills: 2, refused: 1 })
+    expect(march.mass).toBeCloseTo(50.4, 9)
+    expect(march.volume).toBeCloseTo(12, 9)
+    expect(march.cost).toBeCloseTo(36, 9)
+    expect(section(res.body, 'refused').rows).toEqual([{ reason: 'Past its requalification date', refusals: 1 }])
   })
 
   it('who may read what: a technician is refused, another site is not found, "all" means the person\'s own sites', async () => {
