@@ -1,9 +1,11 @@
+import { auditPackJob } from '../utils/audit-pack/job'
+
 // Every app server runs the same things: the listening connection that keeps rights and revisions in
 // memory (change-feed.ts), and workers of the job queue (queue.ts) for each kind of job and each timed
 // task. Timed tasks are schedules of the queue, so each runs once per cluster, whichever server's
 // worker takes it. A new kind of job goes in JOB_KINDS; a new timed task in TIMED below.
 
-const JOB_KINDS = () => [labelSheetJob, assetImportJob]
+const JOB_KINDS = () => [labelSheetJob, assetImportJob, auditPackJob]
 
 // BAYWARD_MAIL_TICK_SECONDS (60) rounded up to whole minutes, the schedule's grain; 0 turns it off.
 function mailTickMinutes(): number {

@@ -125,8 +125,9 @@ export async function failLostJob(data: Record<string, unknown>) {
 }
 
 const JOB_FAILED: Record<string, string> = {
-  import: 'The import stopped and nothing was imported. Check the file again (someone may have added the same records meanwhile) and run it again.',
-  labels: 'The label sheet could not be made. Try again.',
+  'import': 'The import stopped and nothing was imported. Check the file again (someone may have added the same records meanwhile) and run it again.',
+  'labels': 'The label sheet could not be made. Try again.',
+  'audit-pack': 'The audit pack could not be made. Try again.',
 }
 
 // What the job's owner reads when it fails: a refusal meant for them (a 4xx) as it was written, anything
@@ -159,6 +160,9 @@ export async function dropOldJobs(days = 7) {
   const t = jobs()
   const gone = await useDb().delete(t).where(and(inArray(t.status, ['done', 'failed']), lt(t.finishedAt, sql`now() - make_interval(days => ${days}::int)`)))
     .returning({ id: t.id })
-  for (const { id } of gone) await useStorage('uploads').removeItem(`jobs:${id}`).catch(() => {})
+  for (const { id } of gone) {
+    // an audit pack keeps its ZIP beside its PDF
+    for (const key of [`jobs:${id}`, `jobs:${id}-zip`]) await useStorage('uploads').removeItem(key).catch(() => {})
+  }
   return { dropped: gone.length }
 }

@@ -35,7 +35,7 @@ export async function selectLabelItems(selection: LabelSelection): Promise<Label
 
 let fontBytes: Uint8Array | undefined
 // Roboto Flex as shipped with the app (the WOFF file of @fontsource/roboto-flex), embedded in the PDF.
-function robotoFlex(): Uint8Array {
+export function robotoFlex(): Uint8Array {
   if (!fontBytes) {
     const require = createRequire(import.meta.url)
     fontBytes = readFileSync(require.resolve('@fontsource/roboto-flex/files/roboto-flex-latin-400-normal.woff'))

@@ -30,6 +30,29 @@ export interface BayCardData {
   lastStateOfChargePct: number | null
 }
 
+/**
+ * A battery as the Bay board shows it: what the card, the groups and the suggestion read, and nothing else
+ * (the board of a 200-battery area is polled by wall screens and phones, so every field is paid for often).
+ */
+export interface BoardCardData {
+  id: string
+  serial: string
+  tagCode: string | null
+  voltage: number
+  capacityAh: number
+  cycleCount: number
+  ratedCycles: number
+  outOfServiceReason: string | null
+  state: BatteryState
+  coolingMinutesLeft: number
+  readyAt: string | null
+  flags: { key: string, label: string }[]
+  /** why it may not go into a truck now, as codes (the words are the app's) */
+  readiness: { code: string }[]
+  truck: { id: string, fleetNumber: string | null } | null
+  charge: { chargerName: string | null } | null
+}
+
 /** GET /api/battery-room/lookup: a scanned or typed code with what the swap, charge and check forms need. */
 export interface FloorLookup {
   kind: 'battery' | 'truck' | 'charger'

@@ -72,6 +72,7 @@ export const ABILITIES = {
   'label.print': at(LEADS, 'print label sheets'),
   'report.view': at(LEADS, 'see the ventilation check, the overrides report and the compliance report'),
   'report.fleet': at(['facilities_lead', 'admin'], 'see the energy, battery, replacement, fleet-sizing and propane reports'),
+  'audit-pack.make': at(LEADS, 'make an audit pack of the site\'s records for an inspector'),
   'upload.create': at(EVERYONE, 'upload a certificate or photo'),
   'user.view': at(LEADS, 'see the people of the site'),
   'user.manage': at(ADMINS, 'add people, change their accounts or send them a password link'),

@@ -21,7 +21,8 @@ export const dueQuerySchema = z.object({
   state: csv(OBLIGATION_STATES),
   kind: csv(DUE_KINDS),
   sort: z.enum(DUE_SORTS).default('due'),
-  limit: z.coerce.number().int().min(1).max(20_000).default(DUE_PAGE_SIZE),
+  /** 0: the counts and groups only (the due page's summary) */
+  limit: z.coerce.number().int().min(0).max(20_000).default(DUE_PAGE_SIZE),
 })
 export type DueQuery = z.output<typeof dueQuerySchema>
 

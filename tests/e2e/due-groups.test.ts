@@ -47,6 +47,12 @@ describe('due list grouped by kind', () => {
     const page = await dueList(lead, { siteId, role: 'all', limit: 1 })
     expect(page.items).toHaveLength(1)
     expect(page.groups).toEqual(all.groups)
+    // the due page's summary: counts and groups, no obligations
+    const summary = await dueList(lead, { siteId, role: 'all', limit: 0 })
+    expect(summary.items).toEqual([])
+    expect(summary.groups).toEqual(all.groups)
+    expect(summary.counts).toEqual(all.counts)
+    expect(summary.total).toBe(all.total)
     const expected = groupsFromItems(all)
     expect(Object.fromEntries(all.groups.map(g => [g.kind, g.counts]))).toEqual(expected)
     expect(all.groups.reduce((n, g) => n + g.total, 0)).toBe(all.total)

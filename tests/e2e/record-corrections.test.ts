@@ -6,7 +6,7 @@ import { eq } from 'drizzle-orm'
 import { builtServer, signIn, type Client } from '../support/http'
 import { battery, charger, closeTestDb, site, tables, user, useTestDb } from '../support/db'
 import { fittedTruck, hoursAgo } from '../support/battery-room'
-import { freshCylinder, fuelStation, lpTruck } from '../support/fuel'
+import { freshCylinder, fuelStation, lpTransferQualification, lpTruck } from '../support/fuel'
 import { correctionBody, freshRecord, type RecordWorld } from '../support/corrections'
 import { CORRECTABLE_KINDS, CORRECTION_PATHS, type CorrectableKind } from '../../shared/utils/correction-schemas'
 
@@ -31,8 +31,11 @@ describe('record corrections', () => {
     const areaId = (await fuelStation(siteId)).id
     const ch = await charger({ siteId })
     const u = await user({ siteId, roles: ['admin'] })
+    await lpTransferQualification(u.id)
     admin = await signIn(u)
-    lead = await signIn(await user({ siteId, roles: ['facilities_lead'] }))
+    const l = await user({ siteId, roles: ['facilities_lead'] })
+    await lpTransferQualification(l.id)
+    lead = await signIn(l)
     w = {
       siteId, userId: u.id, truckId: (await fittedTruck(siteId)).id, batteryId: (await battery({ siteId })).id, chargerId: ch.id,
       lpTruckId: (await lpTruck(siteId)).id, cylinderId: (await freshCylinder(siteId, { areaId })).id, areaId,
@@ -141,5 +144,33 @@ describe('record corrections', () => {
     expect([first.status, again.status]).toEqual([201, 200])
     expect(again.body.item.id).toBe(first.body.item.id)
     expect(await useTestDb().select().from(tables.emissionsTests).where(eq(tables.emissionsTests.correctsId, id))).toHaveLength(1)
+  })
+
+  it('a refill\'s figures are corrected only by someone whose LP-gas transfer qualification is current', async () => {
+    const untrained = await user({ siteId: w.siteId, roles: ['facilities_lead'] })
+    const client = await signIn(untrained)
+    const id = await freshRecord('cylinder-refill', w)
+    const refused = await correct(client, 'cylinder-refill', id, correctionBody('cylinder-refill', w))
+    expect(refused.status).toBe(403)
+    expect(refused.body.message).toMatch(/qualification/i)
+    expect(await useTestDb().select().from(tables.cylinderRefills).where(eq(tables.cylinderRefills.correctsId, id))).toHaveLength(0)
+    await lpTransferQualification(untrained.id)
+    expect((await correct(client, 'cylinder-refill', id, correctionBody('cylinder-refill', w))).status).toBe(201)
+  })
+
+  it('an emissions test corrected from a pass to a fail sends the failure notice; a pass corrected to a pass does not', async () => {
+    const mailOf = async (subjectLike: string) => (await useTestDb().select().from(tables.mailMessages)).filter(m => m.kind === 'alert:emissions_failed' && m.subject.includes(subjectLike))
+    const [truck] = await useTestDb().select().from(tables.trucks).where(eq(tables.trucks.id, w.lpTruckId))
+    const before = (await mailOf(truck!.fleetNumber)).length
+    const passed = await freshRecord('emissions-test', w)
+    expect((await correct(admin, 'emissions-test', passed, correctionBody('emissions-test', w))).status).toBe(201)
+    expect((await mailOf(truck!.fleetNumber)).length).toBe(before)
+    const other = await freshRecord('emissions-test', w)
+    const failed = await correct(admin, 'emissions-test', other, { ...correctionBody('emissions-test', w), coIdlePct: 4, coHighIdlePct: 4 })
+    expect(failed.status, JSON.stringify(failed.body)).toBe(201)
+    expect(failed.body.item.passed).toBe(false)
+    const sent = await mailOf(truck!.fleetNumber)
+    expect(sent.length).toBeGreaterThan(before)
+    expect(sent.at(-1)!.body).toContain('Retest by')
   })
 })

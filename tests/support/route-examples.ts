@@ -16,6 +16,7 @@ import { correctionBody, freshRecord } from './corrections'
 import { CORRECTION_PATHS, type CorrectableKind } from '../../shared/utils/correction-schemas'
 import { INSPECTION_EXAMPLES } from './route-examples-inspection'
 import { REPORT_EXAMPLES } from './route-examples-reports'
+import { AUDIT_PACK_EXAMPLES } from './route-examples-audit-pack'
 
 // One request per route file that reaches the route's guard, for the role × route matrix
 // (tests/e2e/access-matrix.test.ts). Each example gets the shared world and the caller, makes whatever
@@ -154,6 +155,7 @@ export const ROUTE_EXAMPLES: Record<string, Example> = {
   ...registry('areas'), ...registry('batteries'), ...registry('chargers'), ...registry('cylinders'), ...registry('trucks'),
   ...INSPECTION_EXAMPLES,
   ...REPORT_EXAMPLES,
+  ...AUDIT_PACK_EXAMPLES,
 
   'server/api/health.get.ts': get(() => '/api/health'),
   'server/api/auth/sign-in.post.ts': {

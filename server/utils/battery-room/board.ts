@@ -1,6 +1,8 @@
 import type { z } from 'zod'
 import { batteryTruckFit, isIssuableBattery, rankBatteriesForTruck } from '#shared/utils/battery-fit'
 import type { boardQuerySchema } from '#shared/utils/battery-room-schemas'
+import type { BoardCardData } from '#shared/types/floor'
+import type { BatteryCard } from './status'
 
 export type BoardQuery = z.output<typeof boardQuerySchema>
 
@@ -12,6 +14,15 @@ export const BOARD_CACHE_MS = 5_000
 
 export const boardCacheKey = (query: BoardQuery) => `board:${query.areaId ?? ''}:${query.truckId ?? ''}`
 
+/** The fields of a battery card the board shows (the floor forms' look-up sends the whole card). */
+const boardCard = (c: BatteryCard): BoardCardData => ({
+  id: c.id, serial: c.serial, tagCode: c.tagCode, voltage: c.voltage, capacityAh: c.capacityAh, cycleCount: c.cycleCount,
+  ratedCycles: c.ratedCycles, outOfServiceReason: c.outOfServiceReason, state: c.state, coolingMinutesLeft: c.coolingMinutesLeft,
+  readyAt: c.readyAt, flags: c.flags, readiness: c.readiness.map(r => ({ code: r.code })),
+  truck: c.truck ? { id: c.truck.id, fleetNumber: c.truck.fleetNumber } : null,
+  charge: c.charge ? { chargerName: c.charge.chargerName } : null,
+})
+
 export async function computeBoard(query: BoardQuery) {
   const db = useDb()
   const now = new Date()
@@ -21,7 +32,11 @@ export async function computeBoard(query: BoardQuery) {
       .where(and(eq(tables.areas.siteId, query.siteId), eq(tables.areas.kind, 'charging_area'), eq(tables.areas.archived, false)))
       .orderBy(asc(tables.areas.name)),
     loadBatteryRows(db, { siteId: query.siteId, areaId: query.areaId }),
-    db.select().from(tables.trucks)
+    db.select({
+      id: tables.trucks.id, fleetNumber: tables.trucks.fleetNumber, systemVoltage: tables.trucks.systemVoltage, outOfService: tables.trucks.outOfService,
+      compartmentLengthIn: tables.trucks.compartmentLengthIn, compartmentWidthIn: tables.trucks.compartmentWidthIn, compartmentHeightIn: tables.trucks.compartmentHeightIn,
+      minBatteryWeightLb: tables.trucks.minBatteryWeightLb, maxBatteryWeightLb: tables.trucks.maxBatteryWeightLb, connector: tables.trucks.connector, allowedChemistries: tables.trucks.allowedChemistries,
+    }).from(tables.trucks)
       .where(and(eq(tables.trucks.siteId, query.siteId), eq(tables.trucks.power, 'electric')))
       .orderBy(asc(tables.trucks.fleetNumber)),
     shiftInspectionStatus(db, query.siteId, now),
@@ -53,7 +68,7 @@ export async function computeBoard(query: BoardQuery) {
     areaId: query.areaId ?? null,
     areas,
     policy: { coolDownMinutes: settings.coolDownMinutes, cellSpreadThreshold: settings.cellSpreadThreshold },
-    batteries: cards,
+    batteries: cards.map(boardCard),
     trucks: trucks.map(t => ({ id: t.id, fleetNumber: t.fleetNumber, systemVoltage: t.systemVoltage, outOfService: t.outOfService, batteryId: byTruck.get(t.id)?.id ?? null, inspection: checks.stateOf[t.id] ?? null })),
     suggestion,
   }

@@ -36,7 +36,7 @@ export function ownRecord<R extends { userId: string }>(row: R | undefined, acto
 }
 
 const nullable = (v: number | null) => v ?? 0
-export const truckSpec = (t: typeof tables.trucks.$inferSelect) => ({
+export const truckSpec = (t: Pick<typeof tables.trucks.$inferSelect, 'systemVoltage' | 'connector' | 'allowedChemistries' | 'compartmentLengthIn' | 'compartmentWidthIn' | 'compartmentHeightIn' | 'minBatteryWeightLb' | 'maxBatteryWeightLb'>) => ({
   systemVoltage: nullable(t.systemVoltage),
   connector: t.connector ?? '',
   allowedChemistries: t.allowedChemistries,

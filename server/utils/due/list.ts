@@ -99,7 +99,9 @@ export async function readDueList(db: SqlRunner, siteId: string, opts: DueOption
   const limit = Math.min(opts.limit, 1_000_000)
   const [counted, rows] = await Promise.all([
     rowsOf<{ kind: DueKind, state: ObligationState, n: number }>(db, sql`SELECT kind, shown_state AS state, count(*)::int AS n FROM (${shown}) s GROUP BY 1, 2`),
-    rowsOf<Row>(db, sql`
+    limit === 0
+      ? []
+      : rowsOf<Row>(db, sql`
       SELECT p.id, p.kind, p.schedule_id AS "scheduleId", p.rule_key AS "ruleKey", p.what, p.subject_kind AS "subjectKind", p.subject_id AS "subjectId",
         p.label, p.tag_code AS "tagCode", p.area_id AS "areaId", a.name AS "areaName", p.person_id AS "personId", p.period_start::text AS "periodStart",
         p.shown_due::text AS "shownDue", p.shown_state AS "shownState", p.last_done_on::text AS "lastDoneOn",
@@ -121,7 +123,7 @@ export async function readDueList(db: SqlRunner, siteId: string, opts: DueOption
     counts,
     groups: dueGroups(counted),
     total: counts.overdue + counts.due_soon + counts.upcoming + counts.done,
-    meta: { queries: 3, ms: Date.now() - started },
+    meta: { queries: limit === 0 ? 2 : 3, ms: Date.now() - started },
   }
 }
 

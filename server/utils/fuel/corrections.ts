@@ -13,9 +13,12 @@ const refillSpec: CorrectionKindSpec<typeof tables.cylinderRefills.$inferSelect>
 }
 
 // A refill's weights corrected: the net added, the fill limit, gallons and the tare flag are worked out
-// again. A correction does not turn a fill into a refusal or back: those are new records.
+// again. A correction does not turn a fill into a refusal or back: those are new records. Whoever corrects
+// the figures of a fill needs a current LP-gas transfer qualification, as whoever records one does.
 export async function correctRefill(actor: Actor, input: WithId<RefillCorrection>) {
   return correctRecord(actor, refillSpec, input.id, input, async (tx, original) => {
+    const refusal = lpTransferRefusal(await lpTransferStanding(tx, actor.user.id, (await fuelSiteFacts(tx, original.siteId)).today))
+    if (refusal) throw createError({ statusCode: 403, message: refusal, data: { reasons: [refusal] } })
     if (original.refused) throw fail(409, 'A refused refill stays as recorded: nothing went into the cylinder. Record a new refill if it was filled.')
     if (input.grossBeforeLb === null || input.grossAfterLb === null) throw fail(400, 'Weigh the cylinder before and after filling.', input.grossBeforeLb === null ? 'grossBeforeLb' : 'grossAfterLb')
     const [cylinder] = await tx.select().from(tables.lpCylinders).where(eq(tables.lpCylinders.id, original.cylinderId))
@@ -104,9 +107,11 @@ const emissionsSpec: CorrectionKindSpec<typeof tables.emissionsTests.$inferSelec
   kind: 'emissions-test', table: tables.emissionsTests, subjects: e => [{ kind: 'truck', id: e.truckId }],
 }
 
-// An emissions test's figures corrected: pass or fail and the next test date follow from them again.
+// An emissions test's figures corrected: pass or fail and the next test date follow from them again. A
+// pass corrected to a fail sends the failure notice a failed test sends.
 export async function correctEmissionsTest(actor: Actor, input: WithId<EmissionsCorrection>) {
-  return correctRecord(actor, emissionsSpec, input.id, input, async (tx, original) => {
+  let noticeQueued = false
+  const result = await correctRecord(actor, emissionsSpec, input.id, input, async (tx, original) => {
     const [truck] = await tx.select().from(tables.trucks).where(eq(tables.trucks.id, original.truckId))
     const facts = await fuelSiteFacts(tx, original.siteId)
     if (input.certificateUploadId) {
@@ -118,14 +123,22 @@ export async function correctEmissionsTest(actor: Actor, input: WithId<Emissions
       hcPpm: input.hcPpm, co2Percent: input.co2Pct, o2Percent: input.o2Pct,
     }, emissionsPolicyFromSettings(facts.settings))
     const schedule = (await loadSiteSchedules(tx, original.siteId)).find(s => s.kind === 'emissions_test')!
+    const nextDueOn = emissionsNextDue(original.testedOn, verdict.pass, schedule)
     return {
       values: {
         truckId: original.truckId, testedOn: original.testedOn, testerName: input.testerName, coIdlePct: input.coIdlePct, coHighIdlePct: input.coHighIdlePct,
         hcPpm: input.hcPpm, co2Pct: input.co2Pct, o2Pct: input.o2Pct, idleRpm: input.idleRpm, highIdleRpm: input.highIdleRpm,
-        certificateUploadId: input.certificateUploadId, passed: verdict.pass, reasons: verdict.reasons, nextDueOn: emissionsNextDue(original.testedOn, verdict.pass, schedule),
+        certificateUploadId: input.certificateUploadId, passed: verdict.pass, reasons: verdict.reasons, nextDueOn,
+      },
+      after: async () => {
+        if (verdict.pass || !original.passed) return
+        await notifyFailedEmissionsTest(tx, { siteId: original.siteId, truckId: original.truckId, fleetNumber: truck!.fleetNumber, testedOn: original.testedOn, reasons: verdict.reasons, retestBy: nextDueOn })
+        noticeQueued = true
       },
     }
   })
+  if (noticeQueued) deliverMailSoon()
+  return result
 }
 
 const coSpec: CorrectionKindSpec<typeof tables.coReadings.$inferSelect> = {

@@ -1,0 +1,132 @@
+import type { Sql } from 'postgres'
+import { CoTwaGrouper, StandingTally, cellNumber, coTwaVerdict, type AuditPackStamp, type CoTwaRow } from '#shared/utils/audit-pack'
+import { AID_DISCLAIMER } from '#shared/utils/disclaimer'
+import { AuditPdf } from './pdf'
+import { CO_TWA_TABLE, PACK_SECTIONS, packCoReadings, packEmissionsTests, type PackTable } from './sections'
+import { CORRECTION_CSV_FIELDS, correctionCsvCells, type PackCorrectableRow } from './sql'
+import { PackZip, certificateFileName } from './zip'
+
+// The audit-pack job: each section's tables are read through a cursor a batch at a time and written to
+// the PDF and to their CSV in the ZIP as they come; the certificates go in last, one file at a time.
+// The PDF is the job's file (jobs:<id>), the ZIP sits beside it (jobs:<id>-zip).
+
+export interface AuditPackInput {
+  siteId: string
+  from: string
+  to: string
+  siteName: string
+  timeZone: string
+  siteLimitPpm: number
+  madeBy: string
+}
+
+export interface AuditPackResult { pages: number, bytes: number, zipBytes: number, certificates: number, counts: Record<string, number> }
+
+// rows per cursor fetch; between batches the job lets the server's other requests run
+const BATCH = 250
+
+export const auditZipKey = (jobId: string) => `jobs:${jobId}-zip`
+export const readAuditZip = (jobId: string) => readStoredFile(auditZipKey(jobId))
+
+/** "2026-12-02 10:15" in the site's time. */
+export function siteClock(at: Date, timeZone: string): string {
+  return new Intl.DateTimeFormat('sv-SE', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit' }).format(at)
+}
+
+/** A batch of rows as CSV text (through csvText, like every CSV Bayward sends); the header only on the first. */
+function csvChunk(fields: readonly string[], rows: unknown[][], first: boolean): string {
+  const text = csvText(fields, rows)
+  if (first) return `${text}\r\n`
+  const body = text.slice(text.indexOf('\r\n') + 2)
+  return rows.length ? `${body}\r\n` : ''
+}
+
+export const auditPackJob = defineJob('audit-pack', async (input: AuditPackInput, run): Promise<AuditPackResult> => {
+  const stamp: AuditPackStamp = { siteName: input.siteName, from: input.from, to: input.to, madeAt: siteClock(new Date(), input.timeZone), madeBy: input.madeBy }
+  const pdf = await AuditPdf.create(stamp)
+  const zip = new PackZip()
+  // the pool's own client, for its cursors (drizzle has none)
+  const client = (useDb() as unknown as { $client: Sql }).$client
+  const certificates: { key: string, name: string }[] = []
+  const counts: Record<string, number> = {}
+
+  pdf.heading('Audit pack')
+  pdf.paragraph(`${input.siteName}, records from ${input.from} to ${input.to} (site time, ${input.timeZone}).`)
+  pdf.paragraph(`Sections: ${PACK_SECTIONS.map((s, i) => `${i + 1}. ${s.title}`).join('; ')}. The ZIP beside this file holds one CSV per table and the uploaded certificates.`)
+  pdf.paragraph('Records are never changed: a correction is a new record naming the one it replaces, with who, when and why. A replaced record is struck through and its correction follows it; totals count each corrected record once.')
+  pdf.paragraph(AID_DISCLAIMER)
+
+  // Streams one table's rows to the PDF and its CSV; answers how many records stand.
+  async function writeTable(table: PackTable, onRow?: (r: Record<string, unknown>) => void): Promise<number> {
+    const tally = new StandingTally()
+    const fields = table.corrections ? [...table.columns.map(c => c.label), ...CORRECTION_CSV_FIELDS] : ['record_id', ...table.columns.map(c => c.label)]
+    const csv = zip.textFile(table.file)
+    csv.push(csvChunk(fields, [], true))
+    pdf.table(table.title, table.columns)
+    const params = [input.siteId, input.from, input.to, ...(table.sql.includes('$4') ? [input.timeZone] : [])]
+    for await (const batch of client.unsafe(table.sql, params).cursor(BATCH)) {
+      const rows: unknown[][] = []
+      for (const r of batch) {
+        const cells = table.cells(r)
+        const record = r as unknown as PackCorrectableRow
+        pdf.row(cells, table.corrections && !!record.correctedById)
+        if (table.corrections) tally.add(record)
+        else tally.standing++
+        rows.push(table.corrections ? [...cells, ...correctionCsvCells(record)] : [record.id, ...cells])
+        onRow?.(r)
+      }
+      csv.push(csvChunk(fields, rows, false))
+      await new Promise(resolve => setImmediate(resolve))
+    }
+    csv.end()
+    const rows = tally.standing + tally.replaced
+    if (rows === 0) pdf.after('No records in the range.')
+    else pdf.after(`${tally.standing} record${tally.standing === 1 ? '' : 's'}${tally.replaced ? `, counting each corrected record once (${tally.replaced} replaced by a correction shown struck through)` : ''}.`)
+    counts[table.file.replace(/\.csv$/, '')] = tally.standing
+    return tally.standing
+  }
+
+  for (const [i, section] of PACK_SECTIONS.entries()) {
+    pdf.heading(`${i + 1}. ${section.title}`)
+    for (const line of section.intro) pdf.paragraph(line)
+    const twa = new CoTwaGrouper(input.siteLimitPpm)
+    const twaRows: CoTwaRow[] = []
+    for (const table of section.tables) {
+      await writeTable(table, (r) => {
+        if (table === packEmissionsTests && r.certificateKey && !r.correctedById) certificates.push({ key: String(r.certificateKey), name: certificateFileName(String(r.testedOn), String(r.truck), String(r.certificate)) })
+        if (table === packCoReadings) {
+          const closed = twa.push(String(r.area), String(r.day), r.correctedById ? null : { ppm: Number(r.ppm), hours: Number(r.hours) })
+          if (closed) twaRows.push(closed)
+        }
+      })
+    }
+    if (section.key === 'co') {
+      const last = twa.flush()
+      if (last) twaRows.push(last)
+      writeTwaTable(pdf, zip, twaRows)
+    }
+    await run.progress(i + 1)
+  }
+
+  for (const c of certificates) {
+    const bytes = await readStoredFile(c.key)
+    if (bytes) zip.storedFile(c.name, bytes)
+  }
+  const pdfBytes = await pdf.save()
+  const zipBytes = zip.finish()
+  await saveJobFile(run.jobId, pdfBytes)
+  await useStorage('uploads').setItemRaw(auditZipKey(run.jobId), zipBytes)
+  return { pages: pdf.pageCount, bytes: pdfBytes.byteLength, zipBytes: zipBytes.byteLength, certificates: certificates.length, counts }
+})
+
+function writeTwaTable(pdf: AuditPdf, zip: PackZip, rows: CoTwaRow[]) {
+  const cells = (r: CoTwaRow) => [r.day, r.area, String(r.readings), cellNumber(r.sampledHours), cellNumber(r.twaPpm, 1), cellNumber(r.peakPpm, 1), coTwaVerdict(r)]
+  pdf.table(CO_TWA_TABLE.title, CO_TWA_TABLE.columns)
+  rows.sort((a, b) => a.day.localeCompare(b.day) || a.area.localeCompare(b.area))
+  for (const r of rows) pdf.row(cells(r))
+  const over = rows.filter(r => r.overOshaPel || r.overSiteLimit).length
+  pdf.after(rows.length ? `${rows.length} area-days; ${over} over a limit (OSHA PEL 50 ppm 8-h TWA, 29 CFR 1910.1000 Table Z-1, or the site's limit).` : 'No readings in the range.')
+  const csv = zip.textFile(CO_TWA_TABLE.file)
+  csv.push(csvChunk(CO_TWA_TABLE.columns.map(c => c.label), rows.map(cells), true))
+  csv.end()
+}
