@@ -57,7 +57,7 @@ export default defineNuxtConfig({
     // server/plugins/storage.ts, on local disk or an S3-compatible bucket.
     output: { dir: process.env.BAYWARD_BUILD_NAME ? `.output-${process.env.BAYWARD_BUILD_NAME}` : '.output' },
     // Domain folders under server/utils: one act or one read model per file, auto-imported like utils/.
-    imports: { dirs: ['battery-room', 'due', 'fuel', 'logs', 'inspection'].map(dir => fileURLToPath(new URL(`./server/utils/${dir}`, import.meta.url))) },
+    imports: { dirs: ['battery-room', 'due', 'fuel', 'logs', 'inspection', 'reports'].map(dir => fileURLToPath(new URL(`./server/utils/${dir}`, import.meta.url))) },
   },
   typescript: { strict: true },
   telemetry: false,

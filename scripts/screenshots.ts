@@ -12,8 +12,8 @@ const PASSWORD = 'bayward-demo'
 const shots: { who: string, email: string, paths: string[] }[] = [
   { who: 'operator', email: 'operator@millbrook.example', paths: ['/', '/scan', '/t/B-00003', '/swap', '/bay', '/exchange'] },
   { who: 'technician', email: 'technician@millbrook.example', paths: ['/', '/bay', '/charge', '/check', '/refill', '/cage', '/logs', '/t/B-00003'] },
-  { who: 'facilities', email: 'facilities@millbrook.example', paths: ['/', '/due', '/emissions', '/batteries', '/cylinders', '/trucks/new', '/labels', '/audit-pack'] },
-  { who: 'safety', email: 'safety@millbrook.example', paths: ['/', '/logs', '/incidents', '/ventilation', '/co', '/areas', '/audit-pack'] },
+  { who: 'facilities', email: 'facilities@millbrook.example', paths: ['/', '/due', '/emissions', '/batteries', '/cylinders', '/trucks/new', '/labels', '/audit-pack', '/reports', '/reports/energy', '/reports/battery-health', '/reports/replacement', '/reports/shortfall', '/reports/propane'] },
+  { who: 'safety', email: 'safety@millbrook.example', paths: ['/', '/logs', '/incidents', '/ventilation', '/co', '/areas', '/audit-pack', '/reports/compliance'] },
   { who: 'admin', email: 'admin@quillmere.example', paths: ['/', '/people', '/site'] },
 ]
 const viewports = { phone: { width: 390, height: 844 }, desktop: { width: 1366, height: 900 } }

@@ -114,6 +114,7 @@ export const ASSET_VIEWS: Record<AssetKind, AssetView> = {
       { key: 'manufacturedOn', label: 'Manufactured', type: 'date' },
       { key: 'inServiceOn', label: 'In service since', type: 'date' },
       { key: 'ratedCycles', label: 'Rated cycles', type: 'int' },
+      { key: 'replacementPrice', label: 'Replacement price', type: 'number', hint: 'In the site\'s currency; the replacement forecast adds these up.' },
       { key: 'notes', label: 'Notes', type: 'textarea' },
     ],
   },

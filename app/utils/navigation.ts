@@ -35,6 +35,7 @@ export const NAV_ITEMS: NavItem[] = [
   { to: '/logs', label: 'Area logs', icon: 'clipboard', ability: 'log.view', group: 'records' },
   { to: '/incidents', label: 'Incidents', icon: 'flag', ability: 'incident.report', group: 'records' },
   { to: '/ventilation', label: 'Ventilation check', icon: 'fan', ability: 'report.view', group: 'records' },
+  { to: '/reports', label: 'Reports', icon: 'chart', ability: 'report.view', group: 'records' },
   { to: '/trucks', label: 'Trucks', icon: 'truck', ability: 'site.member', group: 'fleet' },
   { to: '/batteries', label: 'Batteries', icon: 'battery', ability: 'asset.hold', group: 'fleet' },
   { to: '/chargers', label: 'Chargers', icon: 'plug', ability: 'asset.hold', group: 'fleet' },

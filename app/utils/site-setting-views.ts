@@ -9,6 +9,7 @@ export const SITE_SETTING_VIEWS: { key: keyof SiteSettings, label: string, sourc
   { key: 'cellSpreadThreshold', label: 'Weak-cell threshold below the mean', source: '0.020 — common practice for motive batteries', step: '0.001' },
   { key: 'maxChargeTempF', label: 'Highest end-of-charge temperature ({unit})', source: '110–115 °F (43–46 °C) — from memory; follow the battery maker', quantity: 'temperature', step: '0.1' },
   { key: 'tariffPerKwh', label: 'Electricity tariff per kWh', source: 'your utility bill', step: '0.001' },
+  { key: 'propanePerGal', label: 'Propane price per US gallon (0: not entered)', source: 'your supplier\'s invoice', step: '0.01' },
   { key: 'fullCylinderReorderAt', label: 'Reorder hint below N full cylinders', source: 'site choice' },
   { key: 'emissionsMaxCoPctLp', label: 'Tailpipe CO limit, LP-gas (%)', source: 'Minnesota Rules 5205.0116', step: '0.1' },
   { key: 'emissionsMaxCoPctGasoline', label: 'Tailpipe CO limit, gasoline (%)', source: 'Minnesota Rules 5205.0116', step: '0.1' },

@@ -12,7 +12,7 @@ const WARMUP_S = 2
 export const SWAP_LIMIT = Number(process.env.BAYWARD_BENCH_SWAPS ?? 800)
 const SWAP_WARMUP = 100
 
-// BAYWARD_BENCH_ONLY=tag,board runs only those routes (and the trivial one): tag, board, due, due-page, due-group, list, swap.
+// BAYWARD_BENCH_ONLY=tag,board runs only those routes (and the trivial one): tag, board, due, due-page, due-group, list, report, swap.
 const ONLY = process.env.BAYWARD_BENCH_ONLY?.split(',').map(s => s.trim()).filter(Boolean)
 export const wanted = (key: string) => !ONLY || ONLY.includes(key)
 
@@ -52,6 +52,10 @@ export async function measurePass(server: BenchServer, sql: postgres.Sql, label:
   await measureGet('due-page', 'GET /api/due as the due page opens (groups and counts)', 16, () => [get(`/api/due?siteId=${site1}&role=all&sort=due&limit=0`, leadCookie)])
   await measureGet('due-group', 'GET /api/due, one group opened (50 waterings)', 16, () => [get(`/api/due?siteId=${site1}&role=all&sort=due&kind=battery_watering&limit=50`, leadCookie)])
   await measureGet('list', 'GET /api/batteries (page 3 of 50, by Ah)', 16, () => [get(`/api/batteries?siteId=${site1}&page=3&pageSize=50&sort=capacityAh`, leadCookie)])
+  // Reports over a year: one site, and all of the lead's sites (BAYWARD_BENCH_ONLY=report)
+  await measureGet('report', 'GET /api/reports/energy (a site, a year)', 4, () => [get(`/api/reports/energy?siteId=${site1}`, leadCookie)])
+  await measureGet('report', 'GET /api/reports/energy (all the lead\'s sites, a year)', 2, () => [get('/api/reports/energy?siteId=all', leadCookie)])
+  await measureGet('report', 'GET /api/reports/battery-health (a site, a year)', 4, () => [get(`/api/reports/battery-health?siteId=${site1}`, leadCookie)])
   const twoTrucks = wanted('swap') ? await runSwaps(server, sql, leadCookie, label, figures) : undefined
   return { figures, twoTrucks, memory: memory.stop() }
 }

@@ -47,7 +47,7 @@ export interface BatteryHistory {
 }
 
 type SimEvent
-  = | { at: Date, kind: 'swap', truck: ElectricTruck, daysAgo: number }
+  = | { at: Date, kind: 'swap', truck: ElectricTruck, daysAgo: number, midShift?: boolean }
     | { at: Date, kind: 'refresh', battery: BatterySim }
 
 // A year of battery changes and charges, played forward in time so no battery sits in two trucks
@@ -95,6 +95,8 @@ export function simulateBatteryRoom(ctx: SeedContext, fleet: Fleet): BatteryHist
     for (let k = 0; k < HISTORY_DAYS; k++) {
       if (k >= 2 && rand.chance(0.07)) continue
       events.push({ at: clock.hoursAgo(truck.hoursSinceSwap + 24 * k), kind: 'swap', truck, daysAgo: k })
+      // now and then a battery runs low mid-shift and the truck comes back for an extra change
+      if (k >= 8 && rand.chance(0.01)) events.push({ at: clock.hoursAgo(truck.hoursSinceSwap + 24 * k - rand.between(9, 13)), kind: 'swap', truck, daysAgo: k, midShift: true })
     }
   }
   // Batteries not in a rotation get a freshening charge every six days; a spare that is to be fitted
@@ -189,6 +191,15 @@ export function simulateBatteryRoom(ctx: SeedContext, fleet: Fleet): BatteryHist
       chosen = truck.pair.map(b => sim(b.id)).filter(s => s.planned.row.id !== outId && ready(s, event.at))
         .sort((a, b) => a.lastChargeEnd.getTime() - b.lastChargeEnd.getTime())[0]
     }
+    // A mid-shift change finds the other battery charged but still cooling; the technician lets it go out
+    // with a written override (what the shift-change shortfall report counts). No such battery: no change.
+    let override: { reason: string, checks: { code: string, message: string }[] } | null = null
+    if (event.midShift) {
+      chosen = truck.pair.map(b => sim(b.id)).find(s => s.planned.row.id !== outId && s.inTruck === null && !s.leftUncharged && !ready(s, event.at)
+        && !(s.heldAt && s.heldAt <= event.at) && s.lastChargeEnd <= event.at && (s.lastRemovedAt === null || s.lastChargeEnd > s.lastRemovedAt))
+      if (!chosen || !fits(chosen)) continue
+      override = { reason: 'Battery ran low mid-shift, no cooled battery in the bay; fitted warm', checks: [{ code: 'still_cooling', message: 'Battery is still cooling after its charge.' }] }
+    }
     if (!chosen || !fits(chosen)) {
       skippedSwaps += 1
       continue
@@ -197,13 +208,14 @@ export function simulateBatteryRoom(ctx: SeedContext, fleet: Fleet): BatteryHist
     rows.batterySwaps.push({
       id: newId(),
       siteId: truck.truck.siteId,
-      userId: ctx.sites[siteOf(truck.truck.siteId)].people.operator,
+      userId: ctx.sites[siteOf(truck.truck.siteId)].people[override ? 'technician' : 'operator'],
       at: event.at,
       recordedAt: new Date(event.at.getTime() + rand.int(2, 40) * 1000),
       truckId: truck.truck.id,
       batteryOutId: outId,
       batteryInId: chosen.planned.row.id,
       hourMeter,
+      ...(override ? { overrideReason: override.reason, overriddenChecks: override.checks } : {}),
     })
     out.inTruck = null
     out.lastRemovedAt = event.at
@@ -211,7 +223,7 @@ export function simulateBatteryRoom(ctx: SeedContext, fleet: Fleet): BatteryHist
     chosen.swapIns.push(event.at)
     current.set(truck.truck.id, chosen.planned.row.id)
     if (out.planned.role === 'needs_charge') out.leftUncharged = true
-    else charge(out, addMinutes(event.at, 30), false)
+    else charge(out, addMinutes(event.at, 30), false, override ? 24 : 4)
   }
 
   // The truck hour meters read on from their last change.

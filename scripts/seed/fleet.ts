@@ -215,6 +215,9 @@ export function buildFleet(ctx: SeedContext): Fleet {
     if (cells === null) throw new Error(`${spec.voltage} V is not a whole number of cells`)
     serialCount[site] += 1
     const inServiceOn = clock.dateDaysAgo(rand.int(380, 470))
+    // a few reconditioned lead-acid units, rated for fewer cycles from their return to service, so the
+    // replacement forecast has batteries coming due (invented figures)
+    const reconditioned = role === 'pair' && spec.chemistry === 'flooded_lead_acid' && serialCount[site] % 8 === 3
     const row: BatteryRow = {
       id: newId(),
       siteId: ctx.sites[site].id,
@@ -232,8 +235,10 @@ export function buildFleet(ctx: SeedContext): Fleet {
       connector: spec.connector,
       manufacturedOn: addCalendarInterval(inServiceOn, -rand.int(30, 120), 'day'),
       inServiceOn,
-      ratedCycles: 1500,
-      notes: plan?.notes ?? '',
+      ratedCycles: reconditioned ? 200 + 40 * (serialCount[site] % 3) : 1500,
+      // an invented price, about 0.16 per watt-hour of rated capacity, rounded to tens
+      replacementPrice: Math.round((spec.voltage * ah * 0.16) / 10) * 10,
+      notes: plan?.notes ?? (reconditioned ? 'Reconditioned unit: rated cycles count from its return to service.' : ''),
       createdAt: ctx.registeredAt,
       updatedAt: ctx.registeredAt,
     }

@@ -48,7 +48,8 @@ export function buildOrganization(rows: SeedRows, newId: () => string, registere
       timeZone: SITE_TIME_ZONE,
       unitSystem: key === 'mb' ? 'us' : 'metric',
       // the metric site reads specific gravity against 25 °C (77 °F)
-      settings: { ...defaultSiteSettings(), sgReferenceTempF: defaultSgReferenceTempF(key === 'mb' ? 'us' : 'metric') },
+      // propane per US gallon: an invented figure
+      settings: { ...defaultSiteSettings(), sgReferenceTempF: defaultSgReferenceTempF(key === 'mb' ? 'us' : 'metric'), propanePerGal: key === 'mb' ? 2.85 : 2.95 },
       createdAt: registeredAt,
       updatedAt: registeredAt,
     })

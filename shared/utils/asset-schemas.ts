@@ -95,6 +95,7 @@ export const batteryFields = z.object({
   manufacturedOn: isoDate.nullable().default(null),
   inServiceOn: isoDate.nullable().default(null),
   ratedCycles: z.number().int().min(100).max(10000).default(1500),
+  replacementPrice: z.number({ error: 'Price must be a number.' }).min(0, 'Not below zero.').max(1_000_000, 'At most 1,000,000.').nullable().default(null),
   notes: optionalText(2000),
 })
 export const batteryCreateSchema = batteryFields.superRefine((b, ctx) => {

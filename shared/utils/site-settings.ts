@@ -18,6 +18,8 @@ export const siteSettingsSchema = z.object({
   qualificationPolicy: z.enum(['warn', 'block']).default('warn'),
   tariffPerKwh: z.number().min(0).max(10).default(0.12),
   currency: z.string().length(3).default('USD'),
+  /** What a US gallon of propane costs the site (0: not entered; the propane report then shows no cost). */
+  propanePerGal: z.number().min(0).max(100).default(0),
   fullCylinderReorderAt: z.number().int().min(0).max(1000).default(6),
   /** Minnesota Rules 5205.0116: CO at idle and high idle at most 1 % (LP-gas) and 2 % (gasoline). */
   emissionsMaxCoPctLp: z.number().min(0).max(10).default(1),

@@ -15,6 +15,7 @@ import { CHARGING_KEYS, allPass, todayIn } from './due'
 import { correctionBody, freshRecord } from './corrections'
 import { CORRECTION_PATHS, type CorrectableKind } from '../../shared/utils/correction-schemas'
 import { INSPECTION_EXAMPLES } from './route-examples-inspection'
+import { REPORT_EXAMPLES } from './route-examples-reports'
 import { AUDIT_PACK_EXAMPLES } from './route-examples-audit-pack'
 
 // One request per route file that reaches the route's guard, for the role × route matrix
@@ -153,6 +154,7 @@ const today = () => todayIn()
 export const ROUTE_EXAMPLES: Record<string, Example> = {
   ...registry('areas'), ...registry('batteries'), ...registry('chargers'), ...registry('cylinders'), ...registry('trucks'),
   ...INSPECTION_EXAMPLES,
+  ...REPORT_EXAMPLES,
   ...AUDIT_PACK_EXAMPLES,
 
   'server/api/health.get.ts': get(() => '/api/health'),

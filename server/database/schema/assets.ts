@@ -55,6 +55,8 @@ export const batteries = pgTable('batteries', {
   manufacturedOn: date(),
   inServiceOn: date(),
   ratedCycles: integer().notNull().default(1500),
+  /** what a like-for-like replacement costs, in the site's currency (entered by a lead; the forecast sums it) */
+  replacementPrice: doublePrecision(),
 }, t => [
   uniqueIndex().on(t.siteId, t.serial),
   index().on(t.siteId, t.chemistry),

@@ -1,0 +1,22 @@
+import { defaultReportRange } from '#shared/utils/report-schemas'
+
+// The report pages' range and site, kept in the URL (?from=&to=&site=) so a view can be bookmarked or sent.
+export function useReportRange() {
+  const route = useRoute()
+  const router = useRouter()
+  const session = useSessionStore()
+  const fallback = defaultReportRange()
+  const text = (v: unknown) => (typeof v === 'string' && v ? v : undefined)
+  const from = computed(() => text(route.query.from) ?? fallback.from)
+  const to = computed(() => text(route.query.to) ?? fallback.to)
+  const siteId = computed(() => text(route.query.site) ?? session.siteId ?? '')
+  const query = computed(() => ({ siteId: siteId.value, from: from.value, to: to.value }))
+  function change(v: { from: string, to: string, siteId: string }) {
+    router.replace({ query: { ...route.query, from: v.from, to: v.to, site: v.siteId } })
+  }
+  /** the link to a section's CSV */
+  function csvHref(kind: string, section: string) {
+    return `/api/reports/${kind}?${new URLSearchParams({ ...query.value, format: 'csv', section }).toString()}`
+  }
+  return { from, to, siteId, query, change, csvHref }
+}

@@ -1,0 +1,1 @@
+ALTER TABLE "batteries" ADD COLUMN "replacement_price" double precision;

@@ -1,0 +1,113 @@
+import { monthsBetween, batteryRisk, SG_SPREAD_ACT, SG_SPREAD_WARN } from '#shared/utils/report-math'
+import type { ReportResponse } from '#shared/types/reports'
+import { isEffectiveRecord, rowsOf, uuidArray } from '../due/effective'
+import { batteryFacts, RECENT_DAYS, yearsBetween } from './battery-facts'
+import { chartSvg } from './chart'
+import { num, numOrNull, scopeCte, type ReportScope } from './scope'
+
+// Mean Ah returned per counted charge, the mean cell spread and the checks that found low cells, per month
+// (and the Ah line of a few batteries), from standing records only.
+async function monthlyHealth(scope: ReportScope, batteryIds: string[]) {
+  const db = useDb()
+  const [ah, checks] = await Promise.all([
+    rowsOf<{ month: string, batteryId: string | null, ah: number }>(db, sql`
+      WITH ${scopeCte(scope)}
+      SELECT month, "batteryId", avg(ah)::float8 AS ah FROM (
+        SELECT to_char(c.at AT TIME ZONE scope.tz, 'YYYY-MM') AS month, c.amp_hours_returned AS ah,
+               CASE WHEN c.battery_id = ANY(${uuidArray(batteryIds)}) THEN c.battery_id::text END AS "batteryId"
+        FROM scope JOIN charge_sessions c ON c.site_id = scope.site_id AND c.at >= scope.t0 AND c.at < scope.t1
+        WHERE c.counted_cycle AND c.ended_at IS NOT NULL AND ${isEffectiveRecord('charge_sessions', 'c')}
+      ) x
+      GROUP BY GROUPING SETS ((month), (month, "batteryId"))
+      -- the second set's group of the batteries not watched is dropped; the first set's rows are the fleet
+      HAVING NOT (GROUPING("batteryId") = 0 AND "batteryId" IS NULL)`),
+    rowsOf<{ month: string, spread: number | null, checks: number, lowFindings: number }>(db, sql`
+      WITH ${scopeCte(scope)}
+      SELECT to_char(e.at AT TIME ZONE scope.tz, 'YYYY-MM') AS month, avg(e.spread)::float8 AS spread, count(*)::int AS checks,
+             count(*) FILTER (WHERE e.low_cell_count > 0)::int AS "lowFindings"
+      FROM scope JOIN electrolyte_checks e ON e.site_id = scope.site_id AND e.at >= scope.t0 AND e.at < scope.t1
+      WHERE ${isEffectiveRecord('electrolyte_checks', 'e')}
+      GROUP BY 1`),
+  ])
+  return { ah, checks }
+}
+
+export async function batteryHealthReport(scope: ReportScope): Promise<ReportResponse> {
+  const facts = await batteryFacts(scope)
+  const fleet = facts.map((b) => {
+    const capacityRatio = b.ahRecent !== null && b.ahBefore ? b.ahRecent / b.ahBefore : null
+    return {
+      ...b, capacityRatio,
+      risk: batteryRisk({ cycles: b.cycles, ratedCycles: b.ratedCycles, weakCell: b.weakCell, lastSpread: b.lastSpread, capacityRatio }),
+      age: yearsBetween(b.inServiceOn, scope.to),
+    }
+  }).sort((a, b) => b.risk - a.risk || b.cycles - a.cycles)
+  const watched = fleet.slice(0, 4)
+  const { ah, checks } = await monthlyHealth(scope, watched.map(b => b.id))
+  const months = monthsBetween(scope.from, scope.to)
+  const ahAt = (month: string, batteryId: string | null) => {
+    const r = ah.find(a => a.month === month && a.batteryId === batteryId)
+    return r ? Math.round(num(r.ah)) : null
+  }
+  const checkAt = new Map(checks.map(c => [c.month, c]))
+  const monthRows = months.map(m => ({
+    month: m, ahPerCharge: ahAt(m, null), spread: numOrNull(checkAt.get(m)?.spread), checks: num(checkAt.get(m)?.checks), lowFindings: num(checkAt.get(m)?.lowFindings),
+  }))
+  const nearEnd = fleet.filter(b => b.cycles >= 0.8 * b.ratedCycles).length
+  return {
+    kind: 'battery-health',
+    title: 'Battery health',
+    from: scope.from,
+    to: scope.to,
+    sites: scope.sites.map(s => ({ id: s.id, name: s.name })),
+    figures: [
+      { label: 'Batteries', value: String(fleet.length) },
+      { label: 'Past 80 % of rated cycles', value: String(nearEnd) },
+      { label: 'With a weak cell', value: String(fleet.filter(b => b.weakCell).length) },
+    ],
+    sections: [
+      {
+        key: 'fleet',
+        title: 'Fleet, heaviest risk first',
+        note: `Risk orders the list only (cycles used against rated up to 60, a weak cell 20, cell spread up to 10 at ${SG_SPREAD_ACT.toFixed(3)}, Ah per charge fallen over the last ${RECENT_DAYS} days against the ${RECENT_DAYS} before up to 10 at −20 %); the battery maker's capacity test decides a replacement. Cycles are the count kept on the battery's status.`,
+        chartSvg: null,
+        columns: [
+          { key: 'serial', label: 'Battery' }, { key: 'site', label: 'Site' }, { key: 'voltage', label: 'Volts', decimals: 0 },
+          { key: 'cycles', label: 'Cycles', decimals: 0 }, { key: 'ratedCycles', label: 'Rated', decimals: 0 },
+          { key: 'usedPct', label: 'Used', unit: '%', decimals: 0 }, { key: 'age', label: 'Age', unit: 'years', decimals: 1 },
+          { key: 'ahRecent', label: 'Ah per charge', decimals: 0 }, { key: 'capacityPct', label: 'vs before', unit: '%', decimals: 0 },
+          { key: 'lastSpread', label: 'Cell spread', unit: 'SG', decimals: 3 }, { key: 'weakCell', label: 'Weak cell' }, { key: 'risk', label: 'Risk', decimals: 0 },
+        ],
+        rows: fleet.map(b => ({
+          serial: b.serial, site: b.site, voltage: b.voltage, cycles: b.cycles, ratedCycles: b.ratedCycles,
+          usedPct: b.ratedCycles ? (b.cycles / b.ratedCycles) * 100 : null, age: b.age, ahRecent: b.ahRecent,
+          capacityPct: b.capacityRatio === null ? null : b.capacityRatio * 100, lastSpread: b.lastSpread,
+          weakCell: b.weakCell ? 'yes' : '', risk: b.risk,
+        })),
+      },
+      {
+        key: 'capacity',
+        title: 'Ah returned per counted charge, by month',
+        note: 'A falling line is capacity being lost. The fleet mean, and the four batteries at the top of the risk list.',
+        chartSvg: chartSvg({
+          kind: 'line', categories: months, unit: 'Ah',
+          series: [{ name: 'Fleet', data: monthRows.map(r => r.ahPerCharge) }, ...watched.map(b => ({ name: b.serial, data: months.map(m => ahAt(m, b.id)) }))],
+        }),
+        columns: [{ key: 'month', label: 'Month' }, { key: 'ahPerCharge', label: 'Fleet Ah per charge', decimals: 0 }, ...watched.map(b => ({ key: `b${b.id}`, label: b.serial, decimals: 0 }))],
+        rows: monthRows.map(r => ({ month: r.month, ahPerCharge: r.ahPerCharge, ...Object.fromEntries(watched.map(b => [`b${b.id}`, ahAt(r.month, b.id)])) })),
+      },
+      {
+        key: 'cells',
+        title: 'Cell spread and low-cell findings, by month',
+        note: `Spread = highest − lowest corrected specific gravity in a cell-by-cell check; ${SG_SPREAD_WARN.toFixed(3)} is worth watching and ${SG_SPREAD_ACT.toFixed(3)} calls for an equalize and a closer look (common practice).`,
+        chartSvg: chartSvg({
+          kind: 'bar', categories: months, unit: 'checks', secondUnit: 'SG spread',
+          series: [{ name: 'Checks finding low cells', data: monthRows.map(r => r.lowFindings) }, { name: 'Mean spread', type: 'line', data: monthRows.map(r => (r.spread === null ? null : Math.round(r.spread * 1000) / 1000)) }],
+        }),
+        columns: [{ key: 'month', label: 'Month' }, { key: 'checks', label: 'Checks', decimals: 0 }, { key: 'spread', label: 'Mean spread', unit: 'SG', decimals: 3 }, { key: 'lowFindings', label: 'Finding low cells', decimals: 0 }],
+        rows: monthRows.map(r => ({ month: r.month, checks: r.checks, spread: r.spread, lowFindings: r.lowFindings })),
+      },
+    ],
+    caveats: [],
+  }
+}

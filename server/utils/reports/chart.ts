@@ -1,0 +1,64 @@
+import * as echarts from 'echarts'
+
+// Charts are drawn here, on the server, as SVG (Apache ECharts' server-side renderer): the page gets a
+// string and ships no chart code, the Scan page's bundle is untouched, and the nonce CSP needs nothing new
+// (the SVG carries no script; its inline style attributes are allowed by style-src 'unsafe-inline').
+// Series take the brand violet and slates; the Z535 safety colours are kept for hazards and states.
+export const SERIES_COLOURS = ['#723d9a', '#64748b', '#a574cd', '#334155', '#c3a2e0', '#94a3b8'] as const
+
+export interface ChartSeries {
+  name: string
+  data: (number | null)[]
+  /** 'line' on a bar chart draws this one as a line on the second axis */
+  type?: 'bar' | 'line'
+}
+
+export interface ChartSpec {
+  kind: 'bar' | 'line'
+  categories: string[]
+  series: ChartSeries[]
+  /** the left axis's name ("kWh"), and the right one's when a series is a line on a bar chart */
+  unit: string
+  secondUnit?: string
+  stacked?: boolean
+  width?: number
+  height?: number
+}
+
+// 480 × 300 with 14 px text: on a 390 px phone it is drawn at about 0.75 scale (text ≈ 10.5 px); the page
+// sets width: 100 % up to 720 px, so on a desktop it grows to 1.5 ×.
+export function chartSvg(spec: ChartSpec): string | null {
+  if (spec.categories.length === 0 || spec.series.every(s => s.data.every(v => v === null || v === 0))) return null
+  const width = spec.width ?? 480
+  const height = spec.height ?? 300
+  const chart = echarts.init(null, null, { renderer: 'svg', ssr: true, width, height })
+  const twoAxes = spec.kind === 'bar' && spec.series.some(s => s.type === 'line')
+  // counts (batteries, swaps, tests) get whole-number ticks on the left axis
+  const wholeLeft = spec.series.filter(s => !(twoAxes && s.type === 'line')).every(s => s.data.every(v => v === null || Number.isInteger(v)))
+  chart.setOption({
+    animation: false,
+    color: [...SERIES_COLOURS],
+    textStyle: { fontFamily: 'Roboto Flex, system-ui, sans-serif', fontSize: 14, color: '#334155' },
+    // a legend of more than three series wraps to a second line on a phone's width
+    grid: { left: 8, right: 8, top: spec.series.length > 3 ? 80 : 48, bottom: 8, containLabel: true },
+    legend: { show: spec.series.length > 1, top: 0, textStyle: { fontSize: 13 } },
+    xAxis: { type: 'category', data: spec.categories, axisLabel: { hideOverlap: true, rotate: spec.categories.length > 6 ? 45 : 0, fontSize: 13 } },
+    yAxis: [
+      { type: 'value', name: spec.unit, minInterval: wholeLeft ? 1 : undefined, splitLine: { lineStyle: { color: '#e2e8f0' } } },
+      ...(twoAxes ? [{ type: 'value', name: spec.secondUnit ?? '', splitLine: { show: false } }] : []),
+    ],
+    series: spec.series.map(s => ({
+      name: s.name,
+      type: s.type ?? spec.kind,
+      data: s.data,
+      stack: spec.stacked && (s.type ?? spec.kind) === 'bar' ? 'total' : undefined,
+      yAxisIndex: twoAxes && s.type === 'line' ? 1 : 0,
+      symbolSize: 5,
+      connectNulls: true,
+      barMaxWidth: 28,
+    })),
+  })
+  const svg = chart.renderToSVGString()
+  chart.dispose()
+  return svg
+}

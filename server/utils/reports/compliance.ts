@@ -1,0 +1,140 @@
+import { monthsBetween } from '#shared/utils/report-math'
+import type { ReportResponse } from '#shared/types/reports'
+import { CO_LIMITS } from '#shared/utils/co-exposure'
+import { daysInRange } from '#shared/utils/area-checklists'
+import { isEffectiveRecord, rowsOf } from '../due/effective'
+import { chartSvg } from './chart'
+import { num, numOrNull, scopeCte, type ReportScope } from './scope'
+
+const siteSuffix = (scope: ReportScope) => sql`CASE WHEN ${scope.siteIds.length > 1} THEN ' · ' || scope.site_name ELSE '' END`
+
+// Emissions tests by month (a retest is a test of a truck whose previous standing test failed), the daily
+// 8-hour TWA of CO per area (Σ ppm × hours ÷ 8, 29 CFR 1910.1000(d)(1)(i)), daily area-log completion and
+// failed items, and operator evaluations due.
+async function complianceRows(scope: ReportScope) {
+  const db = useDb()
+  return Promise.all([
+    rowsOf<{ month: string, tests: number, passed: number, retests: number }>(db, sql`
+      WITH ${scopeCte(scope)},
+      tests AS (
+        SELECT e.truck_id, e.tested_on, e.passed,
+               lag(e.passed) OVER (PARTITION BY e.truck_id ORDER BY e.tested_on, e.at) AS previous_passed
+        FROM scope JOIN emissions_tests e ON e.site_id = scope.site_id AND e.tested_on <= ${scope.to}::date
+        WHERE ${isEffectiveRecord('emissions_tests', 'e')}
+      )
+      SELECT to_char(tested_on, 'YYYY-MM') AS month, count(*)::int AS tests, count(*) FILTER (WHERE passed)::int AS passed,
+             count(*) FILTER (WHERE previous_passed = false)::int AS retests
+      FROM tests WHERE tested_on >= ${scope.from}::date GROUP BY 1`),
+    rowsOf<{ area: string, days: number, meanTwa: number, maxTwa: number, overSite: number, overPel: number }>(db, sql`
+      WITH ${scopeCte(scope)},
+      daily AS (
+        SELECT c.area_id, c.taken_on, sum(c.ppm * c.duration_hours) / 8 AS twa,
+               max(coalesce((st.settings->>'coSiteLimitPpm')::float8, ${CO_LIMITS.nioshRel.ppm})) AS site_limit
+        FROM scope JOIN sites st ON st.id = scope.site_id
+        JOIN co_readings c ON c.site_id = scope.site_id AND c.taken_on BETWEEN ${scope.from}::date AND ${scope.to}::date
+        WHERE ${isEffectiveRecord('co_readings', 'c')}
+        GROUP BY 1, 2
+      )
+      SELECT a.name || ${siteSuffix(scope)} AS area, count(*)::int AS days, avg(d.twa)::float8 AS "meanTwa", max(d.twa)::float8 AS "maxTwa",
+             count(*) FILTER (WHERE d.twa > d.site_limit)::int AS "overSite", count(*) FILTER (WHERE d.twa > ${CO_LIMITS.oshaPel.ppm})::int AS "overPel"
+      FROM daily d JOIN areas a ON a.id = d.area_id JOIN scope ON scope.site_id = a.site_id
+      GROUP BY 1 ORDER BY 4 DESC`),
+    rowsOf<{ area: string, logs: number, signed: number, failed: number }>(db, sql`
+      WITH ${scopeCte(scope)}
+      SELECT a.name || ${siteSuffix(scope)} AS area, count(DISTINCT l.period_start)::int AS logs,
+             count(DISTINCT l.period_start) FILTER (WHERE l.signed_at IS NOT NULL)::int AS signed,
+             count(e.id) FILTER (WHERE e.result = 'fail')::int AS failed
+      FROM scope JOIN areas a ON a.site_id = scope.site_id AND NOT a.archived
+      LEFT JOIN area_logs l ON l.area_id = a.id AND l.cadence = 'daily' AND l.period_start BETWEEN ${scope.from}::date AND ${scope.to}::date
+        AND EXISTS (SELECT 1 FROM area_log_entries x WHERE x.log_id = l.id)
+      LEFT JOIN area_log_entries e ON e.log_id = l.id AND ${isEffectiveRecord('area_log_entries', 'e')}
+      GROUP BY 1 ORDER BY 1`),
+    rowsOf<{ item: string, failed: number }>(db, sql`
+      WITH ${scopeCte(scope)}
+      SELECT coalesce(item.label, e.item_key) AS item, count(*)::int AS failed
+      FROM scope JOIN area_log_entries e ON e.site_id = scope.site_id AND e.at >= scope.t0 AND e.at < scope.t1
+      JOIN area_logs l ON l.id = e.log_id JOIN checklist_templates t ON t.id = l.template_id
+      LEFT JOIN LATERAL (SELECT i->>'label' AS label FROM jsonb_array_elements(t.items) i WHERE i->>'key' = e.item_key LIMIT 1) item ON true
+      WHERE e.result = 'fail' AND ${isEffectiveRecord('area_log_entries', 'e')}
+      GROUP BY 1 ORDER BY 2 DESC, 1`),
+    rowsOf<{ person: string, site: string, dueOn: string }>(db, sql`
+      WITH ${scopeCte(scope)}
+      SELECT o.label AS person, scope.site_name AS site, o.due_on::text AS "dueOn"
+      FROM scope JOIN obligations o ON o.site_id = scope.site_id AND o.kind = 'operator_evaluation'
+      WHERE o.due_on < ${scope.to}::date + 91 ORDER BY o.due_on, o.label`),
+  ])
+}
+
+export async function complianceReport(scope: ReportScope): Promise<ReportResponse> {
+  const [emissions, co, logs, failedItems, evaluations] = await complianceRows(scope)
+  const months = monthsBetween(scope.from, scope.to)
+  const byMonth = new Map(emissions.map(e => [e.month, e]))
+  const monthRows = months.map((m) => {
+    const e = byMonth.get(m)
+    const tests = num(e?.tests)
+    return { month: m, tests, passed: num(e?.passed), passRate: tests ? (num(e?.passed) / tests) * 100 : null, retests: num(e?.retests) }
+  })
+  const tests = monthRows.reduce((t, r) => ({ tests: t.tests + r.tests, passed: t.passed + r.passed }), { tests: 0, passed: 0 })
+  const days = daysInRange(scope.from, scope.to)
+  const logRows = logs.map(l => ({ area: l.area, logs: num(l.logs), completion: (num(l.logs) / days) * 100, signed: num(l.signed), failed: num(l.failed) }))
+  return {
+    kind: 'compliance',
+    title: 'Compliance',
+    from: scope.from,
+    to: scope.to,
+    sites: scope.sites.map(s => ({ id: s.id, name: s.name })),
+    figures: [
+      { label: 'Emissions pass rate', value: tests.tests ? `${Math.round((tests.passed / tests.tests) * 100)} %` : '—', detail: `${tests.tests} tests` },
+      { label: 'Days CO over the site limit', value: String(co.reduce((s, a) => s + num(a.overSite), 0)), detail: `${co.length} areas measured` },
+      { label: 'Failed checklist items', value: String(failedItems.reduce((s, i) => s + num(i.failed), 0)), detail: `${evaluations.length} evaluations due within 90 days` },
+    ],
+    sections: [
+      {
+        key: 'emissions',
+        title: 'Emissions tests by month',
+        note: 'Pass or fail against the site\'s policy as recorded; a retest is a test of a truck whose previous test failed. A corrected test counts once, as corrected.',
+        chartSvg: chartSvg({
+          kind: 'bar', categories: months, unit: 'tests', secondUnit: '%',
+          series: [{ name: 'Tests', data: monthRows.map(r => r.tests) }, { name: 'Pass rate (%)', type: 'line', data: monthRows.map(r => (r.passRate === null ? null : Math.round(r.passRate))) }],
+        }),
+        columns: [{ key: 'month', label: 'Month' }, { key: 'tests', label: 'Tests', decimals: 0 }, { key: 'passed', label: 'Passed', decimals: 0 }, { key: 'passRate', label: 'Pass rate', unit: '%', decimals: 0 }, { key: 'retests', label: 'Retests', decimals: 0 }],
+        rows: monthRows,
+      },
+      {
+        key: 'co',
+        title: 'Indoor CO, 8-hour time-weighted average by area',
+        note: `A day's TWA = Σ(ppm × hours sampled) ÷ 8 h, unsampled time as zero (29 CFR 1910.1000(d)(1)(i)). Limits: the site's own (default ${CO_LIMITS.nioshRel.ppm} ppm, ${CO_LIMITS.nioshRel.source}) and ${CO_LIMITS.oshaPel.ppm} ppm (${CO_LIMITS.oshaPel.source}). An aid: a licensed industrial hygienist's survey decides.`,
+        chartSvg: chartSvg({ kind: 'bar', categories: co.map(a => a.area), unit: 'ppm', series: [{ name: 'Mean daily TWA', data: co.map(a => Math.round(num(a.meanTwa) * 10) / 10) }, { name: 'Highest daily TWA', data: co.map(a => Math.round(num(a.maxTwa) * 10) / 10) }] }),
+        columns: [
+          { key: 'area', label: 'Area' }, { key: 'days', label: 'Days measured', decimals: 0 }, { key: 'meanTwa', label: 'Mean TWA', unit: 'ppm', decimals: 1 },
+          { key: 'maxTwa', label: 'Highest TWA', unit: 'ppm', decimals: 1 }, { key: 'overSite', label: 'Days over site limit', decimals: 0 }, { key: 'overPel', label: `Days over ${CO_LIMITS.oshaPel.ppm} ppm`, decimals: 0 },
+        ],
+        rows: co.map(a => ({ area: a.area, days: num(a.days), meanTwa: numOrNull(a.meanTwa), maxTwa: numOrNull(a.maxTwa), overSite: num(a.overSite), overPel: num(a.overPel) })),
+      },
+      {
+        key: 'logs',
+        title: 'Daily area logs: completion and failed items',
+        note: `Completion = days with a daily log filled in ÷ the ${days} days of the range.`,
+        chartSvg: chartSvg({ kind: 'bar', categories: logRows.map(l => l.area), unit: '%', series: [{ name: 'Completion (%)', data: logRows.map(l => Math.round(l.completion)) }] }),
+        columns: [{ key: 'area', label: 'Area' }, { key: 'logs', label: 'Days logged', decimals: 0 }, { key: 'completion', label: 'Completion', unit: '%', decimals: 0 }, { key: 'signed', label: 'Signed', decimals: 0 }, { key: 'failed', label: 'Failed items', decimals: 0 }],
+        rows: logRows,
+      },
+      {
+        key: 'failed-items',
+        title: 'Failed checklist items',
+        chartSvg: null,
+        columns: [{ key: 'item', label: 'Item' }, { key: 'failed', label: 'Times failed', decimals: 0 }],
+        rows: failedItems.map(i => ({ item: i.item, failed: num(i.failed) })),
+      },
+      {
+        key: 'evaluations',
+        title: 'Operator evaluations due within 90 days of the range\'s end',
+        note: 'At least once every three years (29 CFR 1910.178(l)(4)(iii)); from the due list.',
+        chartSvg: null,
+        columns: [{ key: 'person', label: 'Operator' }, { key: 'site', label: 'Site' }, { key: 'dueOn', label: 'Due' }],
+        rows: evaluations,
+      },
+    ],
+    caveats: [],
+  }
+}

@@ -1,0 +1,109 @@
+import type { ReportResponse } from '#shared/types/reports'
+import { daysInRange } from '#shared/utils/area-checklists'
+import { hoursOnChargePerDay, monthsBetween } from '#shared/utils/report-math'
+import { isEffectiveRecord, rowsOf } from '../due/effective'
+import { chartSvg } from './chart'
+import { money, num, scopeCte, type ReportScope } from './scope'
+
+export const KWH_CONVENTION = 'kWh drawn from the grid = Ah returned × the battery\'s nominal volts ÷ 1,000 ÷ the charger\'s efficiency, worked out when the charge ended (shared/utils/charging.ts); cost = that kWh × the site\'s tariff then. A charge counts in the month it started; a corrected charge counts once, as corrected.'
+
+interface ChargeGroup { key: string, label: string, area: string | null, charges: number, kwh: number, cost: number, hours: number }
+
+// Closed, standing charge sessions in the range, grouped by month, by charging area and by charger: one
+// statement over charge_sessions' (site_id, at) index; the month is the site's own.
+async function chargeGroups(scope: ReportScope) {
+  const rows = await rowsOf<{ grouping: string, key: string, label: string, area: string | null, charges: number, kwh: number, cost: number, hours: number }>(useDb(), sql`
+    WITH ${scopeCte(scope)},
+    charges AS (
+      SELECT c.charger_id, to_char(c.at AT TIME ZONE scope.tz, 'YYYY-MM') AS month, c.grid_kwh, c.energy_cost,
+             EXTRACT(EPOCH FROM (LEAST(c.ended_at, scope.t1) - c.at)) / 3600 AS hours
+      FROM scope JOIN charge_sessions c ON c.site_id = scope.site_id AND c.at >= scope.t0 AND c.at < scope.t1
+      WHERE c.ended_at IS NOT NULL AND ${isEffectiveRecord('charge_sessions', 'c')}
+    ),
+    by_charger AS (
+      SELECT charger_id, count(*)::int AS charges, coalesce(sum(grid_kwh), 0)::float8 AS kwh,
+             coalesce(sum(energy_cost), 0)::float8 AS cost, coalesce(sum(hours), 0)::float8 AS hours
+      FROM charges GROUP BY charger_id
+    )
+    SELECT 'month' AS grouping, month AS key, month AS label, NULL AS area, count(*)::int AS charges,
+           coalesce(sum(grid_kwh), 0)::float8 AS kwh, coalesce(sum(energy_cost), 0)::float8 AS cost, coalesce(sum(hours), 0)::float8 AS hours
+    FROM charges GROUP BY month
+    UNION ALL
+    SELECT 'charger', ch.id::text, ch.name || CASE WHEN ${scope.siteIds.length > 1} THEN ' · ' || st.name ELSE '' END, a.name, b.charges, b.kwh, b.cost, b.hours
+    FROM by_charger b JOIN chargers ch ON ch.id = b.charger_id JOIN areas a ON a.id = ch.area_id JOIN sites st ON st.id = ch.site_id
+    ORDER BY 1, 3`)
+  const typed = rows.map(r => ({ ...r, charges: num(r.charges), kwh: num(r.kwh), cost: num(r.cost), hours: num(r.hours) }))
+  const months = typed.filter(r => r.grouping === 'month') as ChargeGroup[]
+  const chargers = typed.filter(r => r.grouping === 'charger') as ChargeGroup[]
+  const areas = new Map<string, ChargeGroup>()
+  for (const c of chargers) {
+    const area = areas.get(c.area ?? '') ?? { key: c.area ?? '', label: c.area ?? '', area: c.area, charges: 0, kwh: 0, cost: 0, hours: 0 }
+    area.charges += c.charges
+    area.kwh += c.kwh
+    area.cost += c.cost
+    area.hours += c.hours
+    areas.set(area.key, area)
+  }
+  return { months, chargers, areas: [...areas.values()].sort((a, b) => b.kwh - a.kwh) }
+}
+
+export async function energyReport(scope: ReportScope): Promise<ReportResponse> {
+  const { months, chargers, areas } = await chargeGroups(scope)
+  const byMonth = new Map(months.map(m => [m.key, m]))
+  const monthList = monthsBetween(scope.from, scope.to)
+  const monthRows = monthList.map((m) => {
+    const g = byMonth.get(m)
+    return { month: m, charges: g?.charges ?? 0, kwh: g?.kwh ?? 0, cost: g?.cost ?? 0, kwhPerCharge: g && g.charges ? g.kwh / g.charges : null }
+  })
+  const days = daysInRange(scope.from, scope.to)
+  const total = monthRows.reduce((t, r) => ({ kwh: t.kwh + r.kwh, cost: t.cost + r.cost, charges: t.charges + r.charges }), { kwh: 0, cost: 0, charges: 0 })
+  const cur = scope.currency
+  return {
+    kind: 'energy',
+    title: 'Energy and cost',
+    from: scope.from,
+    to: scope.to,
+    sites: scope.sites.map(s => ({ id: s.id, name: s.name })),
+    figures: [
+      { label: 'Energy drawn', value: `${Math.round(total.kwh).toLocaleString('en-US')} kWh`, detail: `${total.charges} charges` },
+      { label: 'Energy cost', value: money(total.cost, cur), detail: total.kwh > 0 ? `${money(total.cost / total.kwh, cur)} per kWh` : undefined },
+      { label: 'Mean per month', value: `${Math.round(total.kwh / Math.max(monthList.length, 1)).toLocaleString('en-US')} kWh`, detail: `over ${monthList.length} months` },
+    ],
+    sections: [
+      {
+        key: 'month',
+        title: 'By month',
+        note: KWH_CONVENTION,
+        chartSvg: chartSvg({
+          kind: 'bar', categories: monthList, unit: 'kWh', secondUnit: cur || 'cost',
+          series: [{ name: 'kWh', data: monthRows.map(r => Math.round(r.kwh)) }, { name: `Cost${cur ? ` (${cur})` : ''}`, type: 'line', data: monthRows.map(r => Math.round(r.cost * 100) / 100) }],
+        }),
+        columns: [
+          { key: 'month', label: 'Month' }, { key: 'charges', label: 'Charges', decimals: 0 }, { key: 'kwh', label: 'Energy', unit: 'kWh', decimals: 0 },
+          { key: 'cost', label: 'Cost', unit: cur, decimals: 2 }, { key: 'kwhPerCharge', label: 'Per charge', unit: 'kWh', decimals: 1 },
+        ],
+        rows: monthRows,
+      },
+      {
+        key: 'area',
+        title: 'By charging area',
+        chartSvg: chartSvg({ kind: 'bar', categories: areas.map(a => a.label), unit: 'kWh', series: [{ name: 'kWh', data: areas.map(a => Math.round(a.kwh)) }] }),
+        columns: [{ key: 'area', label: 'Charging area' }, { key: 'charges', label: 'Charges', decimals: 0 }, { key: 'kwh', label: 'Energy', unit: 'kWh', decimals: 0 }, { key: 'cost', label: 'Cost', unit: cur, decimals: 2 }],
+        rows: areas.map(a => ({ area: a.label, charges: a.charges, kwh: a.kwh, cost: a.cost })),
+      },
+      {
+        key: 'charger',
+        title: 'By charger, with hours on charge per day',
+        note: `Hours on charge per day = the hours between putting on and taking off, ÷ the ${days} days of the range (24 would be a charger never idle).`,
+        chartSvg: chartSvg({ kind: 'bar', categories: chargers.map(c => c.label), unit: 'h/day', series: [{ name: 'Hours on charge per day', data: chargers.map(c => Math.round(hoursOnChargePerDay(c.hours, days) * 10) / 10) }] }),
+        columns: [
+          { key: 'charger', label: 'Charger' }, { key: 'area', label: 'Area' }, { key: 'charges', label: 'Charges', decimals: 0 },
+          { key: 'kwh', label: 'Energy', unit: 'kWh', decimals: 0 }, { key: 'cost', label: 'Cost', unit: cur, decimals: 2 },
+          { key: 'hoursPerDay', label: 'On charge', unit: 'h/day', decimals: 1 },
+        ],
+        rows: chargers.map(c => ({ charger: c.label, area: c.area, charges: c.charges, kwh: c.kwh, cost: c.cost, hoursPerDay: hoursOnChargePerDay(c.hours, days) })),
+      },
+    ],
+    caveats: ['Time-of-use tariffs are not modelled yet: every kWh is costed at the site\'s single tariff, so no peak share or off-peak saving is shown.'],
+  }
+}

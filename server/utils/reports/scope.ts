@@ -1,0 +1,81 @@
+import type { H3Event } from 'h3'
+import type { SQL } from 'drizzle-orm'
+import type { ReportCell, ReportResponse } from '#shared/types/reports'
+import type { Ability } from '#shared/utils/abilities'
+import { refusalFor } from '#shared/utils/abilities'
+import { reportQuerySchema, type ReportQuery } from '#shared/utils/report-schemas'
+import { parseSiteSettings, type SiteSettings } from '#shared/utils/site-settings'
+import type { UnitSystem } from '#shared/utils/units'
+import { rowsOf, uuidArray } from '../due/effective'
+
+export interface ReportSite { id: string, name: string, timeZone: string, unitSystem: UnitSystem, settings: SiteSettings }
+
+/** What a report is asked for: the sites (only those where the person holds the ability), the range. */
+export interface ReportScope {
+  sites: ReportSite[]
+  siteIds: string[]
+  from: string
+  to: string
+  /** the sites' shared unit system; US customary when they differ */
+  units: UnitSystem
+  /** the sites' shared currency; blank when they differ */
+  currency: string
+}
+
+// ?siteId=<one site> checks the ability there (404 outside the person's sites, 403 without the role);
+// ?siteId=all takes every site of the person's where they hold it, and is refused when there is none.
+export async function reportScope(event: H3Event, ability: Ability, query: ReportQuery): Promise<ReportScope> {
+  let siteIds: string[]
+  if (query.siteId === 'all') {
+    const actor = await requireActor(event)
+    siteIds = sitesWhere(actor, ability)
+    if (siteIds.length === 0) throw createError({ statusCode: 403, message: refusalFor(ability).replace('at this site', 'at one of your sites') })
+  }
+  else {
+    await requireAbility(event, ability, query.siteId)
+    siteIds = [query.siteId]
+  }
+  const rows = await rowsOf<{ id: string, name: string, timeZone: string, unitSystem: UnitSystem, settings: unknown }>(useDb(), sql`
+    SELECT id, name, time_zone AS "timeZone", unit_system AS "unitSystem", settings FROM sites WHERE id = ANY(${uuidArray(siteIds)}) ORDER BY name`)
+  const sites = rows.map(r => ({ ...r, settings: parseSiteSettings(r.settings) }))
+  const units = sites.every(s => s.unitSystem === 'metric') ? 'metric' : 'us'
+  const currencies = new Set(sites.map(s => s.settings.currency))
+  return { sites, siteIds: sites.map(s => s.id), from: query.from, to: query.to, units, currency: currencies.size === 1 ? [...currencies][0]! : '' }
+}
+
+// `scope` as a CTE: each site with the range's start and end as instants in the site's own time zone, so a
+// record is counted in the site's day and month, and each event table is read through its (site_id, at) index.
+export function scopeCte(scope: ReportScope): SQL {
+  return sql`scope AS (
+    SELECT s.id AS site_id, s.name AS site_name, s.time_zone AS tz,
+           (${scope.from}::date)::timestamp AT TIME ZONE s.time_zone AS t0,
+           (${scope.to}::date + 1)::timestamp AT TIME ZONE s.time_zone AS t1
+    FROM sites s WHERE s.id = ANY(${uuidArray(scope.siteIds)}))`
+}
+
+/** Money with the sites' currency code ("1,234.50 USD"), or the bare number across currencies. */
+export function money(value: number, currency: string): string {
+  const n = value.toLocaleString('en-US', { minimumFractionDigits: 2, maximumFractionDigits: 2 })
+  return currency ? `${n} ${currency}` : n
+}
+
+export const num = (v: unknown): number => (v === null || v === undefined ? 0 : Number(v))
+export const numOrNull = (v: unknown): number | null => (v === null || v === undefined ? null : Number(v))
+
+/** A section's table as CSV (the first section unless `section` names another); 404 for an unknown one. */
+export function reportCsv(event: H3Event, report: ReportResponse, section?: string) {
+  const picked = section ? report.sections.find(s => s.key === section) : report.sections[0]
+  if (!picked) throw createError({ statusCode: 404, message: `This report has no section "${section}".` })
+  const fields = picked.columns.map(c => (c.unit ? `${c.label} (${c.unit})` : c.label))
+  const rows = picked.rows.map(r => picked.columns.map((c): ReportCell => r[c.key] ?? ''))
+  const sitePart = report.sites.length === 1 ? report.sites[0]!.name.toLowerCase().replace(/[^a-z0-9]+/g, '-') : 'all-sites'
+  return sendCsv(event, `${report.kind}-${picked.key}-${sitePart}-${report.from}-${report.to}.csv`, csvText(fields, rows))
+}
+
+// Every report route: the query, the scope (and with it the ability check), the report, JSON or CSV.
+export async function serveReport(event: H3Event, ability: Ability, build: (scope: ReportScope) => Promise<ReportResponse>) {
+  const query = validateQuery(event, reportQuerySchema)
+  const scope = await reportScope(event, ability, query)
+  const report = await build(scope)
+  return query.format === 'csv' ? reportCsv(event, report, query.section) : report
+}

@@ -1,0 +1,50 @@
+// What every report route answers (server/utils/reports/, /api/reports/<kind>): a few headline figures,
+// then sections, each a chart (an SVG drawn on the server, or none) over the table it was drawn from.
+
+export const REPORT_KINDS = ['energy', 'battery-health', 'replacement', 'shortfall', 'propane', 'compliance'] as const
+export type ReportKind = typeof REPORT_KINDS[number]
+
+export type ReportCell = string | number | null
+
+export interface ReportColumn {
+  key: string
+  label: string
+  /** shown after numbers in the table head ("kWh", "$", "%") */
+  unit?: string
+  /** numbers are right-aligned and rounded to this many decimals */
+  decimals?: number
+}
+
+export interface ReportSection {
+  key: string
+  title: string
+  /** how a figure is worked out, shown beside it (a convention, a constant and its source) */
+  note?: string
+  chartSvg: string | null
+  columns: ReportColumn[]
+  rows: Record<string, ReportCell>[]
+}
+
+export interface ReportFigure {
+  label: string
+  value: string
+  /** the comparison or the context, in words ("+12 % on last month") */
+  detail?: string
+}
+
+export interface ReportResponse {
+  kind: ReportKind
+  title: string
+  from: string
+  to: string
+  sites: { id: string, name: string }[]
+  figures: ReportFigure[]
+  sections: ReportSection[]
+  /** what the report leaves out, said once */
+  caveats: string[]
+}
+
+export interface FacilitiesSummary {
+  month: string
+  figures: (ReportFigure & { to: string })[]
+}

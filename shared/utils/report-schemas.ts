@@ -1,0 +1,32 @@
+import { z } from 'zod'
+import { isoDateSchema } from './iso-date'
+import { daysInRange } from './area-checklists'
+
+/** The longest range one report covers (days): three years of monthly figures. */
+export const REPORT_MAX_DAYS = 3 * 366
+
+/** Today and a year back, as YYYY-MM-DD (the range a report opens on). */
+export function defaultReportRange(today: Date = new Date()): { from: string, to: string } {
+  const to = today.toISOString().slice(0, 10)
+  const back = new Date(today)
+  back.setUTCFullYear(back.getUTCFullYear() - 1)
+  back.setUTCDate(back.getUTCDate() + 1)
+  return { from: back.toISOString().slice(0, 10), to }
+}
+
+// ?siteId=<uuid>|all&from=YYYY-MM-DD&to=YYYY-MM-DD&format=json|csv&section=<key>
+export const reportQuerySchema = z.object({
+  siteId: z.union([z.literal('all'), z.uuid()], 'Pick a site, or "all" for all of yours.'),
+  from: isoDateSchema.optional(),
+  to: isoDateSchema.optional(),
+  format: z.enum(['json', 'csv'], 'Use format=json or format=csv.').default('json'),
+  section: z.string().regex(/^[a-z][a-z-]{0,40}$/, 'Not a section of this report.').optional(),
+}).transform((q, ctx) => {
+  const range = defaultReportRange()
+  const from = q.from ?? (q.to ? defaultReportRange(new Date(`${q.to}T00:00:00Z`)).from : range.from)
+  const to = q.to ?? range.to
+  if (from > to) ctx.addIssue({ code: 'custom', path: ['from'], message: 'The start date is after the end date.' })
+  else if (daysInRange(from, to) > REPORT_MAX_DAYS) ctx.addIssue({ code: 'custom', path: ['to'], message: 'A report covers at most three years.' })
+  return { ...q, from, to }
+})
+export type ReportQuery = z.output<typeof reportQuerySchema>

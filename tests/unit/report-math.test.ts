@@ -1,0 +1,74 @@
+import { describe, expect, it } from 'vitest'
+import dayjs from 'dayjs'
+import utc from 'dayjs/plugin/utc'
+import quarterOfYear from 'dayjs/plugin/quarterOfYear'
+import {
+  batteryRisk, changeWords, cyclesPerDay, hoursOnChargePerDay, monthsBetween, nextQuarters, percentChange, quarterOf,
+  ratedCyclesReachedOn, sameDaysLastMonth,
+} from '../../shared/utils/report-math'
+import { defaultReportRange, reportQuerySchema } from '../../shared/utils/report-schemas'
+import { daysInRange } from '../../shared/utils/area-checklists'
+
+dayjs.extend(utc)
+dayjs.extend(quarterOfYear)
+
+// Dates are checked against dayjs (a general-purpose date library), the rest by arithmetic written beside it.
+describe('report arithmetic', () => {
+  it('hours on charge per day: 11 h over the 31 days of March = 0.3548', () => {
+    expect(hoursOnChargePerDay(11, 31)).toBeCloseTo(0.354839, 6)
+    expect(hoursOnChargePerDay(5, 0)).toBe(0)
+  })
+
+  it('change on last month: (120 − 100) ÷ 100 = +20 %; nothing before gives no percentage', () => {
+    expect(percentChange(120, 100)).toBeCloseTo(20, 9)
+    expect(percentChange(5, 0)).toBeNull()
+    expect(changeWords(120, 100)).toBe('+20 % on last month')
+    expect(changeWords(96, 100)).toBe('−4 % on last month')
+    expect(changeWords(100, 100)).toBe('±0 % on last month')
+    expect(changeWords(3, 0)).toBe('nothing recorded last month')
+  })
+
+  it('the day rated cycles are reached: 97 cycles left at 3 per 90 days = 2,910 days on', () => {
+    const perDay = cyclesPerDay(3, 90)
+    expect(perDay).toBeCloseTo(0.033333, 6)
+    expect(ratedCyclesReachedOn('2026-03-31', 3, 100, perDay)).toBe(dayjs.utc('2026-03-31').add(2910, 'day').format('YYYY-MM-DD'))
+    // 1,500 − 1,400 = 100 cycles at 5 a week (5/7 a day) = 140 days
+    expect(ratedCyclesReachedOn('2026-01-01', 1400, 1500, 5 / 7)).toBe(dayjs.utc('2026-01-01').add(140, 'day').format('YYYY-MM-DD'))
+    expect(ratedCyclesReachedOn('2026-01-01', 1600, 1500, 0)).toBe('2026-01-01')
+    expect(ratedCyclesReachedOn('2026-01-01', 10, 1500, 0)).toBeNull()
+  })
+
+  it('quarters agree with dayjs\'s quarterOfYear', () => {
+    for (const d of ['2026-01-01', '2026-03-31', '2026-04-01', '2026-09-30', '2026-12-31']) {
+      const q = dayjs.utc(d)
+      expect(quarterOf(d)).toBe(`${q.year()} Q${q.quarter()}`)
+    }
+    expect(nextQuarters('2026-11-15', 4)).toEqual(['2026 Q4', '2027 Q1', '2027 Q2', '2027 Q3'])
+  })
+
+  it('months of a range, and the same days of last month', () => {
+    expect(monthsBetween('2025-11-20', '2026-02-03')).toEqual(['2025-11', '2025-12', '2026-01', '2026-02'])
+    expect(monthsBetween('2026-03-01', '2026-03-31')).toEqual(['2026-03'])
+    expect(sameDaysLastMonth('2026-03-31')).toEqual({ from: '2026-02-01', to: '2026-02-28' })
+    expect(sameDaysLastMonth('2026-01-12')).toEqual({ from: '2025-12-01', to: '2025-12-12' })
+    expect(daysInRange('2026-03-01', '2026-03-31')).toBe(dayjs.utc('2026-03-31').diff(dayjs.utc('2026-03-01'), 'day') + 1)
+  })
+
+  it('risk orders the fleet: 1,200 of 1,500 cycles (48) + a weak cell (20) + spread 0.025 (5) + Ah per charge down 10 % (5) = 78', () => {
+    expect(batteryRisk({ cycles: 1200, ratedCycles: 1500, weakCell: true, lastSpread: 0.025, capacityRatio: 0.9 })).toBe(78)
+    expect(batteryRisk({ cycles: 0, ratedCycles: 1500, weakCell: false, lastSpread: null, capacityRatio: null })).toBe(0)
+    expect(batteryRisk({ cycles: 3000, ratedCycles: 1500, weakCell: true, lastSpread: 0.2, capacityRatio: 0.5 })).toBe(100)
+  })
+})
+
+describe('report query', () => {
+  it('defaults to the year to today, and refuses a backwards or too long range', () => {
+    const range = defaultReportRange(new Date('2026-12-02T10:00:00Z'))
+    expect(range).toEqual({ from: '2025-12-03', to: '2026-12-02' })
+    expect(reportQuerySchema.safeParse({ siteId: 'all', from: '2026-04-01', to: '2026-03-01' }).success).toBe(false)
+    expect(reportQuerySchema.safeParse({ siteId: 'all', from: '2020-01-01', to: '2026-01-01' }).success).toBe(false)
+    expect(reportQuerySchema.safeParse({ siteId: 'somewhere' }).success).toBe(false)
+    const ok = reportQuerySchema.parse({ siteId: 'all', to: '2026-03-31' })
+    expect(ok).toMatchObject({ from: '2025-04-01', to: '2026-03-31', format: 'json' })
+  })
+})
