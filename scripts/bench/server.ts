@@ -1,4 +1,4 @@
-import { spawn, type ChildProcess } from 'node:child_process'
+import { execFileSync, spawn, type ChildProcess } from 'node:child_process'
 import { mkdirSync, readFileSync, writeFileSync } from 'node:fs'
 import { createServer } from 'node:net'
 import { BENCH } from './shape'
@@ -25,6 +25,8 @@ export interface BenchServer {
 
 export async function startServer(root: string, outputDir: string, dbUrl: string, env: Record<string, string>): Promise<BenchServer> {
   mkdirSync(`${root}.data/bench`, { recursive: true })
+  // the data set may have been made before the latest migrations: bring its schema up first, as `npm start` does
+  execFileSync(process.execPath, [`${root}scripts/migrate.mjs`], { cwd: root, env: { ...process.env, NUXT_DATABASE_URL: dbUrl }, stdio: 'ignore' })
   const port = await freePort()
   const base = `http://127.0.0.1:${port}`
   // BAYWARD_BENCH_NODE_ARGS="--cpu-prof --cpu-prof-dir=/tmp/prof" profiles the server during the run
