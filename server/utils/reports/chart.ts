@@ -4,6 +4,9 @@ import * as echarts from 'echarts'
 // string and ships no chart code, the Scan page's bundle is untouched, and the nonce CSP needs nothing new
 // (the SVG carries no script; its inline style attributes are allowed by style-src 'unsafe-inline').
 // Series take the brand violet and slates; the Z535 safety colours are kept for hazards and states.
+/** How many chargers, trucks or areas a chart of many draws. */
+export const CHART_TOP = 20
+
 export const SERIES_COLOURS = ['#723d9a', '#64748b', '#a574cd', '#334155', '#c3a2e0', '#94a3b8'] as const
 
 export interface ChartSeries {
@@ -21,14 +24,18 @@ export interface ChartSpec {
   unit: string
   secondUnit?: string
   stacked?: boolean
+  /** a chart of many things (chargers, trucks, areas) shows the `top` highest by the first series; the table lists all */
+  top?: number
   width?: number
   height?: number
 }
 
 // 480 × 300 with 14 px text: on a 390 px phone it is drawn at about 0.75 scale (text ≈ 10.5 px); the page
 // sets width: 100 % up to 720 px, so on a desktop it grows to 1.5 ×.
-export function chartSvg(spec: ChartSpec): string | null {
-  if (spec.categories.length === 0 || spec.series.every(s => s.data.every(v => v === null || v === 0))) return null
+export function chartSvg(full: ChartSpec): string | null {
+  if (full.categories.length === 0 || full.series.every(s => s.data.every(v => v === null || v === 0))) return null
+  const spec = highest(full)
+  const cut = spec.categories.length < full.categories.length
   const width = spec.width ?? 480
   const height = spec.height ?? 300
   const chart = echarts.init(null, null, { renderer: 'svg', ssr: true, width, height })
@@ -40,7 +47,8 @@ export function chartSvg(spec: ChartSpec): string | null {
     color: [...SERIES_COLOURS],
     textStyle: { fontFamily: 'Roboto Flex, system-ui, sans-serif', fontSize: 14, color: '#334155' },
     // a legend of more than three series wraps to a second line on a phone's width
-    grid: { left: 8, right: 8, top: spec.series.length > 3 ? 80 : 48, bottom: 8, containLabel: true },
+    title: cut ? { text: `The ${spec.categories.length} highest of ${full.categories.length.toLocaleString('en-US')}; the table lists all`, left: 'right', top: 0, textStyle: { fontSize: 12, fontWeight: 'normal', color: '#64748b' } } : undefined,
+    grid: { left: 8, right: 8, top: spec.series.length > 3 ? 80 : cut && spec.series.length > 1 ? 64 : 48, bottom: 8, containLabel: true },
     legend: { show: spec.series.length > 1, top: 0, textStyle: { fontSize: 13 } },
     xAxis: { type: 'category', data: spec.categories, axisLabel: { hideOverlap: true, rotate: spec.categories.length > 6 ? 45 : 0, fontSize: 13 } },
     yAxis: [
@@ -61,4 +69,12 @@ export function chartSvg(spec: ChartSpec): string | null {
   const svg = chart.renderToSVGString()
   chart.dispose()
   return svg
+}
+
+/** The spec cut to its `top` categories by the first series, highest first (drawing thousands of bars is slow and unreadable). */
+export function highest(spec: ChartSpec): ChartSpec {
+  if (!spec.top || spec.categories.length <= spec.top) return spec
+  const first = spec.series[0]!.data
+  const keep = spec.categories.map((_, i) => i).sort((a, b) => (first[b] ?? -Infinity) - (first[a] ?? -Infinity)).slice(0, spec.top)
+  return { ...spec, categories: keep.map(i => spec.categories[i]!), series: spec.series.map(s => ({ ...s, data: keep.map(i => s.data[i] ?? null) })) }
 }

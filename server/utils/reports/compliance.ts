@@ -3,7 +3,7 @@ import type { ReportResponse } from '#shared/types/reports'
 import { CO_LIMITS } from '#shared/utils/co-exposure'
 import { daysInRange } from '#shared/utils/area-checklists'
 import { isEffectiveRecord, rowsOf } from '../due/effective'
-import { chartSvg } from './chart'
+import { CHART_TOP, chartSvg } from './chart'
 import { num, numOrNull, scopeCte, type ReportScope } from './scope'
 
 const siteSuffix = (scope: ReportScope) => sql`CASE WHEN ${scope.siteIds.length > 1} THEN ' · ' || scope.site_name ELSE '' END`
@@ -104,7 +104,7 @@ export async function complianceReport(scope: ReportScope): Promise<ReportRespon
         key: 'co',
         title: 'Indoor CO, 8-hour time-weighted average by area',
         note: `A day's TWA = Σ(ppm × hours sampled) ÷ 8 h, unsampled time as zero (29 CFR 1910.1000(d)(1)(i)). Limits: the site's own (default ${CO_LIMITS.nioshRel.ppm} ppm, ${CO_LIMITS.nioshRel.source}) and ${CO_LIMITS.oshaPel.ppm} ppm (${CO_LIMITS.oshaPel.source}). An aid: a licensed industrial hygienist's survey decides.`,
-        chartSvg: chartSvg({ kind: 'bar', categories: co.map(a => a.area), unit: 'ppm', series: [{ name: 'Mean daily TWA', data: co.map(a => Math.round(num(a.meanTwa) * 10) / 10) }, { name: 'Highest daily TWA', data: co.map(a => Math.round(num(a.maxTwa) * 10) / 10) }] }),
+        chartSvg: chartSvg({ kind: 'bar', top: CHART_TOP, categories: co.map(a => a.area), unit: 'ppm', series: [{ name: 'Mean daily TWA', data: co.map(a => Math.round(num(a.meanTwa) * 10) / 10) }, { name: 'Highest daily TWA', data: co.map(a => Math.round(num(a.maxTwa) * 10) / 10) }] }),
         columns: [
           { key: 'area', label: 'Area' }, { key: 'days', label: 'Days measured', decimals: 0 }, { key: 'meanTwa', label: 'Mean TWA', unit: 'ppm', decimals: 1 },
           { key: 'maxTwa', label: 'Highest TWA', unit: 'ppm', decimals: 1 }, { key: 'overSite', label: 'Days over site limit', decimals: 0 }, { key: 'overPel', label: `Days over ${CO_LIMITS.oshaPel.ppm} ppm`, decimals: 0 },
@@ -115,7 +115,7 @@ export async function complianceReport(scope: ReportScope): Promise<ReportRespon
         key: 'logs',
         title: 'Daily area logs: completion and failed items',
         note: `Completion = days with a daily log filled in ÷ the ${days} days of the range.`,
-        chartSvg: chartSvg({ kind: 'bar', categories: logRows.map(l => l.area), unit: '%', series: [{ name: 'Completion (%)', data: logRows.map(l => Math.round(l.completion)) }] }),
+        chartSvg: chartSvg({ kind: 'bar', top: CHART_TOP, categories: logRows.map(l => l.area), unit: '%', series: [{ name: 'Completion (%)', data: logRows.map(l => Math.round(l.completion)) }] }),
         columns: [{ key: 'area', label: 'Area' }, { key: 'logs', label: 'Days logged', decimals: 0 }, { key: 'completion', label: 'Completion', unit: '%', decimals: 0 }, { key: 'signed', label: 'Signed', decimals: 0 }, { key: 'failed', label: 'Failed items', decimals: 0 }],
         rows: logRows,
       },

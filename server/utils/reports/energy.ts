@@ -2,7 +2,7 @@ import type { ReportResponse } from '#shared/types/reports'
 import { daysInRange } from '#shared/utils/area-checklists'
 import { hoursOnChargePerDay, monthsBetween } from '#shared/utils/report-math'
 import { isEffectiveRecord, rowsOf } from '../due/effective'
-import { chartSvg } from './chart'
+import { CHART_TOP, chartSvg } from './chart'
 import { money, num, scopeCte, type ReportScope } from './scope'
 
 export const KWH_CONVENTION = 'kWh drawn from the grid = Ah returned × the battery\'s nominal volts ÷ 1,000 ÷ the charger\'s efficiency, worked out when the charge ended (shared/utils/charging.ts); cost = that kWh × the site\'s tariff then. A charge counts in the month it started; a corrected charge counts once, as corrected.'
@@ -87,7 +87,7 @@ export async function energyReport(scope: ReportScope): Promise<ReportResponse> 
       {
         key: 'area',
         title: 'By charging area',
-        chartSvg: chartSvg({ kind: 'bar', categories: areas.map(a => a.label), unit: 'kWh', series: [{ name: 'kWh', data: areas.map(a => Math.round(a.kwh)) }] }),
+        chartSvg: chartSvg({ kind: 'bar', top: CHART_TOP, categories: areas.map(a => a.label), unit: 'kWh', series: [{ name: 'kWh', data: areas.map(a => Math.round(a.kwh)) }] }),
         columns: [{ key: 'area', label: 'Charging area' }, { key: 'charges', label: 'Charges', decimals: 0 }, { key: 'kwh', label: 'Energy', unit: 'kWh', decimals: 0 }, { key: 'cost', label: 'Cost', unit: cur, decimals: 2 }],
         rows: areas.map(a => ({ area: a.label, charges: a.charges, kwh: a.kwh, cost: a.cost })),
       },
@@ -95,7 +95,7 @@ export async function energyReport(scope: ReportScope): Promise<ReportResponse> 
         key: 'charger',
         title: 'By charger, with hours on charge per day',
         note: `Hours on charge per day = the hours between putting on and taking off, ÷ the ${days} days of the range (24 would be a charger never idle).`,
-        chartSvg: chartSvg({ kind: 'bar', categories: chargers.map(c => c.label), unit: 'h/day', series: [{ name: 'Hours on charge per day', data: chargers.map(c => Math.round(hoursOnChargePerDay(c.hours, days) * 10) / 10) }] }),
+        chartSvg: chartSvg({ kind: 'bar', top: CHART_TOP, categories: chargers.map(c => c.label), unit: 'h/day', series: [{ name: 'Hours on charge per day', data: chargers.map(c => Math.round(hoursOnChargePerDay(c.hours, days) * 10) / 10) }] }),
         columns: [
           { key: 'charger', label: 'Charger' }, { key: 'area', label: 'Area' }, { key: 'charges', label: 'Charges', decimals: 0 },
           { key: 'kwh', label: 'Energy', unit: 'kWh', decimals: 0 }, { key: 'cost', label: 'Cost', unit: cur, decimals: 2 },

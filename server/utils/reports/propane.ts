@@ -3,7 +3,7 @@ import type { ReportResponse } from '#shared/types/reports'
 import { PROPANE_LB_PER_GAL_60F } from '#shared/utils/lp-gas'
 import { KG_PER_LB, LITRES_PER_US_GAL } from '#shared/utils/units'
 import { isEffectiveRecord, rowsOf } from '../due/effective'
-import { chartSvg } from './chart'
+import { CHART_TOP, chartSvg } from './chart'
 import { money, num, scopeCte, type ReportScope } from './scope'
 
 // Standing refills in the range by month (net pounds, gallons at 60 °F as recorded, cost at the site's
@@ -95,7 +95,7 @@ export async function propaneReport(scope: ReportScope): Promise<ReportResponse>
         key: 'truck',
         title: 'By truck',
         note: 'Each cylinder change onto a truck counts the net weight of that cylinder\'s last refill before the change.',
-        chartSvg: chartSvg({ kind: 'bar', categories: trucks.map(t => t.truck), unit: m, series: [{ name: `Propane (${m})`, data: trucks.map(t => Math.round(mass(num(t.lb)))) }] }),
+        chartSvg: chartSvg({ kind: 'bar', top: CHART_TOP, categories: trucks.map(t => t.truck), unit: m, series: [{ name: `Propane (${m})`, data: trucks.map(t => Math.round(mass(num(t.lb)))) }] }),
         columns: [{ key: 'truck', label: 'Truck' }, { key: 'changes', label: 'Cylinder changes', decimals: 0 }, { key: 'mass', label: 'Propane', unit: m, decimals: 0 }, { key: 'cost', label: 'Cost', unit: cur, decimals: 2 }],
         rows: trucks.map(t => ({ truck: t.truck, changes: num(t.changes), mass: mass(num(t.lb)), cost: num(t.cost) })),
       },

@@ -1,6 +1,6 @@
 import type { ReportResponse } from '#shared/types/reports'
 import { isEffectiveRecord, rowsOf } from '../due/effective'
-import { chartSvg } from './chart'
+import { CHART_TOP, chartSvg } from './chart'
 import { num, scopeCte, type ReportScope } from './scope'
 
 // A swap that went ahead over a "still cooling" or "not charged" refusal: a truck needed a battery and no
@@ -74,7 +74,7 @@ export async function shortfallReport(scope: ReportScope): Promise<ReportRespons
       {
         key: 'area',
         title: 'By charging area (the home area of the battery taken)',
-        chartSvg: chartSvg({ kind: 'bar', categories: areas.map(a => a.area), unit: 'swaps', series: [{ name: 'Short of a ready battery', data: areas.map(a => a.shortfalls) }] }),
+        chartSvg: chartSvg({ kind: 'bar', top: CHART_TOP, categories: areas.map(a => a.area), unit: 'swaps', series: [{ name: 'Short of a ready battery', data: areas.map(a => a.shortfalls) }] }),
         columns: [{ key: 'area', label: 'Area' }, { key: 'swaps', label: 'Swaps', decimals: 0 }, { key: 'shortfalls', label: 'Short', decimals: 0 }, { key: 'share', label: 'Share', unit: '%', decimals: 0 }],
         rows: areas,
       },
