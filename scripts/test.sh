@@ -14,6 +14,8 @@ SMTP_FAKE_PID=$!
 trap 'kill "$SMTP_FAKE_PID" 2>/dev/null || true' EXIT
 
 echo "› lint";       npx eslint .
-echo "› typecheck";  npx nuxt typecheck && npx tsc -p service-worker
+# two commands, not an && list: under set -e a failure left of && would not stop the run
+echo "› typecheck";  npx nuxt typecheck
+npx tsc -p service-worker
 echo "› build";      npx nuxt build > .data/build.log 2>&1 || { tail -40 .data/build.log; exit 1; }
 echo "› tests";      npx vitest run "$@"

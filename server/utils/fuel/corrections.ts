@@ -132,7 +132,7 @@ export async function correctEmissionsTest(actor: Actor, input: WithId<Emissions
       },
       after: async () => {
         if (verdict.pass || !original.passed) return
-        await notifyFailedEmissionsTest(tx, { siteId: original.siteId, truckId: original.truckId, fleetNumber: truck!.fleetNumber, testedOn: original.testedOn, reasons: verdict.reasons, retestBy: nextDueOn })
+        await notifyFailedEmissionsTest(tx, { siteId: original.siteId, truckId: original.truckId, fleetNumber: truck!.fleetNumber, testedOn: original.testedOn, reasons: verdict.findings, retestBy: nextDueOn })
         noticeQueued = true
       },
     }
