@@ -8,6 +8,7 @@ const WANTED_KIND: Record<string, string> = { truckId: 'truck', batteryInId: 'ba
 export function useCorrectionActions(assetKind: string, assetId: string) {
   const toast = useToast()
   const session = useSessionStore()
+  const { t } = useNuxtApp().$i18n
 
   /** The id of an asset typed by tag code, serial or fleet number (empty: none). */
   async function assetIdOf(field: string, typed: string): Promise<string | null> {
@@ -16,14 +17,14 @@ export function useCorrectionActions(assetKind: string, assetId: string) {
     const siteId = session.siteId ?? ''
     if (field === 'cylinderOnId') return (await $fetch<CylinderLookup>('/api/fuel/cylinders/lookup', { query: { siteId, code } })).item.id
     const found = await $fetch<FloorLookup>('/api/battery-room/lookup', { query: { siteId, code } })
-    if (WANTED_KIND[field] && found.kind !== WANTED_KIND[field]) throw new Error(`"${code}" is a ${found.kind}, not a ${WANTED_KIND[field]}.`)
+    if (WANTED_KIND[field] && found.kind !== WANTED_KIND[field]) throw new Error(t('correction.wrong_kind', { code, wanted: t(`correction.wanted.${WANTED_KIND[field]}`) }))
     return found.id
   }
 
   async function correct(kind: CorrectableKind, recordId: string, idempotencyKey: string, values: Record<string, unknown>) {
     await $fetch(`${CORRECTION_PATHS[kind]}/${recordId}/corrections`, { method: 'POST', body: { ...values, idempotencyKey } })
     await refreshNuxtData([`history-${assetKind}-${assetId}`, `${assetKind}-${assetId}`])
-    toast.show('Correction saved; the original is kept beside it.')
+    toast.show(t('correction.saved'))
   }
   return { assetIdOf, correct }
 }

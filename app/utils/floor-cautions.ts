@@ -1,3 +1,5 @@
+import type { CorrectableKind } from '#shared/utils/correction-schemas'
+
 // The two or three cautions that fit each floor action (product.md, "Cautions shown in context"); one list
 // per action, shown in the form's header. Each is a key of i18n/locales (caution.<action>.<what>): UiCautions
 // shows it in the reader's language.
@@ -11,3 +13,15 @@ export const FLOOR_CAUTIONS = {
   emissions: ['caution.emissions.outdoors', 'caution.emissions.tailpipe'],
   co: ['caution.co.ventilation', 'caution.co.above_200'],
 } as const satisfies Record<string, readonly string[]>
+
+/** What a "Correct this" form shows: a correction changes the record, not the floor; then the kind's own. */
+export const CORRECTION_CAUTIONS = {
+  'battery-swap': ['caution.correction.record_first', 'caution.correction.battery_swap'],
+  'charge-session': ['caution.correction.record_first', 'caution.correction.charge_session'],
+  'electrolyte-check': ['caution.correction.record_first', 'caution.correction.electrolyte_check'],
+  'cylinder-refill': ['caution.correction.record_first', 'caution.correction.cylinder_refill'],
+  'cylinder-exchange': ['caution.correction.record_first', 'caution.correction.cylinder_exchange'],
+  'requalification': ['caution.correction.record_first', 'caution.correction.requalification'],
+  'emissions-test': ['caution.correction.record_first', 'caution.correction.emissions_test'],
+  'co-reading': ['caution.correction.record_first', 'caution.correction.co_reading'],
+} as const satisfies Record<CorrectableKind, readonly string[]>

@@ -3,6 +3,7 @@ import type { AssetKind } from '#shared/utils/asset-schemas'
 import { CORRECTION_ABILITIES, type CorrectableKind } from '#shared/utils/correction-schemas'
 import { parseSiteSettings } from '#shared/utils/site-settings'
 import type { Actor } from './auth'
+import { CORRECTABLE_KIND_TABLES, firstEnteredAt } from './due/effective'
 
 /** The event record behind a timeline row, for corrections: what it corrects, what corrects it, why. */
 export interface HistoryRecord {
@@ -64,13 +65,22 @@ export function recordEntry(entry: HistoryEntry, kind: CorrectableKind, row: { i
 export async function correctableTimeline(actor: Actor, siteId: string, items: HistoryEntry[]): Promise<HistoryEntry[]> {
   const [site] = await useDb().select({ settings: tables.sites.settings }).from(tables.sites).where(eq(tables.sites.id, siteId))
   const windowDays = parseSiteSettings(site?.settings).correctionWindowDays
+  const entered = await enteredAtOf(items)
   const names = await assetNames(items.flatMap(h => Object.entries(h.record?.values ?? {}).filter(([k, v]) => k.endsWith('Id') && typeof v === 'string').map(([, v]) => v as string)))
   return items.map((h) => {
     if (!h.record) return h
     const labels = Object.fromEntries(Object.entries(h.record.values).filter(([, v]) => typeof v === 'string' && names.has(v)).map(([k, v]) => [k, names.get(v as string)!]))
-    const mayCorrect = !h.record.correctedById && correctionAllowed(actor, CORRECTION_ABILITIES[h.record.kind], siteId, new Date(h.at), windowDays) === 'yes'
+    const mayCorrect = !h.record.correctedById && correctionAllowed(actor, CORRECTION_ABILITIES[h.record.kind], siteId, entered.get(h.record.id) ?? new Date(h.at), windowDays) === 'yes'
     return { ...h, record: { ...h.record, labels }, mayCorrect }
   })
+}
+
+/** When each record row's chain of corrections was first entered, by record id (the window counts from it). */
+async function enteredAtOf(items: HistoryEntry[]): Promise<Map<string, Date>> {
+  const byKind = new Map<CorrectableKind, string[]>()
+  for (const h of items) if (h.record && !h.record.correctedById) byKind.set(h.record.kind, [...(byKind.get(h.record.kind) ?? []), h.record.id])
+  const maps = await Promise.all([...byKind].map(([kind, ids]) => firstEnteredAt(useDb(), CORRECTABLE_KIND_TABLES[kind], ids)))
+  return new Map(maps.flatMap(m => [...m]))
 }
 
 /** Battery serials, truck fleet numbers and cylinder serials of the given ids. */

@@ -7,6 +7,7 @@ import { parseSiteSettings } from '#shared/utils/site-settings'
 import type { Actor } from './auth'
 import type { Transaction } from './db'
 import type { SubjectRef } from './due/rules'
+import { CORRECTABLE_KIND_TABLES, firstEnteredAt } from './due/effective'
 
 // Corrections of event records, once for every kind: the record is found at one of the person's sites and
 // locked, the retry key answers a repeat with the stored correction, the person must be allowed to record
@@ -20,6 +21,7 @@ interface CorrectionRow {
   siteId: string
   userId: string
   at: Date
+  recordedAt: Date
   idempotencyKey: string | null
   correctsId: string | null
   correctionReason: string | null
@@ -54,10 +56,14 @@ export type CorrectionBuilder<Row extends CorrectionRow> = (tx: Transaction, ori
 
 const DAY_MS = 86_400_000
 
-/** Whether the actor may still correct a record made at `at` (recorders within the window, leads always). */
-export function correctionAllowed(actor: Actor, ability: Ability, siteId: string, at: Date, windowDays: number, now = new Date()): 'yes' | 'late' | 'no' {
+/**
+ * Whether the actor may still correct a record first entered at `enteredAt` (recorders within the window,
+ * leads always). The window counts from when the record reached Bayward, not from its floor time: a record
+ * kept on a device through a dead spot and sent days later is still its recorder's to put right.
+ */
+export function correctionAllowed(actor: Actor, ability: Ability, siteId: string, enteredAt: Date, windowDays: number, now = new Date()): 'yes' | 'late' | 'no' {
   if (!actorCan(actor, ability, siteId)) return 'no'
-  if (now.getTime() - at.getTime() <= windowDays * DAY_MS) return 'yes'
+  if (now.getTime() - enteredAt.getTime() <= windowDays * DAY_MS) return 'yes'
   return actorCan(actor, 'record.correct-late', siteId) ? 'yes' : 'late'
 }
 
@@ -85,7 +91,8 @@ export async function correctRecord<Row extends CorrectionRow>(
       if (stored.correctsId !== id || stored.userId !== actor.user.id) throw createError({ statusCode: 409, message: 'That retry key belongs to another record; reload the form.' })
       return { item: stored, corrects: original, replayed: true }
     }
-    const allowed = correctionAllowed(actor, CORRECTION_ABILITIES[spec.kind], original.siteId, original.at, await siteWindowDays(tx, original.siteId))
+    const entered = (await firstEnteredAt(tx, CORRECTABLE_KIND_TABLES[spec.kind], [original.id])).get(original.id) ?? original.recordedAt
+    const allowed = correctionAllowed(actor, CORRECTION_ABILITIES[spec.kind], original.siteId, entered, await siteWindowDays(tx, original.siteId))
     if (allowed === 'no') requireActorCan(actor, CORRECTION_ABILITIES[spec.kind], original.siteId)
     if (allowed === 'late') {
       const days = await siteWindowDays(tx, original.siteId)

@@ -102,7 +102,13 @@ describe('record corrections', () => {
     const refused = await correct(tech, 'electrolyte-check', old, correctionBody('electrolyte-check', w))
     expect(refused.status).toBe(403)
     expect(refused.body.message).toMatch(/more than 7 days old; a lead/)
-    expect((await correct(lead, 'electrolyte-check', old, correctionBody('electrolyte-check', w))).status).toBe(201)
+    const byLead = await correct(lead, 'electrolyte-check', old, correctionBody('electrolyte-check', w))
+    expect(byLead.status).toBe(201)
+    // a correction made today does not open the window again: it counts from when the record was first entered
+    expect((await correct(tech, 'electrolyte-check', byLead.body.item.id, correctionBody('electrolyte-check', w))).status).toBe(403)
+    // a check taken 8 days ago on a device with no signal and sent an hour ago is still its recorder's to correct
+    const sentLate = await freshRecord('electrolyte-check', w, hoursAgo(24 * 8), hoursAgo(1))
+    expect((await correct(tech, 'electrolyte-check', sentLate, correctionBody('electrolyte-check', w))).status).toBe(201)
     const operator = await signIn(await user({ siteId: w.siteId, roles: ['operator'] }))
     expect((await correct(operator, 'electrolyte-check', fresh, correctionBody('electrolyte-check', w))).status).toBe(403)
   })

@@ -8,9 +8,9 @@ export interface RecordWorld { siteId: string, userId: string, truckId: string, 
 
 const today = () => new Date().toISOString().slice(0, 10)
 
-export async function freshRecord(kind: CorrectableKind, w: RecordWorld, at = new Date()): Promise<string> {
+export async function freshRecord(kind: CorrectableKind, w: RecordWorld, at = new Date(), recordedAt = at): Promise<string> {
   const db = useTestDb()
-  const base = { siteId: w.siteId, userId: w.userId, at }
+  const base = { siteId: w.siteId, userId: w.userId, at, recordedAt }
   const one = async (rows: { id: string }[]) => rows[0]!.id
   switch (kind) {
     case 'battery-swap': return one(await db.insert(tables.batterySwaps).values({ ...base, truckId: w.truckId, batteryInId: w.batteryId, hourMeter: 10 }).returning())

@@ -32,3 +32,32 @@ export const dateFromMs = (v: number | string | null | undefined): Date | null =
 
 /** A uuid[] parameter. */
 export const uuidArray = (ids: readonly string[]) => sql`${`{${ids.join(',')}}`}::uuid[]`
+
+/** The table each correctable kind of the history and the correction routes is kept in. */
+export const CORRECTABLE_KIND_TABLES = {
+  'battery-swap': 'battery_swaps',
+  'charge-session': 'charge_sessions',
+  'electrolyte-check': 'electrolyte_checks',
+  'cylinder-refill': 'cylinder_refills',
+  'cylinder-exchange': 'cylinder_exchanges',
+  'requalification': 'requalifications',
+  'emissions-test': 'emissions_tests',
+  'co-reading': 'co_readings',
+} as const satisfies Record<string, CorrectableTable>
+
+/**
+ * When each record's chain was first entered: the `recorded_at` of the record a chain of corrections
+ * starts from. A correction keeps the floor time of what it corrects, and the site's correction window
+ * counts from this entry, so a record sent late from a device can still be put right by its recorder and
+ * a chain of corrections does not move the window on.
+ */
+export async function firstEnteredAt(db: SqlRunner, table: CorrectableTable, ids: string[]): Promise<Map<string, Date>> {
+  if (ids.length === 0) return new Map()
+  const rows = await rowsOf<{ id: string, entered: Date | string }>(db, sql`
+    WITH RECURSIVE chain(start_id, id, corrects_id, recorded_at) AS (
+      SELECT r.id, r.id, r.corrects_id, r.recorded_at FROM ${sql.raw(table)} r WHERE r.id = ANY(${uuidArray(ids)})
+      UNION ALL
+      SELECT c.start_id, p.id, p.corrects_id, p.recorded_at FROM chain c JOIN ${sql.raw(table)} p ON p.id = c.corrects_id)
+    SELECT start_id AS id, min(recorded_at) AS entered FROM chain GROUP BY start_id`)
+  return new Map(rows.map(r => [r.id, new Date(r.entered)]))
+}
