@@ -3,31 +3,11 @@
 // change it; BAYWARD_BENCH_ONLY picks routes; BAYWARD_CPU_REQUESTS, 200 by default; BAYWARD_CPU_ENCODING, the
 // Accept-Encoding sent: identity by default, as the load runs send, or "br" as a browser would). Unlike
 // latency, CPU time per request holds still on a busy machine.
-import { readFileSync, readdirSync } from 'node:fs'
 import { fileURLToPath } from 'node:url'
+import { cpuMs, pgCpuMs } from './proc-cpu'
 import { wanted } from './routes'
 import { startServer } from './server'
 import { BENCH, benchDatabaseUrl, benchId } from './shape'
-
-const TICK_MS = 10 // USER_HZ = 100 on Linux
-const cpuMs = (pid: number | string) => {
-  try {
-    const fields = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1]!.split(' ')
-    return (Number(fields[11]) + Number(fields[12])) * TICK_MS
-  }
-  catch {
-    return 0
-  }
-}
-const postgresPids = () => readdirSync('/proc').filter(p => /^\d+$/.test(p)).filter((p) => {
-  try {
-    return readFileSync(`/proc/${p}/cmdline`, 'utf8').startsWith('postgres')
-  }
-  catch {
-    return false
-  }
-})
-const pgCpuMs = () => postgresPids().reduce((n, p) => n + cpuMs(p), 0)
 
 const root = fileURLToPath(new URL('../..', import.meta.url))
 const count = Number(process.env.BAYWARD_CPU_REQUESTS ?? 200)

@@ -64,11 +64,7 @@ export async function measurePass(server: BenchServer, sql: postgres.Sql, label:
 // never in two requests at once, and each Ready battery goes in once.
 async function runSwaps(server: BenchServer, sql: postgres.Sql, leadCookie: string, label: string, figures: PassResult['figures']) {
   const swapStart = new Date()
-  const trucks = await sql<{ id: string, siteId: string, hourMeter: number, batteryId: string }[]>`
-    SELECT t.id, t.site_id AS "siteId", ts.hour_meter AS "hourMeter", s.battery_id AS "batteryId"
-    FROM trucks t JOIN truck_status ts ON ts.truck_id = t.id JOIN battery_status s ON s.truck_id = t.id
-    WHERE t.site_id IN (SELECT site_id FROM memberships m JOIN users u ON u.id = m.user_id WHERE u.email = ${BENCH.leadEmail})
-    ORDER BY t.fleet_number`
+  const trucks = await leadTrucks(sql)
   const ready = await readyBatteries(server.base, leadCookie, Array.from({ length: BENCH.leadSites }, (_, i) => i + 1))
   const readyTotal = [...ready.values()].reduce((n, l) => n + l.length, 0)
   const idle = trucks.map(t => ({ ...t }))
@@ -103,6 +99,15 @@ async function runSwaps(server: BenchServer, sql: postgres.Sql, leadCookie: stri
 }
 
 /** The Ready batteries (no reason not to issue them) of the given sites, by site id. */
+/** The lead's electric trucks with a battery in them, with their hour meters, by fleet number. */
+export function leadTrucks(sql: postgres.Sql) {
+  return sql<{ id: string, siteId: string, hourMeter: number, batteryId: string }[]>`
+    SELECT t.id, t.site_id AS "siteId", ts.hour_meter AS "hourMeter", s.battery_id AS "batteryId"
+    FROM trucks t JOIN truck_status ts ON ts.truck_id = t.id JOIN battery_status s ON s.truck_id = t.id
+    WHERE t.site_id IN (SELECT site_id FROM memberships m JOIN users u ON u.id = m.user_id WHERE u.email = ${BENCH.leadEmail})
+    ORDER BY t.fleet_number`
+}
+
 export async function readyBatteries(base: string, cookie: string, siteNumbers: number[]) {
   const ready = new Map<string, string[]>()
   for (const siteNo of siteNumbers) {

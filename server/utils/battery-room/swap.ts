@@ -6,6 +6,7 @@ import { OVERRIDE_REASON_MIN_LENGTH, type swapBodySchema } from '#shared/utils/b
 import type { DbOrTx } from '../db'
 import type { Actor } from '../auth'
 import type { SubjectRef } from '../due/rules'
+import { uuidArray } from '../due/effective'
 
 export type SwapInput = z.output<typeof swapBodySchema>
 
@@ -50,12 +51,15 @@ export async function recordBatterySwap(actor: Actor, body: SwapInput) {
       const ids = [body.batteryInId, ...(body.batteryOutId ? [body.batteryOutId] : [])].sort()
       // (each statement starts after the one before has its locks, so the places read after the battery
       // locks are those the last swap of these batteries committed)
-      const inTruck = sql`${t.id} IN (SELECT ${bs.batteryId} FROM ${bs} WHERE ${bs.truckId} = ${body.truckId})`
-      const [[truck], lockedRows, places, [stored], rowsIn, qualified, [truckNow]] = await Promise.all([
+      // (one IN over a union, not an OR of two: the planner then reads the battery ids by index, not every battery of the sites)
+      const lockIds = sql`${t.id} IN (SELECT x FROM unnest(${uuidArray(ids)}) x UNION ALL SELECT ${bs.batteryId} FROM ${bs} WHERE ${bs.truckId} = ${body.truckId})`
+      // every statement of a swap reads or writes a few rows by id: one generic plan each (see computeReadModels)
+      const [, [truck], lockedRows, places, [stored], rowsIn, qualified, [truckNow]] = await Promise.all([
+        tx.execute(sql`SET LOCAL plan_cache_mode = force_generic_plan`),
         tx.select().from(tables.trucks)
           .where(and(eq(tables.trucks.id, body.truckId), inArray(tables.trucks.siteId, actor.siteIds))).for('update'),
         tx.select({ id: t.id, siteId: t.siteId, serial: t.serial }).from(t)
-          .where(and(inArray(t.siteId, actor.siteIds), or(inArray(t.id, ids), inTruck))).orderBy(asc(t.id)).for('update'),
+          .where(and(inArray(t.siteId, actor.siteIds), lockIds)).orderBy(asc(t.id)).for('update'),
         tx.select({ batteryId: bs.batteryId, truckId: bs.truckId }).from(bs).where(or(inArray(bs.batteryId, ids), eq(bs.truckId, body.truckId))),
         tx.select().from(tables.batterySwaps).where(eq(tables.batterySwaps.idempotencyKey, body.idempotencyKey)),
         loadBatteryRows(tx, { siteId: actor.siteIds, batteryIds: [body.batteryInId] }),

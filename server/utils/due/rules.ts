@@ -57,6 +57,10 @@ export async function computeReadModels(db: SqlRunner, ctx: SiteContext, pick: S
   const wanted = (k: DueSubjectKind) => k in pick
   const anyCustom = sch.some(s => s.kind === 'custom' && s.active)
   const subjectIds = Object.values(pick).every(v => v !== undefined) ? Object.values(pick).flat() as string[] : undefined
+  // A write's recompute reads a few subjects by id with the same long statements every time: planning them
+  // anew for each write cost more than running them, so they keep one generic plan for the rest of the
+  // write's transaction (a no-op outside one). Whole-site reads (the rebuild) are planned for their data.
+  if (subjectIds) await db.execute(sql`SET LOCAL plan_cache_mode = force_generic_plan`)
   const completions = anyCustom ? await loadCompletionFacts(db, ctx.id, subjectIds) : []
   const [batteries, trucks, chargers, areas, cylinders, people, logs, followUps, sites] = await Promise.all([
     wanted('battery') ? loadBatteryFactsFor(db, { siteId: ctx.id, batteryIds: pick.battery, chargesSince: customChargesSince(ctx) }, completions) : [],
