@@ -7,8 +7,7 @@ export function useAssetImport(kind: AssetKind) {
   const view = ASSET_VIEWS[kind]
   const session = useSessionStore()
   const report = ref<ImportReply | null>(null)
-  const progress = ref<{ done: number, total: number, status: string } | null>(null)
-  const problem = ref('')
+  const { progress, problem, follow } = useJob(400)
 
   async function check(csv: string) {
     problem.value = ''
@@ -27,16 +26,10 @@ export function useAssetImport(kind: AssetKind) {
       const reply = await $fetch<ImportReply>(`${view.api}/import`, { method: 'POST', body: { siteId: session.siteId, csv, dryRun: false } })
       report.value = reply
       if (!reply.job) return
-      progress.value = { done: 0, total: reply.total, status: 'running' }
-      while (progress.value.status === 'running') {
-        await new Promise(r => setTimeout(r, 400))
-        progress.value = await $fetch<{ done: number, total: number, status: string }>(`/api/jobs/${reply.job}`)
-      }
-      if (progress.value.status === 'done') {
+      if (await follow(reply.job, reply.total, () => 'The import failed and nothing was written. Try again.')) {
         await refreshNuxtData(`${kind}-list`)
         useToast().show(`${reply.total} imported.`)
       }
-      else problem.value = 'The import failed and nothing was written. Try again.'
     }
     catch (error) {
       problem.value = errorMessage(error)
