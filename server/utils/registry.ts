@@ -34,7 +34,7 @@ function kinds(): Record<AssetKind, KindConfig> {
   return {
     truck: {
       table: t, noun: 'truck', identity: 'fleetNumber', defaultSort: 'fleetNumber',
-      sortable: { fleetNumber: t.fleetNumber, truckClass: t.truckClass, power: t.power, systemVoltage: t.systemVoltage, hourMeter: sql`COALESCE(${ts.hourMeter}, ${t.hourMeter})` as unknown as PgColumn, createdAt: t.createdAt },
+      sortable: { fleetNumber: natural(t.fleetNumber) as unknown as PgColumn, truckClass: t.truckClass, power: t.power, systemVoltage: t.systemVoltage, hourMeter: sql`COALESCE(${ts.hourMeter}, ${t.hourMeter})` as unknown as PgColumn, createdAt: t.createdAt },
       search: [t.fleetNumber, t.model],
       filters: {
         power: { schema: z.enum(TRUCK_POWERS), column: t.power },
@@ -47,7 +47,7 @@ function kinds(): Record<AssetKind, KindConfig> {
     },
     battery: {
       table: b, noun: 'battery', identity: 'serial', defaultSort: 'serial',
-      sortable: { serial: b.serial, voltage: b.voltage, capacityAh: b.capacityAh, chemistry: b.chemistry, weightLb: b.weightLb, cycleCount: bs.cycles, inServiceOn: b.inServiceOn, createdAt: b.createdAt },
+      sortable: { serial: natural(b.serial) as unknown as PgColumn, voltage: b.voltage, capacityAh: b.capacityAh, chemistry: b.chemistry, weightLb: b.weightLb, cycleCount: bs.cycles, inServiceOn: b.inServiceOn, createdAt: b.createdAt },
       search: [b.serial, b.connector],
       filters: {
         chemistry: { schema: z.enum(BATTERY_CHEMISTRIES), column: b.chemistry },
@@ -60,7 +60,7 @@ function kinds(): Record<AssetKind, KindConfig> {
     },
     charger: {
       table: c, noun: 'charger', identity: 'name', defaultSort: 'name',
-      sortable: { name: c.name, outputVoltage: c.outputVoltage, maxCurrentA: c.maxCurrentA, chargerType: c.chargerType, createdAt: c.createdAt },
+      sortable: { name: natural(c.name) as unknown as PgColumn, outputVoltage: c.outputVoltage, maxCurrentA: c.maxCurrentA, chargerType: c.chargerType, createdAt: c.createdAt },
       search: [c.name, c.serial],
       filters: {
         areaId: { schema: z.uuid(), column: c.areaId },
@@ -71,7 +71,7 @@ function kinds(): Record<AssetKind, KindConfig> {
     },
     cylinder: {
       table: l, noun: 'LP cylinder', identity: 'serial', defaultSort: 'serial',
-      sortable: { serial: l.serial, status: l.status, waterCapacityLb: l.waterCapacityLb, manufactureYear: l.manufactureYear, lastRequalifiedOn: l.lastRequalifiedOn, createdAt: l.createdAt },
+      sortable: { serial: natural(l.serial) as unknown as PgColumn, status: l.status, waterCapacityLb: l.waterCapacityLb, manufactureYear: l.manufactureYear, lastRequalifiedOn: l.lastRequalifiedOn, createdAt: l.createdAt },
       search: [l.serial],
       filters: {
         status: { schema: z.enum(CYLINDER_STATUSES), column: l.status },
@@ -83,7 +83,7 @@ function kinds(): Record<AssetKind, KindConfig> {
     },
     area: {
       table: a as unknown as KindConfig['table'], noun: 'area', identity: 'name', defaultSort: 'name',
-      sortable: { name: a.name, kind: a.kind, createdAt: a.createdAt },
+      sortable: { name: natural(a.name) as unknown as PgColumn, kind: a.kind, createdAt: a.createdAt },
       search: [a.name],
       filters: { kind: { schema: z.enum(AREA_KINDS), column: a.kind } },
       areaRefs: {}, holdable: false,

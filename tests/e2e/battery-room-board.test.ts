@@ -4,7 +4,7 @@ import postgres from 'postgres'
 import { drizzle } from 'drizzle-orm/postgres-js'
 import { eq } from 'drizzle-orm'
 import { builtServer, signIn, type Client } from '../support/http'
-import { area, batteryInput, closeTestDb, rebuildSite, site, tables, user, useTestDb } from '../support/db'
+import { area, batteryInput, closeTestDb, rebuildSite, site, tables, truck, user, useTestDb } from '../support/db'
 import { fittedTruck, hoursAgo, putInTruck, roomCharger } from '../support/battery-room'
 import { loadBatteryRows } from '../../server/utils/battery-room/status'
 import { loadBatteryFactsFor } from '../../server/utils/due/facts-battery'
@@ -121,5 +121,21 @@ describe('the Bay board', () => {
     expect(board.suggestion!.choice).toBe(fresh!.id)
     expect(board.suggestion!.ranked).toEqual([fresh!.id, worn!.id, recent!.id])
     expect((await operator.get(`/api/battery-room/board?siteId=${siteId}&truckId=${pickArea}`)).status).toBe(404)
+  })
+
+  it('sorts serials and fleet numbers as people read them: 2 before 10', async () => {
+    const here = (await site()).id
+    const lead = await signIn(await user({ siteId: here, roles: ['facilities_lead'] }))
+    for (const fleetNumber of ['MB-10', 'MB-2', 'MB-1']) await truck({ siteId: here, fleetNumber, power: 'electric' })
+    const made = Array.from({ length: 3 }, () => ({ ...batteryCreateSchema.parse(batteryInput()), siteId: here }))
+    await useTestDb().insert(tables.batteries).values(made.map((b, i) => ({ ...b, serial: ['B-9', 'B-10', 'B-100'][i]! })))
+    await rebuildSite(here)
+    const board = await lead.get(`/api/battery-room/board?siteId=${here}`)
+    expect(board.body.trucks.map((t: { fleetNumber: string }) => t.fleetNumber)).toEqual(['MB-1', 'MB-2', 'MB-10'])
+    expect(board.body.batteries.map((b: { serial: string }) => b.serial)).toEqual(['B-9', 'B-10', 'B-100'])
+    const list = await lead.get(`/api/batteries?siteId=${here}&sort=serial`)
+    expect(list.body.items.map((b: { serial: string }) => b.serial)).toEqual(['B-9', 'B-10', 'B-100'])
+    const desc = await lead.get(`/api/trucks?siteId=${here}&sort=fleetNumber&dir=desc`)
+    expect(desc.body.items.map((t: { fleetNumber: string }) => t.fleetNumber)).toEqual(['MB-10', 'MB-2', 'MB-1'])
   })
 })

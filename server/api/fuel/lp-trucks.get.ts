@@ -12,6 +12,6 @@ export default defineAbilityHandler('cylinder.exchange', async (event) => {
   }).from(t)
     .leftJoin(tables.lpCylinders, eq(tables.lpCylinders.currentTruckId, t.id))
     .where(and(eq(t.siteId, siteId), eq(t.power, 'lp_gas')))
-    .orderBy(asc(t.fleetNumber))
+    .orderBy(asc(natural(t.fleetNumber)))
   return { items }
 })

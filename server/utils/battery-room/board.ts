@@ -30,7 +30,7 @@ export async function computeBoard(query: BoardQuery) {
     batteryRoomSettings(db, query.siteId),
     db.select({ id: tables.areas.id, name: tables.areas.name }).from(tables.areas)
       .where(and(eq(tables.areas.siteId, query.siteId), eq(tables.areas.kind, 'charging_area'), eq(tables.areas.archived, false)))
-      .orderBy(asc(tables.areas.name)),
+      .orderBy(asc(natural(tables.areas.name))),
     loadBatteryRows(db, { siteId: query.siteId, areaId: query.areaId }),
     db.select({
       id: tables.trucks.id, fleetNumber: tables.trucks.fleetNumber, systemVoltage: tables.trucks.systemVoltage, outOfService: tables.trucks.outOfService,
@@ -38,7 +38,7 @@ export async function computeBoard(query: BoardQuery) {
       minBatteryWeightLb: tables.trucks.minBatteryWeightLb, maxBatteryWeightLb: tables.trucks.maxBatteryWeightLb, connector: tables.trucks.connector, allowedChemistries: tables.trucks.allowedChemistries,
     }).from(tables.trucks)
       .where(and(eq(tables.trucks.siteId, query.siteId), eq(tables.trucks.power, 'electric')))
-      .orderBy(asc(tables.trucks.fleetNumber)),
+      .orderBy(asc(natural(tables.trucks.fleetNumber))),
     shiftInspectionStatus(db, query.siteId, now),
   ])
   if (query.areaId && !areas.some(a => a.id === query.areaId)) throw createError({ statusCode: 404, message: 'No such charging area at this site.' })

@@ -98,7 +98,7 @@ export async function loadBatteryRows(db: SqlRunner, q: BatteryCardQuery): Promi
     ${obligation('w', 'battery_watering')}
     ${obligation('e', 'battery_equalize')}
     WHERE ${sql.join(where, sql` AND `)}
-    ORDER BY b.serial`)
+    ORDER BY b.serial COLLATE natural_sort`)
 }
 
 export type FlagKey = 'wateringOverdue' | 'wateringDue' | 'equalizeDue' | 'weakCell' | 'ranHot'

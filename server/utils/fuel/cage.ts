@@ -48,7 +48,7 @@ export async function cylinderCage(siteId: string) {
   const facts = await fuelSiteFacts(db, siteId)
   const stations = await db.select().from(tables.areas)
     .where(and(eq(tables.areas.siteId, siteId), eq(tables.areas.kind, 'fuel_station'), eq(tables.areas.archived, false)))
-    .orderBy(asc(tables.areas.name))
+    .orderBy(asc(natural(tables.areas.name)))
   const l = tables.lpCylinders
   const rows = await db.select({
     id: l.id, serial: l.serial, status: l.status, outOfService: l.outOfService, nominalPropaneLb: l.nominalPropaneLb, areaId: l.areaId,
@@ -58,7 +58,7 @@ export async function cylinderCage(siteId: string) {
     // What the last refill left in a cylinder that has not moved since (a refused or partial fill).
     contentsLb: sql<number | null>`(SELECT GREATEST(0, COALESCE(r.gross_after_lb, r.gross_before_lb) - ${l}.tare_lb) FROM cylinder_refills r
       WHERE r.cylinder_id = ${l}.id AND r.at >= ${l}.status_changed_at ORDER BY r.at DESC LIMIT 1)`,
-  }).from(l).where(eq(l.siteId, siteId)).orderBy(asc(l.serial))
+  }).from(l).where(eq(l.siteId, siteId)).orderBy(asc(natural(l.serial)))
   const cylinders = rows.map(r => ({ ...r, contentsLb: r.contentsLb === null ? null : Number(r.contentsLb) }))
   const years = requalificationYearsFromSettings(facts.settings)
   const groups: { areaId: string | null, name: string, limit: number | null }[] = stations.map(s => ({ areaId: s.id, name: s.name, limit: s.lpStorageLimitLb }))

@@ -40,7 +40,7 @@ export async function emissionsOverview(siteIds: string[]) {
   const trucks = siteIds.length
     ? await db.select().from(tables.trucks)
         .where(and(inArray(tables.trucks.siteId, siteIds), inArray(tables.trucks.power, [...COMBUSTION_POWERS])))
-        .orderBy(asc(tables.trucks.fleetNumber))
+        .orderBy(asc(natural(tables.trucks.fleetNumber)))
     : []
   const latest = await latestEmissionsTests(db, trucks.map(t => t.id))
   return {

@@ -21,7 +21,7 @@ export async function shiftInspectionStatus(db: DbOrTx, siteId: string, now = ne
       GREATEST((SELECT max(s.at) FROM battery_swaps s WHERE s.truck_id = t.id), (SELECT max(x.at) FROM cylinder_exchanges x WHERE x.truck_id = t.id)) AS "lastUsedAt"
     FROM trucks t LEFT JOIN truck_status ts ON ts.truck_id = t.id
     WHERE t.site_id = ${siteId} AND NOT t.out_of_service
-    ORDER BY t.fleet_number`)) as unknown as { id: string, fleetNumber: string, tagCode: string | null, lastInspectionAt: string | Date | null, holdSince: string | Date | null, holdReason: string | null, lastUsedAt: string | Date | null }[]
+    ORDER BY t.fleet_number COLLATE natural_sort`)) as unknown as { id: string, fleetNumber: string, tagCode: string | null, lastInspectionAt: string | Date | null, holdSince: string | Date | null, holdReason: string | null, lastUsedAt: string | Date | null }[]
   const time = (v: string | Date | null) => (v === null ? null : new Date(v))
   const out: ShiftInspectionStatus = { shiftStartedAt: since.toISOString(), unchecked: [], held: [], stateOf: {} }
   for (const r of rows) {
