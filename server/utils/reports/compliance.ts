@@ -4,7 +4,7 @@ import { CO_LIMITS } from '#shared/utils/co-exposure'
 import { daysInRange } from '#shared/utils/area-checklists'
 import { isEffectiveRecord, rowsOf } from '../due/effective'
 import { chartSvg } from './chart'
-import { chartTop, num, numOrNull, scopeCte, type ReportScope } from './scope'
+import { chartTop, num, numOrNull, scopeCte, totalsOf, type ReportScope } from './scope'
 
 const siteSuffix = (scope: ReportScope) => sql`CASE WHEN ${scope.siteIds.length > 1} THEN ' · ' || scope.site_name ELSE '' END`
 
@@ -74,7 +74,7 @@ export async function complianceReport(scope: ReportScope): Promise<ReportRespon
     const tests = num(e?.tests)
     return { month: m, tests, passed: num(e?.passed), passRate: tests ? (num(e?.passed) / tests) * 100 : null, retests: num(e?.retests) }
   })
-  const tests = monthRows.reduce((t, r) => ({ tests: t.tests + r.tests, passed: t.passed + r.passed }), { tests: 0, passed: 0 })
+  const tests = totalsOf(monthRows, ['tests', 'passed'])
   const days = daysInRange(scope.from, scope.to)
   const { t } = scope
   const logRows = logs.map(l => ({ area: l.area, logs: num(l.logs), completion: (num(l.logs) / days) * 100, signed: num(l.signed), failed: num(l.failed) }))

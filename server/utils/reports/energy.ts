@@ -3,7 +3,9 @@ import { daysInRange } from '#shared/utils/area-checklists'
 import { hoursOnChargePerDay, monthsBetween } from '#shared/utils/report-math'
 import { isEffectiveRecord, rowsOf } from '../due/effective'
 import { chartSvg } from './chart'
-import { chartTop, money, num, numberText, scopeCte, type ReportScope } from './scope'
+import { offPeakSaving } from '#shared/utils/tariff'
+import { chartTop, money, num, numberText, scopeCte, totalsOf, type ReportScope } from './scope'
+import { peakSplit } from './tariff-split'
 
 // report.energy.convention: kWh drawn from the grid = Ah returned × the battery's nominal volts ÷ 1,000 ÷ the
 // charger's efficiency, worked out when the charge ended (shared/utils/charging.ts); cost = that kWh × the site's
@@ -49,8 +51,9 @@ async function chargeGroups(scope: ReportScope) {
   return { months, chargers, areas: [...areas.values()].sort((a, b) => b.kwh - a.kwh) }
 }
 
-export async function energyReport(scope: ReportScope): Promise<ReportResponse> {
-  const { months, chargers, areas } = await chargeGroups(scope)
+// `withPeak: false` leaves out the time-of-use split (the facilities home's figures do not show it).
+export async function energyReport(scope: ReportScope, withPeak = true): Promise<ReportResponse> {
+  const [{ months, chargers, areas }, peak] = await Promise.all([chargeGroups(scope), withPeak ? peakSplit(scope) : []])
   const byMonth = new Map(months.map(m => [m.key, m]))
   const monthList = monthsBetween(scope.from, scope.to)
   const monthRows = monthList.map((m) => {
@@ -58,11 +61,11 @@ export async function energyReport(scope: ReportScope): Promise<ReportResponse> 
     return { month: m, charges: g?.charges ?? 0, kwh: g?.kwh ?? 0, cost: g?.cost ?? 0, kwhPerCharge: g && g.charges ? g.kwh / g.charges : null }
   })
   const days = daysInRange(scope.from, scope.to)
-  const total = monthRows.reduce((t, r) => ({ kwh: t.kwh + r.kwh, cost: t.cost + r.cost, charges: t.charges + r.charges }), { kwh: 0, cost: 0, charges: 0 })
+  const total = totalsOf(monthRows, ['kwh', 'cost', 'charges'])
   const cur = scope.currency
   const { t, language } = scope
   const kwhText = (v: number) => `${numberText(Math.round(v), language)} kWh`
-  return {
+  const report: ReportResponse = {
     kind: 'energy',
     title: t('report.kind.energy.title'),
     from: scope.from,
@@ -108,6 +111,37 @@ export async function energyReport(scope: ReportScope): Promise<ReportResponse> 
         rows: chargers.map(c => ({ charger: c.label, area: c.area, charges: c.charges, kwh: c.kwh, cost: c.cost, hoursPerDay: hoursOnChargePerDay(c.hours, days) })),
       },
     ],
-    caveats: [t('report.energy.one_tariff')],
+    caveats: peak.length === 0 ? [t('report.energy.one_tariff')] : peak.length < scope.sites.length ? [t('report.energy.some_one_tariff')] : [],
   }
+  if (peak.length > 0) addPeakSplit(report, scope, peak)
+  return report
+}
+
+// The share of kWh drawn in peak windows and what drawing it off-peak would have saved, per site with windows.
+function addPeakSplit(report: ReportResponse, scope: ReportScope, peak: Awaited<ReturnType<typeof peakSplit>>) {
+  const { t, language } = scope
+  const rows = peak.map(p => ({
+    site: p.site, kwh: p.kwh, peakKwh: p.peakKwh, peakShare: p.kwh > 0 ? (p.peakKwh / p.kwh) * 100 : null,
+    peakPrice: p.peakPerKwh, offPeakPrice: p.offPeakPerKwh, saving: offPeakSaving(p.peakKwh, p.peakPerKwh, p.offPeakPerKwh),
+  }))
+  const { kwh, peakKwh, saving } = totalsOf(rows, ['kwh', 'peakKwh', 'saving'])
+  const kwhText = (v: number) => numberText(Math.round(v), language)
+  report.figures.push(
+    { label: t('report.energy.peak_share'), value: kwh > 0 ? `${Math.round((peakKwh / kwh) * 100)} %` : '—', detail: t('report.energy.peak_detail', { kwh: kwhText(peakKwh), all: kwhText(kwh) }) },
+    { label: t('report.energy.saving'), value: money(saving, scope.currency, language), detail: t('report.energy.saving_detail') },
+  )
+  const cur = scope.currency
+  report.sections.push({
+    key: 'peak',
+    title: t('report.energy.peak_title'),
+    note: t('report.energy.peak_note'),
+    chartSvg: null,
+    columns: [
+      { key: 'site', label: t('report.col.site') }, { key: 'kwh', label: t('report.col.energy'), unit: 'kWh', decimals: 0 },
+      { key: 'peakKwh', label: t('report.col.peak_kwh'), unit: 'kWh', decimals: 0 }, { key: 'peakShare', label: t('report.col.peak_share'), unit: '%', decimals: 0 },
+      { key: 'peakPrice', label: t('report.col.peak_price'), unit: cur, decimals: 3 }, { key: 'offPeakPrice', label: t('report.col.off_peak_price'), unit: cur, decimals: 3 },
+      { key: 'saving', label: t('report.col.saving'), unit: cur, decimals: 2 },
+    ],
+    rows,
+  })
 }

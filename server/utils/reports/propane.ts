@@ -4,21 +4,22 @@ import { PROPANE_LB_PER_GAL_60F } from '#shared/utils/lp-gas'
 import { KG_PER_LB, LITRES_PER_US_GAL } from '#shared/utils/units'
 import { isEffectiveRecord, rowsOf } from '../due/effective'
 import { chartSvg } from './chart'
-import { chartTop, money, num, numberText, scopeCte, type ReportScope } from './scope'
+import { chartTop, money, num, numberText, scopeCte, totalsOf, type ReportScope } from './scope'
 
-// Standing refills in the range by month (net pounds, gallons at 60 °F as recorded, cost at the site's
-// price per gallon) and the refused ones with their reasons; propane per truck from the cylinder changes:
+// Standing refills in the range by month (net pounds, gallons at 60 °F as recorded, cost at the price per
+// gallon kept on each refill when it was recorded, else the site's price now) and the refused ones with their reasons; propane per truck from the cylinder changes:
 // each change puts on the net weight of the cylinder's last standing refill before it.
 async function propaneRows(scope: ReportScope) {
   const db = useDb()
-  const price = sql`coalesce((st.settings->>'propanePerGal')::float8, 0)`
+  const priceNow = sql`coalesce((st.settings->>'propanePerGal')::float8, 0)`
   return Promise.all([
-    rowsOf<{ month: string, refills: number, refused: number, lb: number, gal: number, cost: number }>(db, sql`
+    rowsOf<{ month: string, refills: number, refused: number, lb: number, gal: number, cost: number, pricedNow: number }>(db, sql`
       WITH ${scopeCte(scope)}
       SELECT to_char(r.at AT TIME ZONE scope.tz, 'YYYY-MM') AS month, count(*) FILTER (WHERE NOT r.refused)::int AS refills,
              count(*) FILTER (WHERE r.refused)::int AS refused, coalesce(sum(r.net_added_lb) FILTER (WHERE NOT r.refused), 0)::float8 AS lb,
              coalesce(sum(r.gallons_at60_f) FILTER (WHERE NOT r.refused), 0)::float8 AS gal,
-             coalesce(sum(r.gallons_at60_f * ${price}) FILTER (WHERE NOT r.refused), 0)::float8 AS cost
+             coalesce(sum(r.gallons_at60_f * coalesce(r.price_per_gal, ${priceNow})) FILTER (WHERE NOT r.refused), 0)::float8 AS cost,
+             count(*) FILTER (WHERE NOT r.refused AND r.price_per_gal IS NULL)::int AS "pricedNow"
       FROM scope JOIN sites st ON st.id = scope.site_id
       JOIN cylinder_refills r ON r.site_id = scope.site_id AND r.at >= scope.t0 AND r.at < scope.t1
       WHERE ${isEffectiveRecord('cylinder_refills', 'r')}
@@ -33,12 +34,12 @@ async function propaneRows(scope: ReportScope) {
     rowsOf<{ truck: string, changes: number, lb: number, cost: number }>(db, sql`
       WITH ${scopeCte(scope)}
       SELECT t.fleet_number || CASE WHEN ${scope.siteIds.length > 1} THEN ' · ' || scope.site_name ELSE '' END AS truck, count(*)::int AS changes,
-             coalesce(sum(f.net_added_lb), 0)::float8 AS lb, coalesce(sum(f.gallons_at60_f * ${price}), 0)::float8 AS cost
+             coalesce(sum(f.net_added_lb), 0)::float8 AS lb, coalesce(sum(f.gallons_at60_f * coalesce(f.price_per_gal, ${priceNow})), 0)::float8 AS cost
       FROM scope JOIN sites st ON st.id = scope.site_id
       JOIN cylinder_exchanges x ON x.site_id = scope.site_id AND x.at >= scope.t0 AND x.at < scope.t1
       JOIN trucks t ON t.id = x.truck_id
       LEFT JOIN LATERAL (
-        SELECT r.net_added_lb, r.gallons_at60_f FROM cylinder_refills r
+        SELECT r.net_added_lb, r.gallons_at60_f, r.price_per_gal FROM cylinder_refills r
         WHERE r.cylinder_id = x.cylinder_on_id AND r.at <= x.at AND NOT r.refused AND ${isEffectiveRecord('cylinder_refills', 'r')}
         ORDER BY r.at DESC LIMIT 1) f ON true
       WHERE ${isEffectiveRecord('cylinder_exchanges', 'x')}
@@ -67,8 +68,9 @@ export async function propaneReport(scope: ReportScope): Promise<ReportResponse>
     const r = byMonth.get(mo)
     return { month: mo, refills: num(r?.refills), refused: num(r?.refused), mass: mass(num(r?.lb)), volume: volume(num(r?.gal)), cost: num(r?.cost) }
   })
-  const total = monthRows.reduce((t, r) => ({ mass: t.mass + r.mass, volume: t.volume + r.volume, cost: t.cost + r.cost, refused: t.refused + r.refused }), { mass: 0, volume: 0, cost: 0, refused: 0 })
-  const priced = scope.sites.some(s => s.settings.propanePerGal > 0)
+  const total = totalsOf(monthRows, ['mass', 'volume', 'cost', 'refused'])
+  const priced = total.cost > 0 || scope.sites.some(s => s.settings.propanePerGal > 0)
+  const pricedNow = months.reduce((s, r) => s + num(r.pricedNow), 0)
   return {
     kind: 'propane',
     title: t('report.kind.propane.title'),
@@ -116,6 +118,6 @@ export async function propaneReport(scope: ReportScope): Promise<ReportResponse>
         rows: requal,
       },
     ],
-    caveats: [],
+    caveats: pricedNow > 0 ? [t('report.propane.priced_now', { n: pricedNow })] : [],
   }
 }

@@ -2,7 +2,7 @@ import type { ReportResponse } from '#shared/types/reports'
 import { cyclesPerDay, nextQuarters, quarterOf, ratedCyclesReachedOn } from '#shared/utils/report-math'
 import { batteryFacts, RECENT_DAYS } from './battery-facts'
 import { chartSvg } from './chart'
-import { money, type ReportScope } from './scope'
+import { money, totalsOf, type ReportScope } from './scope'
 
 /** Each battery's forecast: the day it reaches its rated cycles at its own recent rate. */
 export function replacementForecast(scope: ReportScope, facts: Awaited<ReturnType<typeof batteryFacts>>) {
@@ -20,7 +20,7 @@ export async function replacementReport(scope: ReportScope): Promise<ReportRespo
     const due = forecast.filter(b => b.quarter !== null && (b.quarter === q || (q === quarters[0] && b.quarter < q)))
     return { quarter: q, batteries: due.length, cost: due.reduce((s, b) => s + (b.replacementPrice ?? 0), 0), unpriced: due.filter(b => b.replacementPrice === null).length }
   })
-  const year = byQuarter.reduce((t, q) => ({ batteries: t.batteries + q.batteries, cost: t.cost + q.cost, unpriced: t.unpriced + q.unpriced }), { batteries: 0, cost: 0, unpriced: 0 })
+  const year = totalsOf(byQuarter, ['batteries', 'cost', 'unpriced'])
   const cur = scope.currency
   const { t, language } = scope
   return {

@@ -100,3 +100,10 @@ export async function serveReport(event: H3Event, ability: Ability, build: (scop
 export function chartTop(scope: ReportScope) {
   return { top: CHART_TOP, topNote: (n: number, all: number) => scope.t('report.chart_top', { n, all: numberText(all, scope.language) }) }
 }
+
+/** The sums of some numeric columns over a section's rows (the totals a report's figures are drawn from). */
+export function totalsOf<T extends object, K extends keyof T>(rows: readonly T[], keys: readonly K[]): Record<K, number> {
+  const totals = Object.fromEntries(keys.map(k => [k, 0])) as Record<K, number>
+  for (const row of rows) for (const k of keys) totals[k] += Number(row[k] ?? 0)
+  return totals
+}

@@ -1,7 +1,7 @@
 import type { ReportResponse } from '#shared/types/reports'
 import { isEffectiveRecord, rowsOf } from '../due/effective'
 import { chartSvg } from './chart'
-import { chartTop, num, scopeCte, type ReportScope } from './scope'
+import { chartTop, num, scopeCte, totalsOf, type ReportScope } from './scope'
 
 // A swap that went ahead over a "still cooling" or "not charged" refusal: a truck needed a battery and no
 // ready one was there. Codes from shared/utils/battery-fit.ts.
@@ -49,7 +49,7 @@ export async function shortfallReport(scope: ReportScope): Promise<ReportRespons
     .sort((a, b) => b.shortfalls - a.shortfalls)
   const worst = [...hours].sort((a, b) => b.shortfalls - a.shortfalls)[0]
   const { t } = scope
-  const total = hours.reduce((t, h) => ({ swaps: t.swaps + h.swaps, shortfalls: t.shortfalls + h.shortfalls }), { swaps: 0, shortfalls: 0 })
+  const total = totalsOf(hours, ['swaps', 'shortfalls'])
   return {
     kind: 'shortfall',
     title: t('report.shortfall.title'),

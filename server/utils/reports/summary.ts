@@ -16,8 +16,8 @@ export async function facilitiesSummary(scope: ReportScope): Promise<FacilitiesS
   const link = (kind: string, from: string) => `/reports/${kind}?site=${site}&from=${from}&to=${today}`
   const lastMonth = sameDaysLastMonth(today)
   const [energy, energyBefore, facts, shortfall] = await Promise.all([
-    energyReport({ ...scope, from: `${month}-01` }),
-    energyReport({ ...scope, ...lastMonth }),
+    energyReport({ ...scope, from: `${month}-01` }, false),
+    energyReport({ ...scope, ...lastMonth }, false),
     batteryFacts(scope),
     shortfallReport({ ...scope, from: `${month}-01` }),
   ])
