@@ -65,7 +65,11 @@ describe('reports in the browser', () => {
   it('the facilities lead\'s home shows this month\'s figures, each a link to its report', async () => {
     const { context, page } = await signInAt(browser, people.lead!, '/', PHONE)
     await page.getByRole('heading', { name: /This month \(/ }).waitFor()
-    expect(await page.getByRole('link', { name: /Energy this month/ }).count()).toBe(1)
+    await page.getByRole('link', { name: /Energy this month/ }).waitFor()
+    await page.getByRole('link', { name: /Energy this month/ }).click()
+    await page.getByRole('heading', { name: 'Energy and cost', level: 1 }).waitFor()
+    await page.goBack()
+    await page.getByRole('heading', { name: /This month \(/ }).waitFor()
     expect(await fitsWidth(page)).toBe(true)
     await page.screenshot({ path: 'screenshots/reports-home-figures-phone.png', fullPage: true })
     await context.close()
@@ -79,6 +83,21 @@ describe('reports in the browser', () => {
     expect(await page.getByText('Precios y horas pico').count()).toBe(1)
     expect(await fitsWidth(page)).toBe(true)
     await page.screenshot({ path: `screenshots/report-energy-es-${name}.png`, fullPage: true })
+    await context.close()
+  })
+
+  it.each([['phone', PHONE], ['desktop', DESKTOP]] as const)('the facilities lead sets weekday peak hours and the energy report splits by them (%s)', async (name, viewport) => {
+    const { context, page } = await signInAt(browser, people.lead!, `/reports/energy?site=${siteId}&${RANGE}`, viewport)
+    await page.getByText('Prices and peak hours').click()
+    if (await page.getByRole('button', { name: 'Add a peak window' }).isVisible() && await page.getByText('Peak window 1').count() === 0) {
+      await page.getByRole('button', { name: 'Add a peak window' }).click()
+    }
+    await page.getByLabel('Peak price per kWh').fill('0.2')
+    await page.getByRole('button', { name: 'Save prices' }).click()
+    await page.getByRole('heading', { name: 'Peak and off-peak hours, by site' }).waitFor()
+    await page.getByText('Drawn in peak hours').waitFor()
+    expect(await fitsWidth(page)).toBe(true)
+    await page.screenshot({ path: `screenshots/report-energy-peak-${name}.png`, fullPage: true })
     await context.close()
   })
 })

@@ -3,7 +3,7 @@ import type { ReportResponse } from '#shared/types/reports'
 import { isEffectiveRecord, rowsOf, uuidArray } from '../due/effective'
 import { batteryFacts, RECENT_DAYS, yearsBetween } from './battery-facts'
 import { chartSvg } from './chart'
-import { num, numOrNull, scopeCte, type ReportScope } from './scope'
+import { num, numOrNull, scopeCte, siteColumn, type ReportScope } from './scope'
 
 // Mean Ah returned per counted charge, the mean cell spread and the checks that found low cells, per month
 // (and the Ah line of a few batteries), from standing records only.
@@ -73,7 +73,7 @@ export async function batteryHealthReport(scope: ReportScope): Promise<ReportRes
         note: t('report.health.fleet_note', { act: SG_SPREAD_ACT.toFixed(3), days: RECENT_DAYS }),
         chartSvg: null,
         columns: [
-          { key: 'serial', label: t('report.col.battery') }, { key: 'site', label: t('report.col.site') }, { key: 'voltage', label: t('report.col.volts'), decimals: 0 },
+          { key: 'serial', label: t('report.col.battery') }, ...siteColumn(scope), { key: 'voltage', label: t('report.col.volts'), decimals: 0 },
           { key: 'cycles', label: t('report.col.cycles'), decimals: 0 }, { key: 'ratedCycles', label: t('report.col.rated'), decimals: 0 },
           { key: 'usedPct', label: t('report.col.used'), unit: '%', decimals: 0 }, { key: 'age', label: t('report.col.age'), unit: t('report.unit.years'), decimals: 1 },
           { key: 'ahRecent', label: t('report.col.ah_per_charge'), decimals: 0 }, { key: 'capacityPct', label: t('report.col.vs_before'), unit: '%', decimals: 0 },

@@ -4,7 +4,7 @@ import { CO_LIMITS } from '#shared/utils/co-exposure'
 import { daysInRange } from '#shared/utils/area-checklists'
 import { isEffectiveRecord, rowsOf } from '../due/effective'
 import { chartSvg } from './chart'
-import { chartTop, num, numOrNull, scopeCte, totalsOf, type ReportScope } from './scope'
+import { chartTop, num, numOrNull, scopeCte, totalsOf, siteColumn, type ReportScope } from './scope'
 
 const siteSuffix = (scope: ReportScope) => sql`CASE WHEN ${scope.siteIds.length > 1} THEN ' · ' || scope.site_name ELSE '' END`
 
@@ -132,7 +132,7 @@ export async function complianceReport(scope: ReportScope): Promise<ReportRespon
         title: t('report.compliance.evaluations_title'),
         note: t('report.compliance.evaluations_note'),
         chartSvg: null,
-        columns: [{ key: 'person', label: t('report.col.operator') }, { key: 'site', label: t('report.col.site') }, { key: 'dueOn', label: t('report.col.due') }],
+        columns: [{ key: 'person', label: t('report.col.operator') }, ...siteColumn(scope), { key: 'dueOn', label: t('report.col.due') }],
         rows: evaluations,
       },
     ],

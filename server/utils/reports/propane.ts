@@ -4,7 +4,7 @@ import { PROPANE_LB_PER_GAL_60F } from '#shared/utils/lp-gas'
 import { KG_PER_LB, LITRES_PER_US_GAL } from '#shared/utils/units'
 import { isEffectiveRecord, rowsOf } from '../due/effective'
 import { chartSvg } from './chart'
-import { chartTop, money, num, numberText, scopeCte, totalsOf, type ReportScope } from './scope'
+import { chartTop, money, num, numberText, scopeCte, totalsOf, siteColumn, type ReportScope } from './scope'
 
 // Standing refills in the range by month (net pounds, gallons at 60 °F as recorded, cost at the price per
 // gallon kept on each refill when it was recorded, else the site's price now) and the refused ones with their reasons; propane per truck from the cylinder changes:
@@ -114,7 +114,7 @@ export async function propaneReport(scope: ReportScope): Promise<ReportResponse>
         title: t('report.propane.requal_title'),
         note: t('report.propane.requal_note'),
         chartSvg: null,
-        columns: [{ key: 'serial', label: t('report.col.cylinder') }, { key: 'site', label: t('report.col.site') }, { key: 'dueOn', label: t('report.col.due') }, { key: 'what', label: t('report.col.what') }],
+        columns: [{ key: 'serial', label: t('report.col.cylinder') }, ...siteColumn(scope), { key: 'dueOn', label: t('report.col.due') }, { key: 'what', label: t('report.col.what') }],
         rows: requal,
       },
     ],

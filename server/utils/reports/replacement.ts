@@ -2,7 +2,7 @@ import type { ReportResponse } from '#shared/types/reports'
 import { cyclesPerDay, nextQuarters, quarterOf, ratedCyclesReachedOn } from '#shared/utils/report-math'
 import { batteryFacts, RECENT_DAYS } from './battery-facts'
 import { chartSvg } from './chart'
-import { money, totalsOf, type ReportScope } from './scope'
+import { money, totalsOf, siteColumn, type ReportScope } from './scope'
 
 /** Each battery's forecast: the day it reaches its rated cycles at its own recent rate. */
 export function replacementForecast(scope: ReportScope, facts: Awaited<ReturnType<typeof batteryFacts>>) {
@@ -52,7 +52,7 @@ export async function replacementReport(scope: ReportScope): Promise<ReportRespo
         note: t('report.replacement.battery_note'),
         chartSvg: null,
         columns: [
-          { key: 'serial', label: t('report.col.battery') }, { key: 'site', label: t('report.col.site') }, { key: 'cycles', label: t('report.col.cycles'), decimals: 0 }, { key: 'ratedCycles', label: t('report.col.rated'), decimals: 0 },
+          { key: 'serial', label: t('report.col.battery') }, ...siteColumn(scope), { key: 'cycles', label: t('report.col.cycles'), decimals: 0 }, { key: 'ratedCycles', label: t('report.col.rated'), decimals: 0 },
           { key: 'perWeek', label: t('report.col.recent_rate'), unit: t('report.unit.cycles_week'), decimals: 1 }, { key: 'reachesOn', label: t('report.col.reaches_rated') }, { key: 'price', label: t('report.col.price'), unit: cur, decimals: 2 },
         ],
         rows: forecast.map(b => ({ serial: b.serial, site: b.site, cycles: b.cycles, ratedCycles: b.ratedCycles, perWeek: b.perDay * 7, reachesOn: b.reachesOn, price: b.replacementPrice })),

@@ -1,6 +1,6 @@
 import type { H3Event } from 'h3'
 import type { SQL } from 'drizzle-orm'
-import type { ReportCell, ReportResponse } from '#shared/types/reports'
+import type { ReportCell, ReportColumn, ReportResponse } from '#shared/types/reports'
 import type { Ability } from '#shared/utils/abilities'
 import { refusalFor } from '#shared/utils/abilities'
 import { reportQuerySchema, type ReportQuery } from '#shared/utils/report-schemas'
@@ -106,4 +106,9 @@ export function totalsOf<T extends object, K extends keyof T>(rows: readonly T[]
   const totals = Object.fromEntries(keys.map(k => [k, 0])) as Record<K, number>
   for (const row of rows) for (const k of keys) totals[k] += Number(row[k] ?? 0)
   return totals
+}
+
+/** The Site column of a table, only when the report covers more than one site (on a phone it is width wasted). */
+export function siteColumn(scope: ReportScope): ReportColumn[] {
+  return scope.sites.length > 1 ? [{ key: 'site', label: scope.t('report.col.site') }] : []
 }

@@ -70,7 +70,8 @@ export async function shortfallReport(scope: ReportScope): Promise<ReportRespons
           series: [{ name: t('report.shortfall.series'), data: hours.map(h => h.shortfalls) }, { name: t('report.shortfall.share_pct'), type: 'line', data: hours.map(h => (h.share === null ? null : Math.round(h.share))) }],
         }),
         columns: [{ key: 'hour', label: t('report.col.hour') }, { key: 'swaps', label: t('report.col.swaps'), decimals: 0 }, { key: 'shortfalls', label: t('report.col.short'), decimals: 0 }, { key: 'share', label: t('report.col.share'), unit: '%', decimals: 0 }],
-        rows: hours,
+        // 24 rows of zeros say less than "nothing recorded"
+        rows: total.swaps > 0 ? hours : [],
       },
       {
         key: 'area',
