@@ -92,7 +92,7 @@ describe('reports in the browser', () => {
     if (await page.getByRole('button', { name: 'Add a peak window' }).isVisible() && await page.getByText('Peak window 1').count() === 0) {
       await page.getByRole('button', { name: 'Add a peak window' }).click()
     }
-    await page.getByLabel('Peak price per kWh').fill('0.2')
+    await page.getByLabel('Peak price per kWh', { exact: true }).fill('0.2')
     await page.getByRole('button', { name: 'Save prices' }).click()
     await page.getByRole('heading', { name: 'Peak and off-peak hours, by site' }).waitFor()
     await page.getByText('Drawn in peak hours').waitFor()
