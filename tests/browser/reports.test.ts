@@ -57,6 +57,8 @@ describe('reports in the browser', () => {
       await page.locator('h2').first().waitFor()
       await page.getByText('The figures are aids for planning').first().waitFor()
       expect(await fitsWidth(page), kind).toBe(true)
+      // the fleet's twelve columns cannot fit a phone: the table says it scrolls sideways
+      if (kind === 'battery-health' && name === 'phone') await page.getByText('Swipe the table sideways for more columns.').first().waitFor()
       await page.screenshot({ path: `screenshots/report-${kind}-${name}.png`, fullPage: true })
     }
     await context.close()
