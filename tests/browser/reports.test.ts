@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { setup } from '@nuxt/test-utils/e2e'
 import { mkdirSync } from 'node:fs'
+import AxeBuilder from '@axe-core/playwright'
 import type { Browser, Page } from 'playwright-core'
 import { eq } from 'drizzle-orm'
 import { builtServer } from '../support/http'
@@ -57,6 +58,9 @@ describe('reports in the browser', () => {
       await page.locator('h2').first().waitFor()
       await page.getByText('The figures are aids for planning').first().waitFor()
       expect(await fitsWidth(page), kind).toBe(true)
+      // WCAG 2.1 AA as axe checks it (serious and critical findings), as tests/browser/accessibility.test.ts does
+      const axe = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa']).options({ resultTypes: ['violations'] }).analyze()
+      expect(axe.violations.filter(v => v.impact === 'serious' || v.impact === 'critical').map(v => `${v.id}: ${v.nodes[0]?.target}`), kind).toEqual([])
       // the fleet's twelve columns cannot fit a phone: the table says it scrolls sideways
       if (kind === 'battery-health' && name === 'phone') await page.getByText('Swipe the table sideways for more columns.').first().waitFor()
       await page.screenshot({ path: `screenshots/report-${kind}-${name}.png`, fullPage: true })
