@@ -5,12 +5,14 @@ export function useReportRange() {
   const route = useRoute()
   const router = useRouter()
   const session = useSessionStore()
+  const { locale } = useI18n()
   const fallback = defaultReportRange()
   const text = (v: unknown) => (typeof v === 'string' && v ? v : undefined)
   const from = computed(() => text(route.query.from) ?? fallback.from)
   const to = computed(() => text(route.query.to) ?? fallback.to)
   const siteId = computed(() => text(route.query.site) ?? session.siteId ?? '')
-  const query = computed(() => ({ siteId: siteId.value, from: from.value, to: to.value }))
+  // the page's language goes with the query, so the server writes the report's words in it (and a change refetches)
+  const query = computed(() => ({ siteId: siteId.value, from: from.value, to: to.value, lang: locale.value }))
   function change(v: { from: string, to: string, siteId: string }) {
     router.replace({ query: { ...route.query, from: v.from, to: v.to, site: v.siteId } })
   }

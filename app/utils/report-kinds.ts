@@ -3,19 +3,19 @@ import type { Ability } from '#shared/utils/abilities'
 
 export interface ReportKindInfo {
   kind: ReportKind
-  title: string
-  blurb: string
+  /** its words: report.kind.<key>.title and .blurb in i18n/locales */
+  key: string
   /** the route's ability (shared/utils/abilities.ts) */
   ability: Ability
 }
 
 export const REPORT_KIND_INFO: ReportKindInfo[] = [
-  { kind: 'energy', title: 'Energy and cost', blurb: 'kWh and cost by month, charging area and charger; hours on charge per day.', ability: 'report.fleet' },
-  { kind: 'battery-health', title: 'Battery health', blurb: 'Cycles against rated, Ah per charge over time, cell spread; the fleet by risk.', ability: 'report.fleet' },
-  { kind: 'replacement', title: 'Replacement forecast', blurb: 'When each battery reaches its rated cycles, and the cost by quarter.', ability: 'report.fleet' },
-  { kind: 'shortfall', title: 'Shift-change shortfall', blurb: 'Swaps short of a ready battery by hour and area; batteries per truck.', ability: 'report.fleet' },
-  { kind: 'propane', title: 'Propane', blurb: 'Pounds and gallons by month and truck, cost, refused refills, requalifications due.', ability: 'report.fleet' },
-  { kind: 'compliance', title: 'Compliance', blurb: 'Emissions pass rate, indoor CO averages, area-log completion, evaluations due.', ability: 'report.view' },
+  { kind: 'energy', key: 'energy', ability: 'report.fleet' },
+  { kind: 'battery-health', key: 'battery_health', ability: 'report.fleet' },
+  { kind: 'replacement', key: 'replacement', ability: 'report.fleet' },
+  { kind: 'shortfall', key: 'shortfall', ability: 'report.fleet' },
+  { kind: 'propane', key: 'propane', ability: 'report.fleet' },
+  { kind: 'compliance', key: 'compliance', ability: 'report.view' },
 ]
 
 export function reportKindInfo(kind: string): ReportKindInfo | undefined {

@@ -80,6 +80,7 @@ export const ABILITIES = {
   'qualification.grant': at(['safety_lead', 'admin'], 'record someone else\'s training and evaluation'),
   'mail.manage': at(ADMINS, 'see and resend the site\'s mail'),
   'site.edit': at(ADMINS, 'change the site\'s settings'),
+  'site.tariff': at(['facilities_lead', 'admin'], 'set the site\'s electricity prices and peak hours'),
   'site.create': { scope: 'any-site', roles: ADMINS, does: 'add a site' },
 
   // pre-shift truck inspection and who may drive (29 CFR 1910.178(q)(7), (l)(4))

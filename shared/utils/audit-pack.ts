@@ -29,14 +29,17 @@ export interface AuditPackStamp {
   madeBy: string
 }
 
+/** Words by dotted key from the locale files (audit_pack.pdf.*), in the language of the person who asked. */
+export type PackWords = (key: string, params?: Record<string, string | number>) => string
+
 /** The line at the top of every page. */
-export function pageHeaderText(s: AuditPackStamp): string {
-  return `${s.siteName} · Records ${s.from} to ${s.to} · Made ${s.madeAt} by ${s.madeBy}`
+export function pageHeaderText(s: AuditPackStamp, t: PackWords): string {
+  return t('audit_pack.pdf.header', { site: s.siteName, from: s.from, to: s.to, at: s.madeAt, by: s.madeBy })
 }
 
 /** The line at the foot of every page. */
-export function pageNumberText(page: number, pages: number): string {
-  return `Page ${page} of ${pages}`
+export function pageNumberText(page: number, pages: number, t: PackWords): string {
+  return t('audit_pack.pdf.page', { page, pages })
 }
 
 /** What a row carries about corrections (the record it corrects, the record that replaced it). */
@@ -58,10 +61,10 @@ export function correctionRole(r: Pick<CorrectionFacts, 'correctsId' | 'correcte
   return r.correctsId ? 'correction' : 'standing'
 }
 
-export function correctionText(r: CorrectionFacts): string {
+export function correctionText(r: CorrectionFacts, t: PackWords): string {
   const parts: string[] = []
-  if (r.correctsId) parts.push(`Correction by ${r.recordedBy}, ${r.recordedAt}: ${r.correctionReason ?? ''}`.trim())
-  if (r.correctedById) parts.push(`Replaced by a correction (${r.correctedBy ?? 'someone'}, ${r.correctedAt ?? ''})`)
+  if (r.correctsId) parts.push(t('audit_pack.pdf.correction_by', { by: r.recordedBy, at: r.recordedAt, reason: r.correctionReason ?? '' }).trim())
+  if (r.correctedById) parts.push(t('audit_pack.pdf.replaced_by', { by: r.correctedBy ?? t('audit_pack.pdf.word.someone'), at: r.correctedAt ?? '' }))
   return parts.join(' · ')
 }
 
@@ -102,10 +105,10 @@ export function coTwaRow(area: string, day: string, readings: readonly CoReading
 }
 
 /** The check column of a TWA row, naming the limits it is read against. */
-export function coTwaVerdict(r: CoTwaRow): string {
-  if (r.overOshaPel) return `Over the OSHA PEL ${CO_LIMITS.oshaPel.ppm} ppm`
-  if (r.overSiteLimit) return `Over the site limit ${r.siteLimitPpm} ppm`
-  return 'Within limits'
+export function coTwaVerdict(r: CoTwaRow, t: PackWords): string {
+  if (r.overOshaPel) return t('audit_pack.pdf.over_pel', { ppm: CO_LIMITS.oshaPel.ppm })
+  if (r.overSiteLimit) return t('audit_pack.pdf.over_site', { ppm: r.siteLimitPpm })
+  return t('audit_pack.pdf.within')
 }
 
 /** Groups readings streamed in (area, day) order into TWA rows; `push` answers the row of a group just closed. */

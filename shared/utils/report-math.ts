@@ -11,12 +11,16 @@ export function percentChange(now: number, before: number): number | null {
 }
 
 /** "+12 %", "−3 %", "no figure last month" for the headline figures. */
-export function changeWords(now: number, before: number, what = 'last month'): string {
+export function changeWords(now: number, before: number, what = 'last month', words: ChangeWords = ENGLISH_CHANGE): string {
   const p = percentChange(now, before)
-  if (p === null) return `nothing recorded ${what}`
+  if (p === null) return words.nothing(what)
   const rounded = Math.round(p)
-  return `${rounded > 0 ? '+' : rounded < 0 ? '−' : '±'}${Math.abs(rounded)} % on ${what}`
+  return words.pct(`${rounded > 0 ? '+' : rounded < 0 ? '−' : '±'}${Math.abs(rounded)}`, what)
 }
+
+/** How a change is said in a language: the signed percent ("+12") and what it is against. */
+export interface ChangeWords { pct: (signed: string, what: string) => string, nothing: (what: string) => string }
+const ENGLISH_CHANGE: ChangeWords = { pct: (signed, what) => `${signed} % on ${what}`, nothing: what => `nothing recorded ${what}` }
 
 /** Cycles per day at the battery's recent rate (counted cycles in the window ÷ the window's days). */
 export function cyclesPerDay(cyclesInWindow: number, windowDays: number): number {

@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { isoDateSchema } from './iso-date'
 import { daysInRange } from './area-checklists'
+import { LANGUAGES } from './languages'
 
 /** The longest range one report covers (days): three years of monthly figures. */
 export const REPORT_MAX_DAYS = 3 * 366
@@ -14,13 +15,14 @@ export function defaultReportRange(today: Date = new Date()): { from: string, to
   return { from: back.toISOString().slice(0, 10), to }
 }
 
-// ?siteId=<uuid>|all&from=YYYY-MM-DD&to=YYYY-MM-DD&format=json|csv&section=<key>
+// ?siteId=<uuid>|all&from=YYYY-MM-DD&to=YYYY-MM-DD&format=json|csv&section=<key>&lang=en|es (the page's language)
 export const reportQuerySchema = z.object({
   siteId: z.union([z.literal('all'), z.uuid()], 'Pick a site, or "all" for all of yours.'),
   from: isoDateSchema.optional(),
   to: isoDateSchema.optional(),
   format: z.enum(['json', 'csv'], 'Use format=json or format=csv.').default('json'),
   section: z.string().regex(/^[a-z][a-z-]{0,40}$/, 'Not a section of this report.').optional(),
+  lang: z.enum(LANGUAGES, 'Use lang=en or lang=es.').optional(),
 }).transform((q, ctx) => {
   const range = defaultReportRange()
   const from = q.from ?? (q.to ? defaultReportRange(new Date(`${q.to}T00:00:00Z`)).from : range.from)

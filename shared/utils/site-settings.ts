@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { peakPeriodsSchema } from './tariff'
 
 // Site policy: the thresholds the battery room and fuel station apply. Intervals are not here: every
 // interval (watering, equalize, inspections, emissions, follow-ups) is a schedule on the Schedules page.
@@ -16,7 +17,11 @@ export const siteSettingsSchema = z.object({
   maxChargeTempF: z.number().min(80).max(140).default(115),
   /** What a swap does without a current battery-changing qualification. */
   qualificationPolicy: z.enum(['warn', 'block']).default('warn'),
+  /** The electricity price per kWh; with peak windows set, the off-peak price. */
   tariffPerKwh: z.number().min(0).max(10).default(0.12),
+  /** Time-of-use: the site-local windows billed at peakPerKwh (none: one tariff). See shared/utils/tariff.ts. */
+  peakPeriods: peakPeriodsSchema.default([]),
+  peakPerKwh: z.number().min(0).max(10).default(0),
   currency: z.string().length(3).default('USD'),
   /** What a US gallon of propane costs the site (0: not entered; the propane report then shows no cost). */
   propanePerGal: z.number().min(0).max(100).default(0),

@@ -6,6 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { setup, url } from '@nuxt/test-utils/e2e'
 import { strFromU8, unzipSync } from 'fflate'
 import { builtServer, type Client } from '../support/http'
+import { eq } from 'drizzle-orm'
 import { closeTestDb, site, tables, useTestDb } from '../support/db'
 import { PDF_BYTES, freshCylinder, fuelPerson, fuelStation, isoDaysFromNow, lpTruck, passingInspection, upload } from '../support/fuel'
 import { CHARGING_KEYS, allPass, chargingArea, eventually, person, todayIn } from '../support/due'
@@ -125,6 +126,22 @@ describe('audit pack', () => {
     expect(logs.split('\r\n')[0]).toContain('record_id,corrects,corrected_by,correction_reason')
     expect(logs).toContain(CORRECTION_REASON)
     expect(strFromU8(files['co-twa.csv']!)).toContain('38.8')
+  })
+
+  it('the pack is written in the language of the person who asks; what was recorded stays as written', async () => {
+    const reader = await person(siteId, ['safety_lead'])
+    await useTestDb().update(tables.users).set({ language: 'es' }).where(eq(tables.users.id, reader.id))
+    const start = await reader.client.post('/api/audit-packs', { siteId, from, to })
+    expect(start.status, JSON.stringify(start.body)).toBe(202)
+    const job = await eventually(async () => {
+      const r = await reader.client.get(`/api/jobs/${start.body.id}`)
+      return r.body.status !== 'running' ? r.body : null
+    }, 60_000)
+    expect(job, JSON.stringify(job)).toMatchObject({ status: 'done' })
+    const text = pdfText((await download(reader.client, `/api/audit-packs/${start.body.id}/pdf`)).bytes)
+    for (const words of ['Paquete de auditoría', '1. Bitácoras del área', '5. Lecturas de CO en interiores', 'Sobre el límite', 'Página 1 de']) expect(text).toContain(words)
+    expect(text).toContain(CORRECTION_REASON.slice(0, 20))
+    expect(text).not.toContain('Replaced by a correction')
   })
 
   it('a technician is refused; a lead of another site gets nothing of this site, nor this pack', async () => {

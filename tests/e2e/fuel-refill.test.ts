@@ -7,6 +7,7 @@ import {
   freshCylinder, fuelPerson, fuelStation, isoDaysFromNow, lpTransferQualification, lpTruck, passingInspection, refillsOf, storedCylinder,
 } from '../support/fuel'
 import type { Role } from '../../shared/types/auth'
+import { defaultSiteSettings } from '../../shared/utils/site-settings'
 
 await setup(builtServer)
 
@@ -40,6 +41,21 @@ describe('cylinder refill', () => {
     expect((await storedCylinder(c.id)).status).toBe('full')
     const [audit] = await useTestDb().select().from(tables.auditLog).where(and(eq(tables.auditLog.entity, 'cylinder_refill'), eq(tables.auditLog.entityId, res.body.item.id)))
     expect(audit?.action).toBe('refill')
+  })
+
+  it('a refill keeps the site\'s propane price of the day; a later price leaves it as it was', async () => {
+    const settings = (price: number) => useTestDb().update(tables.sites).set({ settings: { ...defaultSiteSettings(), propanePerGal: price } }).where(eq(tables.sites.id, siteId))
+    await settings(2.75)
+    const c = await freshCylinder(siteId, { areaId })
+    const res = await tech.post(`/api/cylinders/${c.id}/refills`, { inspection: passingInspection(), ...FILL })
+    expect(res.status, JSON.stringify(res.body)).toBe(201)
+    expect(res.body.item.pricePerGal).toBe(2.75)
+    await settings(3.5)
+    const [stored] = await refillsOf(c.id)
+    expect(stored!.pricePerGal).toBe(2.75)
+    await settings(0)
+    const unpriced = await tech.post(`/api/cylinders/${(await freshCylinder(siteId, { areaId })).id}/refills`, { inspection: passingInspection(), ...FILL })
+    expect(unpriced.body.item.pricePerGal).toBeNull()
   })
 
   it('the same idempotency key twice stores one refill', async () => {

@@ -99,6 +99,21 @@ describe('reports', () => {
     expect((await lead.get(`/api/reports/energy?siteId=${siteA}&format=csv&section=nope`)).status).toBe(404)
   })
 
+  it('in Spanish when the page asks, or when it is the person\'s setting; the figures stay the same', async () => {
+    const es = await report(lead, 'energy', `siteId=${siteA}&${range}&lang=es`)
+    expect(es.body.title).toBe('Energía y costo')
+    expect(es.body.figures[0]).toMatchObject({ label: 'Energía usada', detail: '2 cargas' })
+    expect(section(es.body, 'month').columns.map(c => c.label)).toEqual(['Mes', 'Cargas', 'Energía', 'Costo', 'Por carga'])
+    expect(section(es.body, 'month').rows.find(r => r.month === '2026-03')!.kwh).toBeCloseTo(45.412, 3)
+    const csv = await lead.get(`/api/reports/energy?siteId=${siteA}&${range}&format=csv&section=month&lang=es`)
+    expect(String(csv.body).replace(/^\uFEFF/, '').split(/\r?\n/)[0]).toBe('Mes,Cargas,Energía (kWh),Costo (USD),Por carga (kWh)')
+    const reader = await user({ siteId: siteA, roles: ['facilities_lead'] })
+    await useTestDb().update(tables.users).set({ language: 'es' }).where(eq(tables.users.id, reader.id))
+    const setting = await report(await signIn(reader), 'shortfall', `siteId=${siteA}&${range}`)
+    expect(setting.body.title).toBe('Tamaño de la flota: faltantes en el cambio de turno')
+    expect((await report(lead, 'energy', `siteId=${siteA}&${range}&lang=fr`)).status).toBe(400)
+  })
+
   it('battery health and the forecast read cycles from the battery\'s status (the corrected charge once)', async () => {
     const health = await report(lead, 'battery-health', `siteId=${siteA}&${range}`)
     const row = section(health.body, 'fleet').rows.find(r => r.serial !== undefined)!
@@ -137,6 +152,18 @@ describe('reports', () => {
     expect(march.volume).toBeCloseTo(12, 9)
     expect(march.cost).toBeCloseTo(36, 9)
     expect(section(res.body, 'refused').rows).toEqual([{ reason: 'Past its requalification date', refusals: 1 }])
+    // the fixture's refills carry no price of the day, so they are costed at today's and the report says so
+    expect(res.body.caveats.join(' ')).toContain('2 refills were recorded before')
+  })
+
+  it('propane: a refill that kept its price of the day is costed at it, not at today\'s price', async () => {
+    const cyl = await cylinder({ siteId: siteA })
+    const techId = (await user({ siteId: siteA, roles: ['technician'] })).id
+    // 8.4 lb ÷ 4.2 lb/gal = 2 gal, bought at 2.50 a gallon = 5.00 (today's price is 3.00, which would give 6.00)
+    await useTestDb().insert(tables.cylinderRefills).values({ siteId: siteA, userId: techId, cylinderId: cyl.id, at: new Date('2026-04-10T15:00:00Z'), inspection: {}, netAddedLb: 8.4, gallonsAt60F: 2, pricePerGal: 2.5 })
+    const res = await report(lead, 'propane', `siteId=${siteA}&from=2026-04-01&to=2026-04-30`)
+    expect(section(res.body, 'month').rows.find(r => r.month === '2026-04')!.cost).toBeCloseTo(5, 9)
+    expect(res.body.caveats).toEqual([])
   })
 
   it('who may read what: a technician is refused, another site is not found, "all" means the person\'s own sites', async () => {

@@ -11,4 +11,5 @@ export const REPORT_EXAMPLES: Record<string, Example> = {
   'server/api/reports/propane.get.ts': report('propane'),
   'server/api/reports/compliance.get.ts': report('compliance'),
   'server/api/reports/summary.get.ts': report('summary'),
+  'server/api/sites/[id]/tariff.put.ts': { run: x => () => x.c.put(`/api/sites/${x.w.siteId}/tariff`, { tariffPerKwh: 0.12, peakPerKwh: 0.2, peakPeriods: [{ days: [1, 2, 3, 4, 5], start: '12:00', end: '18:00' }] }) },
 }

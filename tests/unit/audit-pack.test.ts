@@ -3,6 +3,10 @@ import {
   AUDIT_PACK_MAX_DAYS, CoTwaGrouper, StandingTally, auditPackRequestSchema, cellNumber, correctionRole, correctionText,
   coTwaRow, coTwaVerdict, pageHeaderText, pageNumberText, type CorrectionFacts,
 } from '../../shared/utils/audit-pack'
+import { mailWords } from '../../server/utils/mail-words'
+
+const en = mailWords('en')
+const es = mailWords('es')
 
 const SITE = '3f1c2a4e-5b6d-4e7f-8a9b-0c1d2e3f4a5b'
 const facts = (over: Partial<CorrectionFacts> = {}): CorrectionFacts => ({
@@ -39,9 +43,15 @@ describe('audit pack request', () => {
 
 describe('page header and number', () => {
   it('names the site, the range, when and by whom', () => {
-    expect(pageHeaderText({ siteName: 'Millbrook DC', from: '2026-01-01', to: '2026-12-31', madeAt: '2026-12-02 10:15', madeBy: 'Rosa Delgado' }))
+    expect(pageHeaderText({ siteName: 'Millbrook DC', from: '2026-01-01', to: '2026-12-31', madeAt: '2026-12-02 10:15', madeBy: 'Rosa Delgado' }, en))
       .toBe('Millbrook DC · Records 2026-01-01 to 2026-12-31 · Made 2026-12-02 10:15 by Rosa Delgado')
-    expect(pageNumberText(3, 41)).toBe('Page 3 of 41')
+    expect(pageNumberText(3, 41, en)).toBe('Page 3 of 41')
+  })
+
+  it('is written in the language of the person who asked', () => {
+    expect(pageHeaderText({ siteName: 'Millbrook DC', from: '2026-01-01', to: '2026-12-31', madeAt: '2026-12-02 10:15', madeBy: 'Rosa Delgado' }, es))
+      .toBe('Millbrook DC · Registros del 2026-01-01 al 2026-12-31 · Hecho 2026-12-02 10:15 por Rosa Delgado')
+    expect(pageNumberText(3, 41, es)).toBe('Página 3 de 41')
   })
 })
 
@@ -52,9 +62,9 @@ describe('corrections in the pack', () => {
     expect(correctionRole(original)).toBe('corrected')
     expect(correctionRole(correction)).toBe('correction')
     expect(correctionRole(facts())).toBe('standing')
-    expect(correctionText(original)).toBe('Replaced by a correction (Sam Reyes, 2026-03-04 09:00)')
-    expect(correctionText(correction)).toBe('Correction by Sam Reyes, 2026-03-04 09:00: Wrong item ticked.')
-    expect(correctionText(facts())).toBe('')
+    expect(correctionText(original, en)).toBe('Replaced by a correction (Sam Reyes, 2026-03-04 09:00)')
+    expect(correctionText(correction, en)).toBe('Correction by Sam Reyes, 2026-03-04 09:00: Wrong item ticked.')
+    expect(correctionText(facts(), en)).toBe('')
   })
 
   it('totals count a corrected record once: 3 records, one corrected once and one corrected twice → 3 stand', () => {
@@ -77,7 +87,7 @@ describe('CO 8-hour TWA by area and day', () => {
     const row = coTwaRow('Charging area 1', '2026-03-04', [{ ppm: 20, hours: 3 }, { ppm: 60, hours: 4 }, { ppm: 10, hours: 1 }], 35)
     expect(row).toMatchObject({ readings: 3, sampledHours: 8, peakPpm: 60, overSiteLimit: true, overOshaPel: false })
     expect(row.twaPpm).toBeCloseTo(38.75, 9)
-    expect(coTwaVerdict(row)).toBe('Over the site limit 35 ppm')
+    expect(coTwaVerdict(row, en)).toBe('Over the site limit 35 ppm')
   })
 
   // 2 h at 150 + 2 h at 75 + 4 h at 50 → 81.25 ppm: the worked example of 29 CFR 1910.1000(d)(1)(ii) (from memory),
@@ -85,7 +95,7 @@ describe('CO 8-hour TWA by area and day', () => {
   it('the regulation\'s worked example, 81.25 ppm, is over the OSHA PEL 50 ppm', () => {
     const row = coTwaRow('Fuel station', '2026-03-05', [{ ppm: 150, hours: 2 }, { ppm: 75, hours: 2 }, { ppm: 50, hours: 4 }], 35)
     expect(row.twaPpm).toBeCloseTo(81.25, 9)
-    expect(coTwaVerdict(row)).toBe('Over the OSHA PEL 50 ppm')
+    expect(coTwaVerdict(row, en)).toBe('Over the OSHA PEL 50 ppm')
   })
 
   // 2 h at 12 ppm sampled of an 8-h shift: 24 / 8 = 3 ppm (the 6 h unsampled count as zero).
@@ -103,7 +113,7 @@ describe('CO 8-hour TWA by area and day', () => {
       ['Area A', '2026-03-05', 1, 40], // 8 h × 40 ppm / 8 h
       ['Area B', '2026-03-04', 1, 2.5], // 4 h × 5 ppm / 8 h
     ])
-    expect(coTwaVerdict(out[1]!)).toBe('Over the site limit 35 ppm')
+    expect(coTwaVerdict(out[1]!, en)).toBe('Over the site limit 35 ppm')
   })
 
   it('writes numbers without trailing zeros', () => {
@@ -120,7 +130,7 @@ describe('section rows', async () => {
   it('every table has as many cells as columns and a CSV name of its own', () => {
     const files = PACK_SECTIONS.flatMap(s => s.tables.map(t => t.file))
     expect(new Set(files).size).toBe(files.length)
-    expect(PACK_SECTIONS.map(s => s.title)).toEqual([
+    expect(PACK_SECTIONS.map(s => en(`audit_pack.pdf.section.${s.key}`))).toEqual([
       'Area logs', 'Emissions tests', 'Cylinder requalifications', 'Refused refills', 'Indoor CO readings',
       'Training, evaluations and retraining', 'Incidents and follow-ups',
     ])
@@ -128,7 +138,7 @@ describe('section rows', async () => {
 
   it('a refused refill reads when, which cylinder, why and who', () => {
     const row = { ...facts(), id: 'r1', at: '2026-03-04 07:15', cylinder: 'LP-0042', reasons: ['Past its requalification date', 'Dented collar'], failed: 'collar; dents' }
-    const cells = table('refused-refills.csv').cells(row)
+    const cells = table('refused-refills.csv').cells(row, en)
     expect(cells).toEqual(['2026-03-04 07:15', 'LP-0042', 'Past its requalification date; Dented collar', 'collar; dents', 'Dana Okafor', ''])
     expect(cells).toHaveLength(table('refused-refills.csv').columns.length)
   })
@@ -138,15 +148,18 @@ describe('section rows', async () => {
       ...facts({ correctsId: 'e1', correctionReason: 'Eyewash was tested after all.' }), id: 'e2', period: '2026-03-04', cadence: 'daily',
       area: 'Charging area 1', item: 'Eyewash flushed', note: '', result: 'pass', signedBy: null, signedAt: null,
     }
-    const cells = table('area-logs.csv').cells(row)
+    const cells = table('area-logs.csv').cells(row, en)
     expect(cells).toEqual(['2026-03-04 (daily)', 'Charging area 1', 'Eyewash flushed', 'Pass', 'Dana Okafor, 2026-03-04 07:15', 'Not signed',
       'Correction by Dana Okafor, 2026-03-04 07:15: Eyewash was tested after all.'])
+    // in Spanish the pack's own words change; what was recorded (area, item, reason) stays as written
+    expect(table('area-logs.csv').cells(row, es)).toEqual(['2026-03-04 (daily)', 'Charging area 1', 'Eyewash flushed', 'Pasa', 'Dana Okafor, 2026-03-04 07:15', 'Sin firmar',
+      'Corrección de Dana Okafor, 2026-03-04 07:15: Eyewash was tested after all.'])
   })
 
   it('an emissions test lists its certificate, or says none was uploaded', () => {
     const base = { ...facts(), id: 't1', testedOn: '2026-05-02', truck: 'MB-07', tester: 'Invented Tailpipe Services', coIdle: 0.4, coHighIdle: 0.5, hc: 120, passed: true, reasons: [], nextDueOn: '2027-05-02' }
-    expect(table('emissions-tests.csv').cells({ ...base, certificate: 'MB-07 2026.pdf' })[7]).toBe('MB-07 2026.pdf')
-    expect(table('emissions-tests.csv').cells({ ...base, certificate: null })[7]).toBe('None uploaded')
-    expect(table('emissions-tests.csv').cells({ ...base, certificate: null })[5]).toBe('Pass')
+    expect(table('emissions-tests.csv').cells({ ...base, certificate: 'MB-07 2026.pdf' }, en)[7]).toBe('MB-07 2026.pdf')
+    expect(table('emissions-tests.csv').cells({ ...base, certificate: null }, en)[7]).toBe('None uploaded')
+    expect(table('emissions-tests.csv').cells({ ...base, certificate: null }, en)[5]).toBe('Pass')
   })
 })

@@ -5,7 +5,8 @@ import { startAuditPack } from '../../utils/audit-pack/start'
 export default defineAbilityHandler('audit-pack.make', async (event) => {
   const body = await validateBody(event, auditPackRequestSchema)
   const actor = await requireAbility(event, 'audit-pack.make', body.siteId)
-  const job = await startAuditPack(actor, body)
+  // the pack's words in the person's language (their setting, else their browser's)
+  const job = await startAuditPack(actor, body, await readerLanguage(event, actor.user.id))
   setResponseStatus(event, 202)
   return { id: job.id, total: job.total }
 })

@@ -21,6 +21,8 @@ export const cylinderRefills = pgTable('cylinder_refills', {
   fillLimitLb: doublePrecision(),
   overfilled: boolean().notNull().default(false),
   gallonsAt60F: doublePrecision(),
+  /** the site's propane price per US gallon when the refill was recorded (null: none entered then, or recorded before prices were kept) */
+  pricePerGal: doublePrecision(),
   tareFlagged: boolean().notNull().default(false),
   correctsId: uuid().references((): AnyPgColumn => cylinderRefills.id),
   correctionReason: correctionReason(),

@@ -1,8 +1,9 @@
 import type { Sql } from 'postgres'
 import { CoTwaGrouper, StandingTally, cellNumber, coTwaVerdict, type AuditPackStamp, type CoTwaRow } from '#shared/utils/audit-pack'
-import { AID_DISCLAIMER } from '#shared/utils/disclaimer'
+import type { Language } from '#shared/utils/languages'
+import { mailWords, type MailT } from '../mail-words'
 import { AuditPdf } from './pdf'
-import { CO_TWA_TABLE, PACK_SECTIONS, packCoReadings, packEmissionsTests, type PackTable } from './sections'
+import { CO_TWA_TABLE, PACK_SECTIONS, packCoReadings, packEmissionsTests, type PackColumn, type PackColumnKey, type PackTable } from './sections'
 import { CORRECTION_CSV_FIELDS, correctionCsvCells, type PackCorrectableRow } from './sql'
 import { PackZip, certificateFileName } from './zip'
 
@@ -18,6 +19,8 @@ export interface AuditPackInput {
   timeZone: string
   siteLimitPpm: number
   madeBy: string
+  /** the language of the person who asked; the pack's own words are written in it (records stay as written) */
+  language?: Language
 }
 
 export interface AuditPackResult { pages: number, bytes: number, zipBytes: number, certificates: number, counts: Record<string, number> }
@@ -41,33 +44,39 @@ function csvChunk(fields: readonly string[], rows: unknown[][], first: boolean):
   return rows.length ? `${body}\r\n` : ''
 }
 
+/** A table's columns in the reader's words. */
+const columnsIn = (t: MailT, columns: PackColumnKey[]): PackColumn[] => columns.map(c => ({ label: t(`audit_pack.pdf.col.${c.key}`), width: c.width }))
+
 export const auditPackJob = defineJob('audit-pack', async (input: AuditPackInput, run): Promise<AuditPackResult> => {
+  const t = mailWords(input.language)
   const stamp: AuditPackStamp = { siteName: input.siteName, from: input.from, to: input.to, madeAt: siteClock(new Date(), input.timeZone), madeBy: input.madeBy }
-  const pdf = await AuditPdf.create(stamp)
+  const pdf = await AuditPdf.create(stamp, t)
   const zip = new PackZip()
   // the pool's own client, for its cursors (drizzle has none)
   const client = (useDb() as unknown as { $client: Sql }).$client
   const certificates: { key: string, name: string }[] = []
   const counts: Record<string, number> = {}
 
-  pdf.heading('Audit pack')
-  pdf.paragraph(`${input.siteName}, records from ${input.from} to ${input.to} (site time, ${input.timeZone}).`)
-  pdf.paragraph(`Sections: ${PACK_SECTIONS.map((s, i) => `${i + 1}. ${s.title}`).join('; ')}. The ZIP beside this file holds one CSV per table and the uploaded certificates.`)
-  pdf.paragraph('Records are never changed: a correction is a new record naming the one it replaces, with who, when and why. A replaced record is struck through and its correction follows it; totals count each corrected record once.')
-  pdf.paragraph(AID_DISCLAIMER)
+  const sectionTitle = (key: string) => t(`audit_pack.pdf.section.${key}`)
+  pdf.heading(t('audit_pack.pdf.heading'))
+  pdf.paragraph(t('audit_pack.pdf.range', { site: input.siteName, from: input.from, to: input.to, tz: input.timeZone }))
+  pdf.paragraph(t('audit_pack.pdf.sections', { list: PACK_SECTIONS.map((s, i) => `${i + 1}. ${sectionTitle(s.key)}`).join('; ') }))
+  pdf.paragraph(t('audit_pack.pdf.never_changed'))
+  pdf.paragraph(t('floor.aid'))
 
   // Streams one table's rows to the PDF and its CSV; answers how many records stand.
   async function writeTable(table: PackTable, onRow?: (r: Record<string, unknown>) => void): Promise<number> {
     const tally = new StandingTally()
-    const fields = table.corrections ? [...table.columns.map(c => c.label), ...CORRECTION_CSV_FIELDS] : ['record_id', ...table.columns.map(c => c.label)]
+    const columns = columnsIn(t, table.columns)
+    const fields = table.corrections ? [...columns.map(c => c.label), ...CORRECTION_CSV_FIELDS] : ['record_id', ...columns.map(c => c.label)]
     const csv = zip.textFile(table.file)
     csv.push(csvChunk(fields, [], true))
-    pdf.table(table.title, table.columns)
+    pdf.table(t(`audit_pack.pdf.table.${table.title}`), columns)
     const params = [input.siteId, input.from, input.to, ...(table.sql.includes('$4') ? [input.timeZone] : [])]
     for await (const batch of client.unsafe(table.sql, params).cursor(BATCH)) {
       const rows: unknown[][] = []
       for (const r of batch) {
-        const cells = table.cells(r)
+        const cells = table.cells(r, t)
         const record = r as unknown as PackCorrectableRow
         pdf.row(cells, table.corrections && !!record.correctedById)
         if (table.corrections) tally.add(record)
@@ -80,15 +89,15 @@ export const auditPackJob = defineJob('audit-pack', async (input: AuditPackInput
     }
     csv.end()
     const rows = tally.standing + tally.replaced
-    if (rows === 0) pdf.after('No records in the range.')
-    else pdf.after(`${tally.standing} record${tally.standing === 1 ? '' : 's'}${tally.replaced ? `, counting each corrected record once (${tally.replaced} replaced by a correction shown struck through)` : ''}.`)
+    if (rows === 0) pdf.after(t('audit_pack.pdf.no_records'))
+    else pdf.after(t(tally.replaced ? 'audit_pack.pdf.counted_replaced' : 'audit_pack.pdf.counted', { n: tally.standing, replaced: tally.replaced }))
     counts[table.file.replace(/\.csv$/, '')] = tally.standing
     return tally.standing
   }
 
   for (const [i, section] of PACK_SECTIONS.entries()) {
-    pdf.heading(`${i + 1}. ${section.title}`)
-    for (const line of section.intro) pdf.paragraph(line)
+    pdf.heading(`${i + 1}. ${sectionTitle(section.key)}`)
+    for (const line of section.intro) pdf.paragraph(t(`audit_pack.pdf.intro.${line}`))
     const twa = new CoTwaGrouper(input.siteLimitPpm)
     const twaRows: CoTwaRow[] = []
     for (const table of section.tables) {
@@ -103,7 +112,7 @@ export const auditPackJob = defineJob('audit-pack', async (input: AuditPackInput
     if (section.key === 'co') {
       const last = twa.flush()
       if (last) twaRows.push(last)
-      writeTwaTable(pdf, zip, twaRows)
+      writeTwaTable(pdf, zip, twaRows, t)
     }
     await run.progress(i + 1)
   }
@@ -119,14 +128,15 @@ export const auditPackJob = defineJob('audit-pack', async (input: AuditPackInput
   return { pages: pdf.pageCount, bytes: pdfBytes.byteLength, zipBytes: zipBytes.byteLength, certificates: certificates.length, counts }
 })
 
-function writeTwaTable(pdf: AuditPdf, zip: PackZip, rows: CoTwaRow[]) {
-  const cells = (r: CoTwaRow) => [r.day, r.area, String(r.readings), cellNumber(r.sampledHours), cellNumber(r.twaPpm, 1), cellNumber(r.peakPpm, 1), coTwaVerdict(r)]
-  pdf.table(CO_TWA_TABLE.title, CO_TWA_TABLE.columns)
+function writeTwaTable(pdf: AuditPdf, zip: PackZip, rows: CoTwaRow[], t: MailT) {
+  const cells = (r: CoTwaRow) => [r.day, r.area, String(r.readings), cellNumber(r.sampledHours), cellNumber(r.twaPpm, 1), cellNumber(r.peakPpm, 1), coTwaVerdict(r, t)]
+  const columns = columnsIn(t, CO_TWA_TABLE.columns)
+  pdf.table(t(`audit_pack.pdf.table.${CO_TWA_TABLE.title}`), columns)
   rows.sort((a, b) => a.day.localeCompare(b.day) || a.area.localeCompare(b.area))
   for (const r of rows) pdf.row(cells(r))
   const over = rows.filter(r => r.overOshaPel || r.overSiteLimit).length
-  pdf.after(rows.length ? `${rows.length} area-days; ${over} over a limit (OSHA PEL 50 ppm 8-h TWA, 29 CFR 1910.1000 Table Z-1, or the site's limit).` : 'No readings in the range.')
+  pdf.after(rows.length ? t('audit_pack.pdf.twa_after', { n: rows.length, over }) : t('audit_pack.pdf.no_readings'))
   const csv = zip.textFile(CO_TWA_TABLE.file)
-  csv.push(csvChunk(CO_TWA_TABLE.columns.map(c => c.label), rows.map(cells), true))
+  csv.push(csvChunk(columns.map(c => c.label), rows.map(cells), true))
   csv.end()
 }

@@ -3,7 +3,7 @@ import {
   setStrokingRgbColor, setTextMatrix, showText, stroke, type PDFFont, type PDFName, type PDFOperator, type PDFPage,
 } from 'pdf-lib'
 import fontkit from '@pdf-lib/fontkit'
-import { pageHeaderText, pageNumberText, type AuditPackStamp } from '#shared/utils/audit-pack'
+import { pageHeaderText, pageNumberText, type AuditPackStamp, type PackWords } from '#shared/utils/audit-pack'
 import { robotoFlex } from '../labels'
 import type { PackColumn } from './sections'
 
@@ -31,12 +31,13 @@ export class AuditPdf {
   private widths: number[] = []
   private tableTitle = ''
 
-  private constructor(private readonly doc: PDFDocument, private readonly font: PDFFont, private readonly stamp: AuditPackStamp) {}
+  private constructor(private readonly doc: PDFDocument, private readonly font: PDFFont, private readonly stamp: AuditPackStamp, private readonly t: PackWords) {}
 
-  static async create(stamp: AuditPackStamp): Promise<AuditPdf> {
+  /** `t` writes the pack's own words in the language of the person who asked for it. */
+  static async create(stamp: AuditPackStamp, t: PackWords): Promise<AuditPdf> {
     const doc = await PDFDocument.create()
     doc.registerFontkit(fontkit)
-    doc.setTitle(`Audit pack · ${stamp.siteName} · ${stamp.from} to ${stamp.to}`)
+    doc.setTitle(t('audit_pack.pdf.doc_title', { site: stamp.siteName, from: stamp.from, to: stamp.to }))
     doc.setCreator('Bayward')
     const font = await doc.embedFont(robotoFlex(), { subset: true })
     // Encoding a text lays it out with fontkit (about a quarter of a millisecond a cell); a pack repeats most
@@ -49,7 +50,7 @@ export class AuditPdf {
       if (!e) encoded.set(text, e = encode(text))
       return e
     }
-    const pdf = new AuditPdf(doc, font, stamp)
+    const pdf = new AuditPdf(doc, font, stamp, t)
     pdf.newPage()
     return pdf
   }
@@ -152,7 +153,7 @@ export class AuditPdf {
 
   private headerRow(continued: boolean) {
     if (continued) {
-      this.text(`${this.tableTitle} (continued)`, MARGIN, 8, MUTED)
+      this.text(this.t('audit_pack.pdf.continued', { title: this.tableTitle }), MARGIN, 8, MUTED)
       this.y -= 12
     }
     this.cells(this.columns.map(c => c.label), { color: MUTED, rule: true })
@@ -203,13 +204,13 @@ export class AuditPdf {
   /** The stamp on every page and "Page n of N" at each foot, then the bytes. */
   async save(): Promise<Uint8Array> {
     const pages = this.doc.getPages()
-    const header = this.fit(pageHeaderText(this.stamp), PAGE.width - 2 * MARGIN, 9)
+    const header = this.fit(pageHeaderText(this.stamp, this.t), PAGE.width - 2 * MARGIN, 9)
     pages.forEach((page, i) => {
       page.drawText(header, { x: MARGIN, y: PAGE.height - MARGIN - 9, size: 9, font: this.font, color: rgb(...INK) })
       page.drawLine({ start: { x: MARGIN, y: PAGE.height - MARGIN - 14 }, end: { x: PAGE.width - MARGIN, y: PAGE.height - MARGIN - 14 }, thickness: 0.6, color: rgb(...MUTED) })
-      const footer = pageNumberText(i + 1, pages.length)
+      const footer = pageNumberText(i + 1, pages.length, this.t)
       page.drawText(footer, { x: PAGE.width - MARGIN - this.font.widthOfTextAtSize(footer, 8), y: MARGIN, size: 8, font: this.font, color: rgb(...MUTED) })
-      page.drawText('Bayward audit pack', { x: MARGIN, y: MARGIN, size: 8, font: this.font, color: rgb(...MUTED) })
+      page.drawText(this.t('audit_pack.pdf.footer'), { x: MARGIN, y: MARGIN, size: 8, font: this.font, color: rgb(...MUTED) })
     })
     return this.doc.save()
   }

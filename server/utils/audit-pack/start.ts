@@ -1,18 +1,19 @@
 import type { AuditPackRequest } from '#shared/utils/audit-pack'
 import { parseSiteSettings } from '#shared/utils/site-settings'
+import type { Language } from '#shared/utils/languages'
 import { PACK_SECTIONS } from './sections'
 import { auditPackJob, readAuditZip } from './job'
 
 // Starting an audit pack and handing out its files: services called by the routes with (actor, input).
 
 /** Queues the pack of a site and range; the caller has been checked for `audit-pack.make` at the site. */
-export async function startAuditPack(actor: Actor, input: AuditPackRequest) {
+export async function startAuditPack(actor: Actor, input: AuditPackRequest, language: Language) {
   const [site] = await useDb().select({ name: tables.sites.name, timeZone: tables.sites.timeZone, settings: tables.sites.settings })
     .from(tables.sites).where(eq(tables.sites.id, input.siteId))
   if (!site) throw createError({ statusCode: 404, message: 'No such site.' })
   return auditPackJob.start({ siteId: input.siteId, userId: actor.user.id }, PACK_SECTIONS.length, {
     siteId: input.siteId, from: input.from, to: input.to, siteName: site.name, timeZone: site.timeZone,
-    siteLimitPpm: parseSiteSettings(site.settings).coSiteLimitPpm, madeBy: actor.user.name,
+    siteLimitPpm: parseSiteSettings(site.settings).coSiteLimitPpm, madeBy: actor.user.name, language,
   })
 }
 

@@ -34,6 +34,8 @@ export async function correctRefill(actor: Actor, input: WithId<RefillCorrection
         cylinderId: original.cylinderId, inspection: original.inspection, refused: false, refusalReasons: [],
         grossBeforeLb: input.grossBeforeLb, grossAfterLb: input.grossAfterLb, measuredTareLb: input.measuredTareLb, productSg: sg,
         netAddedLb: fill.netAddedLb, fillLimitLb: fill.fillLimitLb, overfilled: false, gallonsAt60F: fill.gallonsAt60F, tareFlagged: false,
+        // a corrected weight keeps the price of the day the cylinder was filled
+        pricePerGal: original.pricePerGal,
       },
     }
   })

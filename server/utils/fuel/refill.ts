@@ -88,6 +88,8 @@ export async function recordRefill(actor: Actor, cylinderId: string, input: Refi
       fillLimitLb: fill?.fillLimitLb ?? fillLimitLb(cylinder.waterCapacityLb, sg),
       overfilled: fill?.overfilled ?? false,
       gallonsAt60F: fill?.gallonsAt60F ?? null,
+      // the price of the day, so the propane report costs this refill as it was bought
+      pricePerGal: facts.settings.propanePerGal > 0 ? facts.settings.propanePerGal : null,
       tareFlagged,
     }).returning()
     let after = cylinder

@@ -3,7 +3,7 @@ import type { ReportResponse } from '#shared/types/reports'
 import { isEffectiveRecord, rowsOf, uuidArray } from '../due/effective'
 import { batteryFacts, RECENT_DAYS, yearsBetween } from './battery-facts'
 import { chartSvg } from './chart'
-import { num, numOrNull, scopeCte, type ReportScope } from './scope'
+import { num, numOrNull, scopeCte, siteColumn, type ReportScope } from './scope'
 
 // Mean Ah returned per counted charge, the mean cell spread and the checks that found low cells, per month
 // (and the Ah line of a few batteries), from standing records only.
@@ -54,57 +54,58 @@ export async function batteryHealthReport(scope: ReportScope): Promise<ReportRes
     month: m, ahPerCharge: ahAt(m, null), spread: numOrNull(checkAt.get(m)?.spread), checks: num(checkAt.get(m)?.checks), lowFindings: num(checkAt.get(m)?.lowFindings),
   }))
   const nearEnd = fleet.filter(b => b.cycles >= 0.8 * b.ratedCycles).length
+  const { t } = scope
   return {
     kind: 'battery-health',
-    title: 'Battery health',
+    title: t('report.kind.battery_health.title'),
     from: scope.from,
     to: scope.to,
     sites: scope.sites.map(s => ({ id: s.id, name: s.name })),
     figures: [
-      { label: 'Batteries', value: String(fleet.length) },
-      { label: 'Past 80 % of rated cycles', value: String(nearEnd) },
-      { label: 'With a weak cell', value: String(fleet.filter(b => b.weakCell).length) },
+      { label: t('report.col.batteries'), value: String(fleet.length) },
+      { label: t('report.health.past_80'), value: String(nearEnd) },
+      { label: t('report.health.with_weak_cell'), value: String(fleet.filter(b => b.weakCell).length) },
     ],
     sections: [
       {
         key: 'fleet',
-        title: 'Fleet, heaviest risk first',
-        note: `Risk orders the list only (cycles used against rated up to 60, a weak cell 20, cell spread up to 10 at ${SG_SPREAD_ACT.toFixed(3)}, Ah per charge fallen over the last ${RECENT_DAYS} days against the ${RECENT_DAYS} before up to 10 at −20 %); the battery maker's capacity test decides a replacement. Cycles are the count kept on the battery's status.`,
+        title: t('report.health.fleet_title'),
+        note: t('report.health.fleet_note', { act: SG_SPREAD_ACT.toFixed(3), days: RECENT_DAYS }),
         chartSvg: null,
         columns: [
-          { key: 'serial', label: 'Battery' }, { key: 'site', label: 'Site' }, { key: 'voltage', label: 'Volts', decimals: 0 },
-          { key: 'cycles', label: 'Cycles', decimals: 0 }, { key: 'ratedCycles', label: 'Rated', decimals: 0 },
-          { key: 'usedPct', label: 'Used', unit: '%', decimals: 0 }, { key: 'age', label: 'Age', unit: 'years', decimals: 1 },
-          { key: 'ahRecent', label: 'Ah per charge', decimals: 0 }, { key: 'capacityPct', label: 'vs before', unit: '%', decimals: 0 },
-          { key: 'lastSpread', label: 'Cell spread', unit: 'SG', decimals: 3 }, { key: 'weakCell', label: 'Weak cell' }, { key: 'risk', label: 'Risk', decimals: 0 },
+          { key: 'serial', label: t('report.col.battery') }, ...siteColumn(scope), { key: 'voltage', label: t('report.col.volts'), decimals: 0 },
+          { key: 'cycles', label: t('report.col.cycles'), decimals: 0 }, { key: 'ratedCycles', label: t('report.col.rated'), decimals: 0 },
+          { key: 'usedPct', label: t('report.col.used'), unit: '%', decimals: 0 }, { key: 'age', label: t('report.col.age'), unit: t('report.unit.years'), decimals: 1 },
+          { key: 'ahRecent', label: t('report.col.ah_per_charge'), decimals: 0 }, { key: 'capacityPct', label: t('report.col.vs_before'), unit: '%', decimals: 0 },
+          { key: 'lastSpread', label: t('report.col.cell_spread'), unit: 'SG', decimals: 3 }, { key: 'weakCell', label: t('report.col.weak_cell') }, { key: 'risk', label: t('report.col.risk'), decimals: 0 },
         ],
         rows: fleet.map(b => ({
           serial: b.serial, site: b.site, voltage: b.voltage, cycles: b.cycles, ratedCycles: b.ratedCycles,
           usedPct: b.ratedCycles ? (b.cycles / b.ratedCycles) * 100 : null, age: b.age, ahRecent: b.ahRecent,
           capacityPct: b.capacityRatio === null ? null : b.capacityRatio * 100, lastSpread: b.lastSpread,
-          weakCell: b.weakCell ? 'yes' : '', risk: b.risk,
+          weakCell: b.weakCell ? t('report.health.yes') : '', risk: b.risk,
         })),
       },
       {
         key: 'capacity',
-        title: 'Ah returned per counted charge, by month',
-        note: 'A falling line is capacity being lost. The fleet mean, and the four batteries at the top of the risk list.',
+        title: t('report.health.capacity_title'),
+        note: t('report.health.capacity_note'),
         chartSvg: chartSvg({
           kind: 'line', categories: months, unit: 'Ah',
-          series: [{ name: 'Fleet', data: monthRows.map(r => r.ahPerCharge) }, ...watched.map(b => ({ name: b.serial, data: months.map(m => ahAt(m, b.id)) }))],
+          series: [{ name: t('report.health.fleet'), data: monthRows.map(r => r.ahPerCharge) }, ...watched.map(b => ({ name: b.serial, data: months.map(m => ahAt(m, b.id)) }))],
         }),
-        columns: [{ key: 'month', label: 'Month' }, { key: 'ahPerCharge', label: 'Fleet Ah per charge', decimals: 0 }, ...watched.map(b => ({ key: `b${b.id}`, label: b.serial, decimals: 0 }))],
+        columns: [{ key: 'month', label: t('report.col.month') }, { key: 'ahPerCharge', label: t('report.col.fleet_ah'), decimals: 0 }, ...watched.map(b => ({ key: `b${b.id}`, label: b.serial, decimals: 0 }))],
         rows: monthRows.map(r => ({ month: r.month, ahPerCharge: r.ahPerCharge, ...Object.fromEntries(watched.map(b => [`b${b.id}`, ahAt(r.month, b.id)])) })),
       },
       {
         key: 'cells',
-        title: 'Cell spread and low-cell findings, by month',
-        note: `Spread = highest − lowest corrected specific gravity in a cell-by-cell check; ${SG_SPREAD_WARN.toFixed(3)} is worth watching and ${SG_SPREAD_ACT.toFixed(3)} calls for an equalize and a closer look (common practice).`,
+        title: t('report.health.cells_title'),
+        note: t('report.health.cells_note', { warn: SG_SPREAD_WARN.toFixed(3), act: SG_SPREAD_ACT.toFixed(3) }),
         chartSvg: chartSvg({
-          kind: 'bar', categories: months, unit: 'checks', secondUnit: 'SG spread',
-          series: [{ name: 'Checks finding low cells', data: monthRows.map(r => r.lowFindings) }, { name: 'Mean spread', type: 'line', data: monthRows.map(r => (r.spread === null ? null : Math.round(r.spread * 1000) / 1000)) }],
+          kind: 'bar', categories: months, unit: t('report.unit.checks'), secondUnit: 'SG',
+          series: [{ name: t('report.health.low_findings'), data: monthRows.map(r => r.lowFindings) }, { name: t('report.col.mean_spread'), type: 'line', data: monthRows.map(r => (r.spread === null ? null : Math.round(r.spread * 1000) / 1000)) }],
         }),
-        columns: [{ key: 'month', label: 'Month' }, { key: 'checks', label: 'Checks', decimals: 0 }, { key: 'spread', label: 'Mean spread', unit: 'SG', decimals: 3 }, { key: 'lowFindings', label: 'Finding low cells', decimals: 0 }],
+        columns: [{ key: 'month', label: t('report.col.month') }, { key: 'checks', label: t('report.col.checks'), decimals: 0 }, { key: 'spread', label: t('report.col.mean_spread'), unit: 'SG', decimals: 3 }, { key: 'lowFindings', label: t('report.col.finding_low'), decimals: 0 }],
         rows: monthRows.map(r => ({ month: r.month, checks: r.checks, spread: r.spread, lowFindings: r.lowFindings })),
       },
     ],

@@ -26,6 +26,8 @@ export interface ChartSpec {
   stacked?: boolean
   /** a chart of many things (chargers, trucks, areas) shows the `top` highest by the first series; the table lists all */
   top?: number
+  /** the words over a chart cut to its `top` (report.chart_top in the reader's language) */
+  topNote?: (shown: number, all: number) => string
   width?: number
   height?: number
 }
@@ -47,7 +49,7 @@ export function chartSvg(full: ChartSpec): string | null {
     color: [...SERIES_COLOURS],
     textStyle: { fontFamily: 'Roboto Flex, system-ui, sans-serif', fontSize: 14, color: '#334155' },
     // a legend of more than three series wraps to a second line on a phone's width
-    title: cut ? { text: `The ${spec.categories.length} highest of ${full.categories.length.toLocaleString('en-US')}; the table lists all`, left: 'right', top: 0, textStyle: { fontSize: 12, fontWeight: 'normal', color: '#64748b' } } : undefined,
+    title: cut ? { text: full.topNote ? full.topNote(spec.categories.length, full.categories.length) : `The ${spec.categories.length} highest of ${full.categories.length.toLocaleString('en-US')}; the table lists all`, left: 'right', top: 0, textStyle: { fontSize: 12, fontWeight: 'normal', color: '#64748b' } } : undefined,
     grid: { left: 8, right: 8, top: spec.series.length > 3 ? 80 : cut && spec.series.length > 1 ? 64 : 48, bottom: 8, containLabel: true },
     legend: { show: spec.series.length > 1, top: 0, textStyle: { fontSize: 13 } },
     xAxis: { type: 'category', data: spec.categories, axisLabel: { hideOverlap: true, rotate: spec.categories.length > 6 ? 45 : 0, fontSize: 13 } },

@@ -3,8 +3,8 @@ import type { ReportResponse } from '#shared/types/reports'
 import { CO_LIMITS } from '#shared/utils/co-exposure'
 import { daysInRange } from '#shared/utils/area-checklists'
 import { isEffectiveRecord, rowsOf } from '../due/effective'
-import { CHART_TOP, chartSvg } from './chart'
-import { num, numOrNull, scopeCte, type ReportScope } from './scope'
+import { chartSvg } from './chart'
+import { chartTop, num, numOrNull, scopeCte, totalsOf, siteColumn, type ReportScope } from './scope'
 
 const siteSuffix = (scope: ReportScope) => sql`CASE WHEN ${scope.siteIds.length > 1} THEN ' · ' || scope.site_name ELSE '' END`
 
@@ -74,64 +74,65 @@ export async function complianceReport(scope: ReportScope): Promise<ReportRespon
     const tests = num(e?.tests)
     return { month: m, tests, passed: num(e?.passed), passRate: tests ? (num(e?.passed) / tests) * 100 : null, retests: num(e?.retests) }
   })
-  const tests = monthRows.reduce((t, r) => ({ tests: t.tests + r.tests, passed: t.passed + r.passed }), { tests: 0, passed: 0 })
+  const tests = totalsOf(monthRows, ['tests', 'passed'])
   const days = daysInRange(scope.from, scope.to)
+  const { t } = scope
   const logRows = logs.map(l => ({ area: l.area, logs: num(l.logs), completion: (num(l.logs) / days) * 100, signed: num(l.signed), failed: num(l.failed) }))
   return {
     kind: 'compliance',
-    title: 'Compliance',
+    title: t('report.kind.compliance.title'),
     from: scope.from,
     to: scope.to,
     sites: scope.sites.map(s => ({ id: s.id, name: s.name })),
     figures: [
-      { label: 'Emissions pass rate', value: tests.tests ? `${Math.round((tests.passed / tests.tests) * 100)} %` : '—', detail: `${tests.tests} tests` },
-      { label: 'Days CO over the site limit', value: String(co.reduce((s, a) => s + num(a.overSite), 0)), detail: `${co.length} areas measured` },
-      { label: 'Failed checklist items', value: String(failedItems.reduce((s, i) => s + num(i.failed), 0)), detail: `${evaluations.length} evaluations due within 90 days` },
+      { label: t('report.compliance.pass_rate'), value: tests.tests ? `${Math.round((tests.passed / tests.tests) * 100)} %` : '—', detail: t('report.compliance.tests', { n: tests.tests }) },
+      { label: t('report.compliance.co_days'), value: String(co.reduce((s, a) => s + num(a.overSite), 0)), detail: t('report.compliance.measured', { n: co.length }) },
+      { label: t('report.compliance.failed_items'), value: String(failedItems.reduce((s, i) => s + num(i.failed), 0)), detail: t('report.compliance.evaluations_due', { n: evaluations.length }) },
     ],
     sections: [
       {
         key: 'emissions',
-        title: 'Emissions tests by month',
-        note: 'Pass or fail against the site\'s policy as recorded; a retest is a test of a truck whose previous test failed. A corrected test counts once, as corrected.',
+        title: t('report.compliance.emissions_title'),
+        note: t('report.compliance.emissions_note'),
         chartSvg: chartSvg({
-          kind: 'bar', categories: months, unit: 'tests', secondUnit: '%',
-          series: [{ name: 'Tests', data: monthRows.map(r => r.tests) }, { name: 'Pass rate (%)', type: 'line', data: monthRows.map(r => (r.passRate === null ? null : Math.round(r.passRate))) }],
+          kind: 'bar', categories: months, unit: t('report.unit.tests'), secondUnit: '%',
+          series: [{ name: t('report.col.tests'), data: monthRows.map(r => r.tests) }, { name: t('report.compliance.pass_rate_pct'), type: 'line', data: monthRows.map(r => (r.passRate === null ? null : Math.round(r.passRate))) }],
         }),
-        columns: [{ key: 'month', label: 'Month' }, { key: 'tests', label: 'Tests', decimals: 0 }, { key: 'passed', label: 'Passed', decimals: 0 }, { key: 'passRate', label: 'Pass rate', unit: '%', decimals: 0 }, { key: 'retests', label: 'Retests', decimals: 0 }],
+        columns: [{ key: 'month', label: t('report.col.month') }, { key: 'tests', label: t('report.col.tests'), decimals: 0 }, { key: 'passed', label: t('report.col.passed'), decimals: 0 }, { key: 'passRate', label: t('report.col.pass_rate'), unit: '%', decimals: 0 }, { key: 'retests', label: t('report.col.retests'), decimals: 0 }],
         rows: monthRows,
       },
       {
         key: 'co',
-        title: 'Indoor CO, 8-hour time-weighted average by area',
-        note: `A day's TWA = Σ(ppm × hours sampled) ÷ 8 h, unsampled time as zero (29 CFR 1910.1000(d)(1)(i)). Limits: the site's own (default ${CO_LIMITS.nioshRel.ppm} ppm, ${CO_LIMITS.nioshRel.source}) and ${CO_LIMITS.oshaPel.ppm} ppm (${CO_LIMITS.oshaPel.source}). An aid: a licensed industrial hygienist's survey decides.`,
-        chartSvg: chartSvg({ kind: 'bar', top: CHART_TOP, categories: co.map(a => a.area), unit: 'ppm', series: [{ name: 'Mean daily TWA', data: co.map(a => Math.round(num(a.meanTwa) * 10) / 10) }, { name: 'Highest daily TWA', data: co.map(a => Math.round(num(a.maxTwa) * 10) / 10) }] }),
+        title: t('report.compliance.co_title'),
+        note: t('report.compliance.co_note', { site_ppm: CO_LIMITS.nioshRel.ppm, site_source: CO_LIMITS.nioshRel.source, pel_ppm: CO_LIMITS.oshaPel.ppm, pel_source: CO_LIMITS.oshaPel.source }),
+        chartSvg: chartSvg({ kind: 'bar', ...chartTop(scope), categories: co.map(a => a.area), unit: 'ppm', series: [{ name: t('report.compliance.mean_twa'), data: co.map(a => Math.round(num(a.meanTwa) * 10) / 10) }, { name: t('report.compliance.highest_twa'), data: co.map(a => Math.round(num(a.maxTwa) * 10) / 10) }] }),
         columns: [
-          { key: 'area', label: 'Area' }, { key: 'days', label: 'Days measured', decimals: 0 }, { key: 'meanTwa', label: 'Mean TWA', unit: 'ppm', decimals: 1 },
-          { key: 'maxTwa', label: 'Highest TWA', unit: 'ppm', decimals: 1 }, { key: 'overSite', label: 'Days over site limit', decimals: 0 }, { key: 'overPel', label: `Days over ${CO_LIMITS.oshaPel.ppm} ppm`, decimals: 0 },
+          { key: 'area', label: t('report.col.area') }, { key: 'days', label: t('report.col.days_measured'), decimals: 0 }, { key: 'meanTwa', label: t('report.col.mean_twa'), unit: 'ppm', decimals: 1 },
+          { key: 'maxTwa', label: t('report.col.highest_twa'), unit: 'ppm', decimals: 1 }, { key: 'overSite', label: t('report.col.days_over_site'), decimals: 0 }, { key: 'overPel', label: t('report.col.days_over_pel', { ppm: CO_LIMITS.oshaPel.ppm }), decimals: 0 },
         ],
         rows: co.map(a => ({ area: a.area, days: num(a.days), meanTwa: numOrNull(a.meanTwa), maxTwa: numOrNull(a.maxTwa), overSite: num(a.overSite), overPel: num(a.overPel) })),
       },
       {
         key: 'logs',
-        title: 'Daily area logs: completion and failed items',
-        note: `Completion = days with a daily log filled in ÷ the ${days} days of the range.`,
-        chartSvg: chartSvg({ kind: 'bar', top: CHART_TOP, categories: logRows.map(l => l.area), unit: '%', series: [{ name: 'Completion (%)', data: logRows.map(l => Math.round(l.completion)) }] }),
-        columns: [{ key: 'area', label: 'Area' }, { key: 'logs', label: 'Days logged', decimals: 0 }, { key: 'completion', label: 'Completion', unit: '%', decimals: 0 }, { key: 'signed', label: 'Signed', decimals: 0 }, { key: 'failed', label: 'Failed items', decimals: 0 }],
+        title: t('report.compliance.logs_title'),
+        note: t('report.compliance.logs_note', { days }),
+        chartSvg: chartSvg({ kind: 'bar', ...chartTop(scope), categories: logRows.map(l => l.area), unit: '%', series: [{ name: `${t('report.col.completion')} (%)`, data: logRows.map(l => Math.round(l.completion)) }] }),
+        columns: [{ key: 'area', label: t('report.col.area') }, { key: 'logs', label: t('report.col.days_logged'), decimals: 0 }, { key: 'completion', label: t('report.col.completion'), unit: '%', decimals: 0 }, { key: 'signed', label: t('report.col.signed'), decimals: 0 }, { key: 'failed', label: t('report.col.failed_items'), decimals: 0 }],
         rows: logRows,
       },
       {
         key: 'failed-items',
-        title: 'Failed checklist items',
+        title: t('report.compliance.failed_items'),
         chartSvg: null,
-        columns: [{ key: 'item', label: 'Item' }, { key: 'failed', label: 'Times failed', decimals: 0 }],
+        columns: [{ key: 'item', label: t('report.col.item') }, { key: 'failed', label: t('report.col.times_failed'), decimals: 0 }],
         rows: failedItems.map(i => ({ item: i.item, failed: num(i.failed) })),
       },
       {
         key: 'evaluations',
-        title: 'Operator evaluations due within 90 days of the range\'s end',
-        note: 'At least once every three years (29 CFR 1910.178(l)(4)(iii)); from the due list.',
+        title: t('report.compliance.evaluations_title'),
+        note: t('report.compliance.evaluations_note'),
         chartSvg: null,
-        columns: [{ key: 'person', label: 'Operator' }, { key: 'site', label: 'Site' }, { key: 'dueOn', label: 'Due' }],
+        columns: [{ key: 'person', label: t('report.col.operator') }, ...siteColumn(scope), { key: 'dueOn', label: t('report.col.due') }],
         rows: evaluations,
       },
     ],

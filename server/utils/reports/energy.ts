@@ -2,10 +2,14 @@ import type { ReportResponse } from '#shared/types/reports'
 import { daysInRange } from '#shared/utils/area-checklists'
 import { hoursOnChargePerDay, monthsBetween } from '#shared/utils/report-math'
 import { isEffectiveRecord, rowsOf } from '../due/effective'
-import { CHART_TOP, chartSvg } from './chart'
-import { money, num, scopeCte, type ReportScope } from './scope'
+import { chartSvg } from './chart'
+import { offPeakSaving } from '#shared/utils/tariff'
+import { chartTop, money, num, numberText, scopeCte, totalsOf, type ReportScope } from './scope'
+import { peakSplit } from './tariff-split'
 
-export const KWH_CONVENTION = 'kWh drawn from the grid = Ah returned × the battery\'s nominal volts ÷ 1,000 ÷ the charger\'s efficiency, worked out when the charge ended (shared/utils/charging.ts); cost = that kWh × the site\'s tariff then. A charge counts in the month it started; a corrected charge counts once, as corrected.'
+// report.energy.convention: kWh drawn from the grid = Ah returned × the battery's nominal volts ÷ 1,000 ÷ the
+// charger's efficiency, worked out when the charge ended (shared/utils/charging.ts); cost = that kWh × the site's
+// tariff then. A charge counts in the month it started; a corrected charge counts once, as corrected.
 
 interface ChargeGroup { key: string, label: string, area: string | null, charges: number, kwh: number, cost: number, hours: number }
 
@@ -47,8 +51,9 @@ async function chargeGroups(scope: ReportScope) {
   return { months, chargers, areas: [...areas.values()].sort((a, b) => b.kwh - a.kwh) }
 }
 
-export async function energyReport(scope: ReportScope): Promise<ReportResponse> {
-  const { months, chargers, areas } = await chargeGroups(scope)
+// `withPeak: false` leaves out the time-of-use split (the facilities home's figures do not show it).
+export async function energyReport(scope: ReportScope, withPeak = true): Promise<ReportResponse> {
+  const [{ months, chargers, areas }, peak] = await Promise.all([chargeGroups(scope), withPeak ? peakSplit(scope) : []])
   const byMonth = new Map(months.map(m => [m.key, m]))
   const monthList = monthsBetween(scope.from, scope.to)
   const monthRows = monthList.map((m) => {
@@ -56,54 +61,87 @@ export async function energyReport(scope: ReportScope): Promise<ReportResponse> 
     return { month: m, charges: g?.charges ?? 0, kwh: g?.kwh ?? 0, cost: g?.cost ?? 0, kwhPerCharge: g && g.charges ? g.kwh / g.charges : null }
   })
   const days = daysInRange(scope.from, scope.to)
-  const total = monthRows.reduce((t, r) => ({ kwh: t.kwh + r.kwh, cost: t.cost + r.cost, charges: t.charges + r.charges }), { kwh: 0, cost: 0, charges: 0 })
+  const total = totalsOf(monthRows, ['kwh', 'cost', 'charges'])
   const cur = scope.currency
-  return {
+  const { t, language } = scope
+  const kwhText = (v: number) => `${numberText(Math.round(v), language)} kWh`
+  const report: ReportResponse = {
     kind: 'energy',
-    title: 'Energy and cost',
+    title: t('report.kind.energy.title'),
     from: scope.from,
     to: scope.to,
     sites: scope.sites.map(s => ({ id: s.id, name: s.name })),
     figures: [
-      { label: 'Energy drawn', value: `${Math.round(total.kwh).toLocaleString('en-US')} kWh`, detail: `${total.charges} charges` },
-      { label: 'Energy cost', value: money(total.cost, cur), detail: total.kwh > 0 ? `${money(total.cost / total.kwh, cur)} per kWh` : undefined },
-      { label: 'Mean per month', value: `${Math.round(total.kwh / Math.max(monthList.length, 1)).toLocaleString('en-US')} kWh`, detail: `over ${monthList.length} months` },
+      { label: t('report.energy.drawn'), value: kwhText(total.kwh), detail: t('report.energy.charges', { n: total.charges }) },
+      { label: t('report.energy.cost'), value: money(total.cost, cur, language), detail: total.kwh > 0 ? t('report.energy.per_kwh', { price: money(total.cost / total.kwh, cur, language) }) : undefined },
+      { label: t('report.energy.mean_month'), value: kwhText(total.kwh / Math.max(monthList.length, 1)), detail: t('report.energy.over_months', { n: monthList.length }) },
     ],
     sections: [
       {
         key: 'month',
-        title: 'By month',
-        note: KWH_CONVENTION,
+        title: t('report.energy.by_month'),
+        note: t('report.energy.convention'),
         chartSvg: chartSvg({
-          kind: 'bar', categories: monthList, unit: 'kWh', secondUnit: cur || 'cost',
-          series: [{ name: 'kWh', data: monthRows.map(r => Math.round(r.kwh)) }, { name: `Cost${cur ? ` (${cur})` : ''}`, type: 'line', data: monthRows.map(r => Math.round(r.cost * 100) / 100) }],
+          kind: 'bar', categories: monthList, unit: 'kWh', secondUnit: cur || t('report.unit.cost'),
+          series: [{ name: 'kWh', data: monthRows.map(r => Math.round(r.kwh)) }, { name: `${t('report.col.cost')}${cur ? ` (${cur})` : ''}`, type: 'line', data: monthRows.map(r => Math.round(r.cost * 100) / 100) }],
         }),
         columns: [
-          { key: 'month', label: 'Month' }, { key: 'charges', label: 'Charges', decimals: 0 }, { key: 'kwh', label: 'Energy', unit: 'kWh', decimals: 0 },
-          { key: 'cost', label: 'Cost', unit: cur, decimals: 2 }, { key: 'kwhPerCharge', label: 'Per charge', unit: 'kWh', decimals: 1 },
+          { key: 'month', label: t('report.col.month') }, { key: 'charges', label: t('report.col.charges'), decimals: 0 }, { key: 'kwh', label: t('report.col.energy'), unit: 'kWh', decimals: 0 },
+          { key: 'cost', label: t('report.col.cost'), unit: cur, decimals: 2 }, { key: 'kwhPerCharge', label: t('report.col.per_charge'), unit: 'kWh', decimals: 1 },
         ],
         rows: monthRows,
       },
       {
         key: 'area',
-        title: 'By charging area',
-        chartSvg: chartSvg({ kind: 'bar', top: CHART_TOP, categories: areas.map(a => a.label), unit: 'kWh', series: [{ name: 'kWh', data: areas.map(a => Math.round(a.kwh)) }] }),
-        columns: [{ key: 'area', label: 'Charging area' }, { key: 'charges', label: 'Charges', decimals: 0 }, { key: 'kwh', label: 'Energy', unit: 'kWh', decimals: 0 }, { key: 'cost', label: 'Cost', unit: cur, decimals: 2 }],
+        title: t('report.energy.by_area'),
+        chartSvg: chartSvg({ kind: 'bar', ...chartTop(scope), categories: areas.map(a => a.label), unit: 'kWh', series: [{ name: 'kWh', data: areas.map(a => Math.round(a.kwh)) }] }),
+        columns: [{ key: 'area', label: t('report.col.charging_area') }, { key: 'charges', label: t('report.col.charges'), decimals: 0 }, { key: 'kwh', label: t('report.col.energy'), unit: 'kWh', decimals: 0 }, { key: 'cost', label: t('report.col.cost'), unit: cur, decimals: 2 }],
         rows: areas.map(a => ({ area: a.label, charges: a.charges, kwh: a.kwh, cost: a.cost })),
       },
       {
         key: 'charger',
-        title: 'By charger, with hours on charge per day',
-        note: `Hours on charge per day = the hours between putting on and taking off, ÷ the ${days} days of the range (24 would be a charger never idle).`,
-        chartSvg: chartSvg({ kind: 'bar', top: CHART_TOP, categories: chargers.map(c => c.label), unit: 'h/day', series: [{ name: 'Hours on charge per day', data: chargers.map(c => Math.round(hoursOnChargePerDay(c.hours, days) * 10) / 10) }] }),
+        title: t('report.energy.by_charger'),
+        note: t('report.energy.charger_note', { days }),
+        chartSvg: chartSvg({ kind: 'bar', ...chartTop(scope), categories: chargers.map(c => c.label), unit: t('report.unit.h_day'), series: [{ name: t('report.energy.hours_per_day'), data: chargers.map(c => Math.round(hoursOnChargePerDay(c.hours, days) * 10) / 10) }] }),
         columns: [
-          { key: 'charger', label: 'Charger' }, { key: 'area', label: 'Area' }, { key: 'charges', label: 'Charges', decimals: 0 },
-          { key: 'kwh', label: 'Energy', unit: 'kWh', decimals: 0 }, { key: 'cost', label: 'Cost', unit: cur, decimals: 2 },
-          { key: 'hoursPerDay', label: 'On charge', unit: 'h/day', decimals: 1 },
+          { key: 'charger', label: t('report.col.charger') }, { key: 'area', label: t('report.col.area') }, { key: 'charges', label: t('report.col.charges'), decimals: 0 },
+          { key: 'kwh', label: t('report.col.energy'), unit: 'kWh', decimals: 0 }, { key: 'cost', label: t('report.col.cost'), unit: cur, decimals: 2 },
+          { key: 'hoursPerDay', label: t('report.col.on_charge'), unit: t('report.unit.h_day'), decimals: 1 },
         ],
         rows: chargers.map(c => ({ charger: c.label, area: c.area, charges: c.charges, kwh: c.kwh, cost: c.cost, hoursPerDay: hoursOnChargePerDay(c.hours, days) })),
       },
     ],
-    caveats: ['Time-of-use tariffs are not modelled yet: every kWh is costed at the site\'s single tariff, so no peak share or off-peak saving is shown.'],
+    caveats: peak.length === 0 ? [t('report.energy.one_tariff')] : peak.length < scope.sites.length ? [t('report.energy.some_one_tariff')] : [],
   }
+  if (peak.length > 0) addPeakSplit(report, scope, peak)
+  return report
+}
+
+// The share of kWh drawn in peak windows and what drawing it off-peak would have saved, per site with windows.
+function addPeakSplit(report: ReportResponse, scope: ReportScope, peak: Awaited<ReturnType<typeof peakSplit>>) {
+  const { t, language } = scope
+  const rows = peak.map(p => ({
+    site: p.site, kwh: p.kwh, peakKwh: p.peakKwh, peakShare: p.kwh > 0 ? (p.peakKwh / p.kwh) * 100 : null,
+    peakPrice: p.peakPerKwh, offPeakPrice: p.offPeakPerKwh, saving: offPeakSaving(p.peakKwh, p.peakPerKwh, p.offPeakPerKwh),
+  }))
+  const { kwh, peakKwh, saving } = totalsOf(rows, ['kwh', 'peakKwh', 'saving'])
+  const kwhText = (v: number) => numberText(Math.round(v), language)
+  report.figures.push(
+    { label: t('report.energy.peak_share'), value: kwh > 0 ? `${Math.round((peakKwh / kwh) * 100)} %` : '—', detail: t('report.energy.peak_detail', { kwh: kwhText(peakKwh), all: kwhText(kwh) }) },
+    { label: t('report.energy.saving'), value: money(saving, scope.currency, language), detail: t('report.energy.saving_detail') },
+  )
+  const cur = scope.currency
+  report.sections.push({
+    key: 'peak',
+    title: t('report.energy.peak_title'),
+    note: t('report.energy.peak_note'),
+    chartSvg: null,
+    columns: [
+      { key: 'site', label: t('report.col.site') }, { key: 'kwh', label: t('report.col.energy'), unit: 'kWh', decimals: 0 },
+      { key: 'peakKwh', label: t('report.col.peak_kwh'), unit: 'kWh', decimals: 0 }, { key: 'peakShare', label: t('report.col.peak_share'), unit: '%', decimals: 0 },
+      { key: 'peakPrice', label: t('report.col.peak_price'), unit: cur, decimals: 3 }, { key: 'offPeakPrice', label: t('report.col.off_peak_price'), unit: cur, decimals: 3 },
+      { key: 'saving', label: t('report.col.saving'), unit: cur, decimals: 2 },
+    ],
+    rows,
+  })
 }

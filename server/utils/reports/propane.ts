@@ -3,22 +3,23 @@ import type { ReportResponse } from '#shared/types/reports'
 import { PROPANE_LB_PER_GAL_60F } from '#shared/utils/lp-gas'
 import { KG_PER_LB, LITRES_PER_US_GAL } from '#shared/utils/units'
 import { isEffectiveRecord, rowsOf } from '../due/effective'
-import { CHART_TOP, chartSvg } from './chart'
-import { money, num, scopeCte, type ReportScope } from './scope'
+import { chartSvg } from './chart'
+import { chartTop, money, num, numberText, scopeCte, totalsOf, siteColumn, type ReportScope } from './scope'
 
-// Standing refills in the range by month (net pounds, gallons at 60 °F as recorded, cost at the site's
-// price per gallon) and the refused ones with their reasons; propane per truck from the cylinder changes:
+// Standing refills in the range by month (net pounds, gallons at 60 °F as recorded, cost at the price per
+// gallon kept on each refill when it was recorded, else the site's price now) and the refused ones with their reasons; propane per truck from the cylinder changes:
 // each change puts on the net weight of the cylinder's last standing refill before it.
 async function propaneRows(scope: ReportScope) {
   const db = useDb()
-  const price = sql`coalesce((st.settings->>'propanePerGal')::float8, 0)`
+  const priceNow = sql`coalesce((st.settings->>'propanePerGal')::float8, 0)`
   return Promise.all([
-    rowsOf<{ month: string, refills: number, refused: number, lb: number, gal: number, cost: number }>(db, sql`
+    rowsOf<{ month: string, refills: number, refused: number, lb: number, gal: number, cost: number, pricedNow: number }>(db, sql`
       WITH ${scopeCte(scope)}
       SELECT to_char(r.at AT TIME ZONE scope.tz, 'YYYY-MM') AS month, count(*) FILTER (WHERE NOT r.refused)::int AS refills,
              count(*) FILTER (WHERE r.refused)::int AS refused, coalesce(sum(r.net_added_lb) FILTER (WHERE NOT r.refused), 0)::float8 AS lb,
              coalesce(sum(r.gallons_at60_f) FILTER (WHERE NOT r.refused), 0)::float8 AS gal,
-             coalesce(sum(r.gallons_at60_f * ${price}) FILTER (WHERE NOT r.refused), 0)::float8 AS cost
+             coalesce(sum(r.gallons_at60_f * coalesce(r.price_per_gal, ${priceNow})) FILTER (WHERE NOT r.refused), 0)::float8 AS cost,
+             count(*) FILTER (WHERE NOT r.refused AND r.price_per_gal IS NULL)::int AS "pricedNow"
       FROM scope JOIN sites st ON st.id = scope.site_id
       JOIN cylinder_refills r ON r.site_id = scope.site_id AND r.at >= scope.t0 AND r.at < scope.t1
       WHERE ${isEffectiveRecord('cylinder_refills', 'r')}
@@ -27,18 +28,18 @@ async function propaneRows(scope: ReportScope) {
       WITH ${scopeCte(scope)}
       SELECT reason, count(*)::int AS refusals
       FROM scope JOIN cylinder_refills r ON r.site_id = scope.site_id AND r.at >= scope.t0 AND r.at < scope.t1
-      CROSS JOIN LATERAL jsonb_array_elements_text(CASE WHEN jsonb_array_length(r.refusal_reasons) > 0 THEN r.refusal_reasons ELSE '["(no reason recorded)"]'::jsonb END) AS reason
+      CROSS JOIN LATERAL jsonb_array_elements_text(CASE WHEN jsonb_array_length(r.refusal_reasons) > 0 THEN r.refusal_reasons ELSE jsonb_build_array(${scope.t('report.no_reason')}::text) END) AS reason
       WHERE r.refused AND ${isEffectiveRecord('cylinder_refills', 'r')}
       GROUP BY reason ORDER BY 2 DESC, 1`),
     rowsOf<{ truck: string, changes: number, lb: number, cost: number }>(db, sql`
       WITH ${scopeCte(scope)}
       SELECT t.fleet_number || CASE WHEN ${scope.siteIds.length > 1} THEN ' · ' || scope.site_name ELSE '' END AS truck, count(*)::int AS changes,
-             coalesce(sum(f.net_added_lb), 0)::float8 AS lb, coalesce(sum(f.gallons_at60_f * ${price}), 0)::float8 AS cost
+             coalesce(sum(f.net_added_lb), 0)::float8 AS lb, coalesce(sum(f.gallons_at60_f * coalesce(f.price_per_gal, ${priceNow})), 0)::float8 AS cost
       FROM scope JOIN sites st ON st.id = scope.site_id
       JOIN cylinder_exchanges x ON x.site_id = scope.site_id AND x.at >= scope.t0 AND x.at < scope.t1
       JOIN trucks t ON t.id = x.truck_id
       LEFT JOIN LATERAL (
-        SELECT r.net_added_lb, r.gallons_at60_f FROM cylinder_refills r
+        SELECT r.net_added_lb, r.gallons_at60_f, r.price_per_gal FROM cylinder_refills r
         WHERE r.cylinder_id = x.cylinder_on_id AND r.at <= x.at AND NOT r.refused AND ${isEffectiveRecord('cylinder_refills', 'r')}
         ORDER BY r.at DESC LIMIT 1) f ON true
       WHERE ${isEffectiveRecord('cylinder_exchanges', 'x')}
@@ -60,61 +61,63 @@ export async function propaneReport(scope: ReportScope): Promise<ReportResponse>
   const volume = (gal: number) => (metric ? gal * LITRES_PER_US_GAL : gal)
   const [m, v] = metric ? ['kg', 'L'] : ['lb', 'gal']
   const cur = scope.currency
+  const { t, language } = scope
   const byMonth = new Map(months.map(r => [r.month, r]))
   const monthList = monthsBetween(scope.from, scope.to)
   const monthRows = monthList.map((mo) => {
     const r = byMonth.get(mo)
     return { month: mo, refills: num(r?.refills), refused: num(r?.refused), mass: mass(num(r?.lb)), volume: volume(num(r?.gal)), cost: num(r?.cost) }
   })
-  const total = monthRows.reduce((t, r) => ({ mass: t.mass + r.mass, volume: t.volume + r.volume, cost: t.cost + r.cost, refused: t.refused + r.refused }), { mass: 0, volume: 0, cost: 0, refused: 0 })
-  const priced = scope.sites.some(s => s.settings.propanePerGal > 0)
+  const total = totalsOf(monthRows, ['mass', 'volume', 'cost', 'refused'])
+  const priced = total.cost > 0 || scope.sites.some(s => s.settings.propanePerGal > 0)
+  const pricedNow = months.reduce((s, r) => s + num(r.pricedNow), 0)
   return {
     kind: 'propane',
-    title: 'Propane',
+    title: t('report.kind.propane.title'),
     from: scope.from,
     to: scope.to,
     sites: scope.sites.map(s => ({ id: s.id, name: s.name })),
     figures: [
-      { label: 'Propane filled', value: `${Math.round(total.volume).toLocaleString('en-US')} ${v}`, detail: `${Math.round(total.mass).toLocaleString('en-US')} ${m}` },
-      { label: 'Propane cost', value: priced ? money(total.cost, cur) : '—', detail: priced ? undefined : 'enter the price per gallon in Site settings' },
-      { label: 'Refused refills', value: String(total.refused), detail: `${requal.length} cylinders due requalification within a year` },
+      { label: t('report.propane.filled'), value: `${numberText(Math.round(total.volume), language)} ${v}`, detail: `${numberText(Math.round(total.mass), language)} ${m}` },
+      { label: t('report.propane.cost'), value: priced ? money(total.cost, cur, language) : '—', detail: priced ? undefined : t('report.propane.no_price') },
+      { label: t('report.propane.refused'), value: String(total.refused), detail: t('report.propane.requal_due', { n: requal.length }) },
     ],
     sections: [
       {
         key: 'month',
-        title: 'Filled by month',
-        note: `Gallons at 60 °F as worked out at each refill from the net weight at ${PROPANE_LB_PER_GAL_60F} lb per US gallon (NFPA 58 Annex / published propane property tables; ≈ 0.504 kg/L). Cost uses the site's propane price now, not the price on the day.`,
-        chartSvg: chartSvg({ kind: 'bar', categories: monthList, unit: v, series: [{ name: `Propane (${v})`, data: monthRows.map(r => Math.round(r.volume)) }] }),
+        title: t('report.propane.by_month'),
+        note: t('report.propane.month_note', { lb_per_gal: PROPANE_LB_PER_GAL_60F }),
+        chartSvg: chartSvg({ kind: 'bar', categories: monthList, unit: v, series: [{ name: t('report.propane.series', { unit: v }), data: monthRows.map(r => Math.round(r.volume)) }] }),
         columns: [
-          { key: 'month', label: 'Month' }, { key: 'refills', label: 'Refills', decimals: 0 }, { key: 'mass', label: 'Net', unit: m, decimals: 0 },
-          { key: 'volume', label: 'Volume', unit: v, decimals: 1 }, { key: 'cost', label: 'Cost', unit: cur, decimals: 2 }, { key: 'refused', label: 'Refused', decimals: 0 },
+          { key: 'month', label: t('report.col.month') }, { key: 'refills', label: t('report.col.refills'), decimals: 0 }, { key: 'mass', label: t('report.col.net'), unit: m, decimals: 0 },
+          { key: 'volume', label: t('report.col.volume'), unit: v, decimals: 1 }, { key: 'cost', label: t('report.col.cost'), unit: cur, decimals: 2 }, { key: 'refused', label: t('report.col.refused'), decimals: 0 },
         ],
         rows: monthRows,
       },
       {
         key: 'truck',
-        title: 'By truck',
-        note: 'Each cylinder change onto a truck counts the net weight of that cylinder\'s last refill before the change.',
-        chartSvg: chartSvg({ kind: 'bar', top: CHART_TOP, categories: trucks.map(t => t.truck), unit: m, series: [{ name: `Propane (${m})`, data: trucks.map(t => Math.round(mass(num(t.lb)))) }] }),
-        columns: [{ key: 'truck', label: 'Truck' }, { key: 'changes', label: 'Cylinder changes', decimals: 0 }, { key: 'mass', label: 'Propane', unit: m, decimals: 0 }, { key: 'cost', label: 'Cost', unit: cur, decimals: 2 }],
-        rows: trucks.map(t => ({ truck: t.truck, changes: num(t.changes), mass: mass(num(t.lb)), cost: num(t.cost) })),
+        title: t('report.propane.by_truck'),
+        note: t('report.propane.truck_note'),
+        chartSvg: chartSvg({ kind: 'bar', ...chartTop(scope), categories: trucks.map(r => r.truck), unit: m, series: [{ name: t('report.propane.series', { unit: m }), data: trucks.map(r => Math.round(mass(num(r.lb)))) }] }),
+        columns: [{ key: 'truck', label: t('report.col.truck') }, { key: 'changes', label: t('report.col.changes'), decimals: 0 }, { key: 'mass', label: t('report.col.propane'), unit: m, decimals: 0 }, { key: 'cost', label: t('report.col.cost'), unit: cur, decimals: 2 }],
+        rows: trucks.map(r => ({ truck: r.truck, changes: num(r.changes), mass: mass(num(r.lb)), cost: num(r.cost) })),
       },
       {
         key: 'refused',
-        title: 'Refused refills and why',
+        title: t('report.propane.refused_title'),
         chartSvg: null,
-        columns: [{ key: 'reason', label: 'Reason' }, { key: 'refusals', label: 'Refusals', decimals: 0 }],
+        columns: [{ key: 'reason', label: t('report.col.reason') }, { key: 'refusals', label: t('report.col.refusals'), decimals: 0 }],
         rows: refusals.map(r => ({ reason: r.reason, refusals: num(r.refusals) })),
       },
       {
         key: 'requalification',
-        title: 'Cylinders due for requalification within 12 months of the range\'s end',
-        note: 'From the due list (49 CFR 180.209 intervals as set for the site); an out-of-date cylinder is not filled.',
+        title: t('report.propane.requal_title'),
+        note: t('report.propane.requal_note'),
         chartSvg: null,
-        columns: [{ key: 'serial', label: 'Cylinder' }, { key: 'site', label: 'Site' }, { key: 'dueOn', label: 'Due' }, { key: 'what', label: 'What' }],
+        columns: [{ key: 'serial', label: t('report.col.cylinder') }, ...siteColumn(scope), { key: 'dueOn', label: t('report.col.due') }, { key: 'what', label: t('report.col.what') }],
         rows: requal,
       },
     ],
-    caveats: [],
+    caveats: pricedNow > 0 ? [t('report.propane.priced_now', { n: pricedNow })] : [],
   }
 }

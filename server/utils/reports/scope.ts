@@ -1,12 +1,16 @@
 import type { H3Event } from 'h3'
 import type { SQL } from 'drizzle-orm'
-import type { ReportCell, ReportResponse } from '#shared/types/reports'
+import type { ReportCell, ReportColumn, ReportResponse } from '#shared/types/reports'
 import type { Ability } from '#shared/utils/abilities'
 import { refusalFor } from '#shared/utils/abilities'
 import { reportQuerySchema, type ReportQuery } from '#shared/utils/report-schemas'
 import { parseSiteSettings, type SiteSettings } from '#shared/utils/site-settings'
 import type { UnitSystem } from '#shared/utils/units'
+import { LANGUAGE_TAGS, type Language } from '#shared/utils/languages'
+import { mailWords, type MailT } from '../mail-words'
+import { readerLanguage } from '../reader-language'
 import { rowsOf, uuidArray } from '../due/effective'
+import { CHART_TOP } from './chart'
 
 export interface ReportSite { id: string, name: string, timeZone: string, unitSystem: UnitSystem, settings: SiteSettings }
 
@@ -20,14 +24,17 @@ export interface ReportScope {
   units: UnitSystem
   /** the sites' shared currency; blank when they differ */
   currency: string
+  /** the reader's language, and its words (i18n/locales, report.*) */
+  language: Language
+  t: MailT
 }
 
 // ?siteId=<one site> checks the ability there (404 outside the person's sites, 403 without the role);
 // ?siteId=all takes every site of the person's where they hold it, and is refused when there is none.
 export async function reportScope(event: H3Event, ability: Ability, query: ReportQuery): Promise<ReportScope> {
   let siteIds: string[]
+  const actor = await requireActor(event)
   if (query.siteId === 'all') {
-    const actor = await requireActor(event)
     siteIds = sitesWhere(actor, ability)
     if (siteIds.length === 0) throw createError({ statusCode: 403, message: refusalFor(ability).replace('at this site', 'at one of your sites') })
   }
@@ -40,7 +47,11 @@ export async function reportScope(event: H3Event, ability: Ability, query: Repor
   const sites = rows.map(r => ({ ...r, settings: parseSiteSettings(r.settings) }))
   const units = sites.every(s => s.unitSystem === 'metric') ? 'metric' : 'us'
   const currencies = new Set(sites.map(s => s.settings.currency))
-  return { sites, siteIds: sites.map(s => s.id), from: query.from, to: query.to, units, currency: currencies.size === 1 ? [...currencies][0]! : '' }
+  const language = await readerLanguage(event, actor.user.id, query.lang)
+  return {
+    sites, siteIds: sites.map(s => s.id), from: query.from, to: query.to, units, currency: currencies.size === 1 ? [...currencies][0]! : '',
+    language, t: mailWords(language),
+  }
 }
 
 // `scope` as a CTE: each site with the range's start and end as instants in the site's own time zone, so a
@@ -53,9 +64,14 @@ export function scopeCte(scope: ReportScope): SQL {
     FROM sites s WHERE s.id = ANY(${uuidArray(scope.siteIds)}))`
 }
 
+/** A number in the reader's way of writing it, with this many decimals. */
+export function numberText(value: number, language: Language, decimals = 0): string {
+  return value.toLocaleString(LANGUAGE_TAGS[language], { minimumFractionDigits: decimals, maximumFractionDigits: decimals })
+}
+
 /** Money with the sites' currency code ("1,234.50 USD"), or the bare number across currencies. */
-export function money(value: number, currency: string): string {
-  const n = value.toLocaleString('en-US', { minimumFractionDigits: 2, maximumFractionDigits: 2 })
+export function money(value: number, currency: string, language: Language = 'en'): string {
+  const n = numberText(value, language, 2)
   return currency ? `${n} ${currency}` : n
 }
 
@@ -78,4 +94,21 @@ export async function serveReport(event: H3Event, ability: Ability, build: (scop
   const scope = await reportScope(event, ability, query)
   const report = await build(scope)
   return query.format === 'csv' ? reportCsv(event, report, query.section) : report
+}
+
+/** A chart of many things cut to its CHART_TOP highest, saying so in the reader's words. */
+export function chartTop(scope: ReportScope) {
+  return { top: CHART_TOP, topNote: (n: number, all: number) => scope.t('report.chart_top', { n, all: numberText(all, scope.language) }) }
+}
+
+/** The sums of some numeric columns over a section's rows (the totals a report's figures are drawn from). */
+export function totalsOf<T extends object, K extends keyof T>(rows: readonly T[], keys: readonly K[]): Record<K, number> {
+  const totals = Object.fromEntries(keys.map(k => [k, 0])) as Record<K, number>
+  for (const row of rows) for (const k of keys) totals[k] += Number(row[k] ?? 0)
+  return totals
+}
+
+/** The Site column of a table, only when the report covers more than one site (on a phone it is width wasted). */
+export function siteColumn(scope: ReportScope): ReportColumn[] {
+  return scope.sites.length > 1 ? [{ key: 'site', label: scope.t('report.col.site') }] : []
 }

@@ -1,7 +1,7 @@
 import type { ReportResponse } from '#shared/types/reports'
 import { isEffectiveRecord, rowsOf } from '../due/effective'
-import { CHART_TOP, chartSvg } from './chart'
-import { num, scopeCte, type ReportScope } from './scope'
+import { chartSvg } from './chart'
+import { chartTop, num, scopeCte, totalsOf, type ReportScope } from './scope'
 
 // A swap that went ahead over a "still cooling" or "not charged" refusal: a truck needed a battery and no
 // ready one was there. Codes from shared/utils/battery-fit.ts.
@@ -15,7 +15,7 @@ async function swapGroups(scope: ReportScope) {
     WITH ${scopeCte(scope)},
     swaps AS (
       SELECT extract(hour FROM s.at AT TIME ZONE scope.tz)::int AS hour,
-             coalesce(a.name, 'No home area') || CASE WHEN ${scope.siteIds.length > 1} THEN ' · ' || scope.site_name ELSE '' END AS area,
+             coalesce(a.name, ${scope.t('report.shortfall.no_home_area')}) || CASE WHEN ${scope.siteIds.length > 1} THEN ' · ' || scope.site_name ELSE '' END AS area,
              coalesce(s.overridden_checks IS NOT NULL AND (${shortfall}), false) AS short
       FROM scope JOIN battery_swaps s ON s.site_id = scope.site_id AND s.at >= scope.t0 AND s.at < scope.t1
       JOIN batteries b ON b.id = s.battery_in_id
@@ -48,42 +48,44 @@ export async function shortfallReport(scope: ReportScope): Promise<ReportRespons
   const areas = groups.filter(r => r.grouping === 'area').map(g => ({ area: g.key, swaps: num(g.swaps), shortfalls: num(g.shortfalls), share: share(num(g.shortfalls), num(g.swaps)) }))
     .sort((a, b) => b.shortfalls - a.shortfalls)
   const worst = [...hours].sort((a, b) => b.shortfalls - a.shortfalls)[0]
-  const total = hours.reduce((t, h) => ({ swaps: t.swaps + h.swaps, shortfalls: t.shortfalls + h.shortfalls }), { swaps: 0, shortfalls: 0 })
+  const { t } = scope
+  const total = totalsOf(hours, ['swaps', 'shortfalls'])
   return {
     kind: 'shortfall',
-    title: 'Fleet sizing: shift-change shortfall',
+    title: t('report.shortfall.title'),
     from: scope.from,
     to: scope.to,
     sites: scope.sites.map(s => ({ id: s.id, name: s.name })),
     figures: [
-      { label: 'Swaps without a ready battery', value: String(total.shortfalls), detail: `of ${total.swaps} swaps` },
-      { label: 'Worst hour', value: worst && worst.shortfalls > 0 ? worst.hour : '—', detail: worst && worst.shortfalls > 0 ? `${worst.shortfalls} short` : 'no shortfall' },
+      { label: t('report.shortfall.without_ready'), value: String(total.shortfalls), detail: t('report.shortfall.of_swaps', { n: total.swaps }) },
+      { label: t('report.shortfall.worst_hour'), value: worst && worst.shortfalls > 0 ? worst.hour : '—', detail: worst && worst.shortfalls > 0 ? t('report.shortfall.short_n', { n: worst.shortfalls }) : t('report.shortfall.no_shortfall') },
     ],
     sections: [
       {
         key: 'hour',
-        title: 'By hour of day',
-        note: 'A shortfall is a swap that went ahead over a "still cooling" or "not charged" refusal (a written override): no ready battery was there when a truck needed one. The hour is the site\'s local time. Refusals that were not overridden are not recorded, so this is a floor, not the whole shortfall.',
+        title: t('report.shortfall.hour_title'),
+        note: t('report.shortfall.hour_note'),
         chartSvg: chartSvg({
-          kind: 'bar', categories: hours.map(h => h.hour.slice(0, 2)), unit: 'swaps', secondUnit: '%',
-          series: [{ name: 'Short of a ready battery', data: hours.map(h => h.shortfalls) }, { name: 'Share of swaps (%)', type: 'line', data: hours.map(h => (h.share === null ? null : Math.round(h.share))) }],
+          kind: 'bar', categories: hours.map(h => h.hour.slice(0, 2)), unit: t('report.unit.swaps'), secondUnit: '%',
+          series: [{ name: t('report.shortfall.series'), data: hours.map(h => h.shortfalls) }, { name: t('report.shortfall.share_pct'), type: 'line', data: hours.map(h => (h.share === null ? null : Math.round(h.share))) }],
         }),
-        columns: [{ key: 'hour', label: 'Hour' }, { key: 'swaps', label: 'Swaps', decimals: 0 }, { key: 'shortfalls', label: 'Short', decimals: 0 }, { key: 'share', label: 'Share', unit: '%', decimals: 0 }],
-        rows: hours,
+        columns: [{ key: 'hour', label: t('report.col.hour') }, { key: 'swaps', label: t('report.col.swaps'), decimals: 0 }, { key: 'shortfalls', label: t('report.col.short'), decimals: 0 }, { key: 'share', label: t('report.col.share'), unit: '%', decimals: 0 }],
+        // 24 rows of zeros say less than "nothing recorded"
+        rows: total.swaps > 0 ? hours : [],
       },
       {
         key: 'area',
-        title: 'By charging area (the home area of the battery taken)',
-        chartSvg: chartSvg({ kind: 'bar', top: CHART_TOP, categories: areas.map(a => a.area), unit: 'swaps', series: [{ name: 'Short of a ready battery', data: areas.map(a => a.shortfalls) }] }),
-        columns: [{ key: 'area', label: 'Area' }, { key: 'swaps', label: 'Swaps', decimals: 0 }, { key: 'shortfalls', label: 'Short', decimals: 0 }, { key: 'share', label: 'Share', unit: '%', decimals: 0 }],
+        title: t('report.shortfall.area_title'),
+        chartSvg: chartSvg({ kind: 'bar', ...chartTop(scope), categories: areas.map(a => a.area), unit: t('report.unit.swaps'), series: [{ name: t('report.shortfall.series'), data: areas.map(a => a.shortfalls) }] }),
+        columns: [{ key: 'area', label: t('report.col.area') }, { key: 'swaps', label: t('report.col.swaps'), decimals: 0 }, { key: 'shortfalls', label: t('report.col.short'), decimals: 0 }, { key: 'share', label: t('report.col.share'), unit: '%', decimals: 0 }],
         rows: areas,
       },
       {
         key: 'voltage',
-        title: 'Batteries per truck, by voltage class',
-        note: 'Batteries and electric trucks in service now. Below 2 per truck, a truck on more than one shift waits for its battery\'s charge and cooling (common practice).',
+        title: t('report.shortfall.voltage_title'),
+        note: t('report.shortfall.voltage_note'),
         chartSvg: null,
-        columns: [{ key: 'voltage', label: 'Voltage', unit: 'V', decimals: 0 }, { key: 'trucks', label: 'Trucks', decimals: 0 }, { key: 'batteries', label: 'Batteries', decimals: 0 }, { key: 'perTruck', label: 'Per truck', decimals: 2 }],
+        columns: [{ key: 'voltage', label: t('report.col.voltage'), unit: 'V', decimals: 0 }, { key: 'trucks', label: t('report.col.trucks'), decimals: 0 }, { key: 'batteries', label: t('report.col.batteries'), decimals: 0 }, { key: 'perTruck', label: t('report.col.per_truck'), decimals: 2 }],
         rows: perTruck.map(r => ({ voltage: num(r.voltage), trucks: num(r.trucks), batteries: num(r.batteries), perTruck: num(r.trucks) > 0 ? num(r.batteries) / num(r.trucks) : null })),
       },
     ],

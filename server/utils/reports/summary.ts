@@ -1,10 +1,10 @@
 import type { FacilitiesSummary } from '#shared/types/reports'
-import { changeWords, sameDaysLastMonth } from '#shared/utils/report-math'
+import { changeWords, sameDaysLastMonth, type ChangeWords } from '#shared/utils/report-math'
 import { energyReport } from './energy'
 import { replacementForecast } from './replacement'
 import { batteryFacts } from './battery-facts'
 import { shortfallReport } from './shortfall'
-import { money, type ReportScope } from './scope'
+import { money, numberText, type ReportScope } from './scope'
 
 // The few figures the facilities lead opens on: this month's energy and cost so far against the same days
 // of last month, batteries due for replacement this quarter, and the
@@ -16,15 +16,17 @@ export async function facilitiesSummary(scope: ReportScope): Promise<FacilitiesS
   const link = (kind: string, from: string) => `/reports/${kind}?site=${site}&from=${from}&to=${today}`
   const lastMonth = sameDaysLastMonth(today)
   const [energy, energyBefore, facts, shortfall] = await Promise.all([
-    energyReport({ ...scope, from: `${month}-01` }),
-    energyReport({ ...scope, ...lastMonth }),
+    energyReport({ ...scope, from: `${month}-01` }, false),
+    energyReport({ ...scope, ...lastMonth }, false),
     batteryFacts(scope),
     shortfallReport({ ...scope, from: `${month}-01` }),
   ])
   const sum = (report: typeof energy, key: 'kwh' | 'cost') => report.sections[0]!.rows.reduce((s, r) => s + Number(r[key] ?? 0), 0)
   const kwh = sum(energy, 'kwh')
   const cost = sum(energy, 'cost')
-  const versus = `the same days of last month (${lastMonth.from} to ${lastMonth.to})`
+  const { t, language } = scope
+  const versus = t('report.summary.versus', { from: lastMonth.from, to: lastMonth.to })
+  const words: ChangeWords = { pct: (pct, what) => t('report.change.pct', { pct, what }), nothing: what => t('report.change.nothing', { what }) }
   const forecast = replacementForecast(scope, facts)
   const quarterEnd = (() => {
     const q = Math.ceil(Number(today.slice(5, 7)) / 3)
@@ -37,13 +39,13 @@ export async function facilitiesSummary(scope: ReportScope): Promise<FacilitiesS
   return {
     month,
     figures: [
-      { label: 'Energy this month', value: `${Math.round(kwh).toLocaleString('en-US')} kWh`, detail: changeWords(kwh, sum(energyBefore, 'kwh'), versus), to: link('energy', lastMonth.from) },
-      { label: 'Energy cost this month', value: money(cost, scope.currency), detail: changeWords(cost, sum(energyBefore, 'cost'), versus), to: link('energy', lastMonth.from) },
-      { label: 'Batteries due for replacement this quarter', value: String(dueThisQuarter.length), detail: money(dueThisQuarter.reduce((s, b) => s + (b.replacementPrice ?? 0), 0), scope.currency), to: link('replacement', `${month}-01`) },
+      { label: t('report.summary.energy'), value: `${numberText(Math.round(kwh), language)} kWh`, detail: changeWords(kwh, sum(energyBefore, 'kwh'), versus, words), to: link('energy', lastMonth.from) },
+      { label: t('report.summary.cost'), value: money(cost, scope.currency, language), detail: changeWords(cost, sum(energyBefore, 'cost'), versus, words), to: link('energy', lastMonth.from) },
+      { label: t('report.summary.due_quarter'), value: String(dueThisQuarter.length), detail: money(dueThisQuarter.reduce((s, b) => s + (b.replacementPrice ?? 0), 0), scope.currency, language), to: link('replacement', `${month}-01`) },
       {
-        label: 'Worst shortfall hour this month',
+        label: t('report.summary.worst_hour'),
         value: worst && Number(worst.shortfalls) > 0 ? String(worst.hour) : '—',
-        detail: worst && Number(worst.shortfalls) > 0 ? `${worst.shortfalls} swaps short of a ready battery` : 'no swap short of a ready battery',
+        detail: worst && Number(worst.shortfalls) > 0 ? t('report.summary.short_swaps', { n: Number(worst.shortfalls) }) : t('report.summary.no_short'),
         to: link('shortfall', `${month}-01`),
       },
     ],

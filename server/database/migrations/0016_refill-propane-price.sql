@@ -1,0 +1,1 @@
+ALTER TABLE "cylinder_refills" ADD COLUMN "price_per_gal" double precision;

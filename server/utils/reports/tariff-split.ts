@@ -1,0 +1,42 @@
+import { isEffectiveRecord, rowsOf } from '../due/effective'
+import { num, scopeCte, type ReportScope } from './scope'
+
+export interface PeakSplit { siteId: string, site: string, kwh: number, peakKwh: number, peakPerKwh: number, offPeakPerKwh: number }
+
+// Each site's standing closed charges in the range, with the kWh drawn in its peak windows: a charge's kWh
+// are taken as drawn evenly from putting on to taking off, so its peak kWh = kWh × (hours inside a window ÷
+// its hours). A window is a site-local clock range on the days it lists (ISO weekdays), turned into instants
+// with the site's time zone on each local day the charge spans, so daylight-saving days keep their clock.
+// Restates shared/utils/tariff.ts peakHours for speed; tests/e2e/reports-tariff.test.ts compares the two.
+export async function peakSplit(scope: ReportScope): Promise<PeakSplit[]> {
+  const rows = await rowsOf<Record<string, unknown>>(useDb(), sql`
+    WITH ${scopeCte(scope)},
+    charges AS (
+      SELECT scope.site_id, scope.tz, c.at, c.ended_at, coalesce(c.grid_kwh, 0) AS kwh, st.settings->'peakPeriods' AS periods
+      FROM scope JOIN sites st ON st.id = scope.site_id
+      JOIN charge_sessions c ON c.site_id = scope.site_id AND c.at >= scope.t0 AND c.at < scope.t1
+      WHERE c.ended_at IS NOT NULL AND ${isEffectiveRecord('charge_sessions', 'c')}
+        AND jsonb_typeof(st.settings->'peakPeriods') = 'array' AND jsonb_array_length(st.settings->'peakPeriods') > 0
+    ),
+    shares AS (
+      SELECT ch.site_id, ch.kwh,
+             CASE WHEN ch.ended_at > ch.at THEN coalesce((
+               SELECT sum(EXTRACT(EPOCH FROM greatest(interval '0', least(ch.ended_at, w.t_end) - greatest(ch.at, w.t_start))))
+               -- local days as timestamps without zone (dates alone would be read as instants in the session's zone)
+               FROM generate_series((ch.at AT TIME ZONE ch.tz)::date::timestamp, (ch.ended_at AT TIME ZONE ch.tz)::date::timestamp, interval '1 day') AS d(day)
+               CROSS JOIN jsonb_array_elements(ch.periods) AS p(period)
+               CROSS JOIN LATERAL (SELECT (d.day + (p.period->>'start')::time) AT TIME ZONE ch.tz AS t_start,
+                                          (d.day + (p.period->>'end')::time) AT TIME ZONE ch.tz AS t_end) w
+               WHERE p.period->'days' @> to_jsonb(extract(isodow FROM d.day)::int)
+             ), 0) / EXTRACT(EPOCH FROM ch.ended_at - ch.at) ELSE 0 END AS peak_share
+      FROM charges ch
+    )
+    SELECT st.id AS "siteId", st.name AS site, coalesce(sum(s.kwh), 0)::float8 AS kwh, coalesce(sum(s.kwh * s.peak_share), 0)::float8 AS "peakKwh"
+    FROM scope JOIN sites st ON st.id = scope.site_id LEFT JOIN shares s ON s.site_id = scope.site_id
+    GROUP BY st.id, st.name ORDER BY st.name`)
+  const settings = new Map(scope.sites.map(s => [s.id, s.settings]))
+  return rows.map((r) => {
+    const s = settings.get(String(r.siteId))!
+    return { siteId: String(r.siteId), site: String(r.site), kwh: num(r.kwh), peakKwh: num(r.peakKwh), peakPerKwh: s.peakPerKwh, offPeakPerKwh: s.tariffPerKwh }
+  }).filter(r => settings.get(r.siteId)!.peakPeriods.length > 0)
+}

@@ -1,0 +1,74 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { setup } from '@nuxt/test-utils/e2e'
+import { builtServer, signIn, type Client } from '../support/http'
+import { area, battery, closeTestDb, rebuildSite, site, tables, user, useTestDb } from '../support/db'
+import { roomCharger } from '../support/battery-room'
+import { peakHours, type PeakPeriod } from '../../shared/utils/tariff'
+import type { ReportResponse } from '../../shared/types/reports'
+
+await setup(builtServer)
+
+// Time-of-use: a Chicago site with weekday peak 12:00–18:00 at 0.20 a kWh, 0.12 off-peak, and four charges in
+// March 2026 (daylight time from Sunday 8 March; 10 March is a Tuesday, 13 March a Friday).
+const PEAK: PeakPeriod[] = [{ days: [1, 2, 3, 4, 5], start: '12:00', end: '18:00' }]
+const CHARGES: { at: string, hours: number, kwh: number }[] = [
+  { at: '2026-03-10T15:00:00Z', hours: 4, kwh: 30 }, // Tue 10:00–14:00 CDT: 2 of 4 h in peak → 15 kWh
+  { at: '2026-03-13T22:00:00Z', hours: 20, kwh: 40 }, // Fri 17:00 → Sat 13:00: 1 of 20 h → 2 kWh
+  { at: '2026-03-11T20:00:00Z', hours: 22, kwh: 44 }, // Wed 15:00 → Thu 13:00: 3 + 1 of 22 h → 8 kWh
+  { at: '2026-03-15T03:00:00Z', hours: 8, kwh: 16 }, // Sat 22:00 → Sun 06:00: none
+]
+// 15 + 2 + 8 + 0 = 25 kWh of 130 in peak; saving 25 × (0.20 − 0.12) = 2.00
+
+describe('energy report with peak hours', () => {
+  let siteId: string
+  let lead: Client
+  let tech: Client
+
+  beforeAll(async () => {
+    siteId = (await site()).id
+    const areaId = (await area({ siteId, name: 'East room' })).id
+    const ch = await roomCharger(siteId, areaId, { name: 'East 48 V' })
+    const b = await battery({ siteId, homeAreaId: areaId })
+    const techRow = await user({ siteId, roles: ['technician'] })
+    lead = await signIn(await user({ siteId, roles: ['facilities_lead'] }))
+    tech = await signIn(techRow)
+    await useTestDb().insert(tables.chargeSessions).values(CHARGES.map(c => ({
+      siteId, userId: techRow.id, batteryId: b.id, chargerId: ch.id, at: new Date(c.at), endedAt: new Date(Date.parse(c.at) + c.hours * 3_600_000),
+      ampHoursReturned: 100, gridKwh: c.kwh, energyCost: c.kwh * 0.12, outcome: 'complete' as const, countedCycle: true,
+    })))
+    await rebuildSite(siteId)
+  })
+  afterAll(closeTestDb)
+
+  const energy = async () => (await lead.get<ReportResponse>(`/api/reports/energy?siteId=${siteId}&from=2026-03-01&to=2026-03-31`)).body
+
+  it('with no windows the report says one tariff and shows no split', async () => {
+    const body = await energy()
+    expect(body.sections.find(s => s.key === 'peak')).toBeUndefined()
+    expect(body.caveats.join(' ')).toContain('One tariff')
+  })
+
+  it('a facilities lead sets the windows; a technician may not; bad windows are a 400', async () => {
+    const tariff = { tariffPerKwh: 0.12, peakPerKwh: 0.2, peakPeriods: PEAK }
+    expect((await tech.put(`/api/sites/${siteId}/tariff`, tariff)).status).toBe(403)
+    const reversed = await lead.put(`/api/sites/${siteId}/tariff`, { ...tariff, peakPeriods: [{ days: [1], start: '18:00', end: '12:00' }] })
+    expect(reversed.status).toBe(400)
+    expect(JSON.stringify(reversed.body)).toContain('ends before it starts')
+    expect((await lead.put(`/api/sites/${siteId}/tariff`, { ...tariff, peakPerKwh: 'lots' })).status).toBe(400)
+    expect((await lead.put(`/api/sites/${siteId}/tariff`, tariff)).status).toBe(200)
+  })
+
+  it('the peak share and the saving match the hand count and the TypeScript rule', async () => {
+    const body = await energy()
+    const row = body.sections.find(s => s.key === 'peak')!.rows[0]!
+    expect(row.kwh).toBeCloseTo(130, 9)
+    expect(row.peakKwh).toBeCloseTo(25, 9)
+    expect(row.peakShare).toBeCloseTo((25 / 130) * 100, 9)
+    expect(row.saving).toBeCloseTo(2, 9)
+    // the SQL restates shared/utils/tariff.ts peakHours: the same split from the rule, charge by charge
+    const fromRule = CHARGES.reduce((s, c) => s + c.kwh * peakHours(new Date(c.at), new Date(Date.parse(c.at) + c.hours * 3_600_000), PEAK, 'America/Chicago') / c.hours, 0)
+    expect(row.peakKwh).toBeCloseTo(fromRule, 9)
+    expect(body.figures.find(f => f.label === 'Drawn in peak hours')).toMatchObject({ value: '19 %' })
+    expect(body.caveats).toEqual([])
+  })
+})
