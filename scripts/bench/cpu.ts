@@ -31,7 +31,11 @@ try {
   const idlePerMs = (cpuMs(server.pid) - idle0) / (performance.now() - idleT0)
   console.log(`idle   app ${(idlePerMs * 1000).toFixed(0)} ms CPU a second`)
   // BAYWARD_CPU_EXTRA=/api/me,/api/sites: more paths, read as the lead
-  for (const extra of process.env.BAYWARD_CPU_EXTRA?.split(',').filter(Boolean) ?? []) routes.push([extra, () => extra, lead])
+  // (SITE1 and AREA11 in them stand for the bench's first site and its first charging area)
+  for (const extra of process.env.BAYWARD_CPU_EXTRA?.split(',').filter(Boolean) ?? []) {
+    const path = extra.replace('SITE1', site1).replace('AREA11', benchId('area:1:1'))
+    routes.push([extra, () => path, lead])
+  }
   for (const [name, path, cookie] of routes) {
     if (name !== 'health' && !name.startsWith('/') && !wanted(name)) continue
     for (let i = 0; i < Number(process.env.BAYWARD_CPU_WARMUP ?? 20); i++) await (await fetch(server.base + path(i), { headers: { cookie, 'accept': 'application/json', 'accept-encoding': encoding } })).text()
