@@ -56,3 +56,15 @@ export function validateParams<S extends z.ZodType>(event: H3Event, schema: S): 
   if (!result.success) throw createError({ statusCode: 404, message: 'Not found.' })
   return result.data
 }
+
+/**
+ * A refusal the floor pages show in the reader's words: `code` names `refusal.<code>` in every locale file,
+ * `params` its numbers and names (values with a unit in the stored unit, suffixed), `message` the English
+ * fallback, repeated at each named field.
+ */
+export function codedError(statusCode: number, code: string, message: string, { params, fields = [] }: { params?: Record<string, string | number>, fields?: string[] } = {}) {
+  return createError({
+    statusCode, message,
+    data: { code, ...(params ? { params } : {}), ...(fields.length ? { fields: Object.fromEntries(fields.map(f => [f, message])) } : {}) },
+  })
+}
