@@ -11,7 +11,7 @@ export function useReasonWords() {
   const { number } = useLocaleFormat()
   const { units } = storeToRefs(useSessionStore())
   const chemistry = (code: string) => (te(`chemistry.${code}`) ? t(`chemistry.${code}`) : code)
-  const listItem = (name: string) => (name === 'items' ? (key: string) => (te(`refill.item.${key}`) ? t(`refill.item.${key}`) : key) : chemistry)
+  const listItem = (name: string) => (name === 'items' ? (key: string) => (te(`refill.item.${key}`) ? t(`refill.item.${key}`) : key) : name === 'roles' ? (key: string) => t(`role.${key}`) : chemistry)
 
   function named(params: ReasonParams = {}): Record<string, string> {
     const out: Record<string, string> = {}

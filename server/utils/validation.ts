@@ -1,5 +1,6 @@
 import type { H3Event } from 'h3'
 import type { z } from 'zod'
+import type { ReasonParams } from '#shared/utils/battery-fit'
 
 // Every 400 answer carries its field messages in `data.fields` (fieldMessages, shared/utils/field-messages.ts).
 function invalid(error: z.ZodError, what: string) {
@@ -62,7 +63,7 @@ export function validateParams<S extends z.ZodType>(event: H3Event, schema: S): 
  * `params` its numbers and names (values with a unit in the stored unit, suffixed), `message` the English
  * fallback, repeated at each named field.
  */
-export function codedError(statusCode: number, code: string, message: string, { params, fields = [] }: { params?: Record<string, string | number>, fields?: string[] } = {}) {
+export function codedError(statusCode: number, code: string, message: string, { params, fields = [] }: { params?: ReasonParams, fields?: string[] } = {}) {
   return createError({
     statusCode, message,
     data: { code, ...(params ? { params } : {}), ...(fields.length ? { fields: Object.fromEntries(fields.map(f => [f, message])) } : {}) },
