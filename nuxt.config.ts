@@ -62,6 +62,12 @@ export default defineNuxtConfig({
   typescript: { strict: true },
   telemetry: false,
   hooks: {
+    // a language other than English is fetched when it is picked, not prefetched by every English page
+    'build:manifest'(manifest) {
+      for (const [key, chunk] of Object.entries(manifest)) {
+        if (/i18n\/locales\/(?!en\.)[\w-]+\.json$/.test(key)) chunk.prefetch = false
+      }
+    },
     // Bayward's handler (database unavailable → 503) runs before Nuxt's own error page handler.
     'nitro:config'(config) {
       const nuxtHandlers = [config.errorHandler ?? []].flat()
@@ -69,9 +75,10 @@ export default defineNuxtConfig({
     },
   },
   eslint: { config: { stylistic: true } },
-  // English and Spanish. The words are in the bundle (i18n/i18n.config.ts imports both JSON files), so the app
-  // opened offline from the service worker has them; no prefix, so printed /t/<code> URLs never change. The
-  // language is the person's setting (users.language, set in app/plugins/language.ts), else the browser's.
+  // English and Spanish. English is in the bundle (i18n/i18n.config.ts); Spanish is a chunk of its own, loaded
+  // when picked (app/plugins/i18n-languages.ts) and precached by the service worker, so the app opened offline
+  // has it. No prefix, so printed /t/<code> URLs never change. The language is the person's setting
+  // (users.language, set in app/middleware/auth.global.ts), else the browser's.
   i18n: {
     strategy: 'no_prefix',
     defaultLocale: 'en',

@@ -11,7 +11,7 @@ export function useReasonWords() {
   const { number } = useLocaleFormat()
   const { units } = storeToRefs(useSessionStore())
   const chemistry = (code: string) => (te(`chemistry.${code}`) ? t(`chemistry.${code}`) : code)
-  const listItem = (name: string) => (name === 'items' ? (key: string) => (te(`refill.item.${key}`) ? t(`refill.item.${key}`) : key) : chemistry)
+  const listItem = (name: string) => (name === 'items' ? (key: string) => (te(`refill.item.${key}`) ? t(`refill.item.${key}`) : key) : name === 'roles' ? (key: string) => t(`role.${key}`) : chemistry)
 
   function named(params: ReasonParams = {}): Record<string, string> {
     const out: Record<string, string> = {}
@@ -32,5 +32,17 @@ export function useReasonWords() {
     return te(key) ? t(key, named(reason.params)) : reason.message
   }
 
-  return { reasonText, locale }
+  /** Any coded message (`history.<code>` …) with its parameters named as above; `fallback` when the key is unknown. */
+  function codedText(key: string, params: ReasonParams | undefined, fallback: string): string {
+    if (!te(key)) return fallback
+    return typeof params?.n === 'number' ? t(key, named(params), params.n) : t(key, named(params))
+  }
+
+  /** A refusal's first coded reason, else its coded message (`data.code`), else the server's words. */
+  function refusalText(r: Refusal): string {
+    if (r.reasons[0]?.code) return reasonText(r.reasons[0])
+    return typeof r.data.code === 'string' ? reasonText({ code: r.data.code, message: r.message, params: r.data.params as ReasonParams | undefined }) : r.message
+  }
+
+  return { reasonText, refusalText, codedText, locale }
 }

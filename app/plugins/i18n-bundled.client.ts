@@ -1,7 +1,7 @@
 import { localeLoaders } from '#build/i18n-options.mjs'
 
-// Both languages' words are in the bundle (i18n/i18n.config.ts imports them; the service worker precaches it).
-// @nuxtjs/i18n would still ask the server for a language's messages (/_i18n/<hash>/<code>/messages.json) each
+// The words are in the app's own chunks (English in the bundle, every other language a chunk that
+// app/plugins/i18n-languages.ts loads; the service worker precaches them). @nuxtjs/i18n would still ask the server for a language's messages (/_i18n/<hash>/<code>/messages.json) each
 // time the browser sets a language; Bayward has no locale files, so that answer adds nothing, and the app opened
 // with no signal has no server to ask. Emptying the module's list of locale loaders, as this file is imported
 // (before any plugin runs), leaves it nothing to fetch. tests/browser/offline-app.test.ts checks that no such

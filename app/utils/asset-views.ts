@@ -48,7 +48,7 @@ const yesNo = { true: 'Out of service', false: 'In service' }
 
 export const ASSET_VIEWS: Record<AssetKind, AssetView> = {
   truck: {
-    kind: 'truck', path: '/trucks', api: '/api/trucks', noun: 'truck', plural: 'Trucks', titleKey: 'fleetNumber',
+    kind: 'truck', path: ASSET_PATHS.truck, api: '/api/trucks', noun: 'truck', plural: 'Trucks', titleKey: 'fleetNumber',
     columns: [
       { key: 'fleetNumber', label: 'Fleet no.', sortable: true },
       { key: 'truckClass', label: 'Class', sortable: true },
@@ -82,7 +82,7 @@ export const ASSET_VIEWS: Record<AssetKind, AssetView> = {
     ],
   },
   battery: {
-    kind: 'battery', path: '/batteries', api: '/api/batteries', noun: 'battery', plural: 'Batteries', titleKey: 'serial',
+    kind: 'battery', path: ASSET_PATHS.battery, api: '/api/batteries', noun: 'battery', plural: 'Batteries', titleKey: 'serial',
     columns: [
       { key: 'serial', label: 'Serial', sortable: true },
       { key: 'voltage', label: 'Volts', sortable: true },
@@ -119,7 +119,7 @@ export const ASSET_VIEWS: Record<AssetKind, AssetView> = {
     ],
   },
   charger: {
-    kind: 'charger', path: '/chargers', api: '/api/chargers', noun: 'charger', plural: 'Chargers', titleKey: 'name',
+    kind: 'charger', path: ASSET_PATHS.charger, api: '/api/chargers', noun: 'charger', plural: 'Chargers', titleKey: 'name',
     columns: [
       { key: 'name', label: 'Name', sortable: true },
       { key: 'outputVoltage', label: 'Volts', sortable: true },
@@ -145,7 +145,7 @@ export const ASSET_VIEWS: Record<AssetKind, AssetView> = {
     ],
   },
   cylinder: {
-    kind: 'cylinder', path: '/cylinders', api: '/api/cylinders', noun: 'LP cylinder', plural: 'LP cylinders', titleKey: 'serial',
+    kind: 'cylinder', path: ASSET_PATHS.cylinder, api: '/api/cylinders', noun: 'LP cylinder', plural: 'LP cylinders', titleKey: 'serial',
     columns: [
       { key: 'serial', label: 'Serial', sortable: true },
       { key: 'status', label: 'Status', sortable: true, options: CYLINDER_STATUS_LABELS },
@@ -175,7 +175,7 @@ export const ASSET_VIEWS: Record<AssetKind, AssetView> = {
     ],
   },
   area: {
-    kind: 'area', path: '/areas', api: '/api/areas', noun: 'area', plural: 'Areas', titleKey: 'name',
+    kind: 'area', path: ASSET_PATHS.area, api: '/api/areas', noun: 'area', plural: 'Areas', titleKey: 'name',
     columns: [
       { key: 'name', label: 'Name', sortable: true },
       { key: 'kind', label: 'Kind', sortable: true, options: AREA_KIND_LABELS },
@@ -228,9 +228,4 @@ export function formatCell(value: unknown, col: Pick<ColumnView, 'unit' | 'optio
   if (Array.isArray(value)) return value.map(v => col.options?.[v] ?? v).join(', ') || '—'
   if (typeof value === 'number') return value.toLocaleString('en-US', { maximumFractionDigits: 1 })
   return String(value)
-}
-
-/** The asset kind a list path (/batteries) shows, or undefined. */
-export function kindForPath(collection: unknown): AssetKind | undefined {
-  return (Object.values(ASSET_VIEWS).find(v => v.path === `/${String(collection)}`))?.kind
 }

@@ -1,6 +1,6 @@
 import type { BatteryState } from '#shared/utils/battery-state'
 import type { StatusTone } from '../utils/asset-status'
-import type { HistoryEntry } from '../utils/asset-history'
+import type { HistoryEntry, HistoryWords } from '../utils/asset-history'
 
 const STATE_TONES: Record<BatteryState, StatusTone> = {
   in_truck: 'neutral', on_charge: 'notice', cooling: 'notice', ready: 'safe', needs_charge: 'caution', out_of_service: 'danger',
@@ -8,7 +8,17 @@ const STATE_TONES: Record<BatteryState, StatusTone> = {
 const FLAG_TONES: Record<string, StatusTone> = {
   wateringOverdue: 'warning', weakCell: 'warning', ranHot: 'warning', wateringDue: 'caution', equalizeDue: 'notice',
 }
-const number = new Intl.NumberFormat('en-US', { maximumFractionDigits: 1 })
+const tenth = (v: number) => Math.round(v * 10) / 10
+const overrideWords = (reason: string | null): HistoryWords[] => (reason ? [{ code: 'override', params: { reason } }] : [])
+// what a charge's end recorded, in stored units (°F as `end_f`)
+const chargeEndWords = (r: typeof tables.chargeSessions.$inferSelect): HistoryWords[] => [
+  { code: r.outcome === 'interrupted' ? 'charge_interrupted' : 'charge_complete' },
+  ...(r.ampHoursReturned !== null ? [{ code: 'amp_hours', params: { ah: tenth(r.ampHoursReturned) } }] : []),
+  ...(r.gridKwh !== null ? [{ code: 'grid_kwh', params: { kwh: tenth(r.gridKwh) } }] : []),
+  ...(r.endTempF !== null ? [{ code: 'end_temp', params: { end_f: r.endTempF } }] : []),
+  ...(r.packStateOfChargePct !== null ? [{ code: 'pack_charged', params: { percent: tenth(r.packStateOfChargePct) } }] : []),
+  ...(r.ranHot ? [{ code: 'ran_hot' }] : []),
+]
 const swapValues = (w: typeof tables.batterySwaps.$inferSelect) => ({ truckId: w.truckId, batteryOutId: w.batteryOutId, batteryInId: w.batteryInId, hourMeter: w.hourMeter })
 const chargeValues = (r: typeof tables.chargeSessions.$inferSelect) => ({ ampHoursReturned: r.ampHoursReturned, endTempF: r.endTempF, outcome: r.outcome, equalize: r.equalize })
 
@@ -60,34 +70,24 @@ export default defineNitroPlugin(() => {
     const entries: HistoryEntry[] = swaps.map(({ w, truck, who }) => recordEntry({
       id: `swap-${w.id}-${w.batteryInId === batteryId ? 'in' : 'out'}`,
       at: w.at,
-      title: w.batteryInId === batteryId ? `Put in truck ${truck}` : `Taken out of truck ${truck}`,
+      ...historyLine({ code: w.batteryInId === batteryId ? 'put_in_truck' : 'taken_out_of_truck', params: { truck } }, overrideWords(w.overrideReason)),
       who,
-      detail: w.overrideReason ? `Override: ${w.overrideReason}` : null,
       tone: w.overrideReason ? 'warning' : undefined,
     }, 'battery-swap', w, swapsBy, swapValues(w)))
     for (const { row, charger, who } of charges) {
-      entries.push({ id: `charge-${row.id}`, at: row.at, title: `${row.equalize ? 'Equalize' : 'Charge'} on ${charger}`, who, detail: row.overrideReason ? `Override: ${row.overrideReason}` : null })
-      if (row.endedAt) {
-        const bits = [
-          row.outcome === 'interrupted' ? 'interrupted' : 'complete',
-          row.ampHoursReturned !== null ? `${number.format(row.ampHoursReturned)} Ah` : null,
-          row.gridKwh !== null ? `${number.format(row.gridKwh)} kWh` : null,
-          row.endTempF !== null ? `${number.format(row.endTempF)} °F` : null,
-          row.packStateOfChargePct !== null ? `pack display ${number.format(row.packStateOfChargePct)} % charged` : null,
-          row.ranHot ? 'ran hot' : null,
-        ].filter(Boolean)
-        entries.push(recordEntry({ id: `charge-end-${row.id}`, at: row.endedAt, title: `Off charger ${charger}`, who, detail: bits.join(' · '), tone: row.ranHot ? 'warning' : undefined }, 'charge-session', row, chargesBy, chargeValues(row)))
-      }
+      entries.push({ id: `charge-${row.id}`, at: row.at, ...historyLine({ code: row.equalize ? 'equalize_on' : 'charge_on', params: { charger } }, overrideWords(row.overrideReason)), who })
+      if (row.endedAt) entries.push(recordEntry({ id: `charge-end-${row.id}`, at: row.endedAt, ...historyLine({ code: 'off_charger', params: { charger } }, chargeEndWords(row)), who, tone: row.ranHot ? 'warning' : undefined }, 'charge-session', row, chargesBy, chargeValues(row)))
     }
     for (const { row, who } of checks) {
-      const bits = [
-        `level ${row.level}`,
-        row.waterAddedGal > 0 ? `${number.format(row.waterAddedGal)} gal water` : null,
-        row.meanCorrectedSg !== null ? `mean SG ${row.meanCorrectedSg.toFixed(3)}` : null,
-        row.spread !== null ? `spread ${row.spread.toFixed(3)}` : null,
-        row.lowCellCount ? `${row.lowCellCount} low cell${row.lowCellCount === 1 ? '' : 's'}` : null,
-      ].filter(Boolean)
-      entries.push(recordEntry({ id: `check-${row.id}`, at: row.at, title: row.scope === 'every_cell' ? 'Every-cell reading' : row.scope === 'pilot_cell' ? 'Pilot-cell reading' : 'Electrolyte level check', who, detail: bits.join(' · '), tone: row.lowCellCount ? 'warning' : undefined }, 'electrolyte-check', row, checksBy, { level: row.level, waterAddedGal: row.waterAddedGal }))
+      const words: HistoryWords[] = [
+        { code: 'level', params: { level: row.level } },
+        ...(row.waterAddedGal > 0 ? [{ code: 'water_added', params: { water_gal: row.waterAddedGal } }] : []),
+        ...(row.meanCorrectedSg !== null ? [{ code: 'mean_sg', params: { sg: row.meanCorrectedSg.toFixed(3) } }] : []),
+        ...(row.spread !== null ? [{ code: 'sg_spread', params: { spread: row.spread.toFixed(3) } }] : []),
+        ...(row.lowCellCount ? [{ code: 'low_cells', params: { n: row.lowCellCount } }] : []),
+      ]
+      const title = row.scope === 'every_cell' ? 'every_cell_reading' : row.scope === 'pilot_cell' ? 'pilot_cell_reading' : 'level_check'
+      entries.push(recordEntry({ id: `check-${row.id}`, at: row.at, ...historyLine({ code: title }, words), who, tone: row.lowCellCount ? 'warning' : undefined }, 'electrolyte-check', row, checksBy, { level: row.level, waterAddedGal: row.waterAddedGal }))
     }
     return entries
   })
@@ -99,8 +99,8 @@ export default defineNitroPlugin(() => {
       .where(eq(s.truckId, truckId)).orderBy(desc(s.at)).limit(limit)
     const by = await correctedByOf(s, rows.map(x => x.r.id))
     return rows.map(({ r, serial, who }) => recordEntry({
-      id: `swap-${r.id}`, at: r.at, title: `Battery ${serial} fitted`, who,
-      detail: [r.hourMeter !== null ? `${number.format(r.hourMeter)} h` : null, r.overrideReason ? `Override: ${r.overrideReason}` : null].filter(Boolean).join(' · ') || null,
+      id: `swap-${r.id}`, at: r.at, who,
+      ...historyLine({ code: 'battery_fitted', params: { battery: serial } }, [...(r.hourMeter !== null ? [{ code: 'hour_meter', params: { hours: tenth(r.hourMeter) } }] : []), ...overrideWords(r.overrideReason)]),
       tone: r.overrideReason ? 'warning' as const : undefined,
     }, 'battery-swap', r, by, swapValues(r)))
   })
@@ -113,8 +113,8 @@ export default defineNitroPlugin(() => {
     const by = await correctedByOf(c, rows.map(x => x.row.id))
     return rows.map(({ row, serial, who }) => {
       const entry: HistoryEntry = {
-        id: `charge-${row.id}`, at: row.at, title: `Charged battery ${serial}`, who,
-        detail: row.endedAt ? `${row.outcome ?? 'ended'}${row.ampHoursReturned !== null ? ` · ${number.format(row.ampHoursReturned)} Ah` : ''}${row.gridKwh !== null ? ` · ${number.format(row.gridKwh)} kWh` : ''}` : 'on charge now',
+        id: `charge-${row.id}`, at: row.at, who,
+        ...historyLine({ code: 'charged_battery', params: { battery: serial } }, row.endedAt ? chargeEndWords(row).filter(w => ['charge_complete', 'charge_interrupted', 'amp_hours', 'grid_kwh'].includes(w.code)) : [{ code: 'on_charge_now' }]),
       }
       return row.endedAt ? recordEntry(entry, 'charge-session', row, by, chargeValues(row)) : entry
     })

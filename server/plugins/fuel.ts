@@ -1,8 +1,9 @@
 import { alias } from 'drizzle-orm/pg-core'
-import type { HistoryEntry } from '../utils/asset-history'
+import type { HistoryEntry, HistoryWords } from '../utils/asset-history'
 import type { FuelCylinderRow, FuelTruckRow } from '../utils/fuel/site'
 
-const lb = (v: number | null) => (v === null ? '—' : `${Math.round(v * 10) / 10} lb`)
+const tenth = (v: number) => Math.round(v * 10) / 10
+const noteWords = (note: string | null | undefined): HistoryWords[] => (note ? [{ code: 'note', params: { note } }] : [])
 
 // Fuel-station states and events on cylinders and trucks: requalification and emissions dates,
 // refills, cylinder changes, requalifications and emissions tests in the asset timelines.
@@ -70,8 +71,13 @@ export default defineNitroPlugin(() => {
         id: `refill-${r.id}`,
         at: r.at,
         who,
-        title: r.refused ? 'Refill refused' : `Refilled: ${lb(r.netAddedLb)} added`,
-        detail: r.refused ? r.refusalReasons.join(' ') : `Limit ${lb(r.fillLimitLb)}; ${r.gallonsAt60F === null ? '—' : `${r.gallonsAt60F.toFixed(1)} gal at 60 °F`}${r.note ? ` · ${r.note}` : ''}`,
+        ...(r.refused
+          ? historyLine({ code: 'refill_refused' }, r.refusalReasons.length ? [{ code: 'note', params: { note: r.refusalReasons.join(' ') } }] : [])
+          : historyLine({ code: 'refilled', params: { added_lb: tenth(r.netAddedLb ?? 0) } }, [
+              ...(r.fillLimitLb !== null ? [{ code: 'fill_limit', params: { limit_lb: tenth(r.fillLimitLb) } }] : []),
+              ...(r.gallonsAt60F !== null ? [{ code: 'volume_at_60f', params: { volume_gal: r.gallonsAt60F } }] : []),
+              ...noteWords(r.note),
+            ])),
         tone: r.refused ? 'danger' : 'safe',
       }, 'cylinder-refill', r, refillsBy, { grossBeforeLb: r.grossBeforeLb, grossAfterLb: r.grossAfterLb, measuredTareLb: r.measuredTareLb, productSg: r.productSg }),
       ),
@@ -79,16 +85,18 @@ export default defineNitroPlugin(() => {
         id: `exchange-${e.id}-${e.cylinderOnId === id ? 'on' : 'off'}`,
         at: e.at,
         who,
-        title: e.cylinderOnId === id ? `Put on truck ${truck}` : `Taken off truck ${truck} (to the cage, empty)`,
-        detail: e.note || null,
+        ...historyLine({ code: e.cylinderOnId === id ? 'cylinder_put_on' : 'cylinder_taken_off', params: { truck } }, noteWords(e.note)),
         tone: 'notice',
       }, 'cylinder-exchange', e, exchangesBy, { cylinderOnId: e.cylinderOnId, hourMeter: e.hourMeter })),
       ...requals.map(({ q, who }): HistoryEntry => recordEntry({
         id: `requal-${q.id}`,
         at: q.at,
         who,
-        title: q.passed ? `Requalified (${REQUALIFICATION_METHOD_LABELS[q.method].toLowerCase()})` : 'Condemned at requalification',
-        detail: `Performed ${q.performedOn}; marked ${q.marking || '—'}${q.nextDueOn ? `; next due ${q.nextDueOn}` : ''}${q.note ? ` · ${q.note}` : ''}`,
+        ...historyLine(q.passed ? { code: 'requalified', params: { method: q.method } } : { code: 'requal_condemned' }, [
+          { code: 'requal_marked', params: { on: q.performedOn, marking: q.marking || '—' } },
+          ...(q.nextDueOn ? [{ code: 'next_due', params: { on: q.nextDueOn } }] : []),
+          ...noteWords(q.note),
+        ]),
         tone: q.passed ? 'safe' : 'danger',
       }, 'requalification', q, requalsBy, { method: q.method, marking: q.marking, passed: q.passed })),
     ]
@@ -109,14 +117,18 @@ export default defineNitroPlugin(() => {
     ])
     return [
       ...exchanges.map(({ e, who, onSerial }): HistoryEntry => recordEntry({
-        id: `exchange-${e.id}`, at: e.at, who, title: `Cylinder changed: ${onSerial} fitted`, detail: e.note || null, tone: 'notice',
+        id: `exchange-${e.id}`, at: e.at, who, ...historyLine({ code: 'cylinder_changed', params: { cylinder: onSerial } }, noteWords(e.note)), tone: 'notice',
       }, 'cylinder-exchange', e, exchangesBy, { cylinderOnId: e.cylinderOnId, hourMeter: e.hourMeter })),
       ...tests.map(({ t, who }): HistoryEntry => recordEntry({
         id: `emissions-${t.id}`,
         at: t.at,
         who,
-        title: t.passed ? `Emissions test passed (${t.testedOn})` : `Emissions test failed (${t.testedOn})`,
-        detail: `CO ${t.coIdlePct} % idle, ${t.coHighIdlePct} % high idle; tested by ${t.testerName}; next due ${t.nextDueOn}${t.reasons.length ? ` · ${t.reasons.join(' ')}` : ''}`,
+        ...historyLine({ code: t.passed ? 'emissions_passed' : 'emissions_failed', params: { on: t.testedOn } }, [
+          { code: 'emissions_co', params: { idle: t.coIdlePct, high: t.coHighIdlePct } },
+          { code: 'tested_by', params: { name: t.testerName } },
+          { code: 'next_due', params: { on: t.nextDueOn } },
+          ...noteWords(t.reasons.join(' ')),
+        ]),
         tone: t.passed ? 'safe' : 'danger',
       }, 'emissions-test', t, testsBy, {
         testerName: t.testerName, coIdlePct: t.coIdlePct, coHighIdlePct: t.coHighIdlePct, hcPpm: t.hcPpm, co2Pct: t.co2Pct, o2Pct: t.o2Pct,
@@ -130,7 +142,8 @@ export default defineNitroPlugin(() => {
       .where(eq(r.areaId, id)).orderBy(desc(r.at)).limit(limit)
     const by = await correctedByOf(r, rows.map(x => x.r.id))
     return rows.map(({ r: row, who }) => recordEntry({
-      id: `co-${row.id}`, at: row.at, who, title: `CO reading ${row.ppm} ppm (${row.takenOn})`, detail: `${row.durationHours} h${row.note ? ` · ${row.note}` : ''}`,
+      id: `co-${row.id}`, at: row.at, who,
+      ...historyLine({ code: 'co_reading', params: { ppm: row.ppm, on: row.takenOn } }, [{ code: 'hours', params: { hours: row.durationHours } }, ...noteWords(row.note)]),
       tone: row.ppm > CO_LIMITS.nioshCeiling.ppm ? 'danger' : undefined,
     }, 'co-reading', row, by, { ppm: row.ppm, durationHours: row.durationHours }))
   })

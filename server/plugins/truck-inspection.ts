@@ -26,11 +26,13 @@ export default defineNitroPlugin(() => {
     return [
       ...checks.map(({ row, who }): HistoryEntry => ({
         id: `inspection-${row.id}`, at: row.at, who,
-        title: row.criticalFailed.length ? 'Pre-shift check failed: out of service' : row.failedCount ? `Pre-shift check: ${row.failedCount} item(s) failed` : 'Pre-shift check passed',
-        detail: [row.criticalFailed.join('; '), row.hourMeter !== null ? `${row.hourMeter} h` : null].filter(Boolean).join(' · ') || null,
+        ...historyLine(
+          row.criticalFailed.length ? { code: 'preshift_out_of_service' } : row.failedCount ? { code: 'preshift_items_failed', params: { n: row.failedCount } } : { code: 'preshift_passed' },
+          [...(row.criticalFailed.length ? [{ code: 'note', params: { note: row.criticalFailed.join('; ') } }] : []), ...(row.hourMeter !== null ? [{ code: 'hour_meter', params: { hours: row.hourMeter } }] : [])],
+        ),
         tone: row.criticalFailed.length ? 'danger' : row.failedCount ? 'warning' : 'safe',
       })),
-      ...returns.map(({ row, who }): HistoryEntry => ({ id: `return-${row.id}`, at: row.at, who, title: 'Returned to service', detail: row.whatWasDone, tone: 'safe' })),
+      ...returns.map(({ row, who }): HistoryEntry => ({ id: `return-${row.id}`, at: row.at, who, ...historyLine({ code: 'audit_return_to_service' }, row.whatWasDone ? [{ code: 'note', params: { note: row.whatWasDone } }] : []), tone: 'safe' })),
     ]
   })
 })

@@ -1,9 +1,11 @@
 import type { PgColumn, PgTable } from 'drizzle-orm/pg-core'
 import type { AssetKind } from '#shared/utils/asset-schemas'
+import type { ReasonParams } from '#shared/utils/battery-fit'
 import { CORRECTION_ABILITIES, type CorrectableKind } from '#shared/utils/correction-schemas'
 import { parseSiteSettings } from '#shared/utils/site-settings'
 import type { Actor } from './auth'
 import { CORRECTABLE_KIND_TABLES, firstEnteredAt } from './due/effective'
+import { mailCoded, mailWords } from './mail-words'
 
 /** The event record behind a timeline row, for corrections: what it corrects, what corrects it, why. */
 export interface HistoryRecord {
@@ -19,6 +21,13 @@ export interface HistoryRecord {
   labels?: Record<string, string>
 }
 
+/**
+ * A timeline line as a code (`history.<code>` in every locale file) with its numbers and names, values with a
+ * unit in the stored unit named by its suffix (`end_f`, `water_gal`), as refusals travel: the page says it in
+ * the reader's language and the site's units. `title` and `detail` stay as the English words (CSV, fallback).
+ */
+export interface HistoryWords { code: string, params?: ReasonParams }
+
 export interface HistoryEntry {
   /** unique within the timeline, e.g. 'audit-12' or 'swap-<uuid>' */
   id: string
@@ -27,11 +36,22 @@ export interface HistoryEntry {
   title: string
   who: string
   detail?: string | null
+  titleWords?: HistoryWords
+  /** the detail as coded parts, joined with " · " */
+  detailWords?: HistoryWords[]
   tone?: 'neutral' | 'danger' | 'warning' | 'caution' | 'notice' | 'safe'
   changes?: { field: string, from: unknown, to: unknown }[]
   record?: HistoryRecord
   /** whether the person asking may correct it now (set by the history route) */
   mayCorrect?: boolean
+}
+
+const ENGLISH = mailWords('en')
+
+/** A line from its coded words, with the English words (US units) as `title` and `detail` for the CSV and the fallback. */
+export function historyLine(title: HistoryWords, detail: HistoryWords[] = []): Pick<HistoryEntry, 'title' | 'titleWords' | 'detail' | 'detailWords'> {
+  const english = (w: HistoryWords) => mailCoded(ENGLISH, `history.${w.code}`, w.params, 'us')
+  return { title: english(title), titleWords: title, detail: detail.length ? detail.map(english).join(' · ') : null, detailWords: detail }
 }
 
 type HistorySource = (assetId: string, limit: number) => Promise<HistoryEntry[]>

@@ -19,6 +19,7 @@ export async function assetTimeline(kind: AssetKind, id: string, limit: number):
     id: `audit-${r.id}`,
     at: r.at,
     title: AUDIT_TITLES[r.action] ?? r.action,
+    ...(AUDIT_TITLES[r.action] ? { titleWords: { code: `audit_${r.action}` } } : {}),
     who: r.userName ?? 'System',
     detail: r.note,
     tone: r.action === 'out_of_service' ? 'danger' : undefined,

@@ -185,17 +185,23 @@ export async function requireAbility(event: H3Event, ability: Ability, siteId?: 
   const rule: AbilityRule = ABILITIES[ability]
   if (rule.scope === 'site') {
     if (!siteId || rolesAt(actor, siteId).length === 0) throw createError({ statusCode: 404, message: 'Not found.' })
-    if (!can(rolesAt(actor, siteId), ability)) throw createError({ statusCode: 403, message: refusalFor(ability) })
+    if (!can(rolesAt(actor, siteId), ability)) throw forbidden(ability)
   }
   else if (rule.scope === 'any-site' && !actorCan(actor, ability)) {
-    throw createError({ statusCode: 403, message: refusalFor(ability).replace('at this site', 'at one of your sites') })
+    throw forbidden(ability, 'any_site')
   }
   return actor
 }
 
 /** A 403 for a member who lacks a second ability the route needs (an override, a lead's view). */
 export function requireActorCan(actor: Actor, ability: Ability, siteId: string) {
-  if (!actorCan(actor, ability, siteId)) throw createError({ statusCode: 403, message: refusalFor(ability) })
+  if (!actorCan(actor, ability, siteId)) throw forbidden(ability)
+}
+
+/** The 403 of a member who lacks an ability: the roles that hold it, coded (`refusal.role_needed`) for the reader's words. */
+export function forbidden(ability: Ability, variant?: 'any_site') {
+  const message = variant ? refusalFor(ability).replace('at this site', 'at one of your sites') : refusalFor(ability)
+  return codedError(403, 'role_needed', message, { params: { roles: [...ABILITIES[ability].roles], ...(variant ? { variant } : {}) } })
 }
 
 /**

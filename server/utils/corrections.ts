@@ -88,7 +88,7 @@ export async function correctRecord<Row extends CorrectionRow>(
     if (!original) throw createError({ statusCode: 404, message: `No such ${noun}.` })
     const [stored] = await tx.select().from(t as PgTable).where(eq(t.idempotencyKey, input.idempotencyKey)) as unknown as Row[]
     if (stored) {
-      if (stored.correctsId !== id || stored.userId !== actor.user.id) throw createError({ statusCode: 409, message: 'That retry key belongs to another record; reload the form.' })
+      if (stored.correctsId !== id || stored.userId !== actor.user.id) throw codedError(409, 'retry_key_taken', 'That retry key belongs to another record; reload the form.')
       return { item: stored, corrects: original, replayed: true }
     }
     const entered = (await firstEnteredAt(tx, CORRECTABLE_KIND_TABLES[spec.kind], [original.id])).get(original.id) ?? original.recordedAt
@@ -150,9 +150,9 @@ export async function hourMeterInOrder(tx: Transaction, truckId: string, recordI
            min(hour_meter) FILTER (WHERE at > ${at.toISOString()}::timestamptz) AS after
     FROM (${readings('battery_swaps', 'truck_id')} UNION ALL ${readings('cylinder_exchanges', 'truck_id')} UNION ALL ${readings('schedule_completions', 'subject_id')}) x`) as unknown as { before: number | null, after: number | null }[]
   if (around?.before !== null && around?.before !== undefined && hourMeter < around.before) {
-    throw badField('hourMeter', `The hour meter read ${around.before} h at an earlier record of this truck; check the reading.`)
+    throw badField('hourMeter', 'hour_meter_below_earlier', `The hour meter read ${around.before} h at an earlier record of this truck; check the reading.`, { meter: around.before })
   }
   if (around?.after !== null && around?.after !== undefined && hourMeter > around.after) {
-    throw badField('hourMeter', `The hour meter read ${around.after} h at a later record of this truck; correct that one too, or check the reading.`)
+    throw badField('hourMeter', 'hour_meter_above_later', `The hour meter read ${around.after} h at a later record of this truck; correct that one too, or check the reading.`, { meter: around.after })
   }
 }

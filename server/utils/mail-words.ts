@@ -1,4 +1,4 @@
-import type { FitReason } from '#shared/utils/battery-fit'
+import type { FitReason, ReasonParams } from '#shared/utils/battery-fit'
 import type { Language } from '#shared/utils/languages'
 import { isLanguage } from '#shared/utils/languages'
 import type { UnitSystem } from '#shared/utils/units'
@@ -40,8 +40,13 @@ export function mailWords(language: string | null | undefined): MailT {
 export function mailReason(t: MailT, reason: FitReason, units: UnitSystem): string {
   const key = `refusal.${reason.code}${typeof reason.params?.variant === 'string' ? `_${reason.params.variant}` : ''}`
   if (!lookup(MESSAGES.en, key)) return reason.message
+  return mailCoded(t, key, reason.params, units)
+}
+
+/** One coded message (refusal, history line) with its parameters named as the screen names them, in `units`. */
+export function mailCoded(t: MailT, key: string, given: ReasonParams = {}, units: UnitSystem): string {
   const params: Record<string, string | number> = {}
-  for (const [name, value] of Object.entries(reason.params ?? {})) {
+  for (const [name, value] of Object.entries(given)) {
     const stored = typeof value === 'number' ? storedUnitParam(name, value, units) : null
     if (stored) params[stored[0]] = stored[1]
     else if (Array.isArray(value)) params[name] = value.map(v => (name === 'items' ? t(`refill.item.${v}`) : t(`chemistry.${v}`))).join(name === 'items' ? '; ' : ', ')

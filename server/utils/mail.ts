@@ -1,10 +1,8 @@
 import nodemailer, { type Transporter } from 'nodemailer'
 import { sql } from 'drizzle-orm'
-import type { Role } from '#shared/types/auth'
 import type { Ability } from '#shared/utils/abilities'
-import { MAIL_MAX_ATTEMPTS, mailRetryDelaySeconds, digestDue } from '#shared/utils/mail-schedule'
+import { MAIL_MAX_ATTEMPTS, mailRetryDelaySeconds } from '#shared/utils/mail-schedule'
 import type { DbOrTx } from './db'
-import type { Obligation } from './due/list'
 import type { FitReason } from '#shared/utils/battery-fit'
 import type { UnitSystem } from '#shared/utils/units'
 import { mailReason, mailWords, type MailT } from './mail-words'
@@ -205,67 +203,4 @@ export async function deliverDueMail({ force = false, siteId, limit = 50 }: { fo
     }
   }
   return result
-}
-
-// The daily digest: each lead gets what is overdue and due soon in their roles' lists. With `force`
-// it goes now; otherwise once a day from the site's digest hour.
-export async function sendDigests({ siteIds, force = false, now = new Date() }: { siteIds?: string[], force?: boolean, now?: Date } = {}) {
-  const db = useDb()
-  const sites = await db.select({ id: tables.sites.id, timeZone: tables.sites.timeZone, settings: tables.sites.settings }).from(tables.sites)
-    .where(siteIds ? inArray(tables.sites.id, siteIds.length ? siteIds : ['00000000-0000-0000-0000-000000000000']) : undefined)
-  let queued = 0
-  for (const s of sites) {
-    const hour = siteSettingsSchema.safeParse(s.settings ?? {}).data?.digestHour ?? 6
-    if (!force) {
-      const [sent] = await db.execute(sql`
-        SELECT 1 FROM mail_messages WHERE site_id = ${s.id} AND kind = 'digest'
-          AND created_at >= (date_trunc('day', now() AT TIME ZONE ${s.timeZone}) AT TIME ZONE ${s.timeZone}) LIMIT 1`) as unknown as unknown[]
-      if (!digestDue(now, s.timeZone, hour, !!sent)) continue
-    }
-    const leads = await db.select({ id: tables.users.id, email: tables.users.email, name: tables.users.name, role: tables.memberships.role })
-      .from(tables.memberships).innerJoin(tables.users, eq(tables.users.id, tables.memberships.userId))
-      .where(and(eq(tables.memberships.siteId, s.id), inArray(tables.memberships.role, [...rolesWith('notice.digest')]), eq(tables.users.active, true)))
-    if (leads.length === 0) continue
-    const list = await computeDueList(s.id, { roles: null, personId: null, states: ['overdue', 'due_soon'], kinds: null, sort: 'due', limit: 100_000 })
-    const byUser = new Map<string, { email: string, name: string, roles: Role[] }>()
-    for (const l of leads) {
-      const u = byUser.get(l.id) ?? { email: l.email, name: l.name, roles: [] }
-      u.roles.push(l.role)
-      byUser.set(l.id, u)
-    }
-    const messages: OutgoingMail[] = []
-    for (const u of byUser.values()) {
-      const mine = list.items.filter(o => u.roles.includes(o.responsibleRole))
-      if (mine.length === 0) continue
-      messages.push({ siteId: s.id, to: u.email, kind: 'digest', subject: `[Bayward] ${list.site.name}: ${digestHeadline(mine)}`, body: digestBody(u.name, list.site.name, list.today, mine) })
-    }
-    await db.transaction(tx => queueMail(tx, messages))
-    queued += messages.length
-  }
-  if (queued) deliverMailSoon()
-  return { queued }
-}
-
-function digestHeadline(items: Obligation[]) {
-  const overdue = items.filter(o => o.state === 'overdue').length
-  const soon = items.length - overdue
-  return `${overdue} overdue, ${soon} due soon`
-}
-
-function digestBody(name: string, siteName: string, today: string, items: Obligation[]) {
-  const line = (o: Obligation) => `  • ${o.dueOn ?? 'now'}  ${o.what} — ${o.subject.label}${o.detail ? ` (${o.detail})` : ''}\n    ${appLink(o.action.to)}`
-  const overdue = items.filter(o => o.state === 'overdue')
-  const soon = items.filter(o => o.state === 'due_soon')
-  return [
-    `Hello ${name.split(' ')[0]},`,
-    '',
-    `Your due list at ${siteName} on ${today}:`,
-    '',
-    overdue.length ? `OVERDUE (${overdue.length})\n${overdue.slice(0, 60).map(line).join('\n')}${overdue.length > 60 ? `\n  … and ${overdue.length - 60} more` : ''}` : 'Nothing overdue.',
-    '',
-    soon.length ? `DUE SOON (${soon.length})\n${soon.slice(0, 60).map(line).join('\n')}${soon.length > 60 ? `\n  … and ${soon.length - 60} more` : ''}` : 'Nothing due soon.',
-    '',
-    `The whole list: ${appLink('/due')}`,
-    '— Bayward',
-  ].join('\n')
 }

@@ -9,10 +9,10 @@ const NOT_FOUND = 'No tag with that code at your sites. Check the code on the la
 export async function resolveTagForActor(event: H3Event, raw: string) {
   const code = normalizeTagCode(raw)
   const actor = await requireActor(event)
-  if (!code) throw createError({ statusCode: 404, message: NOT_FOUND })
+  if (!code) throw codedError(404, 'tag_not_found', NOT_FOUND)
   const db = useDb()
   const [tag] = await db.select().from(tables.tags).where(eq(tables.tags.code, code))
-  if (!tag || !actor.siteIds.includes(tag.siteId)) throw createError({ statusCode: 404, message: NOT_FOUND })
+  if (!tag || !actor.siteIds.includes(tag.siteId)) throw codedError(404, 'tag_not_found', NOT_FOUND)
   const { row, tagCode } = await findAssetForActor(event, tag.assetKind, tag.assetId)
   return { actor, tag, kind: tag.assetKind, row, liveCode: tagCode }
 }

@@ -20,7 +20,7 @@ export async function requirePersonInReach(event: H3Event, userId: string, abili
   const shared = personSites.filter(s => actor.siteIds.includes(s))
   if (shared.length === 0 && userId !== actor.user.id) throw createError({ statusCode: 404, message: 'No such person.' })
   const reach = shared.filter(s => actorCan(actor, ability, s))
-  if (reach.length === 0) throw createError({ statusCode: 403, message: refusalFor(ability) })
+  if (reach.length === 0) throw forbidden(ability)
   return { actor, reach, personSites }
 }
 

@@ -1,5 +1,6 @@
 import type { H3Event } from 'h3'
 import type { z } from 'zod'
+import type { ReasonParams } from '#shared/utils/battery-fit'
 
 // Every 400 answer carries its field messages in `data.fields` (fieldMessages, shared/utils/field-messages.ts).
 function invalid(error: z.ZodError, what: string) {
@@ -55,4 +56,16 @@ export function validateParams<S extends z.ZodType>(event: H3Event, schema: S): 
   const result = schema.safeParse(getRouterParams(event, { decode: true }))
   if (!result.success) throw createError({ statusCode: 404, message: 'Not found.' })
   return result.data
+}
+
+/**
+ * A refusal the floor pages show in the reader's words: `code` names `refusal.<code>` in every locale file,
+ * `params` its numbers and names (values with a unit in the stored unit, suffixed), `message` the English
+ * fallback, repeated at each named field.
+ */
+export function codedError(statusCode: number, code: string, message: string, { params, fields = [] }: { params?: ReasonParams, fields?: string[] } = {}) {
+  return createError({
+    statusCode, message,
+    data: { code, ...(params ? { params } : {}), ...(fields.length ? { fields: Object.fromEntries(fields.map(f => [f, message])) } : {}) },
+  })
 }

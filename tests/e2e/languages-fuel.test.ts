@@ -50,6 +50,18 @@ describe('LP-gas forms in Spanish, at a metric site', () => {
     expect(page).toMatch(/data-testid="stored-propane"[^>]*>[\d.,]+ kg</)
   })
 
+  it('the cylinder\'s history says a refill in Spanish, with the weights in kg', async () => {
+    const c = await freshCylinder(siteId, { areaId })
+    const res = await tech.post(`/api/cylinders/${c.id}/refills`, { inspection: passingInspection(), grossBeforeLb: 31, grossAfterLb: 60 })
+    expect(res.status, JSON.stringify(res.body)).toBe(201)
+    const shown = (await html(`/cylinders/${c.id}`)).replace(/<script[\s\S]*?<\/script>/g, '')
+    // 29 lb added is 13.15 kg (mathjs below); the 33.39 lb limit is 15.15 kg
+    expect(unit(29, 'lbm').toNumber('kg')).toBeCloseTo(13.154, 3)
+    expect(shown).toMatch(/Rellenado: se agregaron 13\.\d+ kg/)
+    expect(shown).toMatch(/límite 15\.\d+ kg/)
+    expect(shown).not.toMatch(/Refilled|\d lb/)
+  })
+
   it('an overfill refusal sends its code and the weights in stored pounds', async () => {
     const c = await freshCylinder(siteId, { areaId })
     // fixture: 79.5 lb water capacity, 30 lb tare; 65 − 30 = 35 lb in it, over the 33.39 lb limit (79.5 × 42 %)

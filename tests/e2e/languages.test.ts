@@ -1,3 +1,4 @@
+import { readdirSync, readFileSync } from 'node:fs'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { setup, url } from '@nuxt/test-utils/e2e'
 import { builtServer, signIn } from '../support/http'
@@ -66,5 +67,16 @@ describe('languages', () => {
       expect(res.body.data.fields).toBeTruthy()
     }
     expect((await c.get('/api/me')).body.user.language).toBe('es')
+  })
+
+  it('keeps the Spanish words in a chunk of their own that an English page does not name', async () => {
+    const dir = `${builtServer.nuxtConfig.nitro.output.dir}/public/_nuxt`
+    const spanish = readdirSync(dir).filter(f => f.endsWith('.js') && readFileSync(`${dir}/${f}`, 'utf8').includes('Escanear una etiqueta'))
+    expect(spanish).toHaveLength(1)
+    expect(readFileSync(`${dir}/${spanish[0]}`, 'utf8')).not.toContain('Scan a tag')
+    const who = await user({ siteId, roles: ['operator'] })
+    const english = await page((await signIn(who)).cookie, 'en-US')
+    expect(english.html).toContain('Scan a tag')
+    expect(english.html).not.toContain(spanish[0])
   })
 })

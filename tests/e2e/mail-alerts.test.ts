@@ -82,7 +82,9 @@ describe('alerts by e-mail through the outbox', () => {
     expect(got.to).toEqual([safetyEmail])
   })
 
-  it('the digest goes to each lead with their overdue and due-soon work', async () => {
+  it('the digest goes to each lead with their overdue and due-soon work, in each one\'s language', async () => {
+    const spanish = await person(siteId, ['safety_lead'])
+    expect((await spanish.client.put('/api/me/language', { language: 'es' })).status).toBe(200)
     expect((await facilities.post('/api/mail/digest', { siteId })).status).toBe(403)
     const res = await admin.post('/api/mail/digest', { siteId })
     expect(res.status, JSON.stringify(res.body)).toBe(200)
@@ -94,6 +96,14 @@ describe('alerts by e-mail through the outbox', () => {
     const safetyDigest = digests.find(d => d.toAddress === safetyEmail)
     expect(safetyDigest!.body).toContain('OVERDUE')
     expect(safetyDigest!.body).toContain('Sign the area log')
+    expect(safetyDigest!.subject).toMatch(/\d+ overdue, \d+ due soon/)
+    const spanishDigest = digests.find(d => d.toAddress === spanish.email)!
+    expect(spanishDigest.subject).toMatch(/\d+ vencidos, \d+ vencen pronto/)
+    expect(spanishDigest.body).toContain('Hola, ')
+    expect(spanishDigest.body).toContain('VENCIDO (')
+    expect(spanishDigest.body).toContain('Firmar la bitácora del área')
+    expect(spanishDigest.body).toContain('La lista completa: ')
+    expect(spanishDigest.body).not.toMatch(/OVERDUE|Sign the area log|Your due list/)
   })
 
   it('the outbox is readable by admins only', async () => {

@@ -13,7 +13,7 @@ export default defineAbilityHandler('emissions.view', async (event) => {
   }
   else {
     siteIds = sitesWhere(await requireActor(event), 'emissions.view')
-    if (siteIds.length === 0) throw createError({ statusCode: 403, message: refusalFor('emissions.view') })
+    if (siteIds.length === 0) throw forbidden('emissions.view')
   }
   return { ...(await emissionsOverview(siteIds)), source: EMISSIONS_POLICY_SOURCE }
 })

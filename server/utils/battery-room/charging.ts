@@ -32,8 +32,8 @@ export async function startChargeSession(actor: Actor, battery: Pick<BatteryRow,
       const [locked] = await tx.select().from(tables.batteries).where(eq(tables.batteries.id, battery.id)).for('update')
       const [charger] = await tx.select().from(tables.chargers)
         .where(and(eq(tables.chargers.id, body.chargerId), eq(tables.chargers.siteId, siteId))).for('update')
-      if (!locked) throw createError({ statusCode: 404, message: 'No such battery.' })
-      if (!charger) throw createError({ statusCode: 404, message: 'No such charger at this site.', data: { fields: { chargerId: 'Not a charger at this site.' } } })
+      if (!locked) throw codedError(404, 'no_such_battery', 'No such battery at this site.')
+      if (!charger) throw codedError(404, 'no_such_charger', 'No such charger at this site.', { fields: ['chargerId'] })
       const again = await stored(tx)
       if (again) return { item: again, replayed: true }
       const [row] = await loadBatteryRows(tx, { siteId, batteryIds: [locked.id] })
@@ -87,7 +87,7 @@ async function chargeEndReplay(row: ChargeSession, db: DbOrTx = useDb()) {
 export async function findChargeSession(actor: Actor, id: string): Promise<ChargeSession> {
   const cs = tables.chargeSessions
   const [found] = actor.siteIds.length ? await useDb().select().from(cs).where(and(eq(cs.id, id), inArray(cs.siteId, actor.siteIds))) : []
-  if (!found) throw createError({ statusCode: 404, message: 'No such charge session.' })
+  if (!found) throw codedError(404, 'no_such_charge', 'No such charge session.')
   return found
 }
 
@@ -97,10 +97,10 @@ export async function endChargeSession(actor: Actor, found: ChargeSession, body:
   const cs = tables.chargeSessions
   if (found.endedAt) {
     if (sameChargeEnd(found, actor.user.id, body)) return chargeEndReplay(found)
-    throw createError({ statusCode: 409, message: 'This charge has already been ended.' })
+    throw codedError(409, 'charge_already_ended', 'This charge has already been ended.')
   }
   const endedAt = eventTime(body.endedAt, 'endedAt')
-  if (endedAt.getTime() < found.at.getTime()) throw badField('endedAt', 'The charge cannot end before it started.')
+  if (endedAt.getTime() < found.at.getTime()) throw badField('endedAt', 'charge_end_before_start', 'The charge cannot end before it started.')
   const settings = await batteryRoomSettings(useDb(), found.siteId)
   return useDb().transaction(async (tx) => {
     const [battery] = await tx.select().from(tables.batteries).where(eq(tables.batteries.id, found.batteryId)).for('update')
@@ -117,7 +117,7 @@ export async function endChargeSession(actor: Actor, found: ChargeSession, body:
     if (!session) {
       const [now] = await tx.select().from(cs).where(eq(cs.id, found.id))
       if (now && sameChargeEnd(now, actor.user.id, body)) return chargeEndReplay(now, tx)
-      throw createError({ statusCode: 409, message: 'Someone ended this charge at the same moment; reload.' })
+      throw codedError(409, 'charge_ended_same_moment', 'Someone ended this charge at the same moment; reload.')
     }
     await writeAudit(tx, { actor, siteId: found.siteId, action: 'charge_off', entity: 'charge_session', entityId: found.id, before: found, after: session })
     await recomputeSubjects(tx, found.siteId, [{ kind: 'battery', id: battery!.id }], { lock: false, ctx: await cachedSiteContext(actor, found.siteId, tx) })

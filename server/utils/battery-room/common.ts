@@ -21,8 +21,9 @@ export function refusal(reasons: FitReason[], extra: Record<string, unknown> = {
   return createError({ statusCode, message: reasons.map(r => r.message).join(' '), data: { reasons, ...extra } })
 }
 
-export function badField(field: string, message: string) {
-  return createError({ statusCode: 400, message, data: { fields: { [field]: message } } })
+/** A 400 at one field, coded (`refusal.<code>`) so the floor page says it in the reader's words. */
+export function badField(field: string, code: string, message: string, params?: Record<string, string | number>) {
+  return codedError(400, code, message, { params, fields: [field] })
 }
 
 export function checkOverrideRole(actor: Actor, siteId: string, overrideReason: string | undefined) {
@@ -31,7 +32,7 @@ export function checkOverrideRole(actor: Actor, siteId: string, overrideReason: 
 
 /** A record found by its retry key, refused when someone else made it. */
 export function ownRecord<R extends { userId: string }>(row: R | undefined, actor: Actor): R | undefined {
-  if (row && row.userId !== actor.user.id) throw createError({ statusCode: 409, message: 'That retry key belongs to someone else\'s record; reload the form.' })
+  if (row && row.userId !== actor.user.id) throw codedError(409, 'retry_key_taken', 'That retry key belongs to someone else\'s record; reload the form.')
   return row
 }
 

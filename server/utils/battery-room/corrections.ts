@@ -20,7 +20,7 @@ const swapSpec: CorrectionKindSpec<SwapRow> = {
 
 async function batteryAtSite(tx: Transaction, siteId: string, id: string, field: string) {
   const [battery] = await tx.select().from(tables.batteries).where(and(eq(tables.batteries.id, id), eq(tables.batteries.siteId, siteId)))
-  if (!battery) throw badField(field, 'Not a battery at this site.')
+  if (!battery) throw badField(field, 'no_such_battery', 'No such battery at this site.')
   return battery
 }
 
@@ -29,8 +29,8 @@ async function batteryAtSite(tx: Transaction, siteId: string, id: string, field:
 export async function correctBatterySwap(actor: Actor, input: WithId<SwapCorrection>) {
   return correctRecord(actor, swapSpec, input.id, input, async (tx, original) => {
     const [truck] = await tx.select().from(tables.trucks).where(and(eq(tables.trucks.id, input.truckId), eq(tables.trucks.siteId, original.siteId)))
-    if (!truck) throw badField('truckId', 'Not a truck at this site.')
-    if (truck.power !== 'electric') throw badField('truckId', `Truck ${truck.fleetNumber} is not electric; it takes no battery.`)
+    if (!truck) throw badField('truckId', 'no_such_truck', 'No such truck.')
+    if (truck.power !== 'electric') throw badField('truckId', 'truck_not_electric', `Truck ${truck.fleetNumber} is not electric; it takes no battery.`, { truck: truck.fleetNumber })
     await batteryAtSite(tx, original.siteId, input.batteryInId, 'batteryInId')
     if (input.batteryOutId) await batteryAtSite(tx, original.siteId, input.batteryOutId, 'batteryOutId')
     await hourMeterInOrder(tx, truck.id, original.id, original.at, input.hourMeter)
@@ -52,7 +52,7 @@ const chargeSpec: CorrectionKindSpec<ChargeRow> = {
 // it counts as a cycle and the hot flag are worked out again; an open charge is ended, not corrected.
 export async function correctChargeSession(actor: Actor, input: WithId<ChargeCorrection>) {
   return correctRecord(actor, chargeSpec, input.id, input, async (tx, original) => {
-    if (!original.endedAt) throw createError({ statusCode: 409, message: 'This charge is still open. Take the battery off charge with the right figures; a charge is corrected once it has ended.' })
+    if (!original.endedAt) throw codedError(409, 'charge_still_open', 'This charge is still open. Take the battery off charge with the right figures; a charge is corrected once it has ended.')
     const [battery] = await tx.select().from(tables.batteries).where(eq(tables.batteries.id, original.batteryId))
     const [charger] = await tx.select().from(tables.chargers).where(eq(tables.chargers.id, original.chargerId))
     const settings = await batteryRoomSettings(tx, original.siteId)
@@ -85,8 +85,8 @@ export async function correctElectrolyteCheck(actor: Actor, input: WithId<Electr
     const scope = input.cells ? input.scope ?? null : original.scope
     const cellCount = Number(battery!.cellCount)
     const outside = cells.findIndex(c => c.cellNumber > cellCount)
-    if (outside >= 0) throw badField(`cells.${outside}.cellNumber`, `This battery has ${cellCount} cells.`)
-    if (scope === 'every_cell' && cells.length !== cellCount) throw badField('cells', `Enter all ${cellCount} cells (${cells.length} entered).`)
+    if (outside >= 0) throw badField(`cells.${outside}.cellNumber`, 'cell_count', `This battery has ${cellCount} cells.`, { cells: cellCount })
+    if (scope === 'every_cell' && cells.length !== cellCount) throw badField('cells', 'cells_missing', `Enter all ${cellCount} cells (${cells.length} entered).`, { cells: cellCount, entered: cells.length })
     const settings = await batteryRoomSettings(tx, original.siteId)
     const temps = { referenceTempF: original.referenceTempF ?? settings.sgReferenceTempF, correctionPerDegF: original.correctionPerDegF ?? settings.sgCorrectionPerDegF }
     const summary = summarizeElectrolyteReadings(cells, temps, settings.cellSpreadThreshold)

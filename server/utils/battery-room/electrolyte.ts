@@ -20,12 +20,12 @@ export async function recordElectrolyteCheck(actor: Actor, battery: BatteryRow, 
   const replay = await stored(useDb())
   if (replay) return { item: replay, replayed: true, warnings: [] as FitReason[] }
   if (!takesElectrolyteReadings(battery.chemistry)) throw refusal([NO_ELECTROLYTE_READING], { overridable: false, fields: { batteryId: NO_ELECTROLYTE_READING.message } }, 400)
-  if (battery.chemistry !== 'flooded_lead_acid') throw badField('batteryId', 'Only flooded lead-acid batteries take water and hydrometer readings.')
+  if (battery.chemistry !== 'flooded_lead_acid') throw badField('batteryId', 'water_flooded_only', 'Only flooded lead-acid batteries take water and hydrometer readings.')
   const cellCount = Number(battery.cellCount)
   const outside = body.cells.findIndex(c => c.cellNumber > cellCount)
-  if (outside >= 0) throw badField(`cells.${outside}.cellNumber`, `This battery has ${cellCount} cells.`)
+  if (outside >= 0) throw badField(`cells.${outside}.cellNumber`, 'cell_count', `This battery has ${cellCount} cells.`, { cells: cellCount })
   if (body.scope === 'every_cell' && body.cells.length !== cellCount) {
-    throw badField('cells', `Enter all ${cellCount} cells (${body.cells.length} entered).`)
+    throw badField('cells', 'cells_missing', `Enter all ${cellCount} cells (${body.cells.length} entered).`, { cells: cellCount, entered: body.cells.length })
   }
   const at = eventTime(body.at, 'at')
   const settings = await batteryRoomSettings(useDb(), siteId)

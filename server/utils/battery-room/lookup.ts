@@ -30,11 +30,11 @@ async function findTarget(query: LookupQuery): Promise<{ kind: string, id: strin
 export async function lookupFloorCode(query: LookupQuery) {
   const db = useDb()
   const target = await findTarget(query)
-  if (!target) throw createError({ statusCode: 404, message: `No battery, truck or charger "${query.code.trim()}" at this site. Check the label and type it again.` })
+  if (!target) throw codedError(404, 'code_not_found', `No battery, truck or charger "${query.code.trim()}" at this site. Check the label and type it again.`, { params: { code: query.code.trim() } })
   if (target.kind === 'battery') {
     const settings = await batteryRoomSettings(db, query.siteId)
     const [row] = await loadBatteryRows(db, { siteId: query.siteId, batteryIds: [target.id] })
-    if (!row) throw createError({ statusCode: 404, message: 'No such battery at this site.' })
+    if (!row) throw codedError(404, 'no_such_battery', 'No such battery at this site.')
     return { kind: 'battery' as const, id: target.id, code: row.tagCode, label: row.serial, battery: batteryCard(row, settings.timeZone, new Date()) }
   }
   if (target.kind === 'truck') {
@@ -63,5 +63,5 @@ export async function lookupFloorCode(query: LookupQuery) {
       charger: { name: charger!.name, outputVoltage: charger!.outputVoltage, outOfService: charger!.outOfService, chemistryProfiles: charger!.chemistryProfiles, minCapacityAh: charger!.minCapacityAh, maxCapacityAh: charger!.maxCapacityAh, openSession: open ?? null },
     }
   }
-  throw createError({ statusCode: 404, message: `"${query.code.trim()}" is not a battery, truck or charger.` })
+  throw codedError(404, 'code_not_battery_room', `"${query.code.trim()}" is not a battery, truck or charger.`, { params: { code: query.code.trim() } })
 }

@@ -33,7 +33,7 @@ async function storedSwap(db: DbOrTx, key: string, actor: Actor) {
 // connection, and PostgreSQL runs them in order): the actor, BEGIN, the locked reads, the record with
 // its audit row and the facts, the read models, COMMIT.
 export async function recordBatterySwap(actor: Actor, body: SwapInput) {
-  if (actor.siteIds.length === 0) throw createError({ statusCode: 404, message: 'No such truck.' })
+  if (actor.siteIds.length === 0) throw codedError(404, 'no_such_truck', 'No such truck.')
   // a late copy of a stored swap is answered with the record however old it is, so the time is checked after the replay
   let at = new Date()
   let atError: unknown
@@ -66,16 +66,16 @@ export async function recordBatterySwap(actor: Actor, body: SwapInput) {
         holdsBatteryChangingQualification(tx, actor.user.id, at, body.truckId),
         tx.select({ hourMeter: tables.truckStatus.hourMeter, holdReason: tables.truckStatus.holdReason }).from(tables.truckStatus).where(eq(tables.truckStatus.truckId, body.truckId)),
       ])
-      if (!truck) throw createError({ statusCode: 404, message: 'No such truck.' })
+      if (!truck) throw codedError(404, 'no_such_truck', 'No such truck.')
       const siteId = truck.siteId
       requireActorCan(actor, 'swap.record', siteId)
       checkOverrideRole(actor, siteId, body.overrideReason)
       const placeOf = new Map(places.map(p => [p.batteryId, p.truckId]))
       const locked = lockedRows.filter(b => b.siteId === siteId).map(b => ({ ...b, currentTruckId: placeOf.get(b.id) ?? null }))
       const batteryIn = locked.find(b => b.id === body.batteryInId)
-      if (!batteryIn) throw createError({ statusCode: 404, message: 'No such battery at this site.', data: { fields: { batteryInId: 'Not a battery at this site.' } } })
+      if (!batteryIn) throw codedError(404, 'no_such_battery', 'No such battery at this site.', { fields: ['batteryInId'] })
       if (body.batteryOutId && !locked.some(b => b.id === body.batteryOutId)) {
-        throw createError({ statusCode: 404, message: 'No such battery at this site.', data: { fields: { batteryOutId: 'Not a battery at this site.' } } })
+        throw codedError(404, 'no_such_battery', 'No such battery at this site.', { fields: ['batteryOutId'] })
       }
       // a retry of a swap already stored (read under the locks, so two copies in flight store one)
       const again = ownRecord(stored, actor)
@@ -83,12 +83,12 @@ export async function recordBatterySwap(actor: Actor, body: SwapInput) {
       if (atError) throw atError
       const ctx = await cachedSiteContext(actor, siteId, tx)
       const settings = ctx.settings
-      if (truck.power !== 'electric') throw badField('truckId', `Truck ${truck.fleetNumber} is not electric; it takes no battery.`)
+      if (truck.power !== 'electric') throw badField('truckId', 'truck_not_electric', `Truck ${truck.fleetNumber} is not electric; it takes no battery.`, { truck: truck.fleetNumber })
       // a truck that failed a critical item of its pre-shift check stays out of service (29 CFR 1910.178(q)(7))
       if (truckNow?.holdReason) throw refusal([{ code: 'inspection_hold', message: holdRefusal(truck.fleetNumber, truckNow.holdReason), params: { truck: truck.fleetNumber, reason: truckNow.holdReason } }], { overridable: false })
       const authorisation = await checkTruckAuthorisation(tx, actor, truck)
       const meter = truckNow?.hourMeter ?? truck.hourMeter
-      if (body.hourMeter < meter) throw badField('hourMeter', `The hour meter last read ${meter} h; check the reading.`)
+      if (body.hourMeter < meter) throw badField('hourMeter', 'hour_meter_back', `The hour meter last read ${meter} h; check the reading.`, { meter })
 
       // Hard stops: nobody overrides a battery that is somewhere else or a truck holding another battery.
       const hard: FitReason[] = []
@@ -100,7 +100,7 @@ export async function recordBatterySwap(actor: Actor, body: SwapInput) {
         hard.push({ code: 'truck_has_battery', params: { truck: truck.fleetNumber, battery: current.serial }, message: `Truck ${truck.fleetNumber} holds battery ${current.serial}; scan it as the battery coming out.` })
       }
       const row = rowsIn.find(f => f.id === batteryIn.id)
-      if (!row) throw createError({ statusCode: 404, message: 'No such battery at this site.' })
+      if (!row) throw codedError(404, 'no_such_battery', 'No such battery at this site.')
       if (batteryIn.currentTruckId) {
         hard.push(batteryIn.currentTruckId === truck.id
           ? { code: 'already_in_this_truck', params: { battery: batteryIn.serial, truck: truck.fleetNumber }, message: `Battery ${batteryIn.serial} is already in truck ${truck.fleetNumber}.` }

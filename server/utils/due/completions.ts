@@ -42,8 +42,6 @@ async function subjectAtSite(schedule: CustomScheduleRow, subjectId: string): Pr
   return !!row
 }
 
-const badField = (field: string, message: string) => createError({ statusCode: 400, message, data: { fields: { [field]: message } } })
-
 export async function recordCompletion(actor: Actor, schedule: CustomScheduleRow, input: CompletionInput) {
   const db = useDb()
   const c = tables.scheduleCompletions
@@ -54,16 +52,16 @@ export async function recordCompletion(actor: Actor, schedule: CustomScheduleRow
       return { item: earlier, replayed: true }
     }
   }
-  if (!await subjectAtSite(schedule, input.subjectId)) throw badField('subjectId', `Pick one of the schedule's ${schedule.subjectKind === 'site' ? 'site' : `${schedule.subjectKind}s`} at this site.`)
+  if (!await subjectAtSite(schedule, input.subjectId)) throw badField('subjectId', 'schedule_subject_missing', `Pick one of the schedule's ${schedule.subjectKind === 'site' ? 'site' : `${schedule.subjectKind}s`} at this site.`)
   const [site] = await db.select({ timeZone: tables.sites.timeZone }).from(tables.sites).where(eq(tables.sites.id, schedule.siteId))
   const tz = site?.timeZone ?? 'UTC'
   const today = localDate(new Date(), tz)
-  if (input.doneOn > today) throw badField('doneOn', 'That day has not come yet.')
-  if (input.hourMeter !== null && schedule.subjectKind !== 'truck') throw badField('hourMeter', 'Only trucks have an hour meter.')
+  if (input.doneOn > today) throw badField('doneOn', 'day_not_yet', 'That day has not come yet.')
+  if (input.hourMeter !== null && schedule.subjectKind !== 'truck') throw badField('hourMeter', 'hour_meter_trucks_only', 'Only trucks have an hour meter.')
   if (input.certificateUploadId) {
     const [upload] = await db.select({ id: tables.uploads.id }).from(tables.uploads)
       .where(and(eq(tables.uploads.id, input.certificateUploadId), eq(tables.uploads.siteId, schedule.siteId)))
-    if (!upload) throw badField('certificateUploadId', 'Upload the certificate again.')
+    if (!upload) throw badField('certificateUploadId', 'certificate_missing', 'Upload the certificate again.')
   }
   // done today: now; an earlier day: the end of that day at the site (its hour-meter reading sorts there)
   const at = input.doneOn === today ? new Date() : dayjs.tz(`${input.doneOn}T23:59:59`, tz).toDate()

@@ -12,7 +12,7 @@ export function dueScopeFor(actor: Actor, siteId: string, role: DueQuery['role']
   const held = rolesAt(actor, siteId)
   const lead = actorCan(actor, 'due.view-all', siteId)
   if (role === 'all') {
-    if (!lead) throw createError({ statusCode: 403, message: refusalFor('due.view-all') })
+    if (!lead) throw forbidden('due.view-all')
     return { roles: null, personId: actor.user.id }
   }
   if (role) {

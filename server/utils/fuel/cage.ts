@@ -2,14 +2,14 @@ import type { Actor } from '../auth'
 
 // Quarantine: the cylinder is set aside in the cage (status quarantined, out of service) with a hold.
 export async function quarantineCylinder(actor: Actor, cylinder: FuelCylinderRow, reason: string) {
-  if (cylinder.status === 'condemned') throw createError({ statusCode: 409, message: 'This cylinder is condemned already.' })
-  if (cylinder.status === 'quarantined') throw createError({ statusCode: 409, message: 'This cylinder is quarantined already.' })
-  if (cylinder.status === 'in_use') throw createError({ statusCode: 409, message: 'This cylinder is on a truck. Take it off the truck first (a cylinder exchange).' })
+  if (cylinder.status === 'condemned') throw codedError(409, 'cylinder_condemned_already', 'This cylinder is condemned already.')
+  if (cylinder.status === 'quarantined') throw codedError(409, 'cylinder_quarantined_already', 'This cylinder is quarantined already.')
+  if (cylinder.status === 'in_use') throw codedError(409, 'requal_on_truck', 'This cylinder is on a truck. Take it off the truck first (a cylinder exchange).')
   return useDb().transaction(async (tx) => {
     const [updated] = await tx.update(tables.lpCylinders)
       .set({ status: 'quarantined', outOfService: true, outOfServiceReason: reason, statusChangedAt: new Date() })
       .where(and(eq(tables.lpCylinders.id, cylinder.id), eq(tables.lpCylinders.status, cylinder.status))).returning()
-    if (!updated) throw createError({ statusCode: 409, message: 'Someone changed this cylinder at the same moment; reload and try again.' })
+    if (!updated) throw codedError(409, 'cylinder_changed_same_moment', 'Someone changed this cylinder at the same moment; reload and try again.')
     await tx.insert(tables.assetHolds).values({ siteId: cylinder.siteId, userId: actor.user.id, assetKind: 'cylinder', assetId: cylinder.id, action: 'hold', reason })
     await recomputeSubjects(tx, cylinder.siteId, [{ kind: 'cylinder', id: cylinder.id }], { lock: false })
     await writeAudit(tx, {

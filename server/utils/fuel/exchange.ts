@@ -29,7 +29,7 @@ export async function recordExchange(actor: Actor, req: ExchangeRequest) {
     if (req.idempotencyKey) {
       const [earlier] = await tx.select().from(tables.cylinderExchanges).where(eq(tables.cylinderExchanges.idempotencyKey, req.idempotencyKey))
       if (earlier) {
-        if (earlier.truckId !== truck.id || earlier.userId !== actor.user.id) throw createError({ statusCode: 409, message: 'That idempotency key was used for another record.' })
+        if (earlier.truckId !== truck.id || earlier.userId !== actor.user.id) throw codedError(409, 'retry_key_taken', 'That idempotency key was used for another record.')
         return { exchange: earlier, repeated: true }
       }
     }

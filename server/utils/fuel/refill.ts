@@ -32,11 +32,11 @@ export async function recordRefill(actor: Actor, cylinderId: string, input: Refi
   const db = useDb()
   return db.transaction(async (tx) => {
     const [cylinder] = await tx.select().from(tables.lpCylinders).where(eq(tables.lpCylinders.id, cylinderId)).for('update')
-    if (!cylinder) throw createError({ statusCode: 404, message: 'No such LP cylinder.' })
+    if (!cylinder) throw codedError(404, 'no_such_cylinder', 'No such LP cylinder.')
     if (input.idempotencyKey) {
       const [earlier] = await tx.select().from(tables.cylinderRefills).where(eq(tables.cylinderRefills.idempotencyKey, input.idempotencyKey))
       if (earlier) {
-        if (earlier.cylinderId !== cylinderId || earlier.userId !== actor.user.id) throw createError({ statusCode: 409, message: 'That idempotency key was used for another record.' })
+        if (earlier.cylinderId !== cylinderId || earlier.userId !== actor.user.id) throw codedError(409, 'retry_key_taken', 'That idempotency key was used for another record.')
         return { refill: earlier, cylinder, status: 200 as const, reasons: earlier.refusalReasons.map(message => ({ code: 'refill_refused', message })), offerQuarantine: false }
       }
     }

@@ -4,7 +4,7 @@ import type { Actor } from '../auth'
 export async function recordRequalification(actor: Actor, cylinder: FuelCylinderRow, input: { performedOn: string, method: FuelCylinderRow['lastRequalificationMethod'] & string, marking: string, passed: boolean, note: string }) {
   return useDb().transaction(async (tx) => {
     const [locked] = await tx.select().from(tables.lpCylinders).where(eq(tables.lpCylinders.id, cylinder.id)).for('update')
-    if (!locked) throw createError({ statusCode: 404, message: 'No such LP cylinder.' })
+    if (!locked) throw codedError(404, 'no_such_cylinder', 'No such LP cylinder.')
     const facts = await fuelSiteFacts(tx, locked.siteId)
     if (input.performedOn > facts.today) throw createError({ statusCode: 400, message: 'The requalification date is in the future.', data: { code: 'requal_future_date', fields: { performedOn: 'Not after today.' } } })
     const made = `${locked.manufactureYear}-${String(locked.manufactureMonth).padStart(2, '0')}`

@@ -7,7 +7,7 @@ import type { Actor } from '../auth'
 type TruckRow = typeof tables.trucks.$inferSelect
 export type InspectionInput = z.output<typeof inspectionBodySchema>
 
-const bad = (field: string, message: string) => createError({ statusCode: 400, message, data: { fields: { [field]: message } } })
+const bad = (field: string, code: string, message: string, params?: Record<string, string | number>) => codedError(400, code, message, { params, fields: [field] })
 
 /** The version the form was filled on: the active one, or an older one of the same power (a record sent late). */
 async function templateForRecord(tx: DbOrTx, truck: TruckRow, version: number) {
@@ -15,7 +15,7 @@ async function templateForRecord(tx: DbOrTx, truck: TruckRow, version: number) {
   if (active.version === version) return active
   const t = tables.truckInspectionTemplates
   const [older] = await tx.select().from(t).where(and(eq(t.siteId, truck.siteId), eq(t.power, active.power), eq(t.version, version)))
-  if (!older) throw bad('templateVersion', 'This checklist version is not known here; reload the page.')
+  if (!older) throw bad('templateVersion', 'checklist_version_unknown', 'This checklist version is not known here; reload the page.')
   return older
 }
 
@@ -29,7 +29,7 @@ export async function recordInspection(actor: Actor, truck: TruckRow, input: Ins
     await tx.select({ id: tables.trucks.id }).from(tables.trucks).where(eq(tables.trucks.id, truck.id)).for('update')
     const [earlier] = await tx.select().from(ti).where(eq(ti.idempotencyKey, input.idempotencyKey))
     if (earlier) {
-      if (earlier.truckId !== truck.id || earlier.userId !== actor.user.id) throw createError({ statusCode: 409, message: 'That retry key belongs to another record; reload the form.' })
+      if (earlier.truckId !== truck.id || earlier.userId !== actor.user.id) throw codedError(409, 'retry_key_taken', 'That retry key belongs to another record; reload the form.')
       return { item: earlier, repeated: true, authorisation: null, followUpId: null }
     }
     const at = eventTime(input.at, 'at')
@@ -37,18 +37,18 @@ export async function recordInspection(actor: Actor, truck: TruckRow, input: Ins
     const template = await templateForRecord(tx, truck, input.templateVersion)
     const keys = new Set(template.items.map(i => i.key))
     const unknown = input.answers.find(a => !keys.has(a.key))
-    if (unknown) throw bad('answers', `"${unknown.key}" is not on this checklist; reload the page.`)
+    if (unknown) throw bad('answers', 'checklist_item_unknown', `"${unknown.key}" is not on this checklist; reload the page.`, { item: unknown.key })
     const answered = new Set(input.answers.map(a => a.key))
     const missing = template.items.filter(i => !answered.has(i.key))
-    if (missing.length) throw bad('answers', `Not answered yet: ${missing.map(i => i.label).join('; ')}.`)
+    if (missing.length) throw bad('answers', 'checklist_unanswered', `Not answered yet: ${missing.map(i => i.label).join('; ')}.`, { items: missing.map(i => i.label).join('; ') })
     const photos = [...new Set(input.answers.map(a => a.photoUploadId).filter((v): v is string => !!v))]
     if (photos.length) {
       const found = await tx.select({ id: tables.uploads.id }).from(tables.uploads).where(and(inArray(tables.uploads.id, photos), eq(tables.uploads.siteId, truck.siteId)))
-      if (found.length !== photos.length) throw bad('answers', 'Upload the photos again.')
+      if (found.length !== photos.length) throw bad('answers', 'photos_again', 'Upload the photos again.')
     }
     const [now] = await tx.select({ hourMeter: tables.truckStatus.hourMeter }).from(tables.truckStatus).where(eq(tables.truckStatus.truckId, truck.id))
     const meter = now?.hourMeter ?? truck.hourMeter
-    if (input.hourMeter < meter) throw bad('hourMeter', `The hour meter last read ${meter} h; check the reading.`)
+    if (input.hourMeter < meter) throw bad('hourMeter', 'hour_meter_back', `The hour meter last read ${meter} h; check the reading.`, { meter })
 
     const critical = criticalFailures(template.items, input.answers)
     const failed = template.items.filter(i => input.answers.some(a => a.key === i.key && a.result === 'fail'))
@@ -91,7 +91,7 @@ export async function returnTruckToService(actor: Actor, truck: TruckRow, input:
   return useDb().transaction(async (tx) => {
     await tx.select({ id: tables.trucks.id }).from(tables.trucks).where(eq(tables.trucks.id, truck.id)).for('update')
     const [status] = await tx.select().from(tables.truckStatus).where(eq(tables.truckStatus.truckId, truck.id))
-    if (!status?.holdInspectionId) throw createError({ statusCode: 409, message: `Truck ${truck.fleetNumber} is not out of service after an inspection.` })
+    if (!status?.holdInspectionId) throw codedError(409, 'truck_not_on_hold', `Truck ${truck.fleetNumber} is not out of service after an inspection.`, { params: { truck: truck.fleetNumber } })
     const [item] = await tx.insert(tables.truckReturns).values({
       siteId: truck.siteId, userId: actor.user.id, truckId: truck.id, inspectionId: status.holdInspectionId, whatWasDone: input.whatWasDone,
     }).returning()

@@ -12,14 +12,10 @@ export type TemplateRow = typeof tables.checklistTemplates.$inferSelect
 export type LogRow = typeof tables.areaLogs.$inferSelect
 export type EntryRow = typeof tables.areaLogEntries.$inferSelect
 
-function badField(field: string, message: string) {
-  return createError({ statusCode: 400, message, data: { fields: { [field]: message } } })
-}
-
 /** An area at the site (not archived), or 400 naming the field. */
 export async function areaAtSite(db: DbOrTx, siteId: string, areaId: string, field = 'areaId'): Promise<AreaRow> {
   const [area] = await db.select().from(tables.areas).where(and(eq(tables.areas.id, areaId), eq(tables.areas.siteId, siteId)))
-  if (!area) throw badField(field, 'Pick an area at this site.')
+  if (!area) throw badField(field, 'area_missing', 'Pick an area at this site.')
   return area
 }
 
@@ -34,7 +30,7 @@ export async function activeTemplate(db: DbOrTx, siteId: string, areaKind: Check
 export async function ensureTemplate(tx: DbOrTx, siteId: string, areaKind: ChecklistAreaKind, cadence: ChecklistCadence): Promise<TemplateRow> {
   const found = await activeTemplate(tx, siteId, areaKind, cadence)
   if (found) return found
-  if (cadence === 'weekly') throw createError({ statusCode: 409, message: 'This site has no weekly checklist for that kind of area yet; a lead can add one under Checklists.' })
+  if (cadence === 'weekly') throw codedError(409, 'no_weekly_checklist', 'This site has no weekly checklist for that kind of area yet; a lead can add one under Checklists.')
   const [row] = await tx.insert(tables.checklistTemplates).values({
     siteId, areaKind, cadence, title: DEFAULT_CHECKLIST_TITLES[areaKind][cadence], items: [...DEFAULT_CHECKLIST_ITEMS[areaKind]], version: 1, active: true,
   }).returning()
@@ -138,16 +134,16 @@ const lockedMessage = 'This log is signed and locked. Add a correction with the 
 // no plain entries (409). A failed item opens a follow-up and alerts the site's safety leads, in the
 // same transaction.
 export async function recordLogEntries(actor: Actor, input: LogEntriesInput, today: string) {
-  if (input.date > today) throw badField('date', 'That day has not come yet.')
+  if (input.date > today) throw badField('date', 'day_not_yet', 'That day has not come yet.')
   const db = useDb()
   const area = await areaAtSite(db, input.siteId, input.areaId)
-  if (area.archived) throw badField('areaId', 'This area is archived.')
+  if (area.archived) throw badField('areaId', 'area_archived', 'This area is archived.')
   const periodStart = logPeriodStart(input.date, input.cadence)
   const result = await db.transaction(async (tx) => {
     if (input.idempotencyKey) {
       const [earlier] = await tx.select().from(tables.areaLogEntries).where(eq(tables.areaLogEntries.idempotencyKey, `${input.idempotencyKey}:${input.entries[0]!.itemKey}`))
       if (earlier) {
-        if (earlier.userId !== actor.user.id) throw createError({ statusCode: 409, message: 'That retry key belongs to someone else\'s record; reload the form.' })
+        if (earlier.userId !== actor.user.id) throw codedError(409, 'retry_key_taken', 'That retry key belongs to someone else\'s record; reload the form.')
         return { logId: earlier.logId, entries: [] as EntryRow[], followUps: [] as string[], replayed: true }
       }
     }
@@ -161,12 +157,12 @@ export async function recordLogEntries(actor: Actor, input: LogEntriesInput, tod
         .onConflictDoNothing()
       ;[log] = await findLog()
     }
-    if (!log) throw createError({ statusCode: 409, message: 'The log could not be opened; try again.' })
-    if (log.signedAt) throw createError({ statusCode: 409, message: lockedMessage, data: { reasons: [lockedMessage], logId: log.id } })
+    if (!log) throw codedError(409, 'log_not_opened', 'The log could not be opened; try again.')
+    if (log.signedAt) throw createError({ statusCode: 409, message: lockedMessage, data: { reasons: [{ code: 'log_signed', message: lockedMessage }], logId: log.id } })
     const [logTemplate] = await tx.select().from(tables.checklistTemplates).where(eq(tables.checklistTemplates.id, log.templateId))
     const items = new Map((logTemplate?.items ?? template.items).map(i => [i.key, i]))
     const unknown = input.entries.find(e => !items.has(e.itemKey))
-    if (unknown) throw badField('entries', `"${unknown.itemKey}" is not on this checklist.`)
+    if (unknown) throw codedError(400, 'checklist_item_unknown', `"${unknown.itemKey}" is not on this checklist.`, { params: { item: unknown.itemKey }, fields: ['entries'] })
     const rows = await tx.insert(tables.areaLogEntries).values(input.entries.map(e => ({
       siteId: input.siteId, userId: actor.user.id, logId: log.id, itemKey: e.itemKey, result: e.result, note: e.note,
       idempotencyKey: input.idempotencyKey ? `${input.idempotencyKey}:${e.itemKey}` : null,
@@ -193,10 +189,10 @@ export async function correctLogEntry(actor: Actor, entryId: string, input: z.ou
       .innerJoin(tables.areas, eq(tables.areas.id, tables.areaLogs.areaId))
       .where(and(eq(tables.areaLogEntries.id, entryId), inArray(tables.areaLogEntries.siteId, actor.siteIds)))
       .for('update', { of: tables.areaLogs })
-    if (!found) throw createError({ statusCode: 404, message: 'No such log entry.' })
+    if (!found) throw codedError(404, 'no_such_log_entry', 'No such log entry.')
     requireActorCan(actor, 'log.record', found.log.siteId)
     const [later] = await tx.select({ id: tables.areaLogEntries.id }).from(tables.areaLogEntries).where(eq(tables.areaLogEntries.correctsId, entryId))
-    if (later) throw createError({ statusCode: 409, message: 'That entry was already corrected; correct the latest one.' })
+    if (later) throw codedError(409, 'corrected_already', 'That entry was already corrected; correct the latest one.')
     const [row] = await tx.insert(tables.areaLogEntries).values({
       siteId: found.log.siteId, userId: actor.user.id, logId: found.log.id, itemKey: found.entry.itemKey, result: input.result, note: input.note,
       correctsId: entryId, correctionReason: input.reason,
@@ -217,7 +213,7 @@ export async function correctLogEntry(actor: Actor, entryId: string, input: z.ou
 
 // The safety lead signs a day's or a week's logs of an area; signed logs are locked.
 export async function signAreaLogs(actor: Actor, input: z.output<typeof logSignSchema>, today: string) {
-  if (input.date > today) throw badField('date', 'That day has not come yet.')
+  if (input.date > today) throw badField('date', 'day_not_yet', 'That day has not come yet.')
   const db = useDb()
   const area = await areaAtSite(db, input.siteId, input.areaId)
   const from = input.span === 'week' ? weekStartOf(input.date) : input.date
@@ -234,8 +230,8 @@ export async function signAreaLogs(actor: Actor, input: z.output<typeof logSignS
       : []
     const withEntries = inSpan.filter(x => counts.some(c => c.logId === x.id && Number(c.n) > 0))
     const open = withEntries.filter(x => !x.signedAt)
-    if (withEntries.length === 0) throw createError({ statusCode: 409, message: 'There is nothing recorded to sign for that period.' })
-    if (open.length === 0) throw createError({ statusCode: 409, message: 'Already signed.' })
+    if (withEntries.length === 0) throw codedError(409, 'nothing_to_sign', 'There is nothing recorded to sign for that period.')
+    if (open.length === 0) throw codedError(409, 'already_signed', 'Already signed.')
     const signedAt = new Date()
     const signed = await tx.update(l).set({ signedBy: actor.user.id, signedAt })
       .where(and(inArray(l.id, open.map(x => x.id)), isNull(l.signedAt))).returning()

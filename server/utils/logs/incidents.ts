@@ -3,38 +3,34 @@ import type { Actor } from '../auth'
 
 /** Everyone at a site may report an incident; leads read the list. */
 
-function badField(field: string, message: string) {
-  return createError({ statusCode: 400, message, data: { fields: { [field]: message } } })
-}
-
 // An incident report: the asset by its tag code, photos already uploaded to the site, a follow-up for
 // its owner, and an alert to the safety leads (and the owner) in the same transaction.
 export async function reportIncident(actor: Actor, input: IncidentInput) {
   const db = useDb()
   const at = input.at ? new Date(input.at) : new Date()
-  if (at.getTime() > Date.now() + 5 * 60_000) throw badField('at', 'That time is in the future.')
+  if (at.getTime() > Date.now() + 5 * 60_000) throw badField('at', 'time_in_future', 'That time is in the future.')
   let area: typeof tables.areas.$inferSelect | null = null
   if (input.areaId) {
     area = (await db.select().from(tables.areas).where(and(eq(tables.areas.id, input.areaId), eq(tables.areas.siteId, input.siteId))))[0] ?? null
-    if (!area) throw badField('areaId', 'Pick an area at this site.')
+    if (!area) throw badField('areaId', 'area_missing', 'Pick an area at this site.')
   }
   let asset: { kind: typeof tables.tags.$inferSelect['assetKind'], id: string, code: string } | null = null
   if (input.assetCode) {
     const code = normalizeTagCode(input.assetCode)
     const [tag] = code ? await db.select().from(tables.tags).where(and(eq(tables.tags.code, code), eq(tables.tags.siteId, input.siteId))) : []
-    if (!tag) throw badField('assetCode', 'No asset with that tag code at this site.')
+    if (!tag) throw badField('assetCode', 'tag_not_at_site', 'No asset with that tag code at this site.')
     asset = { kind: tag.assetKind, id: tag.assetId, code: tag.code }
     if (!area && tag.assetKind === 'area') area = (await db.select().from(tables.areas).where(eq(tables.areas.id, tag.assetId)))[0] ?? null
   }
   if (input.followUpOwnerId) {
     const [member] = await db.select({ id: tables.memberships.id }).from(tables.memberships)
       .where(and(eq(tables.memberships.userId, input.followUpOwnerId), eq(tables.memberships.siteId, input.siteId))).limit(1)
-    if (!member) throw badField('followUpOwnerId', 'Pick someone at this site.')
+    if (!member) throw badField('followUpOwnerId', 'person_missing', 'Pick someone at this site.')
   }
   if (input.photoUploadIds.length) {
     const photos = await db.select({ id: tables.uploads.id, contentType: tables.uploads.contentType }).from(tables.uploads)
       .where(and(inArray(tables.uploads.id, input.photoUploadIds), eq(tables.uploads.siteId, input.siteId)))
-    if (photos.length !== new Set(input.photoUploadIds).size) throw badField('photoUploadIds', 'Upload the photos again.')
+    if (photos.length !== new Set(input.photoUploadIds).size) throw badField('photoUploadIds', 'photos_again', 'Upload the photos again.')
   }
   const label = INCIDENT_KIND_LABELS[input.kind]
   const where = [area?.name, asset?.code].filter(Boolean).join(', ') || 'no place given'

@@ -7,7 +7,7 @@ export default defineAbilityHandler('site.member', async (event): Promise<Cylind
   const actor = await requireAbility(event, 'site.member', siteId)
   const db = useDb()
   const cylinder = await findCylinderByCode(db, siteId, code)
-  if (!cylinder) throw createError({ statusCode: 404, message: `No cylinder "${code}" at this site. Check the label and type it again.` })
+  if (!cylinder) throw codedError(404, 'cylinder_not_found', `No cylinder "${code}" at this site. Check the label and type it again.`, { params: { code } })
   const facts = await fuelSiteFacts(db, siteId)
   const tagCode = await liveCylinderTag(db, cylinder.id)
   const [truck] = cylinder.currentTruckId
