@@ -2,6 +2,7 @@
 export function useBusyAction() {
   const busy = ref(false)
   const problem = ref('')
+  const { refusalText } = useReasonWords()
   async function run(action: () => Promise<unknown>): Promise<boolean> {
     problem.value = ''
     busy.value = true
@@ -10,7 +11,9 @@ export function useBusyAction() {
       return true
     }
     catch (error) {
-      problem.value = errorMessage(error)
+      // a coded refusal in the reader's language; the server's words otherwise
+      const refused = parseRefusal(error)
+      problem.value = refused ? refusalText(refused) : errorMessage(error)
       return false
     }
     finally {

@@ -96,10 +96,10 @@ export async function correctRecord<Row extends CorrectionRow>(
     if (allowed === 'no') requireActorCan(actor, CORRECTION_ABILITIES[spec.kind], original.siteId)
     if (allowed === 'late') {
       const days = await siteWindowDays(tx, original.siteId)
-      throw createError({ statusCode: 403, message: `This ${noun} is more than ${days} days old; a lead (${roleNames(rolesWith('record.correct-late'))}) corrects it now.` })
+      throw codedError(403, 'correction_late', `This ${noun} is more than ${days} days old; a lead (${roleNames(rolesWith('record.correct-late'))}) corrects it now.`, { params: { days, roles: [...rolesWith('record.correct-late')] } })
     }
     const [later] = await tx.select({ id: t.id }).from(t as PgTable).where(eq(t.correctsId, id)) as unknown as { id: string }[]
-    if (later) throw createError({ statusCode: 409, message: `That ${noun} was already corrected; correct the latest one.`, data: { latestId: later.id } })
+    if (later) throw createError({ statusCode: 409, message: `That ${noun} was already corrected; correct the latest one.`, data: { code: 'correction_not_latest', latestId: later.id } })
     const built = await build(tx, original)
     const [row] = await tx.insert(t as PgTable).values({
       ...built.values,
@@ -118,8 +118,8 @@ export async function correctRecord<Row extends CorrectionRow>(
     const constraint = pgConstraint(error)
     // the same retry key sent twice at once: the first one stored it
     if (constraint?.endsWith('_idem')) return run()
-    if (constraint === 'battery_status_one_per_truck') throw createError({ statusCode: 409, message: 'That correction would leave two batteries in one truck; correct the later battery changes of that truck first.' })
-    if (constraint?.endsWith('_corrected_once')) throw createError({ statusCode: 409, message: `Someone corrected that ${noun} at the same moment; reload and correct the latest one.` })
+    if (constraint === 'battery_status_one_per_truck') throw codedError(409, 'correction_two_in_truck', 'That correction would leave two batteries in one truck; correct the later battery changes of that truck first.')
+    if (constraint?.endsWith('_corrected_once')) throw codedError(409, 'correction_same_moment', `Someone corrected that ${noun} at the same moment; reload and correct the latest one.`)
     throw error
   }
 }

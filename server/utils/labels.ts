@@ -1,7 +1,6 @@
 import { readFileSync } from 'node:fs'
 import { createRequire } from 'node:module'
 import { PDFDocument, rgb, type PDFFont } from 'pdf-lib'
-import fontkit from '@pdf-lib/fontkit'
 import type { AssetKind } from '#shared/utils/asset-schemas'
 import type { LabelSelection } from '#shared/utils/label-schemas'
 
@@ -35,6 +34,13 @@ export async function selectLabelItems(selection: LabelSelection): Promise<Label
 
 let fontBytes: Uint8Array | undefined
 // Roboto Flex as shipped with the app (the WOFF file of @fontsource/roboto-flex), embedded in the PDF.
+type Fontkit = Parameters<PDFDocument['registerFontkit']>[0]
+let fontkitLoad: Promise<Fontkit> | undefined
+/** The font layout library, loaded with the first PDF rather than at server start (about 23 MB once loaded). */
+export function loadFontkit(): Promise<Fontkit> {
+  return (fontkitLoad ??= import('@pdf-lib/fontkit').then(m => m.default as Fontkit))
+}
+
 export function robotoFlex(): Uint8Array {
   if (!fontBytes) {
     const require = createRequire(import.meta.url)
@@ -54,7 +60,7 @@ function fitText(text: string, font: PDFFont, size: number, width: number): stri
 export async function buildLabelPdf(items: LabelItem[], layout: LabelSelection['layout'], paper: LabelSelection['paper'],
   progress: (done: number) => Promise<void> = async () => {}): Promise<Uint8Array> {
   const doc = await PDFDocument.create()
-  doc.registerFontkit(fontkit)
+  doc.registerFontkit(await loadFontkit())
   doc.setTitle('Bayward label sheet')
   doc.setCreator('Bayward')
   const font = await doc.embedFont(robotoFlex(), { subset: true })

@@ -102,6 +102,7 @@ describe('record corrections', () => {
     const refused = await correct(tech, 'electrolyte-check', old, correctionBody('electrolyte-check', w))
     expect(refused.status).toBe(403)
     expect(refused.body.message).toMatch(/more than 7 days old; a lead/)
+    expect(refused.body.data).toMatchObject({ code: 'correction_late', params: { days: 7 } })
     const byLead = await correct(lead, 'electrolyte-check', old, correctionBody('electrolyte-check', w))
     expect(byLead.status).toBe(201)
     // a correction made today does not open the window again: it counts from when the record was first entered

@@ -1,8 +1,9 @@
-import { describe, expect, it } from 'vitest'
-import { chartSvg, highest } from '../../server/utils/reports/chart'
+import { beforeAll, describe, expect, it } from 'vitest'
+import { chartSvg, highest, loadCharts } from '../../server/utils/reports/chart'
 
 // A chart of many things draws the highest few; the table under it lists all.
 describe('report charts of many things', () => {
+  beforeAll(loadCharts)
   const spec = { kind: 'bar' as const, unit: 'kWh', categories: ['A', 'B', 'C', 'D'], series: [{ name: 'kWh', data: [5, null, 9, 7] }, { name: 'cost', data: [1, 2, 3, 4] }] }
 
   it('keeps the top categories by the first series, highest first, and their values in every series', () => {

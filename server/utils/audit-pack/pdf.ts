@@ -2,9 +2,8 @@ import {
   PDFDocument, beginText, endText, lineTo, moveTo, popGraphicsState, pushGraphicsState, rgb, setFillingRgbColor, setFontAndSize, setLineWidth,
   setStrokingRgbColor, setTextMatrix, showText, stroke, type PDFFont, type PDFName, type PDFOperator, type PDFPage,
 } from 'pdf-lib'
-import fontkit from '@pdf-lib/fontkit'
 import { pageHeaderText, pageNumberText, type AuditPackStamp, type PackWords } from '#shared/utils/audit-pack'
-import { robotoFlex } from '../labels'
+import { loadFontkit, robotoFlex } from '../labels'
 import type { PackColumn } from './sections'
 
 // The audit pack's PDF, written a row at a time: US Letter landscape, the stamp (site, range, made when and
@@ -36,7 +35,7 @@ export class AuditPdf {
   /** `t` writes the pack's own words in the language of the person who asked for it. */
   static async create(stamp: AuditPackStamp, t: PackWords): Promise<AuditPdf> {
     const doc = await PDFDocument.create()
-    doc.registerFontkit(fontkit)
+    doc.registerFontkit(await loadFontkit())
     doc.setTitle(t('audit_pack.pdf.doc_title', { site: stamp.siteName, from: stamp.from, to: stamp.to }))
     doc.setCreator('Bayward')
     const font = await doc.embedFont(robotoFlex(), { subset: true })

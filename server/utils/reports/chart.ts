@@ -1,4 +1,9 @@
-import * as echarts from 'echarts'
+type Echarts = typeof import('echarts')
+let echarts: Echarts | undefined
+/** The chart library, loaded with the first report rather than at server start (about 15 MB once loaded). */
+export async function loadCharts(): Promise<void> {
+  echarts ??= await import('echarts')
+}
 
 // Charts are drawn here, on the server, as SVG (Apache ECharts' server-side renderer): the page gets a
 // string and ships no chart code, the Scan page's bundle is untouched, and the nonce CSP needs nothing new
@@ -40,6 +45,7 @@ export function chartSvg(full: ChartSpec): string | null {
   const cut = spec.categories.length < full.categories.length
   const width = spec.width ?? 480
   const height = spec.height ?? 300
+  if (!echarts) throw new Error('chartSvg before loadCharts()')
   const chart = echarts.init(null, null, { renderer: 'svg', ssr: true, width, height })
   const twoAxes = spec.kind === 'bar' && spec.series.some(s => s.type === 'line')
   // counts (batteries, swaps, tests) get whole-number ticks on the left axis

@@ -10,7 +10,7 @@ import { LANGUAGE_TAGS, type Language } from '#shared/utils/languages'
 import { mailWords, type MailT } from '../mail-words'
 import { readerLanguage } from '../reader-language'
 import { rowsOf, uuidArray } from '../due/effective'
-import { CHART_TOP } from './chart'
+import { CHART_TOP, loadCharts } from './chart'
 
 export interface ReportSite { id: string, name: string, timeZone: string, unitSystem: UnitSystem, settings: SiteSettings }
 
@@ -91,7 +91,7 @@ export function reportCsv(event: H3Event, report: ReportResponse, section?: stri
 // Every report route: the query, the scope (and with it the ability check), the report, JSON or CSV.
 export async function serveReport(event: H3Event, ability: Ability, build: (scope: ReportScope) => Promise<ReportResponse>) {
   const query = validateQuery(event, reportQuerySchema)
-  const scope = await reportScope(event, ability, query)
+  const [scope] = await Promise.all([reportScope(event, ability, query), loadCharts()])
   const report = await build(scope)
   return query.format === 'csv' ? reportCsv(event, report, query.section) : report
 }
