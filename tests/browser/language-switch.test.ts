@@ -50,14 +50,17 @@ describe('a Spanish reader', () => {
   it('reads the menu, the Bay board and the due list in Spanish', async () => {
     const siteId = (await site()).id
     const areaId = (await area({ siteId, name: `Cuarto Norte ${Date.now()}` })).id
-    const held = await battery({ siteId, homeAreaId: areaId })
-    await useTestDb().update(tables.batteries).set({ outOfService: true, outOfServiceReason: 'Tapa de celda rota' }).where(eq(tables.batteries.id, held.id))
+    await battery({ siteId, homeAreaId: areaId })
     const who = await user({ siteId, roles: ['facilities_lead'] })
     await useTestDb().update(tables.users).set({ language: 'es' }).where(eq(tables.users.id, who.id))
     const { context, page } = await signInAt(browser, who, '/bay', PHONE)
 
     await page.getByRole('heading', { name: es.nav.bay }).waitFor()
-    await page.getByRole('region', { name: es.asset_state.out_of_service }).waitFor()
+    // each battery group is headed by its state in Spanish (Lista, Necesita carga …)
+    const groups = page.locator('main section[aria-label]:visible')
+    await groups.first().waitFor()
+    const states: string[] = Object.values(es.asset_state)
+    for (const name of await groups.evaluateAll(els => els.map(e => e.getAttribute('aria-label') ?? ''))) expect(states).toContain(name)
     await page.getByLabel(es.bay.area).waitFor()
     expect(await page.getByText('actualizado').count()).toBe(1)
     expect(await page.getByRole('link', { name: es.bay.wall_view }).count()).toBe(1)
