@@ -18,5 +18,9 @@ export function useLocaleFormat() {
     number: (value: number, maximumFractionDigits = 2) => cached(`n${tag()}${maximumFractionDigits}`, () => new Intl.NumberFormat(tag(), { maximumFractionDigits })).format(value),
     money: (value: number, currency: string) => cached(`m${tag()}${currency}`, () => new Intl.NumberFormat(tag(), { style: 'currency', currency })).format(value),
     dateTime: (at: string | Date) => cached(`d${tag()}`, () => new Intl.DateTimeFormat(tag(), { dateStyle: 'medium', timeStyle: 'short' })).format(new Date(at)),
+    /** the clock time alone (3:05 PM / 3:05 p.m.) */
+    time: (at: string | Date) => cached(`t${tag()}`, () => new Intl.DateTimeFormat(tag(), { hour: 'numeric', minute: '2-digit' })).format(new Date(at)),
+    /** the date alone, medium (Dec 3, 2026 / 3 dic 2026) */
+    date: (at: string | Date) => cached(`D${tag()}`, () => new Intl.DateTimeFormat(tag(), { dateStyle: 'medium' })).format(new Date(at)),
   }
 }
