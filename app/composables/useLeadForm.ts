@@ -8,7 +8,7 @@ export function useLeadForm(hints: Record<string, string> = {}) {
   const fields = ref<Record<string, string>>({})
   const problem = ref('')
   const saving = ref(false)
-  const { t } = useNuxtApp().$i18n
+  const { t, locale } = useNuxtApp().$i18n
 
   /** A check the schema cannot make (a field this form requires that the route leaves optional). */
   function refuse(messages: Record<string, string>) {
@@ -20,9 +20,10 @@ export function useLeadForm(hints: Record<string, string> = {}) {
     problem.value = ''
     const parsed = schema.safeParse(body)
     if (!parsed.success) {
+      const words = issueWordsFor(t, locale.value)
       fields.value = Object.fromEntries(parsed.error.issues.map((i) => {
         const key = String(i.path.at(-1))
-        return [key, hints[key] ?? i.message]
+        return [key, hints[key] ?? words?.(i) ?? i.message]
       }))
       problem.value = t('lead_form.check_fields')
       return undefined
