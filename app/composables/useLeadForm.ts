@@ -8,22 +8,24 @@ export function useLeadForm(hints: Record<string, string> = {}) {
   const fields = ref<Record<string, string>>({})
   const problem = ref('')
   const saving = ref(false)
+  const { t, locale } = useNuxtApp().$i18n
 
   /** A check the schema cannot make (a field this form requires that the route leaves optional). */
   function refuse(messages: Record<string, string>) {
     fields.value = messages
-    problem.value = 'Check the highlighted fields.'
+    problem.value = t('lead_form.check_fields')
   }
 
   async function submit<S extends z.ZodType, R>(schema: S, body: unknown, send: (data: z.output<S>) => Promise<R>): Promise<R | undefined> {
     problem.value = ''
     const parsed = schema.safeParse(body)
     if (!parsed.success) {
+      const words = issueWordsFor(t, locale.value)
       fields.value = Object.fromEntries(parsed.error.issues.map((i) => {
         const key = String(i.path.at(-1))
-        return [key, hints[key] ?? i.message]
+        return [key, hints[key] ?? words?.(i) ?? i.message]
       }))
-      problem.value = 'Check the highlighted fields.'
+      problem.value = t('lead_form.check_fields')
       return undefined
     }
     saving.value = true

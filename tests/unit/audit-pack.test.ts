@@ -152,8 +152,20 @@ describe('section rows', async () => {
     expect(cells).toEqual(['2026-03-04 (daily)', 'Charging area 1', 'Eyewash flushed', 'Pass', 'Dana Okafor, 2026-03-04 07:15', 'Not signed',
       'Correction by Dana Okafor, 2026-03-04 07:15: Eyewash was tested after all.'])
     // in Spanish the pack's own words change; what was recorded (area, item, reason) stays as written
-    expect(table('area-logs.csv').cells(row, es)).toEqual(['2026-03-04 (daily)', 'Charging area 1', 'Eyewash flushed', 'Pasa', 'Dana Okafor, 2026-03-04 07:15', 'Sin firmar',
+    expect(table('area-logs.csv').cells(row, es)).toEqual(['2026-03-04 (diaria)', 'Charging area 1', 'Eyewash flushed', 'Pasa', 'Dana Okafor, 2026-03-04 07:15', 'Sin firmar',
       'Corrección de Dana Okafor, 2026-03-04 07:15: Eyewash was tested after all.'])
+  })
+
+  it('incident kinds, qualifications and retraining reasons are said in the reader\'s language; an unknown code stays as stored', () => {
+    const incident = { id: 'i1', at: '2026-03-04 07:15', kind: 'electrolyte_spill', area: 'Charging area 1', description: 'Spill at bay 3', actions: 'Neutralized', reportedBy: 'Dana Okafor', hasFollowUp: false, followUpClosedAt: null }
+    expect(table('incidents.csv').cells(incident, en)[1]).toBe('Electrolyte spill')
+    expect(table('incidents.csv').cells(incident, es)[1]).toBe('Derrame de electrolito')
+    expect(table('incidents.csv').cells({ ...incident, kind: 'flood' }, es)[1]).toBe('flood')
+    const qualification = { id: 'q1', person: 'Dana Okafor', kind: 'battery_changing', trainedOn: '2026-01-02', evaluatedOn: '2026-01-02', expiresOn: '2029-01-02', current: true, notes: '' }
+    expect(table('qualifications.csv').cells(qualification, en)[1]).toBe('Battery changing')
+    expect(table('qualifications.csv').cells(qualification, es)[1]).toBe('Cambio de batería')
+    const retraining = { id: 'r1', day: '2026-03-04', person: 'Dana Okafor', truckClass: 1, reason: 'near_miss', recordedBy: 'Sam Reyes', recordedAt: '2026-03-04 08:00' }
+    expect(table('retraining-triggers.csv').cells(retraining, es)[3]).toBe('Tuvo un casi accidente')
   })
 
   it('an emissions test lists its certificate, or says none was uploaded', () => {

@@ -1,6 +1,7 @@
 import { correctionText, type PackWords } from '#shared/utils/audit-pack'
-import { INCIDENT_KIND_LABELS, type IncidentKind } from '#shared/utils/incidents'
-import { QUALIFICATION_LABELS } from '#shared/utils/admin-schemas'
+import { INCIDENT_KINDS } from '#shared/utils/incidents'
+import { QUALIFICATION_KINDS } from '#shared/utils/admin-schemas'
+import { RETRAINING_REASONS } from '#shared/utils/truck-inspection'
 import { REQUAL_METHOD_LABELS } from '#shared/utils/asset-schemas'
 import { packCorrectionColumns, packInRange, packSiteTime, type PackCorrectableRow } from './sql'
 
@@ -36,6 +37,9 @@ const RESULT: Record<string, string> = { pass: 'pass', fail: 'fail', not_applica
 const CORRECTION_COLUMN = col('correction', 2.4)
 const corrected = (r: Row, t: PackWords) => correctionText(r as PackCorrectableRow, t)
 const word = (t: PackWords, key: string, params?: Record<string, string | number>) => t(`audit_pack.pdf.word.${key}`, params)
+/** a closed code in the reader's words (`<group>.<code>` in the locale files); the code itself when it is not one of `codes` */
+const coded = (t: PackWords, group: string, codes: readonly string[], code: string) => (codes.includes(code) ? t(`${group}.${code}`) : code)
+const CADENCES = ['daily', 'weekly'] as const
 
 const logs = packCorrectionColumns('area_log_entries')
 const areaLogs: PackTable = {
@@ -51,7 +55,7 @@ const areaLogs: PackTable = {
     WHERE l.site_id = $1 AND l.period_start BETWEEN $2::date AND $3::date
     ORDER BY l.period_start, a.name, l.id, t.item_key, t.recorded_at, t.id`,
   cells: (r, t) => [
-    `${r.period} (${r.cadence})`, r.area, r.note ? `${r.item} — ${r.note}` : r.item, RESULT[r.result] ? word(t, RESULT[r.result]!) : r.result,
+    `${r.period} (${coded(t, 'audit_pack.pdf.cadence', CADENCES, r.cadence)})`, r.area, r.note ? `${r.item} — ${r.note}` : r.item, RESULT[r.result] ? word(t, RESULT[r.result]!) : r.result,
     `${r.recordedBy}, ${r.recordedAt}`, r.signedBy ? `${r.signedBy}, ${r.signedAt}` : word(t, 'not_signed'), corrected(r, t),
   ],
 }
@@ -137,7 +141,7 @@ const qualifications: PackTable = {
       AND q.trained_on <= $3::date AND q.expires_on >= $2::date
     ORDER BY u.name, q.kind, q.trained_on, q.id`,
   cells: (r, t) => [
-    r.person, QUALIFICATION_LABELS[r.kind as keyof typeof QUALIFICATION_LABELS] ?? r.kind, r.trainedOn, r.evaluatedOn ?? word(t, 'not_evaluated'),
+    r.person, coded(t, 'people.qualification', QUALIFICATION_KINDS, r.kind), r.trainedOn, r.evaluatedOn ?? word(t, 'not_evaluated'),
     r.expiresOn, r.current ? word(t, 'current') : word(t, 'expired', { day: r.expiresOn }), r.notes,
   ],
 }
@@ -152,7 +156,7 @@ const retraining: PackTable = {
     FROM retraining_triggers t JOIN users p ON p.id = t.person_id JOIN users u ON u.id = t.user_id
     WHERE t.site_id = $1 AND t.happened_on BETWEEN $2::date AND $3::date
     ORDER BY t.happened_on, p.name, t.id`,
-  cells: r => [r.day, r.person, r.truckClass === null ? '' : String(r.truckClass), r.reason, `${r.recordedBy}, ${r.recordedAt}`],
+  cells: (r, t) => [r.day, r.person, r.truckClass === null ? '' : String(r.truckClass), coded(t, 'people.retraining_reason', RETRAINING_REASONS, r.reason), `${r.recordedBy}, ${r.recordedAt}`],
 }
 
 const incidents: PackTable = {
@@ -168,7 +172,7 @@ const incidents: PackTable = {
     WHERE t.site_id = $1 AND ${packInRange('t.at')}
     ORDER BY t.at, t.id`,
   cells: (r, t) => [
-    r.at, INCIDENT_KIND_LABELS[r.kind as IncidentKind] ?? r.kind, r.area ?? '', r.description, r.actions, r.reportedBy,
+    r.at, coded(t, 'incident.kind', INCIDENT_KINDS, r.kind), r.area ?? '', r.description, r.actions, r.reportedBy,
     !r.hasFollowUp ? word(t, 'none') : r.followUpClosedAt ? word(t, 'closed_at', { at: r.followUpClosedAt }) : word(t, 'open'),
   ],
 }

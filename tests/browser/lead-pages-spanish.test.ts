@@ -1,0 +1,48 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { setup } from '@nuxt/test-utils/e2e'
+import type { Browser } from 'playwright-core'
+import { eq } from 'drizzle-orm'
+import { builtServer } from '../support/http'
+import { area, closeTestDb, site, tables, user, useTestDb } from '../support/db'
+import { DESKTOP, launchChromium, signInAt } from '../support/chromium'
+
+await setup(builtServer)
+
+let browser: Browser
+let lead: { email: string, password: string }
+let areaId: string
+
+// A safety lead who reads Spanish: the area log's day and the due schedules are in Spanish, dates as es-US writes them.
+beforeAll(async () => {
+  browser = await launchChromium()
+  const siteId = (await site()).id
+  areaId = (await area({ siteId, kind: 'charging_area' })).id
+  const u = await user({ siteId, roles: ['safety_lead'] })
+  await useTestDb().update(tables.users).set({ language: 'es' }).where(eq(tables.users.id, u.id))
+  lead = u
+})
+afterAll(async () => {
+  await browser?.close()
+  await closeTestDb()
+})
+
+describe('lead pages in Spanish', () => {
+  it('the area-log day and the schedules page speak Spanish', async () => {
+    const day = '2026-03-04'
+    const { page, context } = await signInAt(browser, lead, `/logs?area=${areaId}&date=${day}`, DESKTOP)
+    await page.getByRole('heading', { level: 1, name: 'Bitácoras del área' }).waitFor()
+    const card = page.locator(`[data-log-date="${day}"]`)
+    await expect.poll(() => card.getByText('Sin empezar').isVisible()).toBe(true)
+    // the day's heading as es-US writes it (miércoles, 4 de mar de 2026), not the English weekday
+    expect(await card.getByRole('heading').textContent()).toMatch(/miércoles/)
+    expect(await page.getByRole('link', { name: 'Informe para auditoría' }).count()).toBe(1)
+
+    await page.goto(page.url().replace(/\/logs.*$/, '/schedules'))
+    await page.getByRole('heading', { level: 1, name: 'Programas de vencimiento' }).waitFor()
+    expect(await page.getByRole('button', { name: 'Agregar un programa' }).count()).toBe(1)
+    expect(await page.locator('#schedules-battery').textContent()).toContain('Baterías')
+    expect(await page.getByText('Vence pronto').first().isVisible()).toBe(true)
+    expect(await page.getByText('Due schedules').count()).toBe(0)
+    await context.close()
+  })
+})
