@@ -171,10 +171,3 @@ export function inspectionHold(inspections: readonly InspectionFact[], lastRetur
 export function holdRefusal(fleetNumber: string, reason: string): string {
   return `Truck ${fleetNumber} is out of service after its inspection. ${reason}. A technician or lead returns it to service once it is put right.`
 }
-
-/** A truck's pre-shift check this shift, in words (the Bay board's truck picker, the home card). */
-export const TRUCK_CHECK_WORDS: Readonly<Record<'held' | 'checked' | 'unchecked', string>> = {
-  held: 'out of service: failed its check',
-  checked: 'checked this shift',
-  unchecked: 'not checked this shift',
-}
