@@ -56,8 +56,8 @@ describe('recording the work closes the obligation and opens the next', () => {
     // ended just now, so it is today at the site even in the first hour after midnight
     await endedCharges(siteId, b.id, chargerId, techId, [0], true)
     const next = obligationOf(await dueList(tech, { siteId, kind: 'battery_equalize' }), 'battery_equalize', b.id)
-    // the site-local day the equalize charge ended, an hour ago (yesterday just after midnight)
-    const endedOn = new Intl.DateTimeFormat('en-CA', { timeZone: 'America/Chicago' }).format(new Date(Date.now() - 3_600_000))
+    // the site-local day the equalize charge ended (just now)
+    const endedOn = new Intl.DateTimeFormat('en-CA', { timeZone: 'America/Chicago' }).format(new Date())
     expect(next).toMatchObject({ state: 'upcoming', remaining: 5, lastDoneOn: endedOn })
   })
 

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { setup } from '@nuxt/test-utils/e2e'
-import { eq } from 'drizzle-orm'
+import { and, eq } from 'drizzle-orm'
 import { builtServer, client, type Client } from '../support/http'
 import { closeTestDb, site, tables, useTestDb } from '../support/db'
 import { chargingArea, charger, person } from '../support/due'
@@ -46,7 +46,7 @@ describe('the due, schedule, incident, ventilation and mail routes', () => {
     expect((await who.admin!.put('/api/schedules/not_a_kind', { siteId, every: 1 })).status).toBe(404)
     const items = (await who.operator!.get(`/api/schedules?siteId=${siteId}`)).body.items
     expect(items.find((s: { kind: string }) => s.kind === 'eyewash_activation')).toMatchObject({ dueSoonDays: 2, every: 1, everyUnit: 'week' })
-    const [audit] = await useTestDb().select().from(tables.auditLog).where(eq(tables.auditLog.entity, 'schedule'))
+    const [audit] = await useTestDb().select().from(tables.auditLog).where(and(eq(tables.auditLog.entity, 'schedule'), eq(tables.auditLog.siteId, siteId)))
     expect(audit?.action).toBe('update')
   })
 

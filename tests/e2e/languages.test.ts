@@ -54,7 +54,8 @@ describe('languages', () => {
     expect(res.status).toBe(200)
     const html = await res.text()
     expect(/<html[^>]*\slang="([^"]+)"/.exec(html)?.[1]).toBe('es')
-    expect(html).toContain('Specific-gravity reference temperature (°C)')
+    expect(html).toContain('Temperatura de referencia de la gravedad específica (°C)')
+    expect(html).not.toContain('Specific-gravity reference temperature')
   })
 
   it('refuses a language Bayward is not written in with a 400 and keeps the setting', async () => {

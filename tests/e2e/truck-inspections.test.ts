@@ -214,6 +214,8 @@ describe('pre-shift truck inspection', () => {
     const [used, checked, held, idle] = [await fittedTruck(s), await fittedTruck(s), await fittedTruck(s), await fittedTruck(s)]
     const b = await battery({ siteId: s })
     await putInTruck(b.id, used.id, op.id)
+    // used a moment ago, not an hour ago: an hour ago is yesterday when the suite runs just after the site's midnight
+    await useTestDb().update(tables.batterySwaps).set({ at: new Date(Date.now() - 1000) }).where(eq(tables.batterySwaps.truckId, used.id))
     expect((await inspect(c, checked.id, { answers: answers('electric') })).status).toBe(201)
     expect((await inspect(c, held.id, { answers: answers('electric', { parking_brake: 'Rolls on the ramp' }) })).status).toBe(201)
     const res = await c.get(`/api/inspection/shift?siteId=${s}`)
