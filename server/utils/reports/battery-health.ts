@@ -2,8 +2,7 @@ import { monthsBetween, batteryRisk, SG_SPREAD_ACT, SG_SPREAD_WARN } from '#shar
 import type { ReportResponse } from '#shared/types/reports'
 import { isEffectiveRecord, rowsOf, uuidArray } from '../due/effective'
 import { batteryFacts, RECENT_DAYS, yearsBetween } from './battery-facts'
-import { chartSvg } from './chart'
-import { num, numOrNull, scopeCte, siteColumn, type ReportScope } from './scope'
+import { chartOf, num, numOrNull, scopeCte, siteColumn, type ReportScope } from './scope'
 
 // Mean Ah returned per counted charge, the mean cell spread and the checks that found low cells, per month
 // (and the Ah line of a few batteries), from standing records only.
@@ -90,7 +89,7 @@ export async function batteryHealthReport(scope: ReportScope): Promise<ReportRes
         key: 'capacity',
         title: t('report.health.capacity_title'),
         note: t('report.health.capacity_note'),
-        chartSvg: chartSvg({
+        chartSvg: chartOf(scope, {
           kind: 'line', categories: months, unit: 'Ah',
           series: [{ name: t('report.health.fleet'), data: monthRows.map(r => r.ahPerCharge) }, ...watched.map(b => ({ name: b.serial, data: months.map(m => ahAt(m, b.id)) }))],
         }),
@@ -101,7 +100,7 @@ export async function batteryHealthReport(scope: ReportScope): Promise<ReportRes
         key: 'cells',
         title: t('report.health.cells_title'),
         note: t('report.health.cells_note', { warn: SG_SPREAD_WARN.toFixed(3), act: SG_SPREAD_ACT.toFixed(3) }),
-        chartSvg: chartSvg({
+        chartSvg: chartOf(scope, {
           kind: 'bar', categories: months, unit: t('report.unit.checks'), secondUnit: 'SG',
           series: [{ name: t('report.health.low_findings'), data: monthRows.map(r => r.lowFindings) }, { name: t('report.col.mean_spread'), type: 'line', data: monthRows.map(r => (r.spread === null ? null : Math.round(r.spread * 1000) / 1000)) }],
         }),

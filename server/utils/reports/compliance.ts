@@ -3,8 +3,7 @@ import type { ReportResponse } from '#shared/types/reports'
 import { CO_LIMITS } from '#shared/utils/co-exposure'
 import { daysInRange } from '#shared/utils/area-checklists'
 import { isEffectiveRecord, rowsOf } from '../due/effective'
-import { chartSvg } from './chart'
-import { chartTop, num, numOrNull, scopeCte, totalsOf, siteColumn, type ReportScope } from './scope'
+import { chartOf, chartTop, num, numOrNull, scopeCte, siteColumn, totalsOf, type ReportScope } from './scope'
 
 const siteSuffix = (scope: ReportScope) => sql`CASE WHEN ${scope.siteIds.length > 1} THEN ' · ' || scope.site_name ELSE '' END`
 
@@ -94,7 +93,7 @@ export async function complianceReport(scope: ReportScope): Promise<ReportRespon
         key: 'emissions',
         title: t('report.compliance.emissions_title'),
         note: t('report.compliance.emissions_note'),
-        chartSvg: chartSvg({
+        chartSvg: chartOf(scope, {
           kind: 'bar', categories: months, unit: t('report.unit.tests'), secondUnit: '%',
           series: [{ name: t('report.col.tests'), data: monthRows.map(r => r.tests) }, { name: t('report.compliance.pass_rate_pct'), type: 'line', data: monthRows.map(r => (r.passRate === null ? null : Math.round(r.passRate))) }],
         }),
@@ -105,7 +104,7 @@ export async function complianceReport(scope: ReportScope): Promise<ReportRespon
         key: 'co',
         title: t('report.compliance.co_title'),
         note: t('report.compliance.co_note', { site_ppm: CO_LIMITS.nioshRel.ppm, site_source: CO_LIMITS.nioshRel.source, pel_ppm: CO_LIMITS.oshaPel.ppm, pel_source: CO_LIMITS.oshaPel.source }),
-        chartSvg: chartSvg({ kind: 'bar', ...chartTop(scope), categories: co.map(a => a.area), unit: 'ppm', series: [{ name: t('report.compliance.mean_twa'), data: co.map(a => Math.round(num(a.meanTwa) * 10) / 10) }, { name: t('report.compliance.highest_twa'), data: co.map(a => Math.round(num(a.maxTwa) * 10) / 10) }] }),
+        chartSvg: chartOf(scope, { kind: 'bar', ...chartTop(scope), categories: co.map(a => a.area), unit: 'ppm', series: [{ name: t('report.compliance.mean_twa'), data: co.map(a => Math.round(num(a.meanTwa) * 10) / 10) }, { name: t('report.compliance.highest_twa'), data: co.map(a => Math.round(num(a.maxTwa) * 10) / 10) }] }),
         columns: [
           { key: 'area', label: t('report.col.area') }, { key: 'days', label: t('report.col.days_measured'), decimals: 0 }, { key: 'meanTwa', label: t('report.col.mean_twa'), unit: 'ppm', decimals: 1 },
           { key: 'maxTwa', label: t('report.col.highest_twa'), unit: 'ppm', decimals: 1 }, { key: 'overSite', label: t('report.col.days_over_site'), decimals: 0 }, { key: 'overPel', label: t('report.col.days_over_pel', { ppm: CO_LIMITS.oshaPel.ppm }), decimals: 0 },
@@ -116,7 +115,7 @@ export async function complianceReport(scope: ReportScope): Promise<ReportRespon
         key: 'logs',
         title: t('report.compliance.logs_title'),
         note: t('report.compliance.logs_note', { days }),
-        chartSvg: chartSvg({ kind: 'bar', ...chartTop(scope), categories: logRows.map(l => l.area), unit: '%', series: [{ name: `${t('report.col.completion')} (%)`, data: logRows.map(l => Math.round(l.completion)) }] }),
+        chartSvg: chartOf(scope, { kind: 'bar', ...chartTop(scope), categories: logRows.map(l => l.area), unit: '%', series: [{ name: `${t('report.col.completion')} (%)`, data: logRows.map(l => Math.round(l.completion)) }] }),
         columns: [{ key: 'area', label: t('report.col.area') }, { key: 'logs', label: t('report.col.days_logged'), decimals: 0 }, { key: 'completion', label: t('report.col.completion'), unit: '%', decimals: 0 }, { key: 'signed', label: t('report.col.signed'), decimals: 0 }, { key: 'failed', label: t('report.col.failed_items'), decimals: 0 }],
         rows: logRows,
       },

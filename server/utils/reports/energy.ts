@@ -2,9 +2,8 @@ import type { ReportResponse } from '#shared/types/reports'
 import { daysInRange } from '#shared/utils/area-checklists'
 import { hoursOnChargePerDay, monthsBetween } from '#shared/utils/report-math'
 import { isEffectiveRecord, rowsOf } from '../due/effective'
-import { chartSvg } from './chart'
 import { offPeakSaving } from '#shared/utils/tariff'
-import { chartTop, money, num, numberText, scopeCte, totalsOf, type ReportScope } from './scope'
+import { chartOf, chartTop, money, num, numberText, scopeCte, totalsOf, type ReportScope } from './scope'
 import { peakSplit } from './tariff-split'
 
 // report.energy.convention: kWh drawn from the grid = Ah returned × the battery's nominal volts ÷ 1,000 ÷ the
@@ -81,7 +80,7 @@ export async function energyReport(scope: ReportScope, withPeak = true): Promise
         key: 'month',
         title: t('report.energy.by_month'),
         note: t('report.energy.convention'),
-        chartSvg: chartSvg({
+        chartSvg: chartOf(scope, {
           kind: 'bar', categories: monthList, unit: 'kWh', secondUnit: cur || t('report.unit.cost'),
           series: [{ name: 'kWh', data: monthRows.map(r => Math.round(r.kwh)) }, { name: `${t('report.col.cost')}${cur ? ` (${cur})` : ''}`, type: 'line', data: monthRows.map(r => Math.round(r.cost * 100) / 100) }],
         }),
@@ -94,7 +93,7 @@ export async function energyReport(scope: ReportScope, withPeak = true): Promise
       {
         key: 'area',
         title: t('report.energy.by_area'),
-        chartSvg: chartSvg({ kind: 'bar', ...chartTop(scope), categories: areas.map(a => a.label), unit: 'kWh', series: [{ name: 'kWh', data: areas.map(a => Math.round(a.kwh)) }] }),
+        chartSvg: chartOf(scope, { kind: 'bar', ...chartTop(scope), categories: areas.map(a => a.label), unit: 'kWh', series: [{ name: 'kWh', data: areas.map(a => Math.round(a.kwh)) }] }),
         columns: [{ key: 'area', label: t('report.col.charging_area') }, { key: 'charges', label: t('report.col.charges'), decimals: 0 }, { key: 'kwh', label: t('report.col.energy'), unit: 'kWh', decimals: 0 }, { key: 'cost', label: t('report.col.cost'), unit: cur, decimals: 2 }],
         rows: areas.map(a => ({ area: a.label, charges: a.charges, kwh: a.kwh, cost: a.cost })),
       },
@@ -102,7 +101,7 @@ export async function energyReport(scope: ReportScope, withPeak = true): Promise
         key: 'charger',
         title: t('report.energy.by_charger'),
         note: t('report.energy.charger_note', { days }),
-        chartSvg: chartSvg({ kind: 'bar', ...chartTop(scope), categories: chargers.map(c => c.label), unit: t('report.unit.h_day'), series: [{ name: t('report.energy.hours_per_day'), data: chargers.map(c => Math.round(hoursOnChargePerDay(c.hours, days) * 10) / 10) }] }),
+        chartSvg: chartOf(scope, { kind: 'bar', ...chartTop(scope), categories: chargers.map(c => c.label), unit: t('report.unit.h_day'), series: [{ name: t('report.energy.hours_per_day'), data: chargers.map(c => Math.round(hoursOnChargePerDay(c.hours, days) * 10) / 10) }] }),
         columns: [
           { key: 'charger', label: t('report.col.charger') }, { key: 'area', label: t('report.col.area') }, { key: 'charges', label: t('report.col.charges'), decimals: 0 },
           { key: 'kwh', label: t('report.col.energy'), unit: 'kWh', decimals: 0 }, { key: 'cost', label: t('report.col.cost'), unit: cur, decimals: 2 },

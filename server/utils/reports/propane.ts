@@ -3,8 +3,7 @@ import type { ReportResponse } from '#shared/types/reports'
 import { PROPANE_LB_PER_GAL_60F } from '#shared/utils/lp-gas'
 import { KG_PER_LB, LITRES_PER_US_GAL } from '#shared/utils/units'
 import { isEffectiveRecord, rowsOf } from '../due/effective'
-import { chartSvg } from './chart'
-import { chartTop, money, num, numberText, scopeCte, totalsOf, siteColumn, type ReportScope } from './scope'
+import { chartOf, chartTop, money, num, numberText, scopeCte, siteColumn, totalsOf, type ReportScope } from './scope'
 
 // Standing refills in the range by month (net pounds, gallons at 60 °F as recorded, cost at the price per
 // gallon kept on each refill when it was recorded, else the site's price now) and the refused ones with their reasons; propane per truck from the cylinder changes:
@@ -87,7 +86,7 @@ export async function propaneReport(scope: ReportScope): Promise<ReportResponse>
         key: 'month',
         title: t('report.propane.by_month'),
         note: t('report.propane.month_note', { lb_per_gal: PROPANE_LB_PER_GAL_60F }),
-        chartSvg: chartSvg({ kind: 'bar', categories: monthList, unit: v, series: [{ name: t('report.propane.series', { unit: v }), data: monthRows.map(r => Math.round(r.volume)) }] }),
+        chartSvg: chartOf(scope, { kind: 'bar', categories: monthList, unit: v, series: [{ name: t('report.propane.series', { unit: v }), data: monthRows.map(r => Math.round(r.volume)) }] }),
         columns: [
           { key: 'month', label: t('report.col.month') }, { key: 'refills', label: t('report.col.refills'), decimals: 0 }, { key: 'mass', label: t('report.col.net'), unit: m, decimals: 0 },
           { key: 'volume', label: t('report.col.volume'), unit: v, decimals: 1 }, { key: 'cost', label: t('report.col.cost'), unit: cur, decimals: 2 }, { key: 'refused', label: t('report.col.refused'), decimals: 0 },
@@ -98,7 +97,7 @@ export async function propaneReport(scope: ReportScope): Promise<ReportResponse>
         key: 'truck',
         title: t('report.propane.by_truck'),
         note: t('report.propane.truck_note'),
-        chartSvg: chartSvg({ kind: 'bar', ...chartTop(scope), categories: trucks.map(r => r.truck), unit: m, series: [{ name: t('report.propane.series', { unit: m }), data: trucks.map(r => Math.round(mass(num(r.lb)))) }] }),
+        chartSvg: chartOf(scope, { kind: 'bar', ...chartTop(scope), categories: trucks.map(r => r.truck), unit: m, series: [{ name: t('report.propane.series', { unit: m }), data: trucks.map(r => Math.round(mass(num(r.lb)))) }] }),
         columns: [{ key: 'truck', label: t('report.col.truck') }, { key: 'changes', label: t('report.col.changes'), decimals: 0 }, { key: 'mass', label: t('report.col.propane'), unit: m, decimals: 0 }, { key: 'cost', label: t('report.col.cost'), unit: cur, decimals: 2 }],
         rows: trucks.map(r => ({ truck: r.truck, changes: num(r.changes), mass: mass(num(r.lb)), cost: num(r.cost) })),
       },

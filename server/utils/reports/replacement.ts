@@ -1,8 +1,7 @@
 import type { ReportResponse } from '#shared/types/reports'
 import { cyclesPerDay, nextQuarters, quarterOf, ratedCyclesReachedOn } from '#shared/utils/report-math'
 import { batteryFacts, RECENT_DAYS } from './battery-facts'
-import { chartSvg } from './chart'
-import { money, totalsOf, siteColumn, type ReportScope } from './scope'
+import { chartOf, money, siteColumn, totalsOf, type ReportScope } from './scope'
 
 /** Each battery's forecast: the day it reaches its rated cycles at its own recent rate. */
 export function replacementForecast(scope: ReportScope, facts: Awaited<ReturnType<typeof batteryFacts>>) {
@@ -39,7 +38,7 @@ export async function replacementReport(scope: ReportScope): Promise<ReportRespo
         key: 'quarter',
         title: t('report.replacement.quarter_title'),
         note: t('report.replacement.quarter_note', { days: RECENT_DAYS, day: scope.to }),
-        chartSvg: chartSvg({
+        chartSvg: chartOf(scope, {
           kind: 'bar', categories: quarters, unit: t('report.unit.batteries'), secondUnit: cur || t('report.unit.cost'),
           series: [{ name: t('report.col.batteries'), data: byQuarter.map(q => q.batteries) }, { name: `${t('report.col.cost')}${cur ? ` (${cur})` : ''}`, type: 'line', data: byQuarter.map(q => Math.round(q.cost)) }],
         }),

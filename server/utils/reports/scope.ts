@@ -10,7 +10,7 @@ import { LANGUAGE_TAGS, type Language } from '#shared/utils/languages'
 import { mailWords, type MailT } from '../mail-words'
 import { readerLanguage } from '../reader-language'
 import { rowsOf, uuidArray } from '../due/effective'
-import { CHART_TOP, loadCharts } from './chart'
+import { CHART_TOP, chartSvg, loadCharts, type ChartSpec } from './chart'
 
 export interface ReportSite { id: string, name: string, timeZone: string, unitSystem: UnitSystem, settings: SiteSettings }
 
@@ -27,6 +27,8 @@ export interface ReportScope {
   /** the reader's language, and its words (i18n/locales, report.*) */
   language: Language
   t: MailT
+  /** false for a CSV answer: its charts would be drawn and thrown away */
+  charts?: boolean
 }
 
 // ?siteId=<one site> checks the ability there (404 outside the person's sites, 403 without the role);
@@ -91,9 +93,15 @@ export function reportCsv(event: H3Event, report: ReportResponse, section?: stri
 // Every report route: the query, the scope (and with it the ability check), the report, JSON or CSV.
 export async function serveReport(event: H3Event, ability: Ability, build: (scope: ReportScope) => Promise<ReportResponse>) {
   const query = validateQuery(event, reportQuerySchema)
-  const [scope] = await Promise.all([reportScope(event, ability, query), loadCharts()])
-  const report = await build(scope)
+  const csv = query.format === 'csv'
+  const [scope] = await Promise.all([reportScope(event, ability, query), csv ? undefined : loadCharts()])
+  const report = await build({ ...scope, charts: !csv })
   return query.format === 'csv' ? reportCsv(event, report, query.section) : report
+}
+
+/** A section's chart as SVG, or none when the answer is CSV. */
+export function chartOf(scope: ReportScope, spec: ChartSpec): string | null {
+  return scope.charts === false ? null : chartSvg(spec)
 }
 
 /** A chart of many things cut to its CHART_TOP highest, saying so in the reader's words. */

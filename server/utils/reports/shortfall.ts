@@ -1,7 +1,6 @@
 import type { ReportResponse } from '#shared/types/reports'
 import { isEffectiveRecord, rowsOf } from '../due/effective'
-import { chartSvg } from './chart'
-import { chartTop, num, scopeCte, totalsOf, type ReportScope } from './scope'
+import { chartOf, chartTop, num, scopeCte, totalsOf, type ReportScope } from './scope'
 
 // A swap that went ahead over a "still cooling" or "not charged" refusal: a truck needed a battery and no
 // ready one was there. Codes from shared/utils/battery-fit.ts.
@@ -65,7 +64,7 @@ export async function shortfallReport(scope: ReportScope): Promise<ReportRespons
         key: 'hour',
         title: t('report.shortfall.hour_title'),
         note: t('report.shortfall.hour_note'),
-        chartSvg: chartSvg({
+        chartSvg: chartOf(scope, {
           kind: 'bar', categories: hours.map(h => h.hour.slice(0, 2)), unit: t('report.unit.swaps'), secondUnit: '%',
           series: [{ name: t('report.shortfall.series'), data: hours.map(h => h.shortfalls) }, { name: t('report.shortfall.share_pct'), type: 'line', data: hours.map(h => (h.share === null ? null : Math.round(h.share))) }],
         }),
@@ -76,7 +75,7 @@ export async function shortfallReport(scope: ReportScope): Promise<ReportRespons
       {
         key: 'area',
         title: t('report.shortfall.area_title'),
-        chartSvg: chartSvg({ kind: 'bar', ...chartTop(scope), categories: areas.map(a => a.area), unit: t('report.unit.swaps'), series: [{ name: t('report.shortfall.series'), data: areas.map(a => a.shortfalls) }] }),
+        chartSvg: chartOf(scope, { kind: 'bar', ...chartTop(scope), categories: areas.map(a => a.area), unit: t('report.unit.swaps'), series: [{ name: t('report.shortfall.series'), data: areas.map(a => a.shortfalls) }] }),
         columns: [{ key: 'area', label: t('report.col.area') }, { key: 'swaps', label: t('report.col.swaps'), decimals: 0 }, { key: 'shortfalls', label: t('report.col.short'), decimals: 0 }, { key: 'share', label: t('report.col.share'), unit: '%', decimals: 0 }],
         rows: areas,
       },
