@@ -10,6 +10,7 @@ export function useReasonWords() {
   const { t, te, locale } = useNuxtApp().$i18n
   const { number } = useLocaleFormat()
   const { units } = storeToRefs(useSessionStore())
+  const { holdReason } = useInspectionWords()
   const chemistry = (code: string) => (te(`chemistry.${code}`) ? t(`chemistry.${code}`) : code)
   const listItem = (name: string) => (name === 'items' ? (key: string) => (te(`refill.item.${key}`) ? t(`refill.item.${key}`) : key) : name === 'roles' ? (key: string) => t(`role.${key}`) : chemistry)
 
@@ -20,6 +21,7 @@ export function useReasonWords() {
       if (stored) out[stored[0]] = stored[1]
       else if (Array.isArray(value)) out[name] = value.length ? value.map(listItem(name)).join(name === 'items' ? '; ' : ', ') : t('chemistry.none')
       else if (typeof value === 'number') out[name] = number(value)
+      else if (name === 'reason') out[name] = holdReason(value)
       else out[name] = name === 'chemistry' ? chemistry(value) : te(`reason_word.${name}.${value}`) ? t(`reason_word.${name}.${value}`) : value
     }
     return out
