@@ -46,10 +46,10 @@ export function useReasonWords() {
     return typeof r.data.code === 'string' ? reasonText({ code: r.data.code, message: r.message, params: r.data.params as ReasonParams | undefined }) : r.message
   }
 
-  /** A failed request in the reader's words when the server sent a code, else as errorMessage() says it. */
+  /** A failed request in the reader's words when the server sent a code, else (and in English) as errorMessage() says it. */
   function errorText(error: unknown, fallback: string): string {
     const r = parseRefusal(error)
-    return r && (r.reasons[0]?.code || typeof r.data.code === 'string') ? refusalText(r) : errorMessage(error, fallback)
+    return r && locale.value !== 'en' && (r.reasons[0]?.code || typeof r.data.code === 'string') ? refusalText(r) : errorMessage(error, fallback)
   }
 
   return { reasonText, refusalText, codedText, errorText, locale }
