@@ -6,6 +6,7 @@ export interface LabelPreviewItem { kind: AssetKind, id: string, code: string, t
 export function useLabelSheet() {
   const { progress, problem, run } = useJob(400)
   const pdfUrl = ref<string | null>(null)
+  const { t } = useNuxtApp().$i18n
 
   async function preview(selection: LabelSelection) {
     return $fetch<{ items: LabelPreviewItem[], total: number }>('/api/labels/preview', { method: 'POST', body: selection })
@@ -13,7 +14,7 @@ export function useLabelSheet() {
 
   async function makePdf(selection: LabelSelection) {
     pdfUrl.value = null
-    const id = await run('/api/labels', { ...selection }, () => 'The sheet could not be made. Try again.')
+    const id = await run('/api/labels', { ...selection }, () => t('labels.failed'))
     if (id) pdfUrl.value = `/api/labels/${id}/pdf`
   }
 

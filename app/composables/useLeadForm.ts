@@ -9,6 +9,7 @@ export function useLeadForm(hints: Record<string, string> = {}) {
   const problem = ref('')
   const saving = ref(false)
   const { t, locale } = useNuxtApp().$i18n
+  const { errorText } = useReasonWords()
 
   /** A check the schema cannot make (a field this form requires that the route leaves optional). */
   function refuse(messages: Record<string, string>) {
@@ -36,7 +37,7 @@ export function useLeadForm(hints: Record<string, string> = {}) {
     }
     catch (error) {
       fields.value = errorFields(error)
-      problem.value = errorMessage(error)
+      problem.value = errorText(error, errorMessage(error))
       return undefined
     }
     finally {

@@ -10,6 +10,7 @@ export function useReasonWords() {
   const { t, te, locale } = useNuxtApp().$i18n
   const { number } = useLocaleFormat()
   const { units } = storeToRefs(useSessionStore())
+  const { holdReason } = useInspectionWords()
   const chemistry = (code: string) => (te(`chemistry.${code}`) ? t(`chemistry.${code}`) : code)
   const listItem = (name: string) => (name === 'items' ? (key: string) => (te(`refill.item.${key}`) ? t(`refill.item.${key}`) : key) : name === 'roles' ? (key: string) => t(`role.${key}`) : chemistry)
 
@@ -20,6 +21,7 @@ export function useReasonWords() {
       if (stored) out[stored[0]] = stored[1]
       else if (Array.isArray(value)) out[name] = value.length ? value.map(listItem(name)).join(name === 'items' ? '; ' : ', ') : t('chemistry.none')
       else if (typeof value === 'number') out[name] = number(value)
+      else if (name === 'reason') out[name] = holdReason(value)
       else out[name] = name === 'chemistry' ? chemistry(value) : te(`reason_word.${name}.${value}`) ? t(`reason_word.${name}.${value}`) : value
     }
     return out
@@ -44,5 +46,11 @@ export function useReasonWords() {
     return typeof r.data.code === 'string' ? reasonText({ code: r.data.code, message: r.message, params: r.data.params as ReasonParams | undefined }) : r.message
   }
 
-  return { reasonText, refusalText, codedText, locale }
+  /** A failed request in the reader's words when the server sent a code, else (and in English) as errorMessage() says it. */
+  function errorText(error: unknown, fallback: string): string {
+    const r = parseRefusal(error)
+    return r && locale.value !== 'en' && (r.reasons[0]?.code || typeof r.data.code === 'string') ? refusalText(r) : errorMessage(error, fallback)
+  }
+
+  return { reasonText, refusalText, codedText, errorText, locale }
 }

@@ -15,5 +15,9 @@ export function useSites() {
   const result = useFetch<{ items: SiteRow[] }>('/api/sites', { key: 'sites' })
   const current = computed(() => result.data.value?.items.find(s => s.id === session.siteId) ?? null)
   const areas = computed(() => current.value?.areas ?? [])
-  return { ...result, current, areas }
+  /** resolves once the sites are here (a form filled from them on the server awaits it before it renders) */
+  const loaded = async () => {
+    await result
+  }
+  return { ...result, current, areas, loaded }
 }

@@ -14,6 +14,9 @@ export function issueWordsFor(t: (key: string, params?: Record<string, unknown>)
   return (issue: z.core.$ZodIssue) => {
     const field = String(issue.path.at(-1) ?? '')
     const limits = !STORED_UNIT_FIELD.test(field)
+    // an e-mail address too short or badly written, or a field that only has to be filled, says so plainly
+    if (field === 'email' && (issue.code === 'too_small' || issue.code === 'invalid_format')) return t('field_issue.email')
+    if (issue.code === 'too_small' && issue.origin === 'string' && Number(issue.minimum) <= 1) return t('field_issue.required')
     switch (issue.code) {
       case 'invalid_type': return issue.expected === 'number' ? t('field_issue.number') : t('field_issue.required')
       case 'too_small':

@@ -1,5 +1,5 @@
 import type { EntryQuantity } from '#shared/utils/units'
-// Labels and sources for the site policy form; values are validated by siteSettingsSchema. Intervals
+// Labels and sources for the site policy form (their words in every language: site.setting.* and site.setting_source.*); values are validated by siteSettingsSchema. Intervals
 // (watering, equalize, inspections, emissions retests, due-soon windows) are set on the Schedules page.
 // A setting with a `quantity` is stored in US units and typed and shown in the site's (`{unit}` in its label).
 export const SITE_SETTING_VIEWS: { key: keyof SiteSettings, label: string, source: string, step?: string, quantity?: EntryQuantity }[] = [

@@ -2,14 +2,15 @@ import type { H3Event } from 'h3'
 import type { z } from 'zod'
 import type { ReasonParams } from '#shared/utils/battery-fit'
 
-// Every 400 answer carries its field messages in `data.fields` (fieldMessages, shared/utils/field-messages.ts).
+// Every 400 answer carries its field messages in `data.fields` (fieldMessages, shared/utils/field-messages.ts)
+// and the code `check_fields`, which a screen says in the reader's words (refusal.check_fields).
 function invalid(error: z.ZodError, what: string) {
   const fields = fieldMessages(error)
   const first = Object.entries(fields)[0]
   return createError({
     statusCode: 400,
     message: first ? `Check ${what}: ${first[0] === '_' ? '' : `${first[0]} — `}${first[1]}` : `Check ${what}.`,
-    data: { fields },
+    data: { code: 'check_fields', fields },
   })
 }
 

@@ -167,6 +167,12 @@ export function inspectionHold(inspections: readonly InspectionFact[], lastRetur
   return { inspectionId: first.id, since: first.at, byUserId: first.userId, reason: `Failed its pre-shift check (${first.userName}): ${first.criticalFailed.join('; ')}` }
 }
 
+/** The parts of a hold reason worded by inspectionHold (who checked, the failed items), to say it in another language; null for other words. */
+export function holdReasonParts(reason: string): { name: string, items: string[] } | null {
+  const m = /^Failed its pre-shift check \((.*?)\): (.*)$/s.exec(reason)
+  return m ? { name: m[1]!, items: m[2]!.split('; ') } : null
+}
+
 /** "Truck 14 is out of service since …: reason. A technician or lead returns it to service." */
 export function holdRefusal(fleetNumber: string, reason: string): string {
   return `Truck ${fleetNumber} is out of service after its inspection. ${reason}. A technician or lead returns it to service once it is put right.`

@@ -45,4 +45,24 @@ describe('lead pages in Spanish', () => {
     expect(await page.getByText('Due schedules').count()).toBe(0)
     await context.close()
   })
+
+  it('the password form says its field checks and a wrong current password in Spanish', async () => {
+    const { page, context } = await signInAt(browser, lead, '/account', DESKTOP)
+    await page.getByRole('heading', { name: 'Cambiar su contraseña' }).waitFor()
+    await page.locator('input[name="newPassword"]').fill('short')
+    await page.getByRole('button', { name: 'Cambiar contraseña' }).click()
+    await expect.poll(() => page.getByText('Llene este dato.').count()).toBe(1)
+    // the field's message in place of its hint
+    expect(await page.getByRole('alert').filter({ hasText: 'Al menos 10 caracteres.' }).count()).toBe(1)
+    expect(await page.getByText('At least 10 characters.').count()).toBe(0)
+    expect(await page.getByText('Enter your current password.').count()).toBe(0)
+
+    await page.locator('input[name="currentPassword"]').fill('not the password at all')
+    await page.locator('input[name="newPassword"]').fill('a new long password')
+    await page.locator('input[name="repeat"]').fill('a new long password')
+    await page.getByRole('button', { name: 'Cambiar contraseña' }).click()
+    await expect.poll(() => page.getByText('Esa no es su contraseña actual.').count()).toBe(1)
+    expect(await page.getByText('That is not your current password.').count()).toBe(0)
+    await context.close()
+  })
 })

@@ -2,7 +2,9 @@ import { readdirSync, readFileSync } from 'node:fs'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { setup, url } from '@nuxt/test-utils/e2e'
 import { builtServer, signIn } from '../support/http'
-import { closeTestDb, site, user } from '../support/db'
+import { area, closeTestDb, site, user } from '../support/db'
+import { fittedTruck, qualify } from '../support/battery-room'
+import { answers, classQualification, inspect } from '../support/inspection'
 
 await setup(builtServer)
 
@@ -56,6 +58,48 @@ describe('languages', () => {
     expect(/<html[^>]*\slang="([^"]+)"/.exec(html)?.[1]).toBe('es')
     expect(html).toContain('Temperatura de referencia de la gravedad específica (°C)')
     expect(html).not.toContain('Specific-gravity reference temperature')
+    // where each default comes from, in Spanish; cited rules stay as written
+    expect(html).toContain('Valor por defecto de: decisión del sitio')
+    expect(html).toContain('Valor por defecto de: su recibo de luz')
+    expect(html).toContain('Valor por defecto de: 49 CFR 180.209')
+    for (const english of ['site choice', 'your utility bill', 'common practice', 'follow the battery maker']) expect(html).not.toContain(english)
+    // the server render already shows the metric site's units chosen and its temperatures in °C (80 °F, 115 °F)
+    expect(html).toMatch(/<option value="metric" selected>/)
+    expect(html).not.toMatch(/<option value="us" selected>/)
+    expect(html).toContain('value="26.7"')
+    expect(html).toContain('value="46.1"')
+  })
+
+  it('a truck held by a failed pre-shift check: the due page, the inspect page and the area log\'s follow-up say it in Spanish', async () => {
+    const held = (await site()).id
+    await area({ siteId: held })
+    const op = await user({ siteId: held, roles: ['operator'] })
+    await qualify(op.id)
+    await classQualification(op.id, 1)
+    await classQualification(op.id, 5)
+    const lead = await user({ siteId: held, roles: ['technician', 'safety_lead'] })
+    const truck = await fittedTruck(held)
+    const failed = await inspect(await signIn(op), truck.id, { answers: answers('electric', { service_brake: 'Pedal goes to the floor' }) })
+    expect(failed.status, JSON.stringify(failed.body)).toBe(201)
+    const c = await signIn(lead)
+    await c.put('/api/me/language', { language: 'es' })
+    // the page as read: its payload (the server's stored English, kept as the fallback) left out
+    const open = async (path: string) => (await (await fetch(url(path), { headers: { cookie: c.cookie! } })).text()).replace(/<script[\s\S]*?<\/script>/g, '')
+
+    const due = await open('/due')
+    expect(due).toContain('Inspecciones antes del turno')
+    expect(due).toContain('No pasó su inspección antes del turno')
+    expect(due).toContain('El freno de servicio detiene el montacargas sin jalones')
+    expect(due).not.toContain('Failed its pre-shift check')
+    const inspectPage = await open(`/inspect?truck=${truck.id}`)
+    expect(inspectPage).toContain('No pasó su inspección antes del turno')
+    expect(inspectPage).not.toContain('Failed its pre-shift check')
+
+    const followUps = await c.get(`/api/follow-ups?siteId=${held}`)
+    expect(followUps.body.items[0].titleWords).toMatchObject({ code: 'preshift', params: { truck: truck.fleetNumber } })
+    const logs = await open('/logs')
+    expect(logs).toContain(`Montacargas ${truck.fleetNumber}: El freno de servicio detiene el montacargas sin jalones — falló la inspección antes del turno el`)
+    expect(logs).not.toContain('failed pre-shift check on')
   })
 
   it('refuses a language Bayward is not written in with a 400 and keeps the setting', async () => {

@@ -72,8 +72,11 @@ describe('lead words in English match the shared labels', () => {
 
   it('every site setting', () => {
     const src = readFileSync(new URL('../../app/utils/site-setting-views.ts', import.meta.url), 'utf8')
-    const found = [...src.matchAll(/\{ key: '(\w+)', label: '([^']*)'/g)]
+    const found = [...src.matchAll(/\{ key: '(\w+)', label: '([^']*)', source: '((?:[^'\\]|\\')*)'/g)]
     expect(found.length).toBeGreaterThan(10)
-    for (const [, key, label] of found) expect(at(`site.setting.${key!.replace(/[A-Z]/g, c => `_${c.toLowerCase()}`)}`)).toBe(label)
+    for (const [, key, label, source] of found) {
+      const snake = key!.replace(/[A-Z]/g, c => `_${c.toLowerCase()}`)
+      expect([at(`site.setting.${snake}`), at(`site.setting_source.${snake}`)]).toEqual([label, source!.replace(/\\'/g, '\'')])
+    }
   })
 })

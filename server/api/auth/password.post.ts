@@ -9,11 +9,11 @@ export default defineAbilityHandler('account.self', async (event) => {
   const actor = await requireAbility(event, 'account.self')
   const keys = signInKeys(event, actor.user.email)
   const attempt = await claimAttempt(keys, signInLimit())
-  if (!attempt) throw createError({ statusCode: 429, message: TOO_MANY_TRIES })
+  if (!attempt) throw codedError(429, 'too_many_tries', TOO_MANY_TRIES)
   const db = useDb()
   const [row] = await db.select({ passwordHash: tables.users.passwordHash }).from(tables.users).where(eq(tables.users.id, actor.user.id))
   if (!row || !await verifyPassword(row.passwordHash, body.currentPassword)) {
-    throw createError({ statusCode: 400, message: `Check the form: currentPassword — ${WRONG}`, data: { fields: { currentPassword: WRONG } } })
+    throw createError({ statusCode: 400, message: `Check the form: currentPassword — ${WRONG}`, data: { code: 'not_current_password', fields: { currentPassword: WRONG } } })
   }
   await releaseAttempt(attempt)
   const passwordHash = await hashPassword(body.newPassword)

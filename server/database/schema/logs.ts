@@ -116,6 +116,8 @@ export const followUps = pgTable('follow_ups', {
   source: text().notNull(),
   sourceId: uuid().notNull(),
   title: text().notNull(),
+  /** the title as a code and its names, said in the reader's language (follow_up.title_<code>); null on rows made before, which show `title` */
+  titleWords: jsonb().$type<{ code: string, params: Record<string, string> }>(),
   ownerUserId: uuid().references(() => users.id),
   /** the day of the failure or incident it follows; the follow-up schedule counts from here */
   openedOn: date().notNull(),

@@ -26,11 +26,12 @@ export async function batteryRoomOverrides(siteId: string) {
     ...(swaps as unknown as Record<string, unknown>[]).map(s => ({
       id: `swap-${s.id}`, kind: 'swap' as const, at: iso(s.atMs), who: s.who as string,
       what: `Battery ${s.batteryIn} into truck ${s.truck}${s.batteryOut ? ` (out: ${s.batteryOut})` : ''}`,
+      whatWords: { code: s.batteryOut ? 'swap_out' : 'swap', params: { battery: String(s.batteryIn), truck: String(s.truck), ...(s.batteryOut ? { out: String(s.batteryOut) } : {}) } },
       reason: (s.overrideReason as string | null) ?? null, checks: (s.checks as FitReason[] | null) ?? [],
     })),
     ...(charges as unknown as Record<string, unknown>[]).map(c => ({
       id: `charge-${c.id}`, kind: 'charge' as const, at: iso(c.atMs), who: c.who as string,
-      what: `Battery ${c.battery} on charger ${c.charger}`, reason: c.overrideReason as string, checks: [] as FitReason[],
+      what: `Battery ${c.battery} on charger ${c.charger}`, whatWords: { code: 'charge', params: { battery: String(c.battery), charger: String(c.charger) } }, reason: c.overrideReason as string, checks: [] as FitReason[],
     })),
   ].sort((a, b) => b.at.localeCompare(a.at))
   return { items }

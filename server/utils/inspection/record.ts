@@ -72,7 +72,7 @@ type InspectionRow = typeof tables.truckInspections.$inferSelect
 // A failed item opens one follow-up for the shop; a critical one also tells the site's leads at once.
 async function openInspectionFollowUp(tx: DbOrTx, actor: Actor, truck: TruckRow, inspection: InspectionRow, labels: string[], critical: boolean, date: string) {
   const title = `Truck ${truck.fleetNumber}: ${labels.join('; ')} — failed pre-shift check on ${date}`
-  const [followUp] = await tx.insert(tables.followUps).values({ siteId: truck.siteId, source: 'truck_inspection', sourceId: inspection.id, title: title.slice(0, 300), openedOn: date }).returning()
+  const [followUp] = await tx.insert(tables.followUps).values({ siteId: truck.siteId, source: 'truck_inspection', sourceId: inspection.id, title: title.slice(0, 300), openedOn: date, titleWords: { code: 'preshift', params: { truck: truck.fleetNumber, items: labels.join('; '), date } } }).returning()
   await writeAudit(tx, { actor, siteId: truck.siteId, action: 'create', entity: 'follow_up', entityId: followUp!.id, after: followUp })
   if (critical) {
     const notes = inspection.answers.filter(a => a.result === 'fail').map(a => `- ${a.note}`).join('\n')

@@ -19,6 +19,7 @@ export async function openChecklistFollowUp(tx: DbOrTx, actor: Actor, area: Area
   const title = `${area.name}: ${item.label} — failed on ${date}`
   const [followUp] = await tx.insert(tables.followUps).values({
     siteId: area.siteId, source: 'checklist', sourceId: entry.id, title: title.slice(0, 300), openedOn: date,
+    titleWords: { code: 'checklist', params: { area: area.name, item: item.label, date } },
   }).returning()
   await writeAudit(tx, { actor, siteId: area.siteId, action: 'create', entity: 'follow_up', entityId: followUp!.id, after: followUp })
   await queueAlert(tx, {

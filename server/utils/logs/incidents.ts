@@ -41,6 +41,7 @@ export async function reportIncident(actor: Actor, input: IncidentInput) {
     }).returning()
     const [followUp] = await tx.insert(tables.followUps).values({
       siteId: input.siteId, source: 'incident', sourceId: row!.id, title: `${label} (${where})`.slice(0, 300), ownerUserId: input.followUpOwnerId,
+      titleWords: where === 'no place given' ? { code: 'incident_nowhere', params: { kind: input.kind } } : { code: 'incident', params: { kind: input.kind, where } },
       openedOn: localDate(at, (await siteZone(tx, input.siteId))),
     }).returning()
     await recomputeSubjects(tx, input.siteId, [{ kind: 'follow_up', id: followUp!.id }], { lock: false })

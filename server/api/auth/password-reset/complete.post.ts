@@ -4,7 +4,7 @@ import { PASSWORD_LINK_INVALID, passwordLinkCompleteSchema } from '#shared/utils
 export default defineAbilityHandler('auth.password-reset', async (event) => {
   const { token, password } = await validateBody(event, passwordLinkCompleteSchema)
   if (!await redeemPasswordLink(token, password)) {
-    throw createError({ statusCode: 400, message: PASSWORD_LINK_INVALID, data: { fields: { token: PASSWORD_LINK_INVALID } } })
+    throw createError({ statusCode: 400, message: PASSWORD_LINK_INVALID, data: { code: 'password_link_invalid', fields: { token: PASSWORD_LINK_INVALID } } })
   }
   return { ok: true, message: 'Your new password is set. Sign in with it.' }
 })
