@@ -35,7 +35,8 @@ export async function signInAt(browser: Browser, who: { email: string, password:
   await page.getByLabel('E-mail').fill(who.email)
   await page.getByLabel('Password').fill(who.password)
   await page.getByRole('button', { name: 'Sign in' }).click()
-  await page.waitForURL(u => u.pathname === path.split('?')[0])
+  // a loaded machine can take more than the default 30 s to sign in and render the first page
+  await page.waitForURL(u => u.pathname === path.split('?')[0], { timeout: 60_000 })
   await page.waitForLoadState('networkidle')
   return { context, page }
 }
