@@ -5,7 +5,7 @@ import type { Browser } from 'playwright-core'
 import { builtServer } from '../support/http'
 import { eq } from 'drizzle-orm'
 import { closeTestDb, site, tables, user, useTestDb } from '../support/db'
-import { DESKTOP, PHONE, launchChromium, newContext } from '../support/chromium'
+import { DESKTOP, launchChromium, newContext, PHONE, untilHydrated } from '../support/chromium'
 import { LANGUAGES, MAIN_PAGES } from '../support/pages'
 
 await setup(builtServer)
@@ -33,6 +33,7 @@ describe('accessibility', () => {
         const context = await newContext(browser, url('/'), viewport)
         const page = await context.newPage()
         await page.goto(url('/sign-in'))
+        await untilHydrated(page, 'form input')
         await page.getByLabel('E-mail').fill(everyone.email)
         await page.getByLabel('Password').fill(everyone.password)
         await page.getByRole('button', { name: 'Sign in' }).click()

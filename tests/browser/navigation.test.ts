@@ -3,7 +3,7 @@ import { setup, url } from '@nuxt/test-utils/e2e'
 import type { Browser } from 'playwright-core'
 import { builtServer } from '../support/http'
 import { closeTestDb, site, user } from '../support/db'
-import { DESKTOP, PHONE, launchChromium, newContext } from '../support/chromium'
+import { DESKTOP, launchChromium, newContext, PHONE, untilHydrated } from '../support/chromium'
 
 await setup(builtServer)
 
@@ -28,6 +28,7 @@ async function signInAndOpenMenu(who: { email: string, password: string }, viewp
   const page = await context.newPage()
   await page.goto(url('/trucks'))
   await page.waitForURL(/\/sign-in\?next=(%2F|\/)trucks/)
+  await untilHydrated(page, 'form input')
   await page.getByLabel('E-mail').fill(who.email)
   await page.getByLabel('Password').fill(who.password)
   await page.getByRole('button', { name: 'Sign in' }).click()

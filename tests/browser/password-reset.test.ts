@@ -4,7 +4,7 @@ import type { Browser } from 'playwright-core'
 import { builtServer } from '../support/http'
 import { closeTestDb, site, user } from '../support/db'
 import { captureMail, linkTokenMailedTo } from '../support/mail'
-import { launchChromium, newContext, signInAt } from '../support/chromium'
+import { launchChromium, newContext, signInAt, untilHydrated } from '../support/chromium'
 
 // The link is read from what reached the SMTP fake; the outbox never keeps a working one.
 const fake = await captureMail()
@@ -31,6 +31,7 @@ describe('a new password from the sign-in page', () => {
     await page.goto(url('/sign-in'))
     await page.getByRole('link', { name: 'Forgot your password?' }).click()
     await page.waitForURL(/\/reset-password$/)
+    await untilHydrated(page, 'form input')
     await page.getByLabel('E-mail').fill(who.email)
     await page.getByRole('button', { name: 'Send me a link' }).click()
     await expect.poll(() => page.getByRole('status').textContent()).toContain('It works for 30 minutes, once.')
@@ -42,6 +43,7 @@ describe('a new password from the sign-in page', () => {
     await page.waitForURL(/\/sign-in\?password=set/)
     expect(await page.getByRole('status').textContent()).toContain('Your new password is set.')
 
+    await untilHydrated(page, 'form input')
     await page.getByLabel('E-mail').fill(who.email)
     await page.getByLabel('Password', { exact: true }).fill('forklift-aisle-nine-3381')
     await page.getByRole('button', { name: 'Sign in' }).click()

@@ -5,7 +5,7 @@ import { PNG } from 'pngjs'
 import type { Browser } from 'playwright-core'
 import { builtServer, signIn } from '../support/http'
 import { battery, closeTestDb, site, user } from '../support/db'
-import { PHONE, launchChromium, newContext } from '../support/chromium'
+import { launchChromium, newContext, PHONE, untilHydrated } from '../support/chromium'
 
 await setup(builtServer)
 
@@ -29,6 +29,7 @@ afterAll(async () => {
 })
 
 async function signInOn(page: import('playwright-core').Page) {
+  await untilHydrated(page, 'form input')
   await page.getByLabel('E-mail').fill(operator.email)
   await page.getByLabel('Password').fill(operator.password)
   await page.getByRole('button', { name: 'Sign in' }).click()

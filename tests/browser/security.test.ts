@@ -3,7 +3,7 @@ import { fetch, setup, url } from '@nuxt/test-utils/e2e'
 import type { Browser } from 'playwright-core'
 import { builtServer } from '../support/http'
 import { closeTestDb, site, user } from '../support/db'
-import { DESKTOP, PHONE, launchChromium, newContext } from '../support/chromium'
+import { DESKTOP, launchChromium, newContext, PHONE, untilHydrated } from '../support/chromium'
 import { MAIN_PAGES } from '../support/pages'
 
 await setup(builtServer)
@@ -37,6 +37,7 @@ describe('content security policy', () => {
         if (/Content Security Policy/i.test(m.text())) consoleViolations.push(m.text())
       })
       await page.goto(url('/sign-in'))
+      await untilHydrated(page, 'form input')
       await page.getByLabel('E-mail').fill(admin.email)
       await page.getByLabel('Password').fill(admin.password)
       await page.getByRole('button', { name: 'Sign in' }).click()

@@ -32,6 +32,7 @@ export async function signInAt(browser: Browser, who: { email: string, password:
   const page = await context.newPage()
   await page.goto(url(path))
   await page.waitForURL(/\/sign-in/)
+  await untilHydrated(page, 'form input')
   await page.getByLabel('E-mail').fill(who.email)
   await page.getByLabel('Password').fill(who.password)
   await page.getByRole('button', { name: 'Sign in' }).click()
@@ -39,4 +40,12 @@ export async function signInAt(browser: Browser, who: { email: string, password:
   await page.waitForURL(u => u.pathname === path.split('?')[0], { timeout: 60_000 })
   await page.waitForLoadState('networkidle')
   return { context, page }
+}
+
+/**
+ * Until Vue has taken over the server-rendered page (app/plugins/hydrated.client.ts marks it) and `selector` is
+ * on it: typing into a form before then is replaced by the form's own (empty) values.
+ */
+export async function untilHydrated(page: Page, selector: string) {
+  await page.waitForFunction(s => document.documentElement.hasAttribute('data-hydrated') && !!document.querySelector(s), selector)
 }
