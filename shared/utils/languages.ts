@@ -1,5 +1,3 @@
-import { z } from 'zod'
-
 /** The languages Bayward is written in; the first is the fallback. */
 export const LANGUAGES = ['en', 'es'] as const
 export type Language = (typeof LANGUAGES)[number]
@@ -9,9 +7,6 @@ export const LANGUAGE_NAMES: Record<Language, string> = { en: 'English', es: 'Es
 
 /** The regional form each language is written in: US English and US Spanish (1,850.5 and 12-hour clock in both). */
 export const LANGUAGE_TAGS: Record<Language, string> = { en: 'en-US', es: 'es-US' }
-
-/** A person's language setting: one of LANGUAGES, or null to follow the browser. */
-export const languageSettingSchema = z.object({ language: z.enum(LANGUAGES).nullable() }).strict()
 
 export function isLanguage(value: unknown): value is Language {
   return typeof value === 'string' && (LANGUAGES as readonly string[]).includes(value)
