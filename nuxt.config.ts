@@ -62,10 +62,11 @@ export default defineNuxtConfig({
   typescript: { strict: true },
   telemetry: false,
   hooks: {
-    // a language other than English is fetched when it is picked, not prefetched by every English page
+    // a language other than English is fetched when it is picked, and the lead pages' English when one opens
+    // (app/plugins/i18n-lead-words.client.ts), not prefetched by every English page
     'build:manifest'(manifest) {
       for (const [key, chunk] of Object.entries(manifest)) {
-        if (/i18n\/locales\/(?!en\.)[\w-]+\.json$/.test(key)) chunk.prefetch = false
+        if (/i18n\/locales\/(?!en\.)[\w-]+\.json$/.test(key) || /i18n\/lead\/[\w-]+\.json$/.test(key)) chunk.prefetch = false
       }
     },
     // Bayward's handler (database unavailable → 503) runs before Nuxt's own error page handler.

@@ -3,6 +3,7 @@ import type { Language } from '#shared/utils/languages'
 import { isLanguage } from '#shared/utils/languages'
 import type { UnitSystem } from '#shared/utils/units'
 import en from '../../i18n/locales/en.json'
+import enLead from '../../i18n/lead/en.json'
 import es from '../../i18n/locales/es.json'
 
 // E-mail words in the recipient's language, from the same locale files the screens read (mail.*, refusal.*):
@@ -10,7 +11,7 @@ import es from '../../i18n/locales/es.json'
 // in the site's units, as on the screen.
 
 type Tree = { [key: string]: string | Tree }
-const MESSAGES: Record<Language, Tree> = { en, es }
+const MESSAGES: Record<Language, Tree> = { en: { ...en, ...enLead }, es }
 
 /** One message by dotted key with {named} parameters; the English words when this language lacks the key. */
 export type MailT = (key: string, params?: Record<string, string | number>) => string

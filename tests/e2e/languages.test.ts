@@ -124,4 +124,17 @@ describe('languages', () => {
     expect(english.html).toContain('Scan a tag')
     expect(english.html).not.toContain(spanish[0])
   })
+
+  it('keeps the lead pages\' English and the schema library off the Scan page (the floor\'s first page)', async () => {
+    const dir = `${builtServer.nuxtConfig.nitro.output.dir}/public/_nuxt`
+    const scan = await page((await signIn(await user({ siteId, roles: ['operator'] }))).cookie, 'en-US')
+    const named = [...scan.html.matchAll(/\/_nuxt\/([\w-]+\.js)/g)].map(m => m[1]!)
+    expect(named.length).toBeGreaterThan(3)
+    const text = named.map(f => readFileSync(`${dir}/${f}`, 'utf8')).join('\n')
+    expect(text).not.toContain('ZodError')
+    // a report's title, from i18n/lead/en.json, is in no chunk the Scan page names
+    const lead = readdirSync(dir).filter(f => f.endsWith('.js') && readFileSync(`${dir}/${f}`, 'utf8').includes('Energy and cost'))
+    expect(lead.length).toBeGreaterThan(0)
+    for (const f of lead) expect(named).not.toContain(f)
+  })
 })

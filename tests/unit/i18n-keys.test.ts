@@ -4,7 +4,17 @@ import { LANGUAGES } from '../../shared/utils/languages'
 
 // Every language has every key, keys are snake_case and sorted, and {placeholders} agree between languages.
 const dir = new URL('../../i18n/locales/', import.meta.url)
-const read = (name: string) => JSON.parse(readFileSync(new URL(`${name}.json`, dir), 'utf8')) as Record<string, unknown>
+const leadDir = new URL('../../i18n/lead/', import.meta.url)
+// a language's words: its locale file, with the lead pages' words where they are a file of their own (English),
+// merged in key order
+function read(name: string): Record<string, unknown> {
+  const words = JSON.parse(readFileSync(new URL(`${name}.json`, dir), 'utf8')) as Record<string, unknown>
+  const leadFile = readdirSync(leadDir).includes(`${name}.json`) ? JSON.parse(readFileSync(new URL(`${name}.json`, leadDir), 'utf8')) as Record<string, unknown> : {}
+  const overlap = Object.keys(leadFile).filter(k => k in words)
+  if (overlap.length) throw new Error(`${name}: ${overlap.join(', ')} in both the locale file and the lead file`)
+  const merged = { ...words, ...leadFile }
+  return Object.fromEntries(Object.keys(merged).sort().map(k => [k, merged[k]]))
+}
 
 function flat(tree: Record<string, unknown>, prefix = ''): Record<string, string> {
   const out: Record<string, string> = {}

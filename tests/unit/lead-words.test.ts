@@ -8,11 +8,13 @@ import { CHECK_RESULT_LABELS } from '../../shared/utils/area-checklists'
 import { CUSTOM_SUBJECT_LABELS, CUSTOM_UNIT_LABELS, SCHEDULE_GROUP_LABELS } from '../../shared/utils/schedule-words'
 import { defaultSchedules } from '../../shared/utils/due-schedules'
 import { LABEL_LAYOUTS, PAPER_POINTS } from '../../shared/utils/label-layouts'
-import en from '../../i18n/locales/en.json'
+import enFloor from '../../i18n/locales/en.json'
+import enLead from '../../i18n/lead/en.json'
 
 // The lead pages read their words from the locale files; the English there is the English of the shared
 // label maps and of app/utils/asset-views.ts, word for word, so a label changed in one place is changed in both.
 type Tree = { [key: string]: string | Tree }
+const en = { ...enFloor, ...enLead }
 const at = (key: string) => key.split('.').reduce<string | Tree | undefined>((node, part) => (typeof node === 'object' ? node[part] : undefined), en as Tree)
 const same = (prefix: string, labels: Readonly<Record<string | number, string>>) =>
   expect(Object.fromEntries(Object.keys(labels).map(k => [k, at(`${prefix}${k}`)]))).toEqual({ ...labels })
