@@ -6,7 +6,7 @@
 import { spawn, type ChildProcess } from 'node:child_process'
 import { mkdirSync } from 'node:fs'
 import { chromium, type Browser, type Page } from 'playwright-core'
-import { CHROMIUM_ARGS } from '../tests/support/chromium'
+import { CHROMIUM_ARGS, untilHydrated } from '../tests/support/chromium'
 
 const PASSWORD = 'bayward-demo'
 const shots: { who: string, email: string, paths: string[] }[] = [
@@ -76,6 +76,7 @@ async function shootFloorForms(browser: Browser, base: string) {
     const context = await browser.newContext({ viewport: viewports.phone, baseURL: base, serviceWorkers: 'block' })
     const page = await context.newPage()
     await page.goto('/sign-in')
+    await untilHydrated(page, 'form input')
     await page.getByLabel('E-mail').fill(who.email)
     await page.getByLabel('Password').fill(PASSWORD)
     await page.getByRole('button', { name: 'Sign in' }).click()
@@ -131,6 +132,7 @@ async function main() {
         const page = await context.newPage()
         await page.goto('/sign-in')
         if (s === shots[0] && vp === 'phone') await page.screenshot({ path: 'screenshots/sign-in-phone.png' })
+        await untilHydrated(page, 'form input')
         await page.getByLabel('E-mail').fill(s.email)
         await page.getByLabel('Password').fill(PASSWORD)
         await page.getByRole('button', { name: 'Sign in' }).click()

@@ -41,6 +41,28 @@ async function signInAndOpenMenu(who: { email: string, password: string }, viewp
 }
 
 describe('navigation by role', () => {
+  it('keeps an e-mail and password typed before the page\'s scripts arrived (a slow network), and signs in with them', async () => {
+    const context = await newContext(browser, url('/'), PHONE)
+    const page = await context.newPage()
+    let release!: () => void
+    const scriptsHeld = new Promise<void>(r => (release = r))
+    await page.route('**/_nuxt/**', async (route) => {
+      await scriptsHeld
+      await route.continue()
+    })
+    // the server-rendered form is there while its scripts are held (the document is not "loaded" until they run)
+    await page.goto(url('/sign-in?next=/trucks'), { waitUntil: 'commit' })
+    await page.getByLabel('E-mail').waitFor()
+    await page.getByLabel('E-mail').fill(people.operator!.email)
+    await page.getByLabel('Password').fill(people.operator!.password)
+    release()
+    await untilHydrated(page, 'form input')
+    expect(await page.getByLabel('E-mail').inputValue()).toBe(people.operator!.email)
+    await page.getByRole('button', { name: 'Sign in' }).click()
+    await page.waitForURL(/\/trucks$/)
+    await context.close()
+  })
+
   it('an operator at phone width sees the floor items, not the lead pages', async () => {
     const { context, labels } = await signInAndOpenMenu(people.operator!, PHONE)
     expect(labels).toContain('Home')
