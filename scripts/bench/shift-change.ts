@@ -108,7 +108,8 @@ export async function runShiftChange(server: BenchServer, sql: postgres.Sql) {
       return { method: 'GET', path: `/api/battery-room/board?siteId=${a.siteId}&areaId=${a.id}` }
     },
   }
-  const due: OpenStream = { name: 'GET /api/due (as the due page opens)', rate: SHIFT_RATES.due, next: () => ({ method: 'GET', path: `/api/due?siteId=${pick(sites)}&role=all&sort=due&limit=0` }) }
+  // the shift's technician opens their own due list (role=all is a lead's view, and answered them 403)
+  const due: OpenStream = { name: 'GET /api/due (as the due page opens)', rate: SHIFT_RATES.due, next: () => ({ method: 'GET', path: `/api/due?siteId=${pick(sites)}&sort=due&limit=0` }) }
   const tag: OpenStream = {
     name: 'GET /api/tags/<code>', rate: SHIFT_RATES.tag,
     next: () => ({ method: 'GET', path: `/api/tags/B-${String(1 + Math.floor(Math.random() * BENCH.sites * BENCH.batteriesPerSite)).padStart(5, '0')}` }),
