@@ -6,7 +6,8 @@ const WITHOUT_LEAD_WORDS = /^\/(?:scan|t)(?:\/|$)/
 
 export default defineNuxtPlugin({
   name: 'bayward:i18n-lead-words',
-  async setup(nuxtApp) {
+  async setup() {
+    const nuxtApp = useNuxtApp()
     let loading: Promise<void> | undefined
     const load = () => (loading ??= import('../../i18n/lead/en.json').then((words) => {
       nuxtApp.$i18n.mergeLocaleMessage('en', words.default as never)
