@@ -40,7 +40,7 @@ const floorForms: { email: string, forms: FloorShot[], site?: string }[] = [
     { name: 'cage', path: () => '/cage', ready: 'Propane stored' },
     { name: 'inspect', path: a => `/inspect?truck=${a.lpTruck.id}`, ready: 'Hour meter (h)' },
     { name: 'inspect-electric', path: a => `/inspect?truck=${a.truck.id}`, ready: 'Hour meter (h)' },
-    { name: 'incident', path: () => '/incidents', ready: 'Where', act: async page => page.getByText(/^(Electrolyte spill|Derrame de electrolito)$/).click() },
+    { name: 'incident', path: () => '/incidents', ready: 'Where', act: async page => page.getByText(/Electrolyte spill|Derrame de electrolito/).first().click() },
   ] },
   { email: 'facilities@millbrook.example', forms: [
     { name: 'emissions-test', path: a => `/emissions?truck=${a.lpTruck.id}`, ready: 'Tested on' },
