@@ -42,7 +42,8 @@ describe('area logs: fill in, fail, sign, correct', () => {
     const mail = await useTestDb().select().from(tables.mailMessages).where(eq(tables.mailMessages.toAddress, safetyEmail))
     expect(mail).toHaveLength(1)
     expect(mail[0]).toMatchObject({ kind: 'alert:checklist_failed', siteId })
-    expect(mail[0]!.subject).toContain('Eyewash flushed and reachable')
+    expect(mail[0]!.subject).toContain('"Eyewash flushed and reachable" failed')
+    expect(mail[0]!.body).toContain(`A follow-up is open, due ${daysFrom(yesterday, 3)}.`)
   })
 
   it('a failed item without a note is refused (400 with the field)', async () => {

@@ -82,6 +82,8 @@ describe('pre-shift truck inspection', () => {
 
   it('a critical failure takes the truck out of service: swaps are refused with the reason until a technician returns it', async () => {
     const t = await fittedTruck(siteId)
+    const spanishLead = await user({ siteId, roles: ['safety_lead'] })
+    await useTestDb().update(tables.users).set({ language: 'es' }).where(eq(tables.users.id, spanishLead.id))
     const res = await inspect(operator, t.id, { answers: answers('electric', { service_brake: 'Pedal goes to the floor' }) })
     expect(res.status, JSON.stringify(res.body)).toBe(201)
     expect(res.body.item.criticalFailed).toEqual(['Service brake stops the truck smoothly'])
@@ -92,6 +94,13 @@ describe('pre-shift truck inspection', () => {
     expect(followUp).toMatchObject({ source: 'truck_inspection', closedAt: null })
     const mail = await useTestDb().select().from(tables.mailMessages).where(and(eq(tables.mailMessages.siteId, siteId), eq(tables.mailMessages.kind, 'alert:truck_hold')))
     expect(mail.map(m => m.toAddress)).toContain(safetyEmail)
+    const held = mail.find(m => m.toAddress === safetyEmail)!
+    expect(held.subject).toContain(`Truck ${t.fleetNumber} out of service after its pre-shift check`)
+    expect(held.body).toContain('until a technician or lead returns it (29 CFR 1910.178(q)(7))')
+    const spanishMail = mail.find(m => m.toAddress === spanishLead.email)!
+    expect(spanishMail.subject).toContain(`Montacargas ${t.fleetNumber} fuera de servicio tras su inspección antes del turno`)
+    expect(spanishMail.body).toContain('sigue fuera de servicio hasta que un técnico o un líder lo regrese al servicio')
+    expect(spanishMail.body).not.toContain('stays out of service')
 
     const refused = await swapOnto(t.id)
     expect(refused.status).toBe(409)

@@ -78,8 +78,17 @@ async function openInspectionFollowUp(tx: DbOrTx, actor: Actor, truck: TruckRow,
     const notes = inspection.answers.filter(a => a.result === 'fail').map(a => `- ${a.note}`).join('\n')
     await queueAlert(tx, {
       siteId: truck.siteId, kind: 'alert:truck_hold', audience: 'notice.truck-hold',
-      subject: `Truck ${truck.fleetNumber} out of service after its pre-shift check`,
-      body: `${actor.user.name} failed truck ${truck.fleetNumber} on its pre-shift check on ${date}:\n${inspection.criticalFailed.join('\n')}\n\nNotes:\n${notes}\n\nThe truck stays out of service until a technician or lead returns it (29 CFR 1910.178(q)(7)).\n${appLink(`/trucks/${truck.id}`)}`,
+      subject: t => t('mail.truck_hold_subject', { truck: truck.fleetNumber }),
+      body: t => [
+        t('mail.truck_hold', { who: actor.user.name, truck: truck.fleetNumber, on: date }),
+        ...inspection.criticalFailed,
+        '',
+        t('mail.notes'),
+        notes,
+        '',
+        t('mail.truck_hold_until'),
+        appLink(`/trucks/${truck.id}`),
+      ].join('\n'),
     })
   }
   return followUp!.id

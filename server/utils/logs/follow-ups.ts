@@ -22,10 +22,18 @@ export async function openChecklistFollowUp(tx: DbOrTx, actor: Actor, area: Area
     titleWords: { code: 'checklist', params: { area: area.name, item: item.label, date } },
   }).returning()
   await writeAudit(tx, { actor, siteId: area.siteId, action: 'create', entity: 'follow_up', entityId: followUp!.id, after: followUp })
+  const dueOn = await followUpDueAt(tx, area.siteId, date)
+  // in each recipient's language; the item's name is as the lead wrote it
   await queueAlert(tx, {
     siteId: area.siteId, kind: 'alert:checklist_failed', audience: 'notice.checklist-failed',
-    subject: `${area.name}: "${item.label}" failed`,
-    body: `${actor.user.name} marked "${item.label}" as failed in ${area.name} on ${date}.\nNote: ${entry.note || '—'}\n\nA follow-up is open, due ${await followUpDueAt(tx, area.siteId, date)}.\n${new URL(`/logs?area=${area.id}&date=${date}`, (useRuntimeConfig().public.baseUrl as string) || 'http://localhost:3000').toString()}`,
+    subject: t => t('mail.item_failed_subject', { area: area.name, item: item.label }),
+    body: t => [
+      t('mail.item_failed', { who: actor.user.name, item: item.label, area: area.name, on: date }),
+      t('mail.note', { note: entry.note || '—' }),
+      '',
+      t('mail.follow_up_open', { on: dueOn }),
+      appLink(`/logs?area=${area.id}&date=${date}`),
+    ].join('\n'),
   })
   return followUp!.id
 }
