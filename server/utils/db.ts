@@ -1,6 +1,7 @@
 import postgres from 'postgres'
 import { drizzle, type PostgresJsDatabase } from 'drizzle-orm/postgres-js'
 import * as schema from '../database/schema'
+import { preferPreparedStatements, transactionsOnReservedConnections } from './pg-client'
 
 export { and, or, eq, ne, gt, gte, lt, lte, inArray, isNull, isNotNull, ilike, sql, desc, asc, count } from 'drizzle-orm'
 export const tables = schema
@@ -21,40 +22,11 @@ export function useDb(): Database {
       connect_timeout: 5,
       onnotice: () => {},
     })
+    transactionsOnReservedConnections(client)
     if (process.env.BAYWARD_DB_PREPARE !== 'false') preferPreparedStatements(client)
     instance = { client, db: drizzle(client, { schema, casing: 'snake_case' }) }
   }
   return instance.db
-}
-
-// drizzle sends every statement unnamed, so PostgreSQL parses and plans it again each time; for the
-// LATERAL look-ups of the battery room, planning costs more than running. Statements with parameters are
-// sent as named prepared statements instead, which each connection keeps (postgres.js re-prepares one
-// whose cached plan went stale). Very long texts and huge parameter lists (bulk inserts, CSV imports)
-// stay unnamed so a connection does not keep one statement per row count.
-const PREPARE_MAX_PARAMS = 200
-const PREPARE_MAX_TEXT = 16_000
-type Runner = Pick<postgres.Sql, 'unsafe'> & { begin?: unknown, savepoint?: unknown }
-function preferPreparedStatements(client: Runner) {
-  const unsafe = client.unsafe.bind(client)
-  client.unsafe = ((query: string, params?: unknown[], options?: { prepare?: boolean }) => {
-    const prepare = !!params && params.length > 0 && params.length <= PREPARE_MAX_PARAMS && query.length <= PREPARE_MAX_TEXT
-    return unsafe(query, params as postgres.ParameterOrJSON<never>[], { ...options, prepare: options?.prepare || prepare })
-  }) as typeof client.unsafe
-  // a transaction (and a savepoint inside it) runs on its own handle: the same rule applies there
-  for (const key of ['begin', 'savepoint'] as const) {
-    const open = client[key]
-    if (typeof open !== 'function') continue
-    client[key] = (...args: unknown[]) => {
-      const last = args.length - 1
-      const body = args[last] as (tx: Runner) => unknown
-      args[last] = (tx: Runner) => {
-        preferPreparedStatements(tx)
-        return body(tx)
-      }
-      return (open as (...a: unknown[]) => unknown).apply(client, args)
-    }
-  }
 }
 
 export async function closeDb() {
