@@ -46,11 +46,8 @@ export function useReasonWords() {
     return typeof r.data.code === 'string' ? reasonText({ code: r.data.code, message: r.message, params: r.data.params as ReasonParams | undefined }) : r.message
   }
 
-  /** A failed request in the reader's words when the server sent a code, else (and in English) as errorMessage() says it. */
-  function errorText(error: unknown, fallback: string): string {
-    const r = parseRefusal(error)
-    return r && locale.value !== 'en' && (r.reasons[0]?.code || typeof r.data.code === 'string') ? refusalText(r) : errorMessage(error, fallback)
-  }
+  /** A failed request in the reader's words (errorMessage() renders a coded answer in the reader's language). */
+  const errorText = (error: unknown, fallback: string): string => errorMessage(error, fallback)
 
   return { reasonText, refusalText, codedText, errorText, locale }
 }

@@ -1,8 +1,25 @@
-// The message a route answered with ($fetch error), or a fallback.
-export function errorMessage(error: unknown, fallback = 'Something went wrong. Try again.'): string {
+// A failed request as the reader should see it. With no answer at all: "no connection". With an answer
+// in a language other than English that carries a code: the code's words (useReasonWords). Otherwise the
+// server's words, else `fallback`, else "something went wrong", in the reader's language where the app's
+// words are at hand (outside a component, e.g. in a store, they may not be: then English).
+export function errorMessage(error: unknown, fallback?: string): string {
+  const app = tryUseNuxtApp()
+  const i18n = app?.$i18n
+  const say = (key: string, english: string) => (i18n ? i18n.t(key) : english)
   const e = error as { data?: { message?: string }, statusMessage?: string, message?: string, statusCode?: number }
-  if (e?.statusCode === undefined && e?.message?.includes('fetch')) return 'No connection to Bayward. Check the network and try again.'
-  return e?.data?.message || e?.statusMessage || fallback
+  if (e?.statusCode === undefined && e?.message?.includes('fetch')) return say('app.no_connection', 'No connection to Bayward. Check the network and try again.')
+  if (app && i18n && i18n.locale.value !== 'en') {
+    const r = parseRefusal(error)
+    if (r && (r.reasons[0]?.code || typeof r.data.code === 'string')) {
+      try {
+        return app.runWithContext(() => useReasonWords().refusalText(r))
+      }
+      catch {
+        // the reason words need the app's stores; the server's words below will do
+      }
+    }
+  }
+  return e?.data?.message || e?.statusMessage || fallback || say('app.something_wrong', 'Something went wrong. Try again.')
 }
 
 // Field messages of a 400 answer, keyed by field name (read by the one refusal parser, refusal.ts).

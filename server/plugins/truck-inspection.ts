@@ -11,8 +11,8 @@ export default defineNitroPlugin(() => {
     }
     const at = s?.lastInspectionAt
     return { flags: [at
-      ? { key: 'inspection', label: `Last pre-shift check ${at.toISOString().slice(0, 16).replace('T', ' ')} UTC`, tone: 'neutral' as const }
-      : { key: 'inspection', label: 'No pre-shift check on record', tone: 'caution' as const }] }
+      ? { key: 'inspection_last', label: `Last pre-shift check ${at.toISOString().slice(0, 16).replace('T', ' ')} UTC`, params: { at: at.toISOString() }, tone: 'neutral' as const }
+      : { key: 'inspection_none', label: 'No pre-shift check on record', tone: 'caution' as const }] }
   })
 
   registerHistorySource('truck', async (truckId, limit): Promise<HistoryEntry[]> => {

@@ -4,7 +4,7 @@ import { setup } from '@nuxt/test-utils/e2e'
 import { and, eq } from 'drizzle-orm'
 import { builtServer, signIn, type Client } from '../support/http'
 import { area, battery, closeTestDb, refreshReadModels, site, tables, user, useTestDb } from '../support/db'
-import { fittedTruck, putInTruck, qualify, readyBattery, roomCharger } from '../support/battery-room'
+import { fittedTruck, putInTruck, qualify, readyBattery, roomCharger, tagFor } from '../support/battery-room'
 import { freshCylinder, fuelStation, lpTruck } from '../support/fuel'
 import { answers, classQualification, followUpsOf, inspect, sitePolicy, truckStatusOf } from '../support/inspection'
 import { DEFAULT_INSPECTION_ITEMS } from '../../shared/utils/truck-inspection'
@@ -51,6 +51,9 @@ describe('pre-shift truck inspection', () => {
 
   it('an inspection that passes is stored once, keeps its template version and moves the hour meter', async () => {
     const t = await fittedTruck(siteId, { hourMeter: 1100 })
+    const code = await tagFor('truck', t.id, siteId)
+    // the tag page's flag carries the time for the reader's words (bay.flag.inspection_last / _none)
+    expect((await operator.get(`/api/tags/${code}`)).body.status.flags).toContainEqual(expect.objectContaining({ key: 'inspection_none', tone: 'caution' }))
     const form = await operator.get(`/api/trucks/${t.id}/inspection`)
     expect(form.status).toBe(200)
     expect(form.body.template).toMatchObject({ version: 1 })
@@ -68,6 +71,7 @@ describe('pre-shift truck inspection', () => {
     expect(status).toMatchObject({ hourMeter: 1234, holdReason: null })
     expect(status.lastInspectionAt).not.toBeNull()
     expect(await followUpsOf(first.body.item.id)).toEqual([])
+    expect((await operator.get(`/api/tags/${code}`)).body.status.flags).toContainEqual(expect.objectContaining({ key: 'inspection_last', params: { at: new Date(status.lastInspectionAt!).toISOString() } }))
   })
 
   it('a failed item asks for a note; an unanswered item is named', async () => {

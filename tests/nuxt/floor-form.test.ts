@@ -1,9 +1,11 @@
 import { describe, expect, it } from 'vitest'
 import { chargeEndSchema, swapBodySchema } from '../../shared/utils/battery-room-schemas'
 import { parseRefusal } from '../../app/utils/refusal'
+import { errorMessage } from '../../app/utils/errors'
 import { newIdempotencyKey } from '../../app/utils/idempotency'
 import { useFloorForm } from '../../app/composables/useFloorForm'
 import { useReasonWords } from '../../app/composables/useReasonWords'
+import { useBatteryFlagWords } from '../../app/composables/useBatteryFlagWords'
 import { useSessionStore } from '../../app/stores/session'
 import { overfillReason, prefillFailedReason, tareLossReason } from '../../shared/utils/fuel-reasons'
 
@@ -45,6 +47,29 @@ describe('parseRefusal', () => {
       ])
       await $i18n.setLocale('en')
       expect(reasonText(refusal.reasons[2]!)).toBe('Battery is still on charge; let the charge finish.')
+    }
+    finally {
+      await $i18n.setLocale('en')
+    }
+  })
+
+  it('says a failed request in the reader\'s language: no connection, a coded answer, and the plain fallback', async () => {
+    const { $i18n } = useNuxtApp()
+    const offline = new TypeError('fetch failed')
+    const coded = fetchError(404, { message: 'No such truck.', data: { code: 'no_such_truck' } })
+    const uncoded = fetchError(500, {})
+    try {
+      expect([errorMessage(offline), errorMessage(coded), errorMessage(uncoded)]).toEqual([
+        'No connection to Bayward. Check the network and try again.', 'No such truck.', 'Something went wrong. Try again.',
+      ])
+      await $i18n.setLocale('es')
+      expect([errorMessage(offline), errorMessage(coded), errorMessage(uncoded), errorMessage(uncoded, 'No se pudo cargar.')]).toEqual([
+        'Sin conexión con Bayward. Revise la red e intente de nuevo.', 'No existe ese montacargas.', 'Algo salió mal. Intente de nuevo.', 'No se pudo cargar.',
+      ])
+      // a status flag with a time: the reader's words and the time as the device's clock reads it
+      const flag = useBatteryFlagWords()
+      expect(flag('inspection_last', 'Last pre-shift check 2026-12-03 12:00 UTC', { at: '2026-12-03T12:00:00.000Z' })).toMatch(/^Última inspección antes del turno: .*2026/)
+      expect(flag('a_flag_with_no_words', 'Server words')).toBe('Server words')
     }
     finally {
       await $i18n.setLocale('en')
