@@ -12,7 +12,7 @@ export function errorMessage(error: unknown, fallback?: string): string {
     const r = parseRefusal(error)
     if (r && (r.reasons[0]?.code || typeof r.data.code === 'string')) {
       try {
-        return app.runWithContext(() => useReasonWords().refusalText(r))
+        return app.runWithContext(() => useReasonWords().refusalText(r)) as string
       }
       catch {
         // the reason words need the app's stores; the server's words below will do

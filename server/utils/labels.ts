@@ -57,8 +57,10 @@ function fitText(text: string, font: PDFFont, size: number, width: number): stri
 }
 
 // A sheet of labels: QR symbol (vector modules), the code in large type, the asset kind and its identity.
+// The asset kinds are in the language of the person who printed the sheet (English when they chose none).
 export async function buildLabelPdf(items: LabelItem[], layout: LabelSelection['layout'], paper: LabelSelection['paper'],
-  progress: (done: number) => Promise<void> = async () => {}): Promise<Uint8Array> {
+  progress: (done: number) => Promise<void> = async () => {}, language?: string | null): Promise<Uint8Array> {
+  const t = mailWords(language)
   const doc = await PDFDocument.create()
   doc.registerFontkit(await loadFontkit())
   doc.setTitle('Bayward label sheet')
@@ -87,7 +89,7 @@ export async function buildLabelPdf(items: LabelItem[], layout: LabelSelection['
     const codeSize = Math.min(slot.height * 0.26, textWidth / 4.2)
     const small = Math.max(5.5, codeSize * 0.42)
     page.drawText(fitText(item.code, font, codeSize, textWidth), { x: textX, y: slot.y + slot.height - pad - codeSize, size: codeSize, font })
-    page.drawText(fitText(ASSET_KIND_LABELS[item.kind].toUpperCase(), font, small, textWidth), { x: textX, y: slot.y + slot.height - pad - codeSize - small * 1.5, size: small, font, color: rgb(0.35, 0.2, 0.5) })
+    page.drawText(fitText(t(`asset_kind.${item.kind}`).toUpperCase(), font, small, textWidth), { x: textX, y: slot.y + slot.height - pad - codeSize - small * 1.5, size: small, font, color: rgb(0.35, 0.2, 0.5) })
     page.drawText(fitText(item.identity, font, small, textWidth), { x: textX, y: slot.y + pad + small * 0.3, size: small, font, color: rgb(0.2, 0.2, 0.25) })
     if (i % 10 === 9) await progress(i + 1)
   }
@@ -95,11 +97,11 @@ export async function buildLabelPdf(items: LabelItem[], layout: LabelSelection['
   return doc.save()
 }
 
-export interface LabelSheetInput { items: LabelItem[], layout: LabelSelection['layout'], paper: LabelSelection['paper'] }
+export interface LabelSheetInput { items: LabelItem[], layout: LabelSelection['layout'], paper: LabelSelection['paper'], language?: string | null }
 
 // The label-sheet job: the PDF goes to the storage layer (jobs:<id>) and the tags count as printed.
-export const labelSheetJob = defineJob('labels', async ({ items, layout, paper }: LabelSheetInput, run) => {
-  const pdf = await buildLabelPdf(items, layout, paper, run.progress)
+export const labelSheetJob = defineJob('labels', async ({ items, layout, paper, language }: LabelSheetInput, run) => {
+  const pdf = await buildLabelPdf(items, layout, paper, run.progress, language)
   await saveJobFile(run.jobId, pdf)
   await useDb().update(tables.tags).set({ printedAt: new Date() }).where(inArray(tables.tags.code, items.map(i => i.code)))
   return { labels: items.length, bytes: pdf.byteLength }

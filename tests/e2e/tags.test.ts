@@ -6,6 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { fetch, setup, url } from '@nuxt/test-utils/e2e'
 import jsQR from 'jsqr'
 import { PNG } from 'pngjs'
+import { eq } from 'drizzle-orm'
 import { builtServer, signIn, type Client } from '../support/http'
 import { batteryInput, closeTestDb, site, user, useTestDb, tables } from '../support/db'
 
@@ -19,6 +20,7 @@ function decodePng(bytes: Buffer): string | null {
 
 const BASE = process.env.NUXT_PUBLIC_BASE_URL ?? 'http://localhost:3000'
 let lead: Client
+let leadId: string
 let operator: Client
 let outsider: Client
 let siteId: string
@@ -28,7 +30,9 @@ let batteryId: string
 beforeAll(async () => {
   siteId = (await site()).id
   const otherSite = (await site()).id
-  lead = await signIn(await user({ siteId, roles: ['facilities_lead'] }))
+  const leadUser = await user({ siteId, roles: ['facilities_lead'] })
+  leadId = leadUser.id
+  lead = await signIn(leadUser)
   operator = await signIn(await user({ siteId, roles: ['operator'] }))
   outsider = await signIn(await user({ siteId: otherSite, roles: ['facilities_lead'] }))
   const created = await lead.post('/api/batteries', { ...batteryInput(), siteId })
@@ -78,7 +82,7 @@ describe('QR symbols decode to exactly the tag URL', () => {
     expect(decodePng(png.body)).toBe(`${BASE}/t/${code}`)
   })
 
-  it('a page of the label-sheet PDF, rendered to an image by poppler\'s pdftoppm', async () => {
+  const labelSheet = async () => {
     const start = await lead.post('/api/labels', { siteId, kind: 'battery', layout: 'large', paper: 'letter' })
     expect(start.status).toBe(202)
     let job = start.body
@@ -91,6 +95,16 @@ describe('QR symbols decode to exactly the tag URL', () => {
     expect(pdf.type).toBe('application/pdf')
     const dir = mkdtempSync(join(tmpdir(), 'bayward-labels-'))
     writeFileSync(join(dir, 'sheet.pdf'), pdf.body)
+    return { dir, text: execFileSync('pdftotext', [join(dir, 'sheet.pdf'), '-'], { encoding: 'utf8' }) }
+  }
+
+  it('a page of the label-sheet PDF, rendered to an image by poppler\'s pdftoppm', async () => {
+    const { dir, text } = await labelSheet()
+    // the asset kind in the printing person's language: English here, Spanish for a reader of Spanish
+    expect(text).toContain('BATTERY')
+    await useTestDb().update(tables.users).set({ language: 'es' }).where(eq(tables.users.id, leadId))
+    expect((await labelSheet()).text).toContain('BATERÍA')
+    await useTestDb().update(tables.users).set({ language: null }).where(eq(tables.users.id, leadId))
     execFileSync('pdftoppm', ['-png', '-r', '150', '-f', '1', '-l', '1', join(dir, 'sheet.pdf'), join(dir, 'page')])
     const rendered = PNG.sync.read(readFileSync(join(dir, 'page-1.png')))
     // crop the first label (large layout: 4 × 3 in at the top left of the centred grid) and decode it

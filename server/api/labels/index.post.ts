@@ -5,8 +5,10 @@ export default defineAbilityHandler('label.print', async (event) => {
   const body = await validateBody(event, labelSelectionSchema)
   const actor = await requireAbility(event, 'label.print', body.siteId)
   const items = await selectLabelItems(body)
-  if (items.length === 0) throw createError({ statusCode: 400, message: 'No assets match; nothing to print.' })
-  const job = await labelSheetJob.start({ siteId: body.siteId, userId: actor.user.id }, items.length, { items, layout: body.layout, paper: body.paper })
+  if (items.length === 0) throw codedError(400, 'nothing_to_print', 'No assets match; nothing to print.')
+  // the asset kinds on the sheet are written in the printing person's language
+  const language = await readerLanguage(event, actor.user.id)
+  const job = await labelSheetJob.start({ siteId: body.siteId, userId: actor.user.id }, items.length, { items, layout: body.layout, paper: body.paper, language })
   setResponseStatus(event, 202)
   return { id: job.id, total: job.total }
 })
