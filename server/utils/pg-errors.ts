@@ -34,5 +34,5 @@ export function unstorableValueError(error: unknown, values: Record<string, unkn
   for (const [key, value] of Object.entries(values)) {
     if (typeof value === 'string' && /^\d{4}-\d{2}-\d{2}$/.test(value) && !realCalendarDate(value)) fields[key] = 'Not a real date.'
   }
-  return createError({ statusCode: 400, message: 'Check the highlighted fields.', data: { code: 'check_fields', fields: Object.keys(fields).length ? fields : { _: 'A value cannot be stored.' } } })
+  return checkFieldsError(Object.keys(fields).length ? fields : { _: 'A value cannot be stored.' })
 }

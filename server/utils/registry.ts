@@ -204,10 +204,7 @@ export async function createAsset(event: H3Event, kind: AssetKind) {
   const { siteId, ...rest } = await validateBody(event, createBody)
   const actor = await requireAbility(event, 'asset.edit', siteId)
   const parsed = assetCreateSchemas[kind].safeParse(rest)
-  if (!parsed.success) {
-    const fields = fieldMessages(parsed.error)
-    throw createError({ statusCode: 400, message: 'Check the highlighted fields.', data: { code: 'check_fields', fields } })
-  }
+  if (!parsed.success) throw checkFieldsError(fieldMessages(parsed.error))
   const values = parsed.data as Record<string, unknown>
   refuseRuleProblems(assetRuleProblems(kind, values, await siteAreaKinds(siteId)))
   try {
@@ -237,7 +234,7 @@ export async function updateAsset(event: H3Event, kind: AssetKind) {
   requireActorCan(actor, 'asset.edit', row.siteId)
   const current = Object.fromEntries(fieldKeys.map(k => [k, row[k]]))
   const merged = assetCreateSchemas[kind].safeParse({ ...current, ...patch })
-  if (!merged.success) throw createError({ statusCode: 400, message: 'Check the highlighted fields.', data: { code: 'check_fields', fields: fieldMessages(merged.error) } })
+  if (!merged.success) throw checkFieldsError(fieldMessages(merged.error))
   const values = merged.data as Record<string, unknown>
   refuseRuleProblems(assetRuleProblems(kind, { ...values, status: patch.status }, await siteAreaKinds(row.siteId), row))
   const revived = reviveCondemned(actor, kind, row, patch.status, statusReason)

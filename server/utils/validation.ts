@@ -4,14 +4,14 @@ import type { ReasonParams } from '#shared/utils/battery-fit'
 
 // Every 400 answer carries its field messages in `data.fields` (fieldMessages, shared/utils/field-messages.ts)
 // and the code `check_fields`, which a screen says in the reader's words (refusal.check_fields).
+export function checkFieldsError(fields: Record<string, string>, message = 'Check the highlighted fields.') {
+  return createError({ statusCode: 400, message, data: { code: 'check_fields', fields } })
+}
+
 function invalid(error: z.ZodError, what: string) {
   const fields = fieldMessages(error)
   const first = Object.entries(fields)[0]
-  return createError({
-    statusCode: 400,
-    message: first ? `Check ${what}: ${first[0] === '_' ? '' : `${first[0]} — `}${first[1]}` : `Check ${what}.`,
-    data: { code: 'check_fields', fields },
-  })
+  return checkFieldsError(fields, first ? `Check ${what}: ${first[0] === '_' ? '' : `${first[0]} — `}${first[1]}` : `Check ${what}.`)
 }
 
 // PostgreSQL text cannot hold U+0000, so input carrying one is refused here rather than failing in a query.

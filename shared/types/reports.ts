@@ -13,6 +13,8 @@ export interface ReportColumn {
   unit?: string
   /** numbers are right-aligned and rounded to this many decimals */
   decimals?: number
+  /** the cells are months ('2026-03', as the CSV keeps them), shown as the reader's language names them ("Mar 2026") */
+  month?: boolean
 }
 
 export interface ReportSection {

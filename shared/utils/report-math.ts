@@ -115,3 +115,9 @@ export function sameDaysLastMonth(today: string): { from: string, to: string } {
   const month = `${ly}-${String(lm).padStart(2, '0')}`
   return { from: `${month}-01`, to: `${month}-${String(Math.min(Number(today.slice(8, 10)), lastDay)).padStart(2, '0')}` }
 }
+
+/** A month ('2026-03') as a language names it, short ("Mar 2026", "mar 2026"), for a table or a chart's axis. */
+export function monthText(month: string, languageTag: string): string {
+  if (!/^\d{4}-\d{2}$/.test(month)) return month
+  return new Intl.DateTimeFormat(languageTag, { month: 'short', year: 'numeric', timeZone: 'UTC' }).format(new Date(`${month}-01T00:00:00Z`))
+}

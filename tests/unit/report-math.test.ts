@@ -4,8 +4,9 @@ import utc from 'dayjs/plugin/utc'
 import quarterOfYear from 'dayjs/plugin/quarterOfYear'
 import {
   batteryRisk, changeWords, cyclesPerDay, hoursOnChargePerDay, monthsBetween, nextQuarters, percentChange, quarterOf,
-  ratedCyclesReachedOn, sameDaysLastMonth,
+  monthText, ratedCyclesReachedOn, sameDaysLastMonth,
 } from '../../shared/utils/report-math'
+import 'dayjs/locale/es'
 import { defaultReportRange, reportQuerySchema } from '../../shared/utils/report-schemas'
 import { daysInRange } from '../../shared/utils/area-checklists'
 
@@ -44,6 +45,18 @@ describe('report arithmetic', () => {
       expect(quarterOf(d)).toBe(`${q.year()} Q${q.quarter()}`)
     }
     expect(nextQuarters('2026-11-15', 4)).toEqual(['2026 Q4', '2027 Q1', '2027 Q2', '2027 Q3'])
+  })
+
+  it('a month as each language names it, checked against dayjs\'s English and Spanish month names', () => {
+    for (let i = 1; i <= 12; i++) {
+      const m = `2026-${String(i).padStart(2, '0')}`
+      expect(monthText(m, 'en-US')).toBe(dayjs.utc(`${m}-01`).format('MMM YYYY'))
+      // dayjs writes Spanish short months with a dot ("sep."), Intl without ("sept"): the same word's start
+      const es = monthText(m, 'es-US')
+      expect(es.endsWith(' 2026')).toBe(true)
+      expect(es.startsWith(dayjs.utc(`${m}-01`).locale('es').format('MMM').replace('.', ''))).toBe(true)
+    }
+    expect(monthText('not a month', 'en-US')).toBe('not a month')
   })
 
   it('months of a range, and the same days of last month', () => {

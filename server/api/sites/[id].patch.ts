@@ -10,7 +10,7 @@ export default defineAbilityHandler('site.edit', async (event) => {
     if (!before) throw createError({ statusCode: 404, message: 'No such site.' })
     const settings = siteSettingsSchema.safeParse({ ...before.settings, ...settingsPatch })
     if (!settings.success) {
-      throw createError({ statusCode: 400, message: 'Check the site settings.', data: { code: 'check_fields', fields: Object.fromEntries(Object.entries(fieldMessages(settings.error)).map(([k, v]) => [`settings.${k}`, v])) } })
+      throw checkFieldsError(Object.fromEntries(Object.entries(fieldMessages(settings.error)).map(([k, v]) => [`settings.${k}`, v])), 'Check the site settings.')
     }
     const [site] = await tx.update(tables.sites).set({ ...fields, settings: settings.data }).where(eq(tables.sites.id, id)).returning()
     await writeAudit(tx, { actor, siteId: id, action: 'update', entity: 'site', entityId: id, before, after: site })

@@ -1,4 +1,5 @@
-import { monthsBetween, batteryRisk, SG_SPREAD_ACT, SG_SPREAD_WARN } from '#shared/utils/report-math'
+import { monthsBetween, batteryRisk, SG_SPREAD_ACT, SG_SPREAD_WARN, monthText } from '#shared/utils/report-math'
+import { LANGUAGE_TAGS } from '#shared/utils/languages'
 import type { ReportResponse } from '#shared/types/reports'
 import { isEffectiveRecord, rowsOf, uuidArray } from '../due/effective'
 import { batteryFacts, RECENT_DAYS, yearsBetween } from './battery-facts'
@@ -90,10 +91,10 @@ export async function batteryHealthReport(scope: ReportScope): Promise<ReportRes
         title: t('report.health.capacity_title'),
         note: t('report.health.capacity_note'),
         chartSvg: chartOf(scope, {
-          kind: 'line', categories: months, unit: 'Ah',
+          kind: 'line', categories: months.map(m => monthText(m, LANGUAGE_TAGS[scope.language])), unit: 'Ah',
           series: [{ name: t('report.health.fleet'), data: monthRows.map(r => r.ahPerCharge) }, ...watched.map(b => ({ name: b.serial, data: months.map(m => ahAt(m, b.id)) }))],
         }),
-        columns: [{ key: 'month', label: t('report.col.month') }, { key: 'ahPerCharge', label: t('report.col.fleet_ah'), decimals: 0 }, ...watched.map(b => ({ key: `b${b.id}`, label: b.serial, decimals: 0 }))],
+        columns: [{ key: 'month', label: t('report.col.month'), month: true }, { key: 'ahPerCharge', label: t('report.col.fleet_ah'), decimals: 0 }, ...watched.map(b => ({ key: `b${b.id}`, label: b.serial, decimals: 0 }))],
         rows: monthRows.map(r => ({ month: r.month, ahPerCharge: r.ahPerCharge, ...Object.fromEntries(watched.map(b => [`b${b.id}`, ahAt(r.month, b.id)])) })),
       },
       {
@@ -101,10 +102,10 @@ export async function batteryHealthReport(scope: ReportScope): Promise<ReportRes
         title: t('report.health.cells_title'),
         note: t('report.health.cells_note', { warn: SG_SPREAD_WARN.toFixed(3), act: SG_SPREAD_ACT.toFixed(3) }),
         chartSvg: chartOf(scope, {
-          kind: 'bar', categories: months, unit: t('report.unit.checks'), secondUnit: 'SG',
+          kind: 'bar', categories: months.map(m => monthText(m, LANGUAGE_TAGS[scope.language])), unit: t('report.unit.checks'), secondUnit: 'SG',
           series: [{ name: t('report.health.low_findings'), data: monthRows.map(r => r.lowFindings) }, { name: t('report.col.mean_spread'), type: 'line', data: monthRows.map(r => (r.spread === null ? null : Math.round(r.spread * 1000) / 1000)) }],
         }),
-        columns: [{ key: 'month', label: t('report.col.month') }, { key: 'checks', label: t('report.col.checks'), decimals: 0 }, { key: 'spread', label: t('report.col.mean_spread'), unit: 'SG', decimals: 3 }, { key: 'lowFindings', label: t('report.col.finding_low'), decimals: 0 }],
+        columns: [{ key: 'month', label: t('report.col.month'), month: true }, { key: 'checks', label: t('report.col.checks'), decimals: 0 }, { key: 'spread', label: t('report.col.mean_spread'), unit: 'SG', decimals: 3 }, { key: 'lowFindings', label: t('report.col.finding_low'), decimals: 0 }],
         rows: monthRows.map(r => ({ month: r.month, checks: r.checks, spread: r.spread, lowFindings: r.lowFindings })),
       },
     ],

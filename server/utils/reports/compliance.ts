@@ -1,4 +1,5 @@
-import { monthsBetween } from '#shared/utils/report-math'
+import { monthsBetween, monthText } from '#shared/utils/report-math'
+import { LANGUAGE_TAGS } from '#shared/utils/languages'
 import type { ReportResponse } from '#shared/types/reports'
 import { CO_LIMITS } from '#shared/utils/co-exposure'
 import { daysInRange } from '#shared/utils/area-checklists'
@@ -94,10 +95,10 @@ export async function complianceReport(scope: ReportScope): Promise<ReportRespon
         title: t('report.compliance.emissions_title'),
         note: t('report.compliance.emissions_note'),
         chartSvg: chartOf(scope, {
-          kind: 'bar', categories: months, unit: t('report.unit.tests'), secondUnit: '%',
+          kind: 'bar', categories: months.map(m => monthText(m, LANGUAGE_TAGS[scope.language])), unit: t('report.unit.tests'), secondUnit: '%',
           series: [{ name: t('report.col.tests'), data: monthRows.map(r => r.tests) }, { name: t('report.compliance.pass_rate_pct'), type: 'line', data: monthRows.map(r => (r.passRate === null ? null : Math.round(r.passRate))) }],
         }),
-        columns: [{ key: 'month', label: t('report.col.month') }, { key: 'tests', label: t('report.col.tests'), decimals: 0 }, { key: 'passed', label: t('report.col.passed'), decimals: 0 }, { key: 'passRate', label: t('report.col.pass_rate'), unit: '%', decimals: 0 }, { key: 'retests', label: t('report.col.retests'), decimals: 0 }],
+        columns: [{ key: 'month', label: t('report.col.month'), month: true }, { key: 'tests', label: t('report.col.tests'), decimals: 0 }, { key: 'passed', label: t('report.col.passed'), decimals: 0 }, { key: 'passRate', label: t('report.col.pass_rate'), unit: '%', decimals: 0 }, { key: 'retests', label: t('report.col.retests'), decimals: 0 }],
         rows: monthRows,
       },
       {

@@ -1,6 +1,7 @@
 import type { ReportResponse } from '#shared/types/reports'
 import { daysInRange } from '#shared/utils/area-checklists'
-import { hoursOnChargePerDay, monthsBetween } from '#shared/utils/report-math'
+import { hoursOnChargePerDay, monthsBetween, monthText } from '#shared/utils/report-math'
+import { LANGUAGE_TAGS } from '#shared/utils/languages'
 import { isEffectiveRecord, rowsOf } from '../due/effective'
 import { offPeakSaving } from '#shared/utils/tariff'
 import { chartOf, chartTop, money, num, numberText, scopeCte, totalsOf, type ReportScope } from './scope'
@@ -81,11 +82,11 @@ export async function energyReport(scope: ReportScope, withPeak = true): Promise
         title: t('report.energy.by_month'),
         note: t('report.energy.convention'),
         chartSvg: chartOf(scope, {
-          kind: 'bar', categories: monthList, unit: 'kWh', secondUnit: cur || t('report.unit.cost'),
+          kind: 'bar', categories: monthList.map(m => monthText(m, LANGUAGE_TAGS[scope.language])), unit: 'kWh', secondUnit: cur || t('report.unit.cost'),
           series: [{ name: 'kWh', data: monthRows.map(r => Math.round(r.kwh)) }, { name: `${t('report.col.cost')}${cur ? ` (${cur})` : ''}`, type: 'line', data: monthRows.map(r => Math.round(r.cost * 100) / 100) }],
         }),
         columns: [
-          { key: 'month', label: t('report.col.month') }, { key: 'charges', label: t('report.col.charges'), decimals: 0 }, { key: 'kwh', label: t('report.col.energy'), unit: 'kWh', decimals: 0 },
+          { key: 'month', label: t('report.col.month'), month: true }, { key: 'charges', label: t('report.col.charges'), decimals: 0 }, { key: 'kwh', label: t('report.col.energy'), unit: 'kWh', decimals: 0 },
           { key: 'cost', label: t('report.col.cost'), unit: cur, decimals: 2 }, { key: 'kwhPerCharge', label: t('report.col.per_charge'), unit: 'kWh', decimals: 1 },
         ],
         rows: monthRows,

@@ -1,4 +1,5 @@
-import { monthsBetween } from '#shared/utils/report-math'
+import { monthsBetween, monthText } from '#shared/utils/report-math'
+import { LANGUAGE_TAGS } from '#shared/utils/languages'
 import type { ReportResponse } from '#shared/types/reports'
 import { PROPANE_LB_PER_GAL_60F } from '#shared/utils/lp-gas'
 import { KG_PER_LB, LITRES_PER_US_GAL } from '#shared/utils/units'
@@ -86,9 +87,9 @@ export async function propaneReport(scope: ReportScope): Promise<ReportResponse>
         key: 'month',
         title: t('report.propane.by_month'),
         note: t('report.propane.month_note', { lb_per_gal: PROPANE_LB_PER_GAL_60F }),
-        chartSvg: chartOf(scope, { kind: 'bar', categories: monthList, unit: v, series: [{ name: t('report.propane.series', { unit: v }), data: monthRows.map(r => Math.round(r.volume)) }] }),
+        chartSvg: chartOf(scope, { kind: 'bar', categories: monthList.map(m => monthText(m, LANGUAGE_TAGS[scope.language])), unit: v, series: [{ name: t('report.propane.series', { unit: v }), data: monthRows.map(r => Math.round(r.volume)) }] }),
         columns: [
-          { key: 'month', label: t('report.col.month') }, { key: 'refills', label: t('report.col.refills'), decimals: 0 }, { key: 'mass', label: t('report.col.net'), unit: m, decimals: 0 },
+          { key: 'month', label: t('report.col.month'), month: true }, { key: 'refills', label: t('report.col.refills'), decimals: 0 }, { key: 'mass', label: t('report.col.net'), unit: m, decimals: 0 },
           { key: 'volume', label: t('report.col.volume'), unit: v, decimals: 1 }, { key: 'cost', label: t('report.col.cost'), unit: cur, decimals: 2 }, { key: 'refused', label: t('report.col.refused'), decimals: 0 },
         ],
         rows: monthRows,
