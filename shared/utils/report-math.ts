@@ -121,3 +121,17 @@ export function monthText(month: string, languageTag: string): string {
   if (!/^\d{4}-\d{2}$/.test(month)) return month
   return new Intl.DateTimeFormat(languageTag, { month: 'short', year: 'numeric', timeZone: 'UTC' }).format(new Date(`${month}-01T00:00:00Z`))
 }
+
+/** The months wholly inside from … to that ended before yesterday ('YYYY-MM', in order). */
+export function closedMonthsInside(from: string, to: string, today: string): string[] {
+  const yesterday = new Date(`${today}T00:00:00Z`)
+  yesterday.setUTCDate(yesterday.getUTCDate() - 1)
+  const lastDay = (m: string) => {
+    const d = new Date(`${m}-01T00:00:00Z`)
+    d.setUTCMonth(d.getUTCMonth() + 1)
+    d.setUTCDate(0)
+    return d.toISOString().slice(0, 10)
+  }
+  const limit = yesterday.toISOString().slice(0, 10)
+  return monthsBetween(from, to).filter(m => `${m}-01` >= from && lastDay(m) <= to && lastDay(m) < limit)
+}

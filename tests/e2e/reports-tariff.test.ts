@@ -1,4 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { eq } from 'drizzle-orm'
 import { setup } from '@nuxt/test-utils/e2e'
 import { builtServer, signIn, type Client } from '../support/http'
 import { area, battery, closeTestDb, rebuildSite, site, tables, user, useTestDb } from '../support/db'
@@ -70,5 +71,62 @@ describe('energy report with peak hours', () => {
     expect(row.peakKwh).toBeCloseTo(fromRule, 9)
     expect(body.figures.find(f => f.label === 'Drawn in peak hours')).toMatchObject({ value: '19 %' })
     expect(body.caveats).toEqual([])
+  })
+})
+
+// The energy report reads whole closed months from kept rows (charge_month_rollups). A Chicago site with
+// charges in January and February 2026 and one put on at 23:00 on 31 March still on its charger; then,
+// written straight to the table as any writer might, a late February record, a correction of a January
+// charge and the end of the March one. Each changes its month as the records do, and emptying the kept rows
+// changes nothing.
+describe('energy report over whole closed months', () => {
+  afterAll(closeTestDb)
+
+  it('follows a late record, a correction and a charge ended later; kept rows and records agree', async () => {
+    const siteId = (await site()).id
+    const areaId = (await area({ siteId, name: 'West room' })).id
+    const ch = await roomCharger(siteId, areaId, { name: 'West 36 V' })
+    const b = await battery({ siteId, homeAreaId: areaId })
+    const techRow = await user({ siteId, roles: ['technician'] })
+    const reader = await signIn(await user({ siteId, roles: ['facilities_lead'] }))
+    const db = useTestDb()
+    const charge = (at: string, hours: number | null, kwh: number | null) => ({
+      siteId, userId: techRow.id, batteryId: b.id, chargerId: ch.id, at: new Date(at),
+      endedAt: hours === null ? null : new Date(Date.parse(at) + hours * 3_600_000), ampHoursReturned: kwh === null ? null : 100,
+      gridKwh: kwh, energyCost: kwh === null ? null : kwh * 0.12, outcome: kwh === null ? null : 'complete' as const, countedCycle: kwh !== null,
+    })
+    const [january] = await db.insert(tables.chargeSessions).values([
+      charge('2026-01-10T15:00:00Z', 2, 10), charge('2026-01-20T15:00:00Z', 3, 20), charge('2026-02-10T15:00:00Z', 4, 30),
+    ]).returning()
+    // 23:00 CDT on 31 March is 04:00Z on 1 April: a March charge
+    const [open] = await db.insert(tables.chargeSessions).values(charge('2026-04-01T04:00:00Z', null, null)).returning()
+    const range = `siteId=${siteId}&from=2026-01-01&to=2026-04-30`
+    const energy = async () => (await reader.get<ReportResponse>(`/api/reports/energy?${range}`)).body
+    const months = (r: ReportResponse) => Object.fromEntries(r.sections.find(s => s.key === 'month')!.rows.map(m => [m.month, [m.charges, Math.round(Number(m.kwh) * 1000) / 1000]]))
+    const kept = async () => (await db.select({ month: tables.chargeMonthRollups.month }).from(tables.chargeMonthRollups).where(eq(tables.chargeMonthRollups.siteId, siteId))).map(r => r.month).sort()
+
+    expect(months(await energy())).toEqual({ '2026-01': [2, 30], '2026-02': [1, 30], '2026-03': [0, 0], '2026-04': [0, 0] })
+    expect(await kept()).toEqual(['2026-01', '2026-02', '2026-03', '2026-04'])
+
+    // 10 kWh corrected to 12; a February charge recorded late; the March charge taken off with 25 kWh
+    await db.insert(tables.chargeSessions).values({ ...charge('2026-01-10T15:00:00Z', 2, 12), correctsId: january!.id, correctionReason: 'Ah misread' })
+    await db.insert(tables.chargeSessions).values(charge('2026-02-20T15:00:00Z', 1, 15))
+    await db.update(tables.chargeSessions).set({ endedAt: new Date('2026-04-01T10:00:00Z'), ampHoursReturned: 100, gridKwh: 25, energyCost: 3, outcome: 'complete', countedCycle: true })
+      .where(eq(tables.chargeSessions.id, open!.id))
+    expect(await kept()).toEqual(['2026-04'])
+
+    const after = await energy()
+    expect(months(after)).toEqual({ '2026-01': [2, 32], '2026-02': [2, 45], '2026-03': [1, 25], '2026-04': [0, 0] })
+    // 2 + 3 + 4 + 1 + 6 hours on the charger
+    const charger = after.sections.find(s => s.key === 'charger')!.rows[0]!
+    expect(charger).toMatchObject({ charger: 'West 36 V', charges: 5 })
+    expect(Number(charger.hoursPerDay) * 120).toBeCloseTo(16, 9)
+
+    await db.delete(tables.chargeMonthRollups).where(eq(tables.chargeMonthRollups.siteId, siteId))
+    const fresh = await energy()
+    // (each chart drawn carries its own element ids)
+    const tables_ = (r: ReportResponse) => r.sections.map(({ chartSvg, ...rest }) => ({ ...rest, chart: chartSvg !== null }))
+    expect(tables_(fresh)).toEqual(tables_(after))
+    expect(fresh.figures).toEqual(after.figures)
   })
 })

@@ -4,7 +4,7 @@ import utc from 'dayjs/plugin/utc'
 import quarterOfYear from 'dayjs/plugin/quarterOfYear'
 import {
   batteryRisk, changeWords, cyclesPerDay, hoursOnChargePerDay, monthsBetween, nextQuarters, percentChange, quarterOf,
-  monthText, ratedCyclesReachedOn, sameDaysLastMonth,
+  closedMonthsInside, monthText, ratedCyclesReachedOn, sameDaysLastMonth,
 } from '../../shared/utils/report-math'
 import 'dayjs/locale/es'
 import { defaultReportRange, reportQuerySchema } from '../../shared/utils/report-schemas'
@@ -57,6 +57,17 @@ describe('report arithmetic', () => {
       expect(es.startsWith(dayjs.utc(`${m}-01`).locale('es').format('MMM').replace('.', ''))).toBe(true)
     }
     expect(monthText('not a month', 'en-US')).toBe('not a month')
+  })
+
+  it('the whole months of a range that ended before yesterday (kept for the energy report)', () => {
+    // a year to 3 Dec 2026: December 2025 starts on the 4th and December 2026 is not over
+    expect(closedMonthsInside('2025-12-04', '2026-12-03', '2026-12-03')).toEqual(monthsBetween('2026-01-01', '2026-11-30'))
+    // November ended yesterday: not yet (a site west of UTC may still be in it)
+    expect(closedMonthsInside('2026-10-01', '2026-11-30', '2026-12-01')).toEqual(['2026-10'])
+    expect(closedMonthsInside('2026-10-01', '2026-11-30', '2026-12-02')).toEqual(['2026-10', '2026-11'])
+    // a range ending on 28 February of a leap year and not
+    expect(closedMonthsInside('2028-02-01', '2028-02-28', '2028-06-01')).toEqual([])
+    expect(closedMonthsInside('2027-02-01', '2027-02-28', '2027-06-01')).toEqual(['2027-02'])
   })
 
   it('months of a range, and the same days of last month', () => {

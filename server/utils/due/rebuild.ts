@@ -27,6 +27,8 @@ export async function rebuildReadModels(db: Database, opts: { siteIds?: string[]
       // two rebuilds of one site (two servers starting at once) take turns
       await tx.execute(sql`SELECT pg_advisory_xact_lock(hashtext(${`read-models:${siteId}`}))`)
       const result = await rebuildSiteReadModels(tx, siteId)
+      // the energy report's kept months are made again from the records when next read
+      await tx.execute(sql`DELETE FROM charge_month_rollups WHERE site_id = ${siteId}`)
       // cached read models of the site are stale now
       await tx.execute(sql`SELECT site_revisions_touch(ARRAY[${siteId}]::uuid[])`)
       return result

@@ -6,6 +6,7 @@ import { isEffectiveRecord, rowsOf } from '../due/effective'
 import { offPeakSaving } from '#shared/utils/tariff'
 import { chartOf, chartTop, money, num, numberText, scopeCte, totalsOf, type ReportScope } from './scope'
 import { peakSplit } from './tariff-split'
+import { keptChargeMonths, keptChargeRows, outsideKept } from './charge-months'
 
 // report.energy.convention: kWh drawn from the grid = Ah returned × the battery's nominal volts ÷ 1,000 ÷ the
 // charger's efficiency, worked out when the charge ended (shared/utils/charging.ts); cost = that kWh × the site's
@@ -14,22 +15,24 @@ import { peakSplit } from './tariff-split'
 interface ChargeGroup { key: string, label: string, area: string | null, charges: number, kwh: number, cost: number, hours: number }
 
 // Closed, standing charge sessions in the range, grouped by month, by charging area and by charger: one
-// statement over charge_sessions' (site_id, at) index; the month is the site's own.
-async function chargeGroups(scope: ReportScope) {
+// statement over charge_sessions' (site_id, at) index; the month is the site's own. The whole months in
+// `kept` come from their kept rows (charge-months.ts), the rest of the range from the records.
+async function chargeGroups(scope: ReportScope, kept: string[]) {
   const rows = await rowsOf<{ grouping: string, key: string, label: string, area: string | null, charges: number, kwh: number, cost: number, hours: number }>(useDb(), sql`
     WITH ${scopeCte(scope)},
     charges AS (
-      SELECT c.charger_id, to_char(c.at AT TIME ZONE scope.tz, 'YYYY-MM') AS month, c.grid_kwh, c.energy_cost,
+      SELECT c.charger_id, to_char(c.at AT TIME ZONE scope.tz, 'YYYY-MM') AS month, 1 AS n, c.grid_kwh, c.energy_cost,
              EXTRACT(EPOCH FROM (LEAST(c.ended_at, scope.t1) - c.at)) / 3600 AS hours
       FROM scope JOIN charge_sessions c ON c.site_id = scope.site_id AND c.at >= scope.t0 AND c.at < scope.t1
-      WHERE c.ended_at IS NOT NULL AND ${isEffectiveRecord('charge_sessions', 'c')}
+      WHERE c.ended_at IS NOT NULL AND ${isEffectiveRecord('charge_sessions', 'c')} ${outsideKept(kept, 'c')}
+      ${kept.length ? sql`UNION ALL ${keptChargeRows(scope, kept)}` : sql``}
     ),
     by_charger AS (
-      SELECT charger_id, count(*)::int AS charges, coalesce(sum(grid_kwh), 0)::float8 AS kwh,
+      SELECT charger_id, sum(n)::int AS charges, coalesce(sum(grid_kwh), 0)::float8 AS kwh,
              coalesce(sum(energy_cost), 0)::float8 AS cost, coalesce(sum(hours), 0)::float8 AS hours
       FROM charges GROUP BY charger_id
     )
-    SELECT 'month' AS grouping, month AS key, month AS label, NULL AS area, count(*)::int AS charges,
+    SELECT 'month' AS grouping, month AS key, month AS label, NULL AS area, sum(n)::int AS charges,
            coalesce(sum(grid_kwh), 0)::float8 AS kwh, coalesce(sum(energy_cost), 0)::float8 AS cost, coalesce(sum(hours), 0)::float8 AS hours
     FROM charges GROUP BY month
     UNION ALL
@@ -53,7 +56,8 @@ async function chargeGroups(scope: ReportScope) {
 
 // `withPeak: false` leaves out the time-of-use split (the facilities home's figures do not show it).
 export async function energyReport(scope: ReportScope, withPeak = true): Promise<ReportResponse> {
-  const [{ months, chargers, areas }, peak] = await Promise.all([chargeGroups(scope), withPeak ? peakSplit(scope) : []])
+  const kept = await keptChargeMonths(scope)
+  const [{ months, chargers, areas }, peak] = await Promise.all([chargeGroups(scope, kept), withPeak ? peakSplit(scope, kept) : []])
   const byMonth = new Map(months.map(m => [m.key, m]))
   const monthList = monthsBetween(scope.from, scope.to)
   const monthRows = monthList.map((m) => {
