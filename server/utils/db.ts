@@ -21,6 +21,9 @@ export function useDb(): Database {
       idle_timeout: 30,
       connect_timeout: 5,
       onnotice: () => {},
+      // no JIT compiling: the planner's cost guesses for the reports' month and peak-window statements pass
+      // its threshold, and compiling then took 0.7 s of a 0.1 s statement; nothing here runs long enough to gain
+      connection: { jit: 'off' },
     })
     transactionsOnReservedConnections(client)
     if (process.env.BAYWARD_DB_PREPARE !== 'false') preferPreparedStatements(client)

@@ -61,6 +61,9 @@ async function makeChargeMonths(missing: { siteId: string, month: string }[]) {
                to_date(p.month, 'YYYY-MM')::timestamp AT TIME ZONE s.time_zone AS t0,
                (to_date(p.month, 'YYYY-MM') + interval '1 month')::timestamp AT TIME ZONE s.time_zone AS t1
         FROM ${pairs} JOIN sites s ON s.id = p.site_id
+        -- (a report that asked at the same moment may have made it while this one waited for the lock)
+        WHERE NOT EXISTS (SELECT 1 FROM charge_month_rollups r WHERE r.site_id = p.site_id AND r.month = p.month
+          AND r.time_zone = s.time_zone AND r.peak_periods = coalesce(s.settings->'peakPeriods', '[]'::jsonb))
       ),
       charges AS (
         SELECT m.site_id, m.month, c.charger_id, c.grid_kwh, c.energy_cost, c.ended_at,
