@@ -122,6 +122,10 @@ describe('energy report over whole closed months', () => {
     expect(charger).toMatchObject({ charger: 'West 36 V', charges: 5 })
     expect(Number(charger.hoursPerDay) * 120).toBeCloseTo(16, 9)
 
+    // from 15 January: January's part from the records (the 20 January charge), the rest from the kept months
+    const fromMid = (await reader.get<ReportResponse>(`/api/reports/energy?siteId=${siteId}&from=2026-01-15&to=2026-04-30`)).body
+    expect(months(fromMid)).toEqual({ '2026-01': [1, 20], '2026-02': [2, 45], '2026-03': [1, 25], '2026-04': [0, 0] })
+
     await db.delete(tables.chargeMonthRollups).where(eq(tables.chargeMonthRollups.siteId, siteId))
     const fresh = await energy()
     // (each chart drawn carries its own element ids)

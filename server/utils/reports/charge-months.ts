@@ -105,10 +105,14 @@ export async function keptChargeMonths(scope: ReportScope, today = new Date().to
   return months.length > 0 && await ensureChargeMonths(scope, months) ? months : []
 }
 
-/** `AND` a record of `alias` starts outside the kept months (in its site's time zone, `scope.tz`); nothing when none are kept. */
-export function outsideKept(kept: string[], alias: string) {
-  if (kept.length === 0) return sql``
-  const first = `${kept[0]}-01`
-  const last = `${kept[kept.length - 1]}-01`
-  return sql`AND NOT (${sql.raw(alias)}.at >= ${first}::timestamp AT TIME ZONE scope.tz AND ${sql.raw(alias)}.at < (${last}::date + interval '1 month')::timestamp AT TIME ZONE scope.tz)`
+/**
+ * Where a record of `alias` must start to be read from the records: the scope's range (scope.t0 … scope.t1)
+ * less the kept months, in its site's time zone (`scope.tz`): two ranges of the (site_id, at) index.
+ */
+export function recordsRange(kept: string[], alias: string) {
+  const a = sql.raw(alias)
+  if (kept.length === 0) return sql`${a}.at >= scope.t0 AND ${a}.at < scope.t1`
+  const k0 = sql`${`${kept[0]}-01`}::timestamp AT TIME ZONE scope.tz`
+  const k1 = sql`(${`${kept[kept.length - 1]}-01`}::date + interval '1 month')::timestamp AT TIME ZONE scope.tz`
+  return sql`((${a}.at >= scope.t0 AND ${a}.at < ${k0}) OR (${a}.at >= ${k1} AND ${a}.at < scope.t1))`
 }
