@@ -106,13 +106,18 @@ export async function keptChargeMonths(scope: ReportScope, today = new Date().to
 }
 
 /**
- * Where a record of `alias` must start to be read from the records: the scope's range (scope.t0 … scope.t1)
- * less the kept months, in its site's time zone (`scope.tz`): two ranges of the (site_id, at) index.
+ * The standing, closed charge records of the scope (CTE `scope`: site_id, tz, t0, t1 …) as `c`, each site
+ * beside its `scope` row: the whole range, or with kept months the part before them and the part after, in the
+ * site's time zone. One scan of the (site_id, at) index per site and part: a plain join let PostgreSQL, which
+ * cannot tell how few rows a range holds, read the whole table instead.
  */
-export function recordsRange(kept: string[], alias: string) {
-  const a = sql.raw(alias)
-  if (kept.length === 0) return sql`${a}.at >= scope.t0 AND ${a}.at < scope.t1`
-  const k0 = sql`${`${kept[0]}-01`}::timestamp AT TIME ZONE scope.tz`
-  const k1 = sql`(${`${kept[kept.length - 1]}-01`}::date + interval '1 month')::timestamp AT TIME ZONE scope.tz`
-  return sql`((${a}.at >= scope.t0 AND ${a}.at < ${k0}) OR (${a}.at >= ${k1} AND ${a}.at < scope.t1))`
+export function closedChargesOf(kept: string[]) {
+  const ranges = kept.length === 0
+    ? sql`(SELECT scope.*, scope.t0 AS r0, scope.t1 AS r1 FROM scope) scope`
+    : sql`(SELECT scope.*, scope.t0 AS r0, ${`${kept[0]}-01`}::timestamp AT TIME ZONE scope.tz AS r1 FROM scope
+         UNION ALL SELECT scope.*, (${`${kept[kept.length - 1]}-01`}::date + interval '1 month')::timestamp AT TIME ZONE scope.tz, scope.t1 FROM scope) scope`
+  return sql`${ranges} CROSS JOIN LATERAL (
+    SELECT c.* FROM charge_sessions c
+    WHERE c.site_id = scope.site_id AND c.at >= scope.r0 AND c.at < scope.r1 AND c.ended_at IS NOT NULL AND ${isEffectiveRecord('charge_sessions', 'c')}
+    OFFSET 0) c`
 }

@@ -2,11 +2,11 @@ import type { ReportResponse } from '#shared/types/reports'
 import { daysInRange } from '#shared/utils/area-checklists'
 import { hoursOnChargePerDay, monthsBetween, monthText } from '#shared/utils/report-math'
 import { LANGUAGE_TAGS } from '#shared/utils/languages'
-import { isEffectiveRecord, rowsOf } from '../due/effective'
+import { rowsOf } from '../due/effective'
 import { offPeakSaving } from '#shared/utils/tariff'
 import { chartOf, chartTop, money, num, numberText, scopeCte, totalsOf, type ReportScope } from './scope'
 import { peakSplit } from './tariff-split'
-import { keptChargeMonths, keptChargeRows, recordsRange } from './charge-months'
+import { keptChargeMonths, keptChargeRows, closedChargesOf } from './charge-months'
 
 // report.energy.convention: kWh drawn from the grid = Ah returned × the battery's nominal volts ÷ 1,000 ÷ the
 // charger's efficiency, worked out when the charge ended (shared/utils/charging.ts); cost = that kWh × the site's
@@ -23,8 +23,7 @@ async function chargeGroups(scope: ReportScope, kept: string[]) {
     charges AS (
       SELECT c.charger_id, to_char(c.at AT TIME ZONE scope.tz, 'YYYY-MM') AS month, 1 AS n, c.grid_kwh, c.energy_cost,
              EXTRACT(EPOCH FROM (LEAST(c.ended_at, scope.t1) - c.at)) / 3600 AS hours
-      FROM scope JOIN charge_sessions c ON c.site_id = scope.site_id AND ${recordsRange(kept, 'c')}
-      WHERE c.ended_at IS NOT NULL AND ${isEffectiveRecord('charge_sessions', 'c')}
+      FROM ${closedChargesOf(kept)}
       ${kept.length ? sql`UNION ALL ${keptChargeRows(scope, kept)}` : sql``}
     ),
     by_charger AS (

@@ -1,6 +1,6 @@
 import type { SQL } from 'drizzle-orm'
-import { isEffectiveRecord, rowsOf, uuidArray } from '../due/effective'
-import { monthArray, recordsRange } from './charge-months'
+import { rowsOf, uuidArray } from '../due/effective'
+import { monthArray, closedChargesOf } from './charge-months'
 import { num, scopeCte, type ReportScope } from './scope'
 
 // The share of a charge's time inside the site's peak windows (0 … 1), for a row `alias` with at, ended_at,
@@ -31,10 +31,8 @@ export async function peakSplit(scope: ReportScope, kept: string[] = []): Promis
     WITH ${scopeCte(scope)},
     charges AS (
       SELECT scope.site_id, scope.tz, c.at, c.ended_at, coalesce(c.grid_kwh, 0) AS kwh, st.settings->'peakPeriods' AS periods
-      FROM scope JOIN sites st ON st.id = scope.site_id
-      JOIN charge_sessions c ON c.site_id = scope.site_id AND ${recordsRange(kept, 'c')}
-      WHERE c.ended_at IS NOT NULL AND ${isEffectiveRecord('charge_sessions', 'c')}
-        AND jsonb_typeof(st.settings->'peakPeriods') = 'array' AND jsonb_array_length(st.settings->'peakPeriods') > 0
+      FROM ${closedChargesOf(kept)} JOIN sites st ON st.id = scope.site_id
+      WHERE jsonb_typeof(st.settings->'peakPeriods') = 'array' AND jsonb_array_length(st.settings->'peakPeriods') > 0
     ),
     shares AS (
       SELECT ch.site_id, ch.kwh,
