@@ -1,6 +1,6 @@
 import type { FitReason, ReasonParams } from '#shared/utils/battery-fit'
 import type { Language } from '#shared/utils/languages'
-import { isLanguage } from '#shared/utils/languages'
+import { LANGUAGE_TAGS, isLanguage } from '#shared/utils/languages'
 import type { UnitSystem } from '#shared/utils/units'
 import en from '../../i18n/locales/en.json'
 import enLead from '../../i18n/lead/en.json'
@@ -26,14 +26,17 @@ export function mailLanguage(setting: string | null | undefined): Language {
   return isLanguage(setting) ? setting : 'en'
 }
 
-export function mailWords(language: string | null | undefined): MailT {
-  const tree = MESSAGES[mailLanguage(language)]
+/** `groupCounts`: the count `{n}` written as the language groups digits ("5,002"), for pages where every `n` is a count (reports). */
+export function mailWords(language: string | null | undefined, { groupCounts = false } = {}): MailT {
+  const lang = mailLanguage(language)
+  const tree = MESSAGES[lang]
   return (key, params = {}) => {
     const text = lookup(tree, key) ?? lookup(MESSAGES.en, key) ?? key
     // the singular of a "one | many" message unless the count says otherwise
     const plural = text.split(' | ')
     const chosen = plural.length === 2 ? plural[typeof params.n === 'number' && params.n !== 1 ? 1 : 0]! : text
-    return chosen.replace(/\{(\w+)\}/g, (whole, name: string) => (name in params ? String(params[name]) : whole))
+    const shown = (name: string) => (groupCounts && name === 'n' && typeof params.n === 'number' ? params.n.toLocaleString(LANGUAGE_TAGS[lang]) : String(params[name]))
+    return chosen.replace(/\{(\w+)\}/g, (whole, name: string) => (name in params ? shown(name) : whole))
   }
 }
 

@@ -7,6 +7,7 @@ import {
   closedMonthsInside, monthText, ratedCyclesReachedOn, sameDaysLastMonth,
 } from '../../shared/utils/report-math'
 import 'dayjs/locale/es'
+import { mailWords } from '../../server/utils/mail-words'
 import { defaultReportRange, reportQuerySchema } from '../../shared/utils/report-schemas'
 import { daysInRange } from '../../shared/utils/area-checklists'
 
@@ -68,6 +69,12 @@ describe('report arithmetic', () => {
     // a range ending on 28 February of a leap year and not
     expect(closedMonthsInside('2028-02-01', '2028-02-28', '2028-06-01')).toEqual([])
     expect(closedMonthsInside('2027-02-01', '2027-02-28', '2027-06-01')).toEqual(['2027-02'])
+  })
+
+  it('a report writes its counts with the digits grouped; other words keep theirs', () => {
+    expect(mailWords('en', { groupCounts: true })('report.energy.charges', { n: 5002 })).toBe('5,002 charges')
+    expect(mailWords('es', { groupCounts: true })('report.energy.charges', { n: 1 })).toBe('1 carga')
+    expect(mailWords('en')('report.energy.charges', { n: 5002 })).toBe('5002 charges')
   })
 
   it('months of a range, and the same days of last month', () => {

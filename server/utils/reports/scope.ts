@@ -52,7 +52,7 @@ export async function reportScope(event: H3Event, ability: Ability, query: Repor
   const language = await readerLanguage(event, actor.user.id, query.lang)
   return {
     sites, siteIds: sites.map(s => s.id), from: query.from, to: query.to, units, currency: currencies.size === 1 ? [...currencies][0]! : '',
-    language, t: mailWords(language),
+    language, t: mailWords(language, { groupCounts: true }),
   }
 }
 
