@@ -1,11 +1,18 @@
 // A status flag (wateringOverdue, weakCell, inspection_last …) in the reader's words: bay.flag.<snake_case
-// key>, a time parameter (`at`) shown as a local date and time; the server's English label when the key is unknown.
+// key>, a time parameter shown as a local date and time, a calendar day (YYYY-MM-DD) as a date; the server's
+// English label when the key is unknown.
 export function useBatteryFlagWords() {
   const { t, te } = useNuxtApp().$i18n
-  const { dateTime } = useLocaleFormat()
+  const { dateTime, date } = useLocaleFormat()
   const key = (flag: string) => `bay.flag.${flag.replace(/[A-Z]/g, c => `_${c.toLowerCase()}`)}`
+  const shown = (value: string | number) => {
+    if (typeof value !== 'string') return value
+    // (noon of the day, so no time zone moves it to the day before)
+    if (/^\d{4}-\d{2}-\d{2}$/.test(value)) return date(`${value}T12:00:00`)
+    return /^\d{4}-\d{2}-\d{2}T/.test(value) ? dateTime(value) : value
+  }
   return (flag: string, label: string, params?: Record<string, string | number>) => {
     if (!te(key(flag))) return label
-    return params ? t(key(flag), { ...params, ...(typeof params.at === 'string' ? { at: dateTime(params.at) } : {}) }) : t(key(flag))
+    return params ? t(key(flag), Object.fromEntries(Object.entries(params).map(([k, v]) => [k, shown(v)]))) : t(key(flag))
   }
 }

@@ -44,8 +44,8 @@ export default defineNitroPlugin(() => {
     const [current] = await useDb().select({ serial: tables.batteries.serial }).from(tables.batteryStatus)
       .innerJoin(tables.batteries, eq(tables.batteries.id, tables.batteryStatus.batteryId)).where(eq(tables.batteryStatus.truckId, row.id))
     return current
-      ? { state: 'battery_in', flags: [{ key: 'battery', label: `Battery ${current.serial}`, tone: 'neutral' as const }] }
-      : { state: 'battery_needed', flags: [{ key: 'battery', label: 'No battery recorded', tone: 'caution' as const }] }
+      ? { state: 'battery_in', flags: [{ key: 'battery', label: `Battery ${current.serial}`, params: { serial: current.serial }, tone: 'neutral' as const }] }
+      : { state: 'battery_needed', flags: [{ key: 'battery_none', label: 'No battery recorded', tone: 'caution' as const }] }
   })
 
   registerHistorySource('battery', async (batteryId, limit) => {

@@ -13,9 +13,9 @@ export default defineNitroPlugin(() => {
     const db = useDb()
     const facts = await fuelSiteFacts(db, cylinder.siteId)
     const requal = cylinderRequalification(cylinder, facts)
-    const flags: { key: string, label: string, tone: 'danger' | 'warning' | 'caution' }[] = []
+    const flags: { key: string, label: string, tone: 'danger' | 'warning' | 'caution', params?: Record<string, string> }[] = []
     if (requal.status === 'overdue' && cylinder.status !== 'condemned') {
-      flags.push({ key: 'requalification_overdue', label: `Requalification overdue since ${requal.dueOn}: do not fill or fit`, tone: 'danger' })
+      flags.push({ key: 'requalification_overdue', label: `Requalification overdue since ${requal.dueOn}: do not fill or fit`, params: { on: String(requal.dueOn) }, tone: 'danger' })
     }
     const [lastRefill] = await db.select({ at: tables.cylinderRefills.at, tareFlagged: tables.cylinderRefills.tareFlagged })
       .from(tables.cylinderRefills).where(eq(tables.cylinderRefills.cylinderId, cylinder.id))
@@ -33,14 +33,14 @@ export default defineNitroPlugin(() => {
     if (!isCombustionPower(truck.power)) return null
     const db = useDb()
     const last = (await latestEmissionsTests(db, [truck.id])).get(truck.id) ?? null
-    const flags: { key: string, label: string, tone: 'danger' | 'warning' | 'notice' }[] = []
+    const flags: { key: string, label: string, tone: 'danger' | 'warning' | 'notice', params?: Record<string, string> }[] = []
     if (!last) flags.push({ key: 'emissions_none', label: 'No emissions test on record', tone: 'warning' })
-    else if (!last.passed) flags.push({ key: 'emissions_failed', label: `Emissions test failed on ${last.testedOn}: retest by ${last.nextDueOn}`, tone: 'danger' })
+    else if (!last.passed) flags.push({ key: 'emissions_failed', label: `Emissions test failed on ${last.testedOn}: retest by ${last.nextDueOn}`, params: { on: String(last.testedOn), by: String(last.nextDueOn) }, tone: 'danger' })
     // The truck's state names its fuel side (an out-of-service truck keeps that state).
     let state: { state: string, label: string, tone: 'neutral' | 'caution' } | undefined
     if (truck.power === 'lp_gas') {
       const [fitted] = await db.select({ serial: tables.lpCylinders.serial }).from(tables.lpCylinders).where(eq(tables.lpCylinders.currentTruckId, truck.id))
-      if (fitted) flags.push({ key: 'cylinder', label: `Cylinder ${fitted.serial}`, tone: 'notice' })
+      if (fitted) flags.push({ key: 'cylinder', label: `Cylinder ${fitted.serial}`, params: { serial: fitted.serial }, tone: 'notice' })
       state = fitted ? { state: 'cylinder_fitted', label: 'Cylinder fitted', tone: 'neutral' } : { state: 'cylinder_needed', label: 'No cylinder', tone: 'caution' }
     }
     else {

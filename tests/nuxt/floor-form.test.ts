@@ -70,6 +70,9 @@ describe('parseRefusal', () => {
       const flag = useBatteryFlagWords()
       expect(flag('inspection_last', 'Last pre-shift check 2026-12-03 12:00 UTC', { at: '2026-12-03T12:00:00.000Z' })).toMatch(/^Última inspección antes del turno: .*2026/)
       expect(flag('a_flag_with_no_words', 'Server words')).toBe('Server words')
+      // a calendar day stays that day in any time zone
+      expect(flag('emissions_failed', 'Emissions test failed on 2026-03-10: retest by 2026-04-09', { on: '2026-03-10', by: '2026-04-09' }))
+        .toBe('Prueba de emisiones reprobada el 10 mar 2026: repetir antes del 9 abr 2026')
     }
     finally {
       await $i18n.setLocale('en')
