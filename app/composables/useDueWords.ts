@@ -6,12 +6,20 @@ import type { DueItem } from '~/stores/due'
 // (due.kind.<kind>, due.action.<kind>), and "when". A task a lead added keeps the words the lead wrote.
 export function useDueWords() {
   const { t, te } = useNuxtApp().$i18n
+  const { number, date } = useLocaleFormat()
   const kindLabel = (kind: DueKind | string, fallback: string) => (kind !== 'custom' && te(`due.kind.${kind}`) ? t(`due.kind.${kind}`) : fallback)
   return {
     stateLabel: (state: ObligationState) => t(`due.state.${state}`),
     kindLabel,
     /** the item's task name: the built-in name in the reader's words, else what the server said */
     what: (item: Pick<DueItem, 'kind' | 'what'>) => (DUE_KIND_LABELS[item.kind as DueKind] === item.what ? kindLabel(item.kind, item.what) : item.what),
+    /** the item's detail in the reader's words when it came as a code (due.detail.<code>), else as the server wrote it */
+    detail: (item: Pick<DueItem, 'detail' | 'detailWords'>): string | null => {
+      const w = item.detailWords
+      if (!w || !te(`due.detail.${w.code}`)) return item.detail
+      const params = Object.fromEntries(Object.entries(w.params ?? {}).map(([k, v]) => [k, typeof v === 'number' ? number(v, 1) : /^\d{4}-\d{2}-\d{2}$/.test(v) ? date(`${v}T12:00:00`) : v]))
+      return typeof w.params?.n === 'number' ? t(`due.detail.${w.code}`, params, w.params.n) : t(`due.detail.${w.code}`, params)
+    },
     actionLabel: (item: Pick<DueItem, 'kind' | 'action'>) => (item.kind !== 'custom' && te(`due.action.${item.kind}`) ? t(`due.action.${item.kind}`) : item.action.label),
     when: (item: Pick<DueItem, 'dueOn' | 'state' | 'remaining'>, today: string): string => {
       if (item.state === 'done') return item.dueOn ? t('due.when.done_on', { on: item.dueOn }) : t('due.state.done')

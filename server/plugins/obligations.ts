@@ -7,7 +7,7 @@ export default defineNitroPlugin(() => {
     registerAssetStatus(kind, async (row) => {
       const label = String(row.serial ?? row.fleetNumber ?? row.name ?? '')
       const items = await obligationsOfSubject(useDb(), row.siteId, { kind, id: row.id, label, tagCode: null })
-      return { due: items.map(o => ({ what: o.what, dueOn: o.dueOn, state: o.state, detail: o.detail, action: o.action })) }
+      return { due: items.map(o => ({ what: o.what, kind: o.kind, dueOn: o.dueOn, state: o.state, detail: o.detail, detailWords: o.detailWords, action: o.action })) }
     })
   }
 })

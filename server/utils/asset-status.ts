@@ -11,7 +11,7 @@ export interface AssetStatus {
   /** further flags in words, e.g. "Watering due" (with `params` for the reader's words, e.g. a time) */
   flags: { key: string, label: string, tone: StatusTone, params?: Record<string, string | number> }[]
   /** what is due on the asset, soonest first (from its obligations; a count rule may have no date) */
-  due: { what: string, dueOn: string | null, state: 'upcoming' | 'due_soon' | 'overdue', detail?: string | null, action?: { label: string, to: string } }[]
+  due: { what: string, kind?: string, dueOn: string | null, state: 'upcoming' | 'due_soon' | 'overdue', detail?: string | null, detailWords?: { code: string, params?: Record<string, string | number> } | null, action?: { label: string, to: string } }[]
 }
 
 type AssetRow = Record<string, unknown> & { id: string, siteId: string }

@@ -19,6 +19,8 @@ export interface DueItem {
   /** for count rules: charges or hours left (0 or below: due) */
   remaining: number | null
   detail: string | null
+  /** the detail as a code and its values (due.detail.<code>), for the reader's language */
+  detailWords: { code: string, params?: Record<string, string | number> } | null
   responsibleRole: Role
   action: { label: string, to: string }
 }

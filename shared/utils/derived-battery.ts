@@ -156,7 +156,7 @@ export function batteryObligations(f: BatteryFacts, schedules: readonly Schedule
         const since = s.kind === 'battery_watering' ? f.lastWateredAt : f.lastEqualizedAt
         const count = chargesProgress(f.chargeEnds, since, s.every, timeZone)
         const what = s.kind === 'battery_watering' ? 'watering' : 'equalize'
-        out.push(scheduleObligation(s, subject, { lastDoneOn: onDate(since), startOn, count, detail: `${count.now} of ${s.every} charges since ${what}` }))
+        out.push(scheduleObligation(s, subject, { lastDoneOn: onDate(since), startOn, count, detail: `${count.now} of ${s.every} charges since ${what}`, detailWords: { code: `charges_since_${what}`, params: { now: count.now, every: s.every } } }))
       }
       else if (s.kind === 'electrolyte_full_check') {
         out.push(scheduleObligation(s, subject, { lastDoneOn: onDate(f.lastCellCheck?.at ?? null), startOn }))

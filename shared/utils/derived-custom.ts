@@ -54,7 +54,7 @@ export function customObligations(
     const since = done ? done.at : startAt
     if (s.rule === 'charges') {
       const count = chargesProgress(counters.chargeEnds ?? [], since, s.every, timeZone)
-      out.push(scheduleObligation(s, subject, { lastDoneOn: done?.doneOn ?? null, startOn, count, detail: `${count.now} of ${s.every} charges since last done` }))
+      out.push(scheduleObligation(s, subject, { lastDoneOn: done?.doneOn ?? null, startOn, count, detail: `${count.now} of ${s.every} charges since last done`, detailWords: { code: 'charges_since_done', params: { now: count.now, every: s.every } } }))
     }
     else if (s.rule === 'hours') {
       const readings = counters.readings ?? []
@@ -62,7 +62,7 @@ export function customObligations(
       const atDone = done?.hourMeter ?? hoursAsOf(readings, since, registered)
       const now = hoursAsOf(readings, null, registered)
       const count = hoursProgress(readings, atDone, now, s.every, since, timeZone)
-      out.push(scheduleObligation(s, subject, { lastDoneOn: done?.doneOn ?? null, startOn, count, detail: `${Math.round((now - atDone) * 10) / 10} of ${s.every} h since last done` }))
+      out.push(scheduleObligation(s, subject, { lastDoneOn: done?.doneOn ?? null, startOn, count, detail: `${Math.round((now - atDone) * 10) / 10} of ${s.every} h since last done`, detailWords: { code: 'hours_since_done', params: { now: Math.round((now - atDone) * 10) / 10, every: s.every } } }))
     }
     else {
       out.push(scheduleObligation(s, subject, { lastDoneOn: done?.doneOn ?? null, startOn }))

@@ -72,6 +72,7 @@ export function truckObligations(f: TruckFacts, schedules: readonly ScheduleDefi
       startOn: localDate(f.createdAt, timeZone),
       dueOnOverride: last ? emissionsNextDue(last.testedOn, last.passed, emissions) : dayBefore(localDate(f.createdAt, timeZone)),
       detail: !last ? 'No test on record' : last.passed ? null : 'Retest after a failed test',
+      detailWords: !last ? { code: 'no_test' } : last.passed ? null : { code: 'retest' },
     }))
   }
   out.push(...customObligations(schedules, subject, f.createdAt, f.completions, { readings: f.readings, registeredHours: f.registeredHours }, timeZone))
@@ -165,6 +166,7 @@ export function cylinderObligations(f: CylinderFacts, schedules: readonly Schedu
     out.push(scheduleObligation(s, subject, {
       lastDoneOn: f.lastRequalifiedOn, startOn: localDate(f.createdAt, timeZone), ruleDueOn: cylinderRequalificationDue(f, years),
       detail: `Stamped ${String(f.manufactureMonth).padStart(2, '0')}-${f.manufactureYear}`,
+      detailWords: { code: 'stamped', params: { stamp: `${String(f.manufactureMonth).padStart(2, '0')}-${f.manufactureYear}` } },
     }))
   }
   out.push(...customObligations(schedules, subject, f.createdAt, f.completions, {}, timeZone))
@@ -198,6 +200,7 @@ export function operatorObligations(f: OperatorFacts, schedules: readonly Schedu
     lastDoneOn: evaluated, startOn: localDate(f.memberSince, timeZone),
     dueOnOverride: called && called.happenedOn < dueOn ? called.happenedOn : dueOn,
     detail: called ? `Retraining called for on ${called.happenedOn}` : none ? 'No truck evaluation on record' : null,
+    detailWords: called ? { code: 'retraining_called', params: { on: called.happenedOn } } : none ? { code: 'no_evaluation' } : null,
   })]
 }
 
@@ -220,6 +223,7 @@ export function logObligations(f: LogFacts, schedules: readonly ScheduleDefiniti
   const dueOn = f.cadence === 'weekly' ? plusInterval(f.periodStart, 7, 'day') : plusInterval(f.periodStart, s.every ?? 1, s.everyUnit)
   return [scheduleObligation(s, subject, {
     lastDoneOn: null, startOn: f.periodStart, dueOnOverride: dueOn, detail: f.failedCount > 0 ? `${f.failedCount} failed item(s)` : null,
+    detailWords: f.failedCount > 0 ? { code: 'failed_items', params: { n: f.failedCount } } : null,
   })]
 }
 

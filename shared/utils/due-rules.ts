@@ -82,7 +82,12 @@ export interface ObligationRecord {
   responsibleRole: Role
   lastDoneOn: string | null
   detail: string | null
+  /** the detail as a code and its values (due.detail.<code>), said in the reader's language; null when it is a name */
+  detailWords: DetailWords | null
 }
+
+/** An obligation's detail as words to say: `due.detail.<code>` with its values. */
+export interface DetailWords { code: string, params?: Record<string, string | number> }
 
 /** What an obligation is about, as its row shows it. */
 export interface ObligationSubject {
@@ -115,6 +120,7 @@ export function scheduleObligation(schedule: ScheduleDefinition, subject: Obliga
   /** a due date the record itself carries (an emissions retest, a follow-up's own date) */
   dueOnOverride?: string | null
   detail?: string | null
+  detailWords?: DetailWords | null
 }): ObligationRecord {
   const counted = schedule.rule === 'charges' || schedule.rule === 'hours'
   const next = p.dueOnOverride
@@ -144,6 +150,7 @@ export function scheduleObligation(schedule: ScheduleDefinition, subject: Obliga
     responsibleRole: schedule.responsibleRole,
     lastDoneOn: p.lastDoneOn,
     detail: p.detail ?? null,
+    detailWords: p.detailWords ?? null,
   }
 }
 

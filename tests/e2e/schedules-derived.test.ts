@@ -50,7 +50,9 @@ describe('a schedule change reaches the board, the due list and the tag page at 
     expect((await card(b.id)).readiness.map(r => r.code)).not.toContain('watering_overdue')
     const watering = obligationOf(await dueList(tech, { siteId, kind: 'battery_watering' }), 'battery_watering', b.id)!
     expect(watering).toMatchObject({ state: 'upcoming', remaining: 2, dueOn: daysFrom(today, 5) })
-    expect((await tagDue(code, 'Battery watering'))!.state).toBe('upcoming')
+    // the detail as words with its numbers, for the reader's language (due.detail.charges_since_watering)
+    expect(watering).toMatchObject({ detail: '6 of 8 charges since watering', detailWords: { code: 'charges_since_watering', params: { now: 6, every: 8 } } })
+    expect(await tagDue(code, 'Battery watering')).toMatchObject({ state: 'upcoming', kind: 'battery_watering', detailWords: { code: 'charges_since_watering' } })
   })
 
   it('a count rule\'s days cap and the due-soon window: equalize shows as due on the board when the window reaches it', async () => {

@@ -6,6 +6,7 @@ import { newIdempotencyKey } from '../../app/utils/idempotency'
 import { useFloorForm } from '../../app/composables/useFloorForm'
 import { useReasonWords } from '../../app/composables/useReasonWords'
 import { useBatteryFlagWords } from '../../app/composables/useBatteryFlagWords'
+import { useDueWords } from '../../app/composables/useDueWords'
 import { useSessionStore } from '../../app/stores/session'
 import { overfillReason, prefillFailedReason, tareLossReason } from '../../shared/utils/fuel-reasons'
 
@@ -70,6 +71,11 @@ describe('parseRefusal', () => {
       const flag = useBatteryFlagWords()
       expect(flag('inspection_last', 'Last pre-shift check 2026-12-03 12:00 UTC', { at: '2026-12-03T12:00:00.000Z' })).toMatch(/^Última inspección antes del turno: .*2026/)
       expect(flag('a_flag_with_no_words', 'Server words')).toBe('Server words')
+      // a due item's detail sent as a code
+      const due = useDueWords()
+      expect(due.detail({ detail: '6 of 8 charges since watering', detailWords: { code: 'charges_since_watering', params: { now: 6, every: 8 } } })).toBe('6 de 8 cargas desde que se repuso agua')
+      expect(due.detail({ detail: '2 failed item(s)', detailWords: { code: 'failed_items', params: { n: 2 } } })).toBe('2 puntos fallaron')
+      expect(due.detail({ detail: 'Ines Ward', detailWords: null })).toBe('Ines Ward')
       // a calendar day stays that day in any time zone
       expect(flag('emissions_failed', 'Emissions test failed on 2026-03-10: retest by 2026-04-09', { on: '2026-03-10', by: '2026-04-09' }))
         .toBe('Prueba de emisiones reprobada el 10 mar 2026: repetir antes del 9 abr 2026')

@@ -1,4 +1,4 @@
-import { boolean, date, doublePrecision, index, integer, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
+import { boolean, date, doublePrecision, index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
 import { sql } from 'drizzle-orm'
 import { chargeOutcomeEnum, roleEnum } from './enums'
 import { sites } from './core'
@@ -93,6 +93,8 @@ export const obligations = pgTable('obligations', {
   responsibleRole: roleEnum().notNull(),
   lastDoneOn: date(),
   detail: text(),
+  /** the detail as a code and its values, said in the reader's language (due.detail.<code>) */
+  detailWords: jsonb().$type<{ code: string, params?: Record<string, string | number> }>(),
   computedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
 }, t => [
   uniqueIndex('obligations_subject_rule').on(t.siteId, t.ruleKey, t.subjectKind, t.subjectId),

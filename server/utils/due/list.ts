@@ -68,6 +68,7 @@ interface Row {
   lastDoneOn: string | null
   remaining: number | null
   detail: string | null
+  detailWords: DueItem['detailWords']
   responsibleRole: Role
 }
 
@@ -106,7 +107,7 @@ export async function readDueList(db: SqlRunner, siteId: string, opts: DueOption
         p.label, p.tag_code AS "tagCode", p.area_id AS "areaId", a.name AS "areaName", p.person_id AS "personId", p.period_start::text AS "periodStart",
         p.shown_due::text AS "shownDue", p.shown_state AS "shownState", p.last_done_on::text AS "lastDoneOn",
         CASE WHEN p.due_at_count IS NOT NULL AND p.count_now IS NOT NULL THEN round((p.due_at_count - p.count_now)::numeric, 1)::float8 END AS remaining,
-        p.detail, p.responsible_role AS "responsibleRole"
+        p.detail, p.detail_words AS "detailWords", p.responsible_role AS "responsibleRole"
       FROM (
         SELECT s.*, CASE s.shown_state WHEN 'overdue' THEN 0 WHEN 'due_soon' THEN 1 WHEN 'upcoming' THEN 2 ELSE 3 END AS state_rank
         FROM (${shown}) s ORDER BY ${ORDER[opts.sort]} LIMIT ${limit}
@@ -160,6 +161,7 @@ function toObligation(r: Row): Obligation {
     lastDoneOn: r.lastDoneOn,
     remaining: r.remaining === null ? null : Number(r.remaining),
     detail: r.detail,
+    detailWords: r.detailWords ?? null,
     responsibleRole: r.responsibleRole,
     action: obligationActionPath(r.kind, subject, r.scheduleId),
   }
@@ -173,6 +175,7 @@ export interface SubjectObligation {
   state: Exclude<ObligationState, 'done'>
   remaining: number | null
   detail: string | null
+  detailWords: DueItem['detailWords']
   lastDoneOn: string | null
   action: { label: string, to: string }
 }
@@ -181,14 +184,14 @@ export interface SubjectObligation {
 export async function obligationsOfSubject(db: SqlRunner, siteId: string, subject: Pick<DueSubject, 'kind' | 'id' | 'label' | 'tagCode'>): Promise<SubjectObligation[]> {
   const rows = await rowsOf<Row & { state: Exclude<ObligationState, 'done'>, dueOn: string | null }>(db, sql`
     SELECT o.kind, o.schedule_id AS "scheduleId", o.what, o.due_on::text AS "dueOn", ${obligationStateSql(sql`(now() AT TIME ZONE st.time_zone)::date`)} AS state,
-      o.area_id AS "areaId", o.period_start::text AS "periodStart", o.last_done_on::text AS "lastDoneOn", o.detail,
+      o.area_id AS "areaId", o.period_start::text AS "periodStart", o.last_done_on::text AS "lastDoneOn", o.detail, o.detail_words AS "detailWords",
       CASE WHEN o.due_at_count IS NOT NULL AND o.count_now IS NOT NULL THEN round((o.due_at_count - o.count_now)::numeric, 1)::float8 END AS remaining
     FROM obligations o JOIN sites st ON st.id = o.site_id
     WHERE o.site_id = ${siteId} AND o.subject_id = ${subject.id} AND o.subject_kind = ${subject.kind}
     ORDER BY o.due_on NULLS LAST, o.what`)
   return rows.map(r => ({
     kind: r.kind, scheduleId: r.scheduleId, what: r.what, dueOn: r.dueOn, state: r.state, remaining: r.remaining === null ? null : Number(r.remaining),
-    detail: r.detail, lastDoneOn: r.lastDoneOn,
+    detail: r.detail, detailWords: r.detailWords ?? null, lastDoneOn: r.lastDoneOn,
     action: obligationActionPath(r.kind, { ...subject, areaId: r.areaId, periodStart: r.periodStart }, r.scheduleId),
   }))
 }

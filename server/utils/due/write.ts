@@ -27,7 +27,7 @@ const obligationValues = (siteId: string, o: ObligationRecord): typeof schema.ob
   siteId, ruleKey: o.ruleKey, kind: o.kind, scheduleId: o.scheduleId, subjectKind: o.subjectKind, subjectId: o.subjectId,
   label: o.label, tagCode: o.tagCode, areaId: o.areaId, personId: o.personId, periodStart: o.periodStart, what: o.what,
   dueOn: o.dueOn, dueAtCount: o.dueAtCount, countNow: o.countNow, countUnit: o.countUnit, dueSoonDays: o.dueSoonDays,
-  responsibleRole: o.responsibleRole, lastDoneOn: o.lastDoneOn, detail: o.detail, computedAt: new Date(),
+  responsibleRole: o.responsibleRole, lastDoneOn: o.lastDoneOn, detail: o.detail, detailWords: o.detailWords, computedAt: new Date(),
 })
 
 const batteryValues = (r: BatteryStatusRow): typeof schema.batteryStatus.$inferInsert => ({ ...r, computedAt: new Date() })
