@@ -12,8 +12,11 @@ const ASSET_TABLES = () => ({
 
 // The live tags a label sheet covers, with each asset's identity line: one query for the tags and
 // one per asset kind present.
-export async function selectLabelItems(selection: LabelSelection): Promise<LabelItem[]> {
+// The identity line on each label in `language` and the site's units.
+export async function selectLabelItems(selection: LabelSelection, language?: string | null): Promise<LabelItem[]> {
   const db = useDb()
+  const [site] = await db.select({ unitSystem: tables.sites.unitSystem }).from(tables.sites).where(eq(tables.sites.id, selection.siteId))
+  const say = mailWords(language)
   const where = [eq(tables.tags.siteId, selection.siteId), isNull(tables.tags.retiredAt)]
   if (selection.kind) where.push(eq(tables.tags.assetKind, selection.kind))
   if (selection.ids?.length) where.push(inArray(tables.tags.assetId, selection.ids))
@@ -28,7 +31,7 @@ export async function selectLabelItems(selection: LabelSelection): Promise<Label
   }
   return tags.filter(t => rows.has(t.assetId)).map((t) => {
     const row = rows.get(t.assetId)!
-    return { kind: t.assetKind, id: t.assetId, code: t.code, title: assetTitle(t.assetKind, row), identity: assetIdentity(t.assetKind, row) }
+    return { kind: t.assetKind, id: t.assetId, code: t.code, title: assetTitle(t.assetKind, row), identity: assetIdentityIn(t.assetKind, row, say, site?.unitSystem === 'metric' ? 'metric' : 'us') }
   })
 }
 

@@ -15,7 +15,7 @@ export default defineAbilityHandler('site.member', async (event) => {
       replacedBy: tag.retiredAt ? liveCode : null,
       liveCode,
       kind,
-      asset: { id: row.id, siteId: row.siteId, title: assetTitle(kind, row), identity: assetIdentity(kind, row), outOfService: !!row.outOfService, outOfServiceReason: row.outOfServiceReason ?? null, chemistry: kind === 'battery' ? String(row.chemistry) : null },
+      asset: { id: row.id, siteId: row.siteId, title: assetTitle(kind, row), identity: assetIdentity(kind, row), facts: identityFacts(kind, row), outOfService: !!row.outOfService, outOfServiceReason: row.outOfServiceReason ?? null, chemistry: kind === 'battery' ? String(row.chemistry) : null },
       status,
     }
   })
