@@ -96,6 +96,16 @@ describe('due list, area logs and the ventilation check in the browser', () => {
     await page.context().close()
   })
 
+  it('a technician who opens the due page sees their own roles\' list, with no "every role" to pick', async () => {
+    const page = await signedIn(people.technician!, '/due')
+    await expect.poll(() => page.locator('[data-due-group]').count()).toBeGreaterThan(0)
+    expect(await page.locator('.card.text-z535-danger').count()).toBe(0)
+    const roles = page.locator('form select').first()
+    expect(await roles.inputValue()).toBe('')
+    expect(await roles.locator('option').allTextContents()).toEqual(['My roles', 'Technician'])
+    await page.context().close()
+  })
+
   it('screenshots: each role\'s home, the technician\'s checklist, the due list and the ventilation check', async () => {
     for (const viewport of [PHONE, DESKTOP]) {
       for (const role of ['operator', 'technician', 'facilities', 'safety', 'admin']) {
