@@ -20,14 +20,15 @@ export function useDueWords() {
       const params = Object.fromEntries(Object.entries(w.params ?? {}).map(([k, v]) => [k, typeof v === 'number' ? number(v, 1) : /^\d{4}-\d{2}-\d{2}$/.test(v) ? date(`${v}T12:00:00`) : v]))
       return typeof w.params?.n === 'number' ? t(`due.detail.${w.code}`, params, w.params.n) : t(`due.detail.${w.code}`, params)
     },
-    actionLabel: (item: Pick<DueItem, 'kind' | 'action'>) => (item.kind !== 'custom' && te(`due.action.${item.kind}`) ? t(`due.action.${item.kind}`) : item.action.label),
+    actionLabel: (item: Pick<DueItem, 'kind' | 'action'>) => (te(`due.action.${item.kind}`) ? t(`due.action.${item.kind}`) : item.action.label),
     when: (item: Pick<DueItem, 'dueOn' | 'state' | 'remaining'>, today: string): string => {
-      if (item.state === 'done') return item.dueOn ? t('due.when.done_on', { on: item.dueOn }) : t('due.state.done')
+      const on = item.dueOn ? date(`${item.dueOn}T12:00:00`) : ''
+      if (item.state === 'done') return item.dueOn ? t('due.when.done_on', { on }) : t('due.state.done')
       if (!item.dueOn) return item.remaining !== null && item.remaining <= 0 ? t('due.when.now') : t('due.when.to_go', { n: item.remaining ?? '?' })
       const days = calendarDaysBetween(today, item.dueOn)
       if (days === 0) return t('due.when.today')
-      if (days < 0) return t('due.when.overdue', { n: -days, on: item.dueOn }, -days)
-      return t('due.when.in', { n: days, on: item.dueOn }, days)
+      if (days < 0) return t('due.when.overdue', { n: -days, on }, -days)
+      return t('due.when.in', { n: days, on }, days)
     },
   }
 }

@@ -71,6 +71,12 @@ export function numberText(value: number, language: Language, decimals = 0): str
   return value.toLocaleString(LANGUAGE_TAGS[language], { minimumFractionDigits: decimals, maximumFractionDigits: decimals })
 }
 
+/** A calendar day ('2026-11-03') as the reader's language writes it, medium ("Nov 3, 2026", "3 nov 2026"). */
+export function dayText(day: string, language: Language): string {
+  if (!/^\d{4}-\d{2}-\d{2}$/.test(day)) return day
+  return new Intl.DateTimeFormat(LANGUAGE_TAGS[language], { dateStyle: 'medium', timeZone: 'UTC' }).format(new Date(`${day}T00:00:00Z`))
+}
+
 /** Money with the sites' currency code ("1,234.50 USD"), or the bare number across currencies. */
 export function money(value: number, currency: string, language: Language = 'en'): string {
   const n = numberText(value, language, 2)

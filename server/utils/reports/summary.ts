@@ -4,7 +4,7 @@ import { energyReport } from './energy'
 import { replacementForecast } from './replacement'
 import { batteryFacts } from './battery-facts'
 import { shortfallReport } from './shortfall'
-import { money, numberText, type ReportScope } from './scope'
+import { dayText, money, numberText, type ReportScope } from './scope'
 
 // The few figures the facilities lead opens on: this month's energy and cost so far against the same days
 // of last month, batteries due for replacement this quarter, and the
@@ -25,7 +25,7 @@ export async function facilitiesSummary(scope: ReportScope): Promise<FacilitiesS
   const kwh = sum(energy, 'kwh')
   const cost = sum(energy, 'cost')
   const { t, language } = scope
-  const versus = t('report.summary.versus', { from: lastMonth.from, to: lastMonth.to })
+  const versus = t('report.summary.versus', { from: dayText(lastMonth.from, language), to: dayText(lastMonth.to, language) })
   const words: ChangeWords = { pct: (pct, what) => t('report.change.pct', { pct, what }), nothing: what => t('report.change.nothing', { what }) }
   const forecast = replacementForecast(scope, facts)
   const quarterEnd = (() => {
