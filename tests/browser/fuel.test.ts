@@ -5,7 +5,7 @@ import type { Browser, Page } from 'playwright-core'
 import { eq } from 'drizzle-orm'
 import { builtServer } from '../support/http'
 import { closeTestDb, refreshReadModels, site, tables, truck, user, useTestDb } from '../support/db'
-import { DESKTOP, PHONE, launchChromium, signInAt } from '../support/chromium'
+import { DESKTOP, PHONE, launchChromium, signInAt, untilHydrated } from '../support/chromium'
 import { freshCylinder, fuelStation, isoDaysFromNow, lpTransferQualification, lpTruck } from '../support/fuel'
 import { PREFILL_INSPECTION_ITEMS } from '../../shared/utils/lp-gas'
 
@@ -87,6 +87,7 @@ describe('fuel station in the browser', () => {
     await page.screenshot({ path: 'screenshots/fuel-exchange-phone.png', fullPage: true })
     await page.goto(url('/co'))
     await expect.poll(() => page.getByRole('heading', { name: 'Record readings' }).isVisible()).toBe(true)
+    await untilHydrated(page, 'form input')
     await page.getByLabel('CO (ppm) #1').fill('150')
     await page.getByLabel('Hours #1').fill('2')
     await page.screenshot({ path: 'screenshots/fuel-co-phone.png', fullPage: true })

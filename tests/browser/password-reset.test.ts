@@ -37,6 +37,7 @@ describe('a new password from the sign-in page', () => {
     await expect.poll(() => page.getByRole('status').textContent()).toContain('It works for 30 minutes, once.')
 
     await page.goto(url(`/reset-password?token=${await linkTokenMailedTo(fake, who.email)}`))
+    await untilHydrated(page, 'form input')
     await page.getByLabel('New password').fill('forklift-aisle-nine-3381')
     await page.getByLabel('The same again').fill('forklift-aisle-nine-3381')
     await page.getByRole('button', { name: 'Set the new password' }).click()
