@@ -3,12 +3,11 @@
 // English label when the key is unknown.
 export function useBatteryFlagWords() {
   const { t, te } = useNuxtApp().$i18n
-  const { dateTime, date } = useLocaleFormat()
+  const { dateTime, day } = useLocaleFormat()
   const key = (flag: string) => `bay.flag.${flag.replace(/[A-Z]/g, c => `_${c.toLowerCase()}`)}`
   const shown = (value: string | number) => {
     if (typeof value !== 'string') return value
-    // (noon of the day, so no time zone moves it to the day before)
-    if (/^\d{4}-\d{2}-\d{2}$/.test(value)) return date(`${value}T12:00:00`)
+    if (/^\d{4}-\d{2}-\d{2}$/.test(value)) return day(value)
     return /^\d{4}-\d{2}-\d{2}T/.test(value) ? dateTime(value) : value
   }
   return (flag: string, label: string, params?: Record<string, string | number>) => {

@@ -6,7 +6,7 @@ import type { DueItem } from '~/stores/due'
 // (due.kind.<kind>, due.action.<kind>), and "when". A task a lead added keeps the words the lead wrote.
 export function useDueWords() {
   const { t, te } = useNuxtApp().$i18n
-  const { number, date } = useLocaleFormat()
+  const { number, day } = useLocaleFormat()
   const kindLabel = (kind: DueKind | string, fallback: string) => (kind !== 'custom' && te(`due.kind.${kind}`) ? t(`due.kind.${kind}`) : fallback)
   return {
     stateLabel: (state: ObligationState) => t(`due.state.${state}`),
@@ -17,12 +17,12 @@ export function useDueWords() {
     detail: (item: Pick<DueItem, 'detail' | 'detailWords'>): string | null => {
       const w = item.detailWords
       if (!w || !te(`due.detail.${w.code}`)) return item.detail
-      const params = Object.fromEntries(Object.entries(w.params ?? {}).map(([k, v]) => [k, typeof v === 'number' ? number(v, 1) : /^\d{4}-\d{2}-\d{2}$/.test(v) ? date(`${v}T12:00:00`) : v]))
+      const params = Object.fromEntries(Object.entries(w.params ?? {}).map(([k, v]) => [k, typeof v === 'number' ? number(v, 1) : /^\d{4}-\d{2}-\d{2}$/.test(v) ? day(v) : v]))
       return typeof w.params?.n === 'number' ? t(`due.detail.${w.code}`, params, w.params.n) : t(`due.detail.${w.code}`, params)
     },
     actionLabel: (item: Pick<DueItem, 'kind' | 'action'>) => (te(`due.action.${item.kind}`) ? t(`due.action.${item.kind}`) : item.action.label),
     when: (item: Pick<DueItem, 'dueOn' | 'state' | 'remaining'>, today: string): string => {
-      const on = item.dueOn ? date(`${item.dueOn}T12:00:00`) : ''
+      const on = item.dueOn ? day(item.dueOn) : ''
       if (item.state === 'done') return item.dueOn ? t('due.when.done_on', { on }) : t('due.state.done')
       if (!item.dueOn) return item.remaining !== null && item.remaining <= 0 ? t('due.when.now') : t('due.when.to_go', { n: item.remaining ?? '?' })
       const days = calendarDaysBetween(today, item.dueOn)

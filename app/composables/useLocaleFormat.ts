@@ -22,5 +22,7 @@ export function useLocaleFormat() {
     time: (at: string | Date) => cached(`t${tag()}`, () => new Intl.DateTimeFormat(tag(), { hour: 'numeric', minute: '2-digit' })).format(new Date(at)),
     /** the date alone, medium (Dec 3, 2026 / 3 dic 2026) */
     date: (at: string | Date) => cached(`D${tag()}`, () => new Intl.DateTimeFormat(tag(), { dateStyle: 'medium' })).format(new Date(at)),
+    /** a calendar day ('2026-12-03') as `date` writes it, read at its noon so no time zone moves it to the day before */
+    day: (isoDay: string) => cached(`D${tag()}`, () => new Intl.DateTimeFormat(tag(), { dateStyle: 'medium' })).format(new Date(`${isoDay}T12:00:00`)),
   }
 }

@@ -11,17 +11,12 @@ import type { ReportScope } from './scope'
 // months are 'YYYY-MM', made here, never typed by a person
 export const monthArray = (months: readonly string[]) => sql`${`{${months.join(',')}}`}::text[]`
 
-const pairsOf = (siteIds: string[], months: string[]) => {
-  const sites: string[] = []
-  const ms: string[] = []
-  for (const s of siteIds) {
-    for (const m of months) {
-      sites.push(s)
-      ms.push(m)
-    }
-  }
-  return sql`unnest(${uuidArray(sites)}, ${monthArray(ms)}) AS p(site_id, month)`
-}
+// (site, month) pairs as a row source `p(site_id, month)`
+const pairsSql = (pairs: readonly { siteId: string, month: string }[]) =>
+  sql`unnest(${uuidArray(pairs.map(p => p.siteId))}, ${monthArray(pairs.map(p => p.month))}) AS p(site_id, month)`
+
+// every site of the scope with every month
+const pairsOf = (siteIds: string[], months: string[]) => pairsSql(siteIds.flatMap(siteId => months.map(month => ({ siteId, month }))))
 
 /**
  * Makes sure every site of the scope has its kept row for each month, made under the site's present time
@@ -48,9 +43,7 @@ export async function ensureChargeMonths(scope: ReportScope, months: string[]): 
 // Each month under an exclusive lock on it (in the trigger's order), so a write of that month still in
 // flight commits first and is read, and one that starts later drops the row again.
 async function makeChargeMonths(missing: { siteId: string, month: string }[]) {
-  const siteIds = missing.map(m => m.siteId)
-  const months = missing.map(m => m.month)
-  const pairs = sql`unnest(${uuidArray(siteIds)}, ${monthArray(months)}) AS p(site_id, month)`
+  const pairs = pairsSql(missing)
   await useDb().transaction(async (tx) => {
     await tx.execute(sql`
       SELECT pg_advisory_xact_lock(hashtext('charge_month_rollups'), hashtext(p.site_id::text || p.month))
