@@ -54,8 +54,16 @@ export async function cachedForSite<T>(actor: Actor, siteId: string, key: string
  * The same for a whole JSON answer: serialised and encoded once and sent as those bytes, so a large read
  * model polled by many screens is not turned into a string and a buffer again for every request.
  */
+/** An answer already written as JSON (by PostgreSQL, say), sent as it is. */
+export class JsonText {
+  constructor(readonly text: string) {}
+}
+
 export async function cachedJsonForSite(event: H3Event, actor: Actor, siteId: string, key: string, ttlMs: number, compute: () => Promise<unknown>): Promise<Buffer> {
-  const json = await cachedForSite(actor, siteId, `json:${key}`, ttlMs, async () => Buffer.from(JSON.stringify(await compute())))
+  const json = await cachedForSite(actor, siteId, `json:${key}`, ttlMs, async () => {
+    const answer = await compute()
+    return Buffer.from(answer instanceof JsonText ? answer.text : JSON.stringify(answer))
+  })
   setResponseHeader(event, 'content-type', 'application/json; charset=utf-8')
   return json
 }

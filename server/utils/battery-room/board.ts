@@ -2,7 +2,10 @@ import type { z } from 'zod'
 import { batteryTruckFit, isIssuableBattery, rankBatteriesForTruck } from '#shared/utils/battery-fit'
 import type { boardQuerySchema } from '#shared/utils/battery-room-schemas'
 import type { BoardCardData } from '#shared/types/floor'
-import type { BatteryCard } from './status'
+import type { TruckCheckState } from '#shared/types/inspection'
+import { shiftStartedAt } from '#shared/utils/shift-times'
+import { boardCard, boardCardsJson } from './board-cards'
+import { truckCheckState } from '../inspection/shift'
 
 export type BoardQuery = z.output<typeof boardQuerySchema>
 
@@ -14,62 +17,69 @@ export const BOARD_CACHE_MS = 5_000
 
 export const boardCacheKey = (query: BoardQuery) => `board:${query.areaId ?? ''}:${query.truckId ?? ''}`
 
-/** The fields of a battery card the board shows (the floor forms' look-up sends the whole card). */
-const boardCard = (c: BatteryCard): BoardCardData => ({
-  id: c.id, serial: c.serial, tagCode: c.tagCode, voltage: c.voltage, capacityAh: c.capacityAh, cycleCount: c.cycleCount,
-  ratedCycles: c.ratedCycles, outOfServiceReason: c.outOfServiceReason, state: c.state, coolingMinutesLeft: c.coolingMinutesLeft,
-  readyAt: c.readyAt, flags: c.flags, readiness: c.readiness.map(r => ({ code: r.code })),
-  truck: c.truck ? { id: c.truck.id, fleetNumber: c.truck.fleetNumber } : null,
-  charge: c.charge ? { chargerName: c.charge.chargerName } : null,
-})
-
-export async function computeBoard(query: BoardQuery) {
+export async function computeBoard(query: BoardQuery): Promise<BoardAnswer | JsonText> {
   const db = useDb()
   const now = new Date()
-  const [settings, areas, rows, trucks, checks] = await Promise.all([
+  const [settings, areas, trucks, cards] = await Promise.all([
     batteryRoomSettings(db, query.siteId),
     db.select({ id: tables.areas.id, name: tables.areas.name }).from(tables.areas)
       .where(and(eq(tables.areas.siteId, query.siteId), eq(tables.areas.kind, 'charging_area'), eq(tables.areas.archived, false)))
       .orderBy(asc(natural(tables.areas.name))),
-    loadBatteryRows(db, { siteId: query.siteId, areaId: query.areaId }),
     db.select({
       id: tables.trucks.id, fleetNumber: tables.trucks.fleetNumber, systemVoltage: tables.trucks.systemVoltage, outOfService: tables.trucks.outOfService,
       compartmentLengthIn: tables.trucks.compartmentLengthIn, compartmentWidthIn: tables.trucks.compartmentWidthIn, compartmentHeightIn: tables.trucks.compartmentHeightIn,
       minBatteryWeightLb: tables.trucks.minBatteryWeightLb, maxBatteryWeightLb: tables.trucks.maxBatteryWeightLb, connector: tables.trucks.connector, allowedChemistries: tables.trucks.allowedChemistries,
+      batteryId: tables.batteryStatus.batteryId,
+      lastInspectionAt: tables.truckStatus.lastInspectionAt, holdSince: tables.truckStatus.holdSince, holdReason: tables.truckStatus.holdReason,
     }).from(tables.trucks)
+      .leftJoin(tables.batteryStatus, eq(tables.batteryStatus.truckId, tables.trucks.id))
+      .leftJoin(tables.truckStatus, eq(tables.truckStatus.truckId, tables.trucks.id))
       .where(and(eq(tables.trucks.siteId, query.siteId), eq(tables.trucks.power, 'electric')))
       .orderBy(asc(natural(tables.trucks.fleetNumber))),
-    shiftInspectionStatus(db, query.siteId, now),
+    // the wall board's cards are made as JSON by PostgreSQL; a truck's suggestion needs them as rows
+    query.truckId ? loadBatteryRows(db, { siteId: query.siteId, areaId: query.areaId }) : boardCardsJson(db, query, now),
   ])
   if (query.areaId && !areas.some(a => a.id === query.areaId)) throw createError({ statusCode: 404, message: 'No such charging area at this site.' })
-  const cards = rows.map(r => batteryCard(r, settings.timeZone, now))
-  let suggestion = null
-  if (query.truckId) {
-    const truck = trucks.find(t => t.id === query.truckId)
-    if (!truck) throw createError({ statusCode: 404, message: 'No such electric truck at this site.' })
-    const spec = truckSpec(truck)
-    const byId = new Map(rows.map(r => [r.id, r]))
-    const ranked = rankBatteriesForTruck(cards.filter(c => c.state !== 'in_truck').map(c => ({
-      id: c.id, ready: c.readiness.length === 0, cycleCount: c.cycleCount,
-      restedSince: c.readyAt ? new Date(c.readyAt) : null,
-      fitReasons: batteryTruckFit(spec, byId.get(c.id)!),
-    })))
-    const issuable = ranked.filter(isIssuableBattery)
-    suggestion = {
-      truckId: truck.id,
-      choice: issuable[0]?.id ?? null,
-      ranked: issuable.slice(0, 5).map(r => r.id),
-      compatibleNotReady: ranked.filter(r => r.fitReasons.length === 0 && !r.ready).length,
-    }
-  }
-  const byTruck = new Map(cards.filter(c => c.truck).map(c => [c.truck!.id, c]))
-  return {
+  const shiftStart = shiftStartedAt(now, settings.shiftStarts, settings.timeZone)
+  const head = {
     now: now.toISOString(),
     areaId: query.areaId ?? null,
     areas,
     policy: { coolDownMinutes: settings.coolDownMinutes, cellSpreadThreshold: settings.cellSpreadThreshold },
-    batteries: cards.map(boardCard),
-    trucks: trucks.map(t => ({ id: t.id, fleetNumber: t.fleetNumber, systemVoltage: t.systemVoltage, outOfService: t.outOfService, batteryId: byTruck.get(t.id)?.id ?? null, inspection: checks.stateOf[t.id] ?? null })),
-    suggestion,
   }
+  const truckList = trucks.map(t => ({
+    id: t.id, fleetNumber: t.fleetNumber, systemVoltage: t.systemVoltage, outOfService: t.outOfService, batteryId: t.batteryId,
+    inspection: t.outOfService ? null : truckCheckState(t, shiftStart),
+  }))
+  if (typeof cards === 'string') {
+    return new JsonText(`${JSON.stringify(head).slice(0, -1)},"batteries":${cards},${JSON.stringify({ trucks: truckList, suggestion: null }).slice(1)}`)
+  }
+  const cardsAt = cards.map(r => batteryCard(r, settings.timeZone, now))
+  const truck = trucks.find(t => t.id === query.truckId)
+  if (!truck) throw createError({ statusCode: 404, message: 'No such electric truck at this site.' })
+  const spec = truckSpec(truck)
+  const byId = new Map(cards.map(r => [r.id, r]))
+  const ranked = rankBatteriesForTruck(cardsAt.filter(c => c.state !== 'in_truck').map(c => ({
+    id: c.id, ready: c.readiness.length === 0, cycleCount: c.cycleCount,
+    restedSince: c.readyAt ? new Date(c.readyAt) : null,
+    fitReasons: batteryTruckFit(spec, byId.get(c.id)!),
+  })))
+  const issuable = ranked.filter(isIssuableBattery)
+  const suggestion = {
+    truckId: truck.id,
+    choice: issuable[0]?.id ?? null,
+    ranked: issuable.slice(0, 5).map(r => r.id),
+    compatibleNotReady: ranked.filter(r => r.fitReasons.length === 0 && !r.ready).length,
+  }
+  return { ...head, batteries: cardsAt.map(boardCard), trucks: truckList, suggestion }
+}
+
+export interface BoardAnswer {
+  now: string
+  areaId: string | null
+  areas: { id: string, name: string }[]
+  policy: { coolDownMinutes: number, cellSpreadThreshold: number }
+  batteries: BoardCardData[]
+  trucks: { id: string, fleetNumber: string, systemVoltage: number | null, outOfService: boolean, batteryId: string | null, inspection: TruckCheckState | null }[]
+  suggestion: { truckId: string, choice: string | null, ranked: string[], compatibleNotReady: number } | null
 }

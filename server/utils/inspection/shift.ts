@@ -2,7 +2,7 @@ import { sql } from 'drizzle-orm'
 import { parseSiteSettings } from '#shared/utils/site-settings'
 import { localDate } from '#shared/utils/due-dates'
 import { shiftStartedAt, zonedInstant } from '#shared/utils/shift-times'
-import type { ShiftInspectionStatus } from '#shared/types/inspection'
+import type { ShiftInspectionStatus, TruckCheckState } from '#shared/types/inspection'
 import type { DbOrTx } from '../db'
 
 // The site's pre-shift checks at this moment (29 CFR 1910.178(q)(7): examined before being placed in
@@ -27,17 +27,23 @@ export async function shiftInspectionStatus(db: DbOrTx, siteId: string, now = ne
   for (const r of rows) {
     const inspected = time(r.lastInspectionAt)
     const heldSince = time(r.holdSince)
-    if (heldSince && r.holdReason) {
-      out.stateOf[r.id] = 'held'
-      out.held.push({ id: r.id, fleetNumber: r.fleetNumber, tagCode: r.tagCode, since: heldSince.toISOString(), hours: Math.floor((now.getTime() - heldSince.getTime()) / 3_600_000), reason: r.holdReason })
+    const state = truckCheckState(r, since)
+    out.stateOf[r.id] = state
+    if (heldSince && state === 'held') {
+      out.held.push({ id: r.id, fleetNumber: r.fleetNumber, tagCode: r.tagCode, since: heldSince.toISOString(), hours: Math.floor((now.getTime() - heldSince.getTime()) / 3_600_000), reason: r.holdReason! })
       continue
     }
-    const checked = !!inspected && inspected >= since
-    out.stateOf[r.id] = checked ? 'checked' : 'unchecked'
+    const checked = state === 'checked'
     const used = time(r.lastUsedAt)
     const usedToday = (used && used >= dayStart) || (inspected && inspected >= dayStart)
     if (!checked && usedToday) out.unchecked.push({ id: r.id, fleetNumber: r.fleetNumber, tagCode: r.tagCode, lastInspectionAt: inspected?.toISOString() ?? null })
   }
   out.held.sort((a, b) => a.since.localeCompare(b.since))
   return out
+}
+
+/** A truck's pre-shift check at this moment: held (an inspection hold with its reason), checked since the shift began, or not. */
+export function truckCheckState(r: { lastInspectionAt: string | Date | null, holdSince: string | Date | null, holdReason: string | null }, shiftStart: Date): TruckCheckState {
+  if (r.holdSince !== null && r.holdReason) return 'held'
+  return r.lastInspectionAt !== null && new Date(r.lastInspectionAt) >= shiftStart ? 'checked' : 'unchecked'
 }
