@@ -24,5 +24,13 @@ export function errorMessage(error: unknown, fallback?: string): string {
 
 // Field messages of a 400 answer, keyed by field name (read by the one refusal parser, refusal.ts).
 export function errorFields(error: unknown): Record<string, string> {
-  return parseRefusal(error)?.fields ?? {}
+  return refusalFields(parseRefusal(error))
+}
+
+// A refusal's field messages in the reader's language: each issue the server sent with its code and limits
+// in the words the client uses for the same issue before sending (issueWordsFor); the server's words otherwise.
+export function refusalFields(refusal: Refusal | null): Record<string, string> {
+  if (!refusal) return {}
+  const i18n = tryUseNuxtApp()?.$i18n
+  return sentFieldMessages(refusal.fields, refusal.issues, i18n && issueWordsFor(i18n.t, i18n.locale.value))
 }

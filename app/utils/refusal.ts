@@ -1,4 +1,5 @@
 import type { ReasonParams } from '#shared/utils/battery-fit'
+import { readSentIssue, type SentIssue } from '#shared/utils/field-messages'
 
 /**
  * One reason the server gave: its code and numbers when it sent them ({ code, message, params }), and its
@@ -13,6 +14,8 @@ export interface Refusal {
   reasons: RefusalReason[]
   /** field messages of a 400 (`data.fields`), keyed by dotted path */
   fields: Record<string, string>
+  /** each field's issue code and limits (`data.issues`), where the server sent them: refusalFields words them */
+  issues: Record<string, SentIssue>
   overridable: boolean
   offerQuarantine: boolean
   /** everything else the route put in `data` */
@@ -21,8 +24,8 @@ export interface Refusal {
 
 interface FetchFailure { statusCode?: number, status?: number, data?: { message?: string, statusMessage?: string, data?: Record<string, unknown> } }
 
-// The one parser of the server's refusals: `data.fields`, `data.reasons` (strings or { code, message }),
-// and `message`. Null when no answer came back at all (no connection, timeout).
+// The one parser of the server's refusals: `data.fields` with `data.issues`, `data.reasons` (strings or
+// { code, message }), and `message`. Null when no answer came back at all (no connection, timeout).
 export function parseRefusal(error: unknown): Refusal | null {
   const e = error as FetchFailure | null
   const status = e?.statusCode ?? e?.status ?? 0
@@ -35,6 +38,11 @@ export function parseRefusal(error: unknown): Refusal | null {
     return { code: typeof given?.code === 'string' ? given.code : null, message: String(given?.message ?? ''), ...(params ? { params } : {}) }
   }).filter(r => r.message)
   const fields = data.fields && typeof data.fields === 'object' ? data.fields as Record<string, string> : {}
+  const sent = data.issues && typeof data.issues === 'object' ? data.issues as Record<string, unknown> : {}
+  const issues = Object.fromEntries(Object.keys(fields).flatMap((k) => {
+    const issue = Object.hasOwn(sent, k) ? readSentIssue(sent[k]) : undefined
+    return issue ? [[k, issue]] : []
+  }))
   const message = e?.data?.message || reasons[0]?.message || e?.data?.statusMessage || `Bayward refused it (${status}).`
-  return { status, message, reasons, fields, overridable: data.overridable === true, offerQuarantine: data.offerQuarantine === true, data }
+  return { status, message, reasons, fields, issues, overridable: data.overridable === true, offerQuarantine: data.offerQuarantine === true, data }
 }

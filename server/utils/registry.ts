@@ -108,7 +108,7 @@ export function listConditions(event: H3Event, kind: AssetKind, query: ListQuery
   for (const [name, f] of Object.entries(cfg.filters)) {
     if (raw[name] === undefined || raw[name] === '') continue
     const parsed = f.schema.safeParse(raw[name])
-    if (!parsed.success) throw createError({ statusCode: 400, message: `Check the filter "${name}".`, data: { fields: { [name]: parsed.error.issues[0]?.message ?? 'Not valid.' } } })
+    if (!parsed.success) throw schemaFieldsError(parsed.error, `Check the filter "${name}".`, name)
     where.push(eq(f.column, parsed.data as never))
   }
   if (query.q) {
@@ -117,7 +117,7 @@ export function listConditions(event: H3Event, kind: AssetKind, query: ListQuery
   }
   // only the kind's own sort keys: `constructor`, `__proto__` and other names every object answers to are refused
   if (query.sort && !Object.hasOwn(cfg.sortable, query.sort)) {
-    throw createError({ statusCode: 400, message: `Sort by one of: ${Object.keys(cfg.sortable).join(', ')}.`, data: { fields: { sort: 'Not a column this list sorts by.' } } })
+    throw checkFieldsError({ sort: 'Not a column this list sorts by.' }, `Sort by one of: ${Object.keys(cfg.sortable).join(', ')}.`, { sort: { code: 'invalid_value' } })
   }
   const sortKey = query.sort ?? cfg.defaultSort
   const sortCol = cfg.sortable[sortKey]!
@@ -204,7 +204,7 @@ export async function createAsset(event: H3Event, kind: AssetKind) {
   const { siteId, ...rest } = await validateBody(event, createBody)
   const actor = await requireAbility(event, 'asset.edit', siteId)
   const parsed = assetCreateSchemas[kind].safeParse(rest)
-  if (!parsed.success) throw checkFieldsError(fieldMessages(parsed.error))
+  if (!parsed.success) throw schemaFieldsError(parsed.error)
   const values = parsed.data as Record<string, unknown>
   refuseRuleProblems(assetRuleProblems(kind, values, await siteAreaKinds(siteId)))
   try {
@@ -234,7 +234,7 @@ export async function updateAsset(event: H3Event, kind: AssetKind) {
   requireActorCan(actor, 'asset.edit', row.siteId)
   const current = Object.fromEntries(fieldKeys.map(k => [k, row[k]]))
   const merged = assetCreateSchemas[kind].safeParse({ ...current, ...patch })
-  if (!merged.success) throw checkFieldsError(fieldMessages(merged.error))
+  if (!merged.success) throw schemaFieldsError(merged.error)
   const values = merged.data as Record<string, unknown>
   refuseRuleProblems(assetRuleProblems(kind, { ...values, status: patch.status }, await siteAreaKinds(row.siteId), row))
   const revived = reviveCondemned(actor, kind, row, patch.status, statusReason)

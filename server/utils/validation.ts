@@ -1,17 +1,26 @@
 import type { H3Event } from 'h3'
 import type { z } from 'zod'
 import type { ReasonParams } from '#shared/utils/battery-fit'
+import type { SentIssue } from '#shared/utils/field-messages'
 
 // Every 400 answer carries its field messages in `data.fields` (fieldMessages, shared/utils/field-messages.ts)
-// and the code `check_fields`, which a screen says in the reader's words (refusal.check_fields).
-export function checkFieldsError(fields: Record<string, string>, message = 'Check the highlighted fields.') {
-  return createError({ statusCode: 400, message, data: { code: 'check_fields', fields } })
+// and the code `check_fields`, which a screen says in the reader's words (refusal.check_fields). Beside the
+// English, `data.issues` gives each field's issue code and limits (fieldIssues), from which a screen in another
+// language words the field (sentFieldMessages).
+export function checkFieldsError(fields: Record<string, string>, message = 'Check the highlighted fields.', issues?: Record<string, SentIssue>) {
+  return createError({ statusCode: 400, message, data: { code: 'check_fields', fields, ...(issues ? { issues } : {}) } })
+}
+
+/** A schema's refusal as a 400: each field's message and issue; `at` (a dotted path) when the schema read a part of the input. */
+export function schemaFieldsError(error: z.ZodError, message?: string, at = '') {
+  const key = (k: string) => (!at ? k : k === '_' ? at : `${at}.${k}`)
+  const under = <T>(record: Record<string, T>) => Object.fromEntries(Object.entries(record).map(([k, v]) => [key(k), v]))
+  return checkFieldsError(under(fieldMessages(error)), message, under(fieldIssues(error)))
 }
 
 function invalid(error: z.ZodError, what: string) {
-  const fields = fieldMessages(error)
-  const first = Object.entries(fields)[0]
-  return checkFieldsError(fields, first ? `Check ${what}: ${first[0] === '_' ? '' : `${first[0]} — `}${first[1]}` : `Check ${what}.`)
+  const first = Object.entries(fieldMessages(error))[0]
+  return schemaFieldsError(error, first ? `Check ${what}: ${first[0] === '_' ? '' : `${first[0]} — `}${first[1]}` : `Check ${what}.`)
 }
 
 // PostgreSQL text cannot hold U+0000, so input carrying one is refused here rather than failing in a query.
@@ -28,7 +37,7 @@ function nulCharacterPath(value: unknown, path: string[] = []): string | undefin
 
 function refuseNulCharacters(input: unknown) {
   const path = nulCharacterPath(input)
-  if (path) throw createError({ statusCode: 400, message: 'Text cannot contain a NUL character.', data: { fields: { [path]: 'Contains a character that cannot be stored.' } } })
+  if (path) throw checkFieldsError({ [path]: 'Contains a character that cannot be stored.' }, 'Text cannot contain a NUL character.', { [path]: { code: 'invalid_format' } })
 }
 
 export async function validateBody<S extends z.ZodType>(event: H3Event, schema: S): Promise<z.output<S>> {

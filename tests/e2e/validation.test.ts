@@ -60,6 +60,26 @@ describe('bad input is 400 with field messages, conflicts 409, never 500', () =>
     if (text) expect(res.body.data.fields[field]).toContain(text)
   })
 
+  it('a 400 names each field\'s issue code and limits beside its English words (data.issues), body and query alike', async () => {
+    // limits as the shared schemas set them: shared/utils/asset-schemas.ts (voltage 12–120 V, serial up to 60
+    // characters), shared/utils/schedule-schemas.ts (due list limit up to 20,000)
+    const body = await admin.post('/api/batteries', { siteId, ...batteryInput({ voltage: 200, serial: 'S'.repeat(61) }) })
+    expect(body.status).toBe(400)
+    expect(body.body.data.code).toBe('check_fields')
+    expect(body.body.data.fields).toMatchObject({ voltage: 'At most 120 V.' })
+    expect(Object.keys(body.body.data.issues)).toEqual(Object.keys(body.body.data.fields))
+    expect(body.body.data.issues).toMatchObject({ voltage: { code: 'too_big', origin: 'number', maximum: 120 }, serial: { code: 'too_big', origin: 'string', maximum: 60 } })
+    const typed = await admin.post('/api/batteries', { siteId, ...batteryInput({ voltage: '36' }) })
+    expect(typed.body.data.issues.voltage).toEqual({ code: 'invalid_type', expected: 'number' })
+    const custom = await admin.post('/api/batteries', { siteId, ...batteryInput({ voltage: 36, cellCount: 20 }) })
+    expect(custom.body.data.issues.cellCount).toEqual({ code: 'custom' })
+    const query = await admin.get(`/api/due?siteId=${siteId}&limit=20001`)
+    expect(query.status).toBe(400)
+    expect(query.body.data.issues).toEqual({ limit: { code: 'too_big', origin: 'number', maximum: 20_000 } })
+    const nul = await admin.get(`/api/batteries?siteId=${siteId}&q=A%00B`)
+    expect(nul.body.data).toMatchObject({ code: 'check_fields', issues: { q: { code: 'invalid_format' } } })
+  })
+
   describe('junk in any field is refused (400, or 409 when it collides), never a 500', () => {
     const JUNK: [string, unknown][] = [['null', null], ['an object', { $gt: '' }], ['a list', [1, 2]], ['true', true], ['a word', 'lots'], ['a NUL character', 'A\u0000B']]
     const bodies: [string, string, () => Record<string, unknown>][] = [

@@ -1,7 +1,9 @@
 import { describe, expect, it } from 'vitest'
 import { chargeEndSchema, swapBodySchema } from '../../shared/utils/battery-room-schemas'
 import { parseRefusal } from '../../app/utils/refusal'
-import { errorMessage } from '../../app/utils/errors'
+import { errorFields, errorMessage } from '../../app/utils/errors'
+import { fieldIssues, fieldMessages } from '../../shared/utils/field-messages'
+import { issueWordsFor } from '../../app/utils/issue-words'
 import { newIdempotencyKey } from '../../app/utils/idempotency'
 import { useFloorForm } from '../../app/composables/useFloorForm'
 import { useReasonWords } from '../../app/composables/useReasonWords'
@@ -112,6 +114,52 @@ describe('parseRefusal', () => {
     }
     finally {
       session.me = null
+      await $i18n.setLocale('en')
+    }
+  })
+
+  it('says a server 400\'s field messages in the reader\'s words from each field\'s sent issue; a rule of its own keeps the server\'s', async () => {
+    // what validateBody answers (server/utils/validation.ts): English at each field, and each field's issue beside it
+    const english = {
+      'title': 'At least 3 characters.', 'source': 'At most 300 characters.', 'every': 'At least 1.', 'hourMeter': 'Hour meter must be a number.',
+      'endTempF': 'Above 200 °F is not a reading.', 'unit': 'Only batteries count charges.', 'cells.3.specificGravity': 'Not above 1.4.',
+      'odd': 'Server words.', 'bare': 'Words without a limit.', 'unsent': 'No issue sent.',
+    }
+    const answer = fetchError(400, { message: 'Check the form: title — At least 3 characters.', data: {
+      code: 'check_fields',
+      fields: english,
+      issues: {
+        'title': { code: 'too_small', origin: 'string', minimum: 3 }, 'source': { code: 'too_big', origin: 'string', maximum: 300 },
+        'every': { code: 'too_small', origin: 'number', minimum: 1 }, 'hourMeter': { code: 'invalid_type', expected: 'number' },
+        'endTempF': { code: 'too_big', origin: 'number', maximum: 200 }, 'unit': { code: 'custom' },
+        'cells.3.specificGravity': { code: 'too_big', origin: 'number', maximum: 1.4 },
+        'odd': { code: 'a_code_with_no_words' }, 'bare': { code: 'too_big', origin: 'number' }, 'extra': { code: 'too_big', maximum: 1 },
+      },
+    } })
+    // Spanish from field_issue.* in i18n/locales/es.json; a stored-unit field (°F) gets no number; custom, unknown codes,
+    // a limit not sent and a field with no issue keep the server's words
+    const spanish = {
+      ...english, 'title': 'Al menos 3 caracteres.', 'source': 'Máximo 300 caracteres.', 'every': 'No menos de 1.', 'hourMeter': 'Escriba un número.',
+      'endTempF': 'Parece incorrecto; revise la lectura.', 'cells.3.specificGravity': 'No más de 1.4.',
+    }
+    const { $i18n } = useNuxtApp()
+    const form = useFloorForm<object, unknown>({ sendNow: async () => Promise.reject(answer) })
+    try {
+      expect(parseRefusal(answer)?.issues).not.toHaveProperty('extra')
+      expect(errorFields(answer)).toEqual(english)
+      await form.submit({})
+      expect(form.fields.value).toEqual(english)
+      await $i18n.setLocale('es')
+      expect(errorFields(answer)).toEqual(spanish)
+      await form.submit({})
+      expect(form.fields.value).toEqual(spanish)
+      expect(form.problem.value).toBe('Revise los campos marcados abajo.')
+      // what the server sends for a schema's issues reads as the client's own check of the same body would
+      const error = chargeEndSchema.safeParse({ ampHoursReturned: -1, endTempF: 500, outcome: 'maybe', packStateOfChargePct: 150 }).error!
+      const sent = fetchError(400, { data: { code: 'check_fields', fields: fieldMessages(error), issues: JSON.parse(JSON.stringify(fieldIssues(error))) } })
+      expect(errorFields(sent)).toEqual(fieldMessages(error, issueWordsFor($i18n.t, 'es')))
+    }
+    finally {
       await $i18n.setLocale('en')
     }
   })

@@ -35,4 +35,23 @@ describe('useLeadForm', () => {
     expect(form.fields.value).toEqual({ title: 'Pick another name.' })
     expect(form.problem.value).toContain('A schedule with that name exists.')
   })
+
+  it('a 400 from the server reads in Spanish at each field the server sent an issue for; a rule of its own keeps its words', async () => {
+    const { $i18n } = useNuxtApp()
+    const form = useLeadForm()
+    const refusal = { statusCode: 400, data: { message: 'Check the form: every — At most 100,000.', data: {
+      code: 'check_fields',
+      fields: { every: 'At most 100,000.', unit: 'Only batteries count charges.' },
+      issues: { every: { code: 'too_big', origin: 'number', maximum: 100_000 }, unit: { code: 'custom' } },
+    } } }
+    try {
+      await $i18n.setLocale('es')
+      expect(await form.submit(scheduleCreateSchema, body, async () => Promise.reject(refusal))).toBeUndefined()
+      // field_issue.max in i18n/locales/es.json
+      expect(form.fields.value).toEqual({ every: 'No más de 100000.', unit: 'Only batteries count charges.' })
+    }
+    finally {
+      await $i18n.setLocale('en')
+    }
+  })
 })

@@ -9,9 +9,7 @@ export default defineAbilityHandler('site.edit', async (event) => {
     const [before] = await tx.select().from(tables.sites).where(eq(tables.sites.id, id)).for('update')
     if (!before) throw createError({ statusCode: 404, message: 'No such site.' })
     const settings = siteSettingsSchema.safeParse({ ...before.settings, ...settingsPatch })
-    if (!settings.success) {
-      throw checkFieldsError(Object.fromEntries(Object.entries(fieldMessages(settings.error)).map(([k, v]) => [`settings.${k}`, v])), 'Check the site settings.')
-    }
+    if (!settings.success) throw schemaFieldsError(settings.error, 'Check the site settings.', 'settings')
     const [site] = await tx.update(tables.sites).set({ ...fields, settings: settings.data }).where(eq(tables.sites.id, id)).returning()
     await writeAudit(tx, { actor, siteId: id, action: 'update', entity: 'site', entityId: id, before, after: site })
     // cool-down, thresholds, requalification years, time zone: every read model of the site follows
