@@ -34,3 +34,9 @@ export function refusalFields(refusal: Refusal | null): Record<string, string> {
   const i18n = tryUseNuxtApp()?.$i18n
   return sentFieldMessages(refusal.fields, refusal.issues, i18n && issueWordsFor(i18n.t, i18n.locale.value))
 }
+
+// The message at a field (keyed by fieldKey), or at anything inside it: a list's first refused item
+// ('settings.shiftStarts.1') shows at the list's field.
+export function fieldError(fields: Record<string, string>, key: string): string | undefined {
+  return fields[key] ?? Object.entries(fields).find(([k]) => k.startsWith(`${key}.`))?.[1]
+}

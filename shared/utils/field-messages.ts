@@ -22,11 +22,20 @@ export function readSentIssue(value: unknown): SentIssue | undefined {
   return sent
 }
 
-// The first issue per field, keyed by dotted path ('hourMeter', 'cells.3.specificGravity'; '_' for the whole).
+/**
+ * The one rule that names a field by its issue's path: the dotted path from the body's top ('hourMeter',
+ * 'settings.coolDownMinutes', 'cells.3.specificGravity'), '_' for the whole. The server keys `data.fields` and
+ * `data.issues` by it, and a form keys its own check's messages by it, so both land at the same field.
+ */
+export function fieldKey(path: readonly PropertyKey[]): string {
+  return path.map(String).join('.') || '_'
+}
+
+// The first issue per field, keyed by fieldKey.
 function firstIssues(error: z.ZodError): Map<string, z.core.$ZodIssue> {
   const first = new Map<string, z.core.$ZodIssue>()
   for (const issue of error.issues) {
-    const key = issue.path.join('.') || '_'
+    const key = fieldKey(issue.path)
     if (!first.has(key)) first.set(key, issue)
   }
   return first

@@ -78,6 +78,11 @@ describe('bad input is 400 with field messages, conflicts 409, never 500', () =>
     expect(query.body.data.issues).toEqual({ limit: { code: 'too_big', origin: 'number', maximum: 20_000 } })
     const nul = await admin.get(`/api/batteries?siteId=${siteId}&q=A%00B`)
     expect(nul.body.data).toMatchObject({ code: 'check_fields', issues: { q: { code: 'invalid_format' } } })
+    // a site's settings are keyed from the body's top (settings.…), as the site form keys its own check;
+    // cool-down at most 24 × 60 = 1440 minutes (shared/utils/site-settings.ts)
+    const settings = await admin.patch(`/api/sites/${siteId}`, { settings: { coolDownMinutes: 5000 } })
+    expect(settings.status).toBe(400)
+    expect(settings.body.data.issues).toEqual({ 'settings.coolDownMinutes': { code: 'too_big', origin: 'number', maximum: 1440 } })
   })
 
   describe('junk in any field is refused (400, or 409 when it collides), never a 500', () => {
