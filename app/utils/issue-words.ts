@@ -31,7 +31,10 @@ export function issueWordsFor(t: (key: string, params?: Record<string, unknown>)
         if (issue.origin === 'string') return t('field_issue.long', n(issue.maximum))
         return limits ? t('field_issue.max', n(issue.maximum)) : t('field_issue.range')
       case 'invalid_value': return t('field_issue.choose')
-      case 'invalid_format': return t('field_issue.format')
+      // a day written right that is not on the calendar (30 February) says so
+      case 'invalid_format': return issue.format === 'date' ? t('field_issue.date') : t('field_issue.format')
+      // a field the record does not have
+      case 'unrecognized_keys': return t('field_issue.unknown')
       default: return undefined
     }
   }

@@ -1,4 +1,4 @@
-import type { H3Event } from 'h3'
+import { createError, type H3Event } from 'h3'
 import type { z } from 'zod'
 import type { ReasonParams } from '#shared/utils/battery-fit'
 import type { SentIssue } from '#shared/utils/field-messages'
