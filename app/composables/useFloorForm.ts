@@ -88,11 +88,10 @@ export function useFloorForm<B extends object, A = unknown>(options: FloorFormOp
       else {
         // a coded 400/409 (data.code, data.params) in the reader's words, at each field it names
         // (check_fields: each field's issue in the reader's words from its code and limits, the summary too)
-        const general = r.data.code === 'check_fields'
         const coded = typeof r.data.code === 'string' && locale.value !== 'en'
           ? reasonText({ code: r.data.code, message: r.message, params: r.data.params as CodedReason['params'] })
           : null
-        fields.value = coded && !general ? Object.fromEntries(Object.keys(r.fields).map(k => [k, coded])) : refusalFields(r)
+        fields.value = refusalFields(r)
         problem.value = coded && Object.keys(r.fields).length ? t('floor.check_fields') : coded ?? r.message
       }
       return null

@@ -1,7 +1,7 @@
 import type { z } from 'zod'
 
 // A lead's form (schedules, settings, assets): the shared zod schema runs first and its issues become
-// field messages (`hints` word them in the form's own terms), then one send at a time; a refusal from the
+// field messages keyed by dotted path (fieldKey; `hints`, by the same keys, word them in the form's own terms), then one send at a time; a refusal from the
 // server comes back in words and per field. The floor forms have their own kit (useFloorForm), with an
 // outbox; a lead's form is sent at once or not at all.
 export function useLeadForm(hints: Record<string, string> = {}) {
@@ -21,11 +21,9 @@ export function useLeadForm(hints: Record<string, string> = {}) {
     problem.value = ''
     const parsed = schema.safeParse(body)
     if (!parsed.success) {
-      const words = issueWordsFor(t, locale.value)
-      fields.value = Object.fromEntries(parsed.error.issues.map((i) => {
-        const key = String(i.path.at(-1))
-        return [key, hints[key] ?? words?.(i) ?? i.message]
-      }))
+      // keyed as the server keys its refusal (fieldKey), so both land at the same field
+      const messages = fieldMessages(parsed.error, issueWordsFor(t, locale.value))
+      fields.value = Object.fromEntries(Object.entries(messages).map(([key, message]) => [key, hints[key] ?? message]))
       problem.value = t('lead_form.check_fields')
       return undefined
     }

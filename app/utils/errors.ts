@@ -8,18 +8,22 @@ export function errorMessage(error: unknown, fallback?: string): string {
   const say = (key: string, english: string) => (i18n ? i18n.t(key) : english)
   const e = error as { data?: { message?: string }, statusMessage?: string, message?: string, statusCode?: number }
   if (e?.statusCode === undefined && e?.message?.includes('fetch')) return say('app.no_connection', 'No connection to Bayward. Check the network and try again.')
-  if (app && i18n && i18n.locale.value !== 'en') {
-    const r = parseRefusal(error)
-    if (r && (r.reasons[0]?.code || typeof r.data.code === 'string')) {
-      try {
-        return app.runWithContext(() => useReasonWords().refusalText(r)) as string
-      }
-      catch {
-        // the reason words need the app's stores; the server's words below will do
-      }
-    }
-  }
+  const coded = codedRefusalText(parseRefusal(error))
+  if (coded !== undefined) return coded
   return e?.data?.message || e?.statusMessage || fallback || say('app.something_wrong', 'Something went wrong. Try again.')
+}
+
+// A coded refusal (a reason's code, or `data.code`) in the reader's words when the language is not English;
+// undefined otherwise, or outside the app (the reason words need the app's stores).
+function codedRefusalText(r: Refusal | null): string | undefined {
+  const app = tryUseNuxtApp()
+  if (!r || !app?.$i18n || app.$i18n.locale.value === 'en' || !(r.reasons[0]?.code || typeof r.data.code === 'string')) return undefined
+  try {
+    return app.runWithContext(() => useReasonWords().refusalText(r)) as string
+  }
+  catch {
+    return undefined
+  }
 }
 
 // Field messages of a 400 answer, keyed by field name (read by the one refusal parser, refusal.ts).
@@ -27,10 +31,20 @@ export function errorFields(error: unknown): Record<string, string> {
   return refusalFields(parseRefusal(error))
 }
 
-// A refusal's field messages in the reader's language: each issue the server sent with its code and limits
-// in the words the client uses for the same issue before sending (issueWordsFor); the server's words otherwise.
+// A refusal's field messages in the reader's language, keyed as the server keys them (fieldKey): each issue the
+// server sent with its code and limits in the words the client uses for the same issue before sending
+// (issueWordsFor); a coded refusal (data.code other than check_fields) says its code's words at each field it
+// names; the server's words otherwise.
 export function refusalFields(refusal: Refusal | null): Record<string, string> {
   if (!refusal) return {}
+  const coded = refusal.data.code === 'check_fields' ? undefined : codedRefusalText(refusal)
+  if (coded !== undefined) return Object.fromEntries(Object.keys(refusal.fields).map(k => [k, coded]))
   const i18n = tryUseNuxtApp()?.$i18n
   return sentFieldMessages(refusal.fields, refusal.issues, i18n && issueWordsFor(i18n.t, i18n.locale.value))
+}
+
+// The message at a field (keyed by fieldKey), or at anything inside it: a list's first refused item
+// ('settings.shiftStarts.1') shows at the list's field.
+export function fieldError(fields: Record<string, string>, key: string): string | undefined {
+  return fields[key] ?? Object.entries(fields).find(([k]) => k.startsWith(`${key}.`))?.[1]
 }

@@ -1,3 +1,5 @@
+import { checkFieldsError, codedError } from './validation'
+
 // Postgres error codes inside drizzle's wrapped errors.
 export function pgErrorCode(error: unknown): string | undefined {
   let e: unknown = error
@@ -26,13 +28,14 @@ const realCalendarDate = (s: string) => {
   return Number(s.slice(0, 4)) >= 1 && !Number.isNaN(d.getTime()) && d.toISOString().slice(0, 10) === s
 }
 
-// A value the schema let through but PostgreSQL refuses (data exception, SQLSTATE class 22: an
-// impossible date such as 2024-02-30) is bad input: a 400 naming the date fields at fault.
+// A value the schema let through but PostgreSQL refuses (data exception, SQLSTATE class 22) is bad input, a
+// 400: an impossible date such as 2024-02-30 at each date field at fault, with the issue a schema gives a
+// date written wrong (invalid_format, date); anything else as the coded value_unstorable.
 export function unstorableValueError(error: unknown, values: Record<string, unknown>) {
   if (!pgErrorCode(error)?.startsWith('22')) return undefined
-  const fields: Record<string, string> = {}
-  for (const [key, value] of Object.entries(values)) {
-    if (typeof value === 'string' && /^\d{4}-\d{2}-\d{2}$/.test(value) && !realCalendarDate(value)) fields[key] = 'Not a real date.'
-  }
-  return checkFieldsError(Object.keys(fields).length ? fields : { _: 'A value cannot be stored.' })
+  const dates = Object.entries(values).flatMap(([key, value]) =>
+    typeof value === 'string' && /^\d{4}-\d{2}-\d{2}$/.test(value) && !realCalendarDate(value) ? [key] : [])
+  if (!dates.length) return codedError(400, 'value_unstorable', 'A value cannot be stored.')
+  return checkFieldsError(Object.fromEntries(dates.map(k => [k, 'Not a real date.'])), undefined,
+    Object.fromEntries(dates.map(k => [k, { code: 'invalid_format', format: 'date' }])))
 }

@@ -229,7 +229,10 @@ export async function updateAsset(event: H3Event, kind: AssetKind) {
   const { statusReason, ...patch } = await validateBody(event, z.record(z.string(), z.unknown()))
   const fieldKeys = Object.keys(assetFieldSchemas[kind].shape)
   const unknown = Object.keys(patch).filter(k => !fieldKeys.includes(k))
-  if (unknown.length) throw createError({ statusCode: 400, message: `Unknown field: ${unknown.join(', ')}.`, data: { fields: Object.fromEntries(unknown.map(k => [k, 'Not a field of this record.'])) } })
+  if (unknown.length) {
+    throw checkFieldsError(Object.fromEntries(unknown.map(k => [k, 'Not a field of this record.'])), `Unknown field: ${unknown.join(', ')}.`,
+      Object.fromEntries(unknown.map(k => [k, { code: 'unrecognized_keys' }])))
+  }
   const { actor, row } = await findAssetForActor(event, kind, id)
   requireActorCan(actor, 'asset.edit', row.siteId)
   const current = Object.fromEntries(fieldKeys.map(k => [k, row[k]]))

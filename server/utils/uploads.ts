@@ -104,7 +104,7 @@ export async function readUploadedFile(event: H3Event, field = 'file'): Promise<
   if (files.length !== 1) throw createError({ statusCode: 400, message: 'Attach one file.', data: { fields: { [field]: 'Attach one file.' } } })
   const file = files[0]!
   const max = uploadMaxBytes()
-  if (file.data.length === 0) throw createError({ statusCode: 400, message: 'The file is empty.', data: { fields: { [field]: 'The file is empty.' } } })
+  if (file.data.length === 0) throw codedError(400, 'file_empty', 'The file is empty.', { fields: [field] })
   if (file.data.length > max) throw createError({ statusCode: 413, message: `The file is larger than ${Math.round(max / 1024 / 1024)} MB.` })
   const name = file.filename ?? ''
   if (hostileFileName(name)) {

@@ -1,4 +1,4 @@
-import type { H3Event } from 'h3'
+import { createError, type H3Event } from 'h3'
 import type { z } from 'zod'
 import type { ReasonParams } from '#shared/utils/battery-fit'
 import type { SentIssue } from '#shared/utils/field-messages'
@@ -25,10 +25,10 @@ function invalid(error: z.ZodError, what: string) {
 
 // PostgreSQL text cannot hold U+0000, so input carrying one is refused here rather than failing in a query.
 function nulCharacterPath(value: unknown, path: string[] = []): string | undefined {
-  if (typeof value === 'string') return value.includes('\u0000') ? path.join('.') || '_' : undefined
+  if (typeof value === 'string') return value.includes('\u0000') ? fieldKey(path) : undefined
   if (value && typeof value === 'object') {
     for (const [key, inner] of Object.entries(value)) {
-      const found = key.includes('\u0000') ? [...path, key].join('.') : nulCharacterPath(inner, [...path, key])
+      const found = key.includes('\u0000') ? fieldKey([...path, key]) : nulCharacterPath(inner, [...path, key])
       if (found) return found
     }
   }

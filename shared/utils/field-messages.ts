@@ -7,14 +7,14 @@ export type IssueWords = (issue: z.core.$ZodIssue) => string | undefined
  * What a 400 answer says of one field's issue beside its English message (`data.issues`): the zod code and the
  * plain values a screen words it from.
  */
-export interface SentIssue { code: string, origin?: string, minimum?: number, maximum?: number, expected?: string }
+export interface SentIssue { code: string, origin?: string, minimum?: number, maximum?: number, expected?: string, format?: string }
 
 /** A zod issue's plain values, or a sent issue read back from an answer (no zod at run time here: the floor's first page loads without the schema library). */
 export function readSentIssue(value: unknown): SentIssue | undefined {
   const given = value as Record<string, unknown> | null
   if (!given || typeof given !== 'object' || typeof given.code !== 'string') return undefined
   const sent: SentIssue = { code: given.code }
-  for (const k of ['origin', 'expected'] as const) if (typeof given[k] === 'string') sent[k] = given[k]
+  for (const k of ['origin', 'expected', 'format'] as const) if (typeof given[k] === 'string') sent[k] = given[k]
   for (const k of ['minimum', 'maximum'] as const) {
     const n = typeof given[k] === 'bigint' ? Number(given[k]) : given[k]
     if (typeof n === 'number' && Number.isFinite(n)) sent[k] = n
@@ -22,11 +22,20 @@ export function readSentIssue(value: unknown): SentIssue | undefined {
   return sent
 }
 
-// The first issue per field, keyed by dotted path ('hourMeter', 'cells.3.specificGravity'; '_' for the whole).
+/**
+ * The one rule that names a field by its issue's path: the dotted path from the body's top ('hourMeter',
+ * 'settings.coolDownMinutes', 'cells.3.specificGravity'), '_' for the whole. The server keys `data.fields` and
+ * `data.issues` by it, and a form keys its own check's messages by it, so both land at the same field.
+ */
+export function fieldKey(path: readonly PropertyKey[]): string {
+  return path.map(String).join('.') || '_'
+}
+
+// The first issue per field, keyed by fieldKey.
 function firstIssues(error: z.ZodError): Map<string, z.core.$ZodIssue> {
   const first = new Map<string, z.core.$ZodIssue>()
   for (const issue of error.issues) {
-    const key = issue.path.join('.') || '_'
+    const key = fieldKey(issue.path)
     if (!first.has(key)) first.set(key, issue)
   }
   return first

@@ -8,4 +8,8 @@ export function isRealIsoDate(s: string): boolean {
   return year >= 1900 && year <= 2200 && !Number.isNaN(d.getTime()) && d.toISOString().slice(0, 10) === s
 }
 
-export const isoDateSchema = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date like 2026-03-31.').refine(isRealIsoDate, 'Not a real date.')
+// a day written right that is not on the calendar is the issue a date written wrong is (invalid_format, date),
+// so a screen in another language words it (field_issue.date) on the client and from the server's answer alike
+export const isoDateSchema = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date like 2026-03-31.').superRefine((s, ctx) => {
+  if (!isRealIsoDate(s)) ctx.addIssue({ code: 'invalid_format', format: 'date', input: s, message: 'Not a real date.' })
+})

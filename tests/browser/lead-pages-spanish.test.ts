@@ -4,12 +4,13 @@ import type { Browser } from 'playwright-core'
 import { eq } from 'drizzle-orm'
 import { builtServer } from '../support/http'
 import { area, closeTestDb, site, tables, user, useTestDb } from '../support/db'
-import { DESKTOP, launchChromium, signInAt } from '../support/chromium'
+import { DESKTOP, launchChromium, signInAt, untilHydrated } from '../support/chromium'
 
 await setup(builtServer)
 
 let browser: Browser
 let lead: { email: string, password: string }
+let admin: { email: string, password: string }
 let areaId: string
 
 // A safety lead who reads Spanish: the area log's day and the due schedules are in Spanish, dates as es-US writes them.
@@ -20,6 +21,9 @@ beforeAll(async () => {
   const u = await user({ siteId, roles: ['safety_lead'] })
   await useTestDb().update(tables.users).set({ language: 'es' }).where(eq(tables.users.id, u.id))
   lead = u
+  const a = await user({ siteId, roles: ['admin'] })
+  await useTestDb().update(tables.users).set({ language: 'es' }).where(eq(tables.users.id, a.id))
+  admin = a
 })
 afterAll(async () => {
   await browser?.close()
@@ -63,6 +67,22 @@ describe('lead pages in Spanish', () => {
     await page.getByRole('button', { name: 'Cambiar contraseña' }).click()
     await expect.poll(() => page.getByText('Esa no es su contraseña actual.').count()).toBe(1)
     expect(await page.getByText('That is not your current password.').count()).toBe(0)
+    await context.close()
+  })
+
+  it('the site settings show the server\'s refusal of a setting at its field, in Spanish, its number as es-US writes it', async () => {
+    const { page, context } = await signInAt(browser, admin, '/site', DESKTOP)
+    await page.getByRole('heading', { level: 1, name: 'Ajustes del sitio' }).waitFor()
+    await untilHydrated(page, 'form input')
+    // the form sends settings as they are; the server checks them (cool-down at most 24 × 60 = 1440 minutes,
+    // shared/utils/site-settings.ts) and answers settings.coolDownMinutes with its limit
+    const coolDown = page.getByLabel('Enfriamiento después de la carga (minutos)')
+    await coolDown.fill('5000')
+    await page.getByRole('button', { name: 'Guardar ajustes' }).click()
+    const field = page.locator('label').filter({ has: coolDown })
+    await expect.poll(() => field.getByRole('alert').textContent()).toBe('No más de 1,440.')
+    expect(await page.getByText('Revise los campos marcados.').count()).toBe(1)
+    expect(await page.getByText('1440').count()).toBe(0)
     await context.close()
   })
 })

@@ -176,6 +176,8 @@ describe('uploads', () => {
     expect(backslash.status).toBe(400)
     const empty = await upload(c, quiet, new Uint8Array(0), 'empty.pdf', 'application/pdf')
     expect(empty.status).toBe(400)
+    // coded, so a screen says it in the reader's words (refusal.file_empty)
+    expect(empty.body.data).toMatchObject({ code: 'file_empty' })
     expect(await uploadsAt(quiet)).toHaveLength(0)
     expect(await storedFilesAt(quiet)).toEqual([])
   })

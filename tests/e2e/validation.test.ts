@@ -78,6 +78,14 @@ describe('bad input is 400 with field messages, conflicts 409, never 500', () =>
     expect(query.body.data.issues).toEqual({ limit: { code: 'too_big', origin: 'number', maximum: 20_000 } })
     const nul = await admin.get(`/api/batteries?siteId=${siteId}&q=A%00B`)
     expect(nul.body.data).toMatchObject({ code: 'check_fields', issues: { q: { code: 'invalid_format' } } })
+    // a site's settings are keyed from the body's top (settings.…), as the site form keys its own check;
+    // cool-down at most 24 × 60 = 1440 minutes (shared/utils/site-settings.ts)
+    const settings = await admin.patch(`/api/sites/${siteId}`, { settings: { coolDownMinutes: 5000 } })
+    expect(settings.status).toBe(400)
+    expect(settings.body.data.issues).toEqual({ 'settings.coolDownMinutes': { code: 'too_big', origin: 'number', maximum: 1440 } })
+    // a day written right that is not on the calendar says which issue it is (field_issue.date)
+    const day = await admin.post('/api/batteries', { siteId, ...batteryInput({ manufacturedOn: '2024-02-30' }) })
+    expect(day.body.data.issues.manufacturedOn).toEqual({ code: 'invalid_format', format: 'date' })
   })
 
   describe('junk in any field is refused (400, or 409 when it collides), never a 500', () => {
@@ -151,6 +159,8 @@ describe('bad input is 400 with field messages, conflicts 409, never 500', () =>
       const res = await admin.patch(`/api/batteries/${b.id}`, { notes: 'edited', colour: 'blue' })
       expect(res.status).toBe(400)
       expect(res.body.data.fields).toEqual({ colour: 'Not a field of this record.' })
+      // zod's code for a key the object does not have, so a screen words it (field_issue.unknown)
+      expect(res.body.data).toMatchObject({ code: 'check_fields', issues: { colour: { code: 'unrecognized_keys' } } })
       expect((await admin.get(`/api/batteries/${b.id}`)).body.item.notes).toBe('as made')
     })
 

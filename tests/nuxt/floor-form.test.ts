@@ -3,6 +3,7 @@ import { chargeEndSchema, swapBodySchema } from '../../shared/utils/battery-room
 import { parseRefusal } from '../../app/utils/refusal'
 import { errorFields, errorMessage } from '../../app/utils/errors'
 import { fieldIssues, fieldMessages } from '../../shared/utils/field-messages'
+import { isoDateSchema } from '../../shared/utils/iso-date'
 import { issueWordsFor } from '../../app/utils/issue-words'
 import { newIdempotencyKey } from '../../app/utils/idempotency'
 import { useFloorForm } from '../../app/composables/useFloorForm'
@@ -158,6 +159,34 @@ describe('parseRefusal', () => {
       const error = chargeEndSchema.safeParse({ ampHoursReturned: -1, endTempF: 500, outcome: 'maybe', packStateOfChargePct: 150 }).error!
       const sent = fetchError(400, { data: { code: 'check_fields', fields: fieldMessages(error), issues: JSON.parse(JSON.stringify(fieldIssues(error))) } })
       expect(errorFields(sent)).toEqual(fieldMessages(error, issueWordsFor($i18n.t, 'es')))
+    }
+    finally {
+      await $i18n.setLocale('en')
+    }
+  })
+
+  it('says the upload, registry and database refusals from their codes in Spanish, at their fields and as a whole', async () => {
+    // what the server answers (server/utils/uploads.ts, registry.ts updateAsset, pg-errors.ts unstorableValueError)
+    const empty = fetchError(400, { message: 'The file is empty.', data: { code: 'file_empty', fields: { file: 'The file is empty.' } } })
+    const unknown = fetchError(400, { message: 'Unknown field: colour.', data: { code: 'check_fields', fields: { colour: 'Not a field of this record.' }, issues: { colour: { code: 'unrecognized_keys' } } } })
+    const day = fetchError(400, { message: 'Check the highlighted fields.', data: { code: 'check_fields', fields: { inServiceOn: 'Not a real date.' }, issues: { inServiceOn: { code: 'invalid_format', format: 'date' } } } })
+    const unstorable = fetchError(400, { message: 'A value cannot be stored.', data: { code: 'value_unstorable' } })
+    const { $i18n } = useNuxtApp()
+    try {
+      await $i18n.setLocale('es')
+      // refusal.* and field_issue.* in i18n/locales/es.json
+      expect([errorMessage(empty), errorFields(empty)]).toEqual(['El archivo está vacío.', { file: 'El archivo está vacío.' }])
+      expect([errorMessage(unknown), errorFields(unknown)]).toEqual(['Revise los campos marcados.', { colour: 'Este dato no va en este registro.' }])
+      expect(errorFields(day)).toEqual({ inServiceOn: 'No es una fecha real.' })
+      expect([errorMessage(unstorable), errorFields(unstorable)]).toEqual(['Un dato no se puede guardar. Revise los valores.', {}])
+      // the client's own check of the same day says the same (shared/utils/iso-date.ts)
+      const error = isoDateSchema.safeParse('2024-02-30').error!
+      expect(fieldMessages(error, issueWordsFor($i18n.t, 'es'))).toEqual({ _: 'No es una fecha real.' })
+      const form = useFloorForm<object, unknown>({ sendNow: async () => Promise.reject(empty) })
+      await form.submit({})
+      expect(form.fields.value).toEqual({ file: 'El archivo está vacío.' })
+      await $i18n.setLocale('en')
+      expect([errorMessage(empty), errorFields(unknown), errorFields(day)]).toEqual(['The file is empty.', { colour: 'Not a field of this record.' }, { inServiceOn: 'Not a real date.' }])
     }
     finally {
       await $i18n.setLocale('en')
