@@ -73,7 +73,7 @@ export default defineEventHandler(async (event) => {
   const length = Number(getRequestHeader(event, 'content-length') ?? 0)
   const multipart = (getRequestHeader(event, 'content-type') ?? '').startsWith('multipart/form-data')
   const limit = multipart ? UPLOAD_LIMIT : BODY_LIMITS.find(([re]) => re.test(path))?.[1] ?? DEFAULT_LIMIT
-  const tooLarge = () => createError({ statusCode: 413, message: `The request is too large (limit ${Math.round(limit / 1024)} kB).` })
+  const tooLarge = () => codedError(413, 'request_too_large', `The request is too large (limit ${Math.round(limit / 1024)} kB).`, { params: { kb: Math.round(limit / 1024) } })
   if (length > limit) throw tooLarge()
   // A chunked body says no length up front: it is read here, counting, and refused as soon as it passes the
   // limit; the route then reads the bytes kept here (h3 looks for them under this symbol).
@@ -83,7 +83,7 @@ export default defineEventHandler(async (event) => {
         setResponseHeader(event, 'connection', 'close')
         throw tooLarge()
       }
-      throw createError({ statusCode: 400, message: 'The request body could not be read.' })
+      throw codedError(400, 'body_unreadable', 'The request body could not be read.')
     })
     ;(event.node.req as unknown as Record<symbol, unknown>)[Symbol.for('h3RawBody')] = Promise.resolve(body)
   }

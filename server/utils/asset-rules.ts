@@ -10,6 +10,14 @@ export async function siteAreaKinds(siteId: string): Promise<Map<string, string>
   return new Map(rows.map(r => [r.id, r.kind]))
 }
 
+// Each rule's English words by its code (refusal.<code>), so a refusal carries the code of its first problem.
+const RULE_WORDS = {
+  area_missing: 'Pick an area at this site.',
+  charging_area_needed: 'Pick a charging area.',
+  fuel_station_needed: 'Pick a fuel station.',
+  cylinder_status_by_exchange: 'A cylinder goes on and off a truck through a cylinder exchange.',
+}
+
 // The rules a schema cannot see, the same for create, edit and CSV import: an area reference points at an
 // area of this site and of the right kind; a cylinder goes in use (and out of it) only through an exchange.
 // Answers field → message; empty when the values keep the rules.
@@ -19,18 +27,19 @@ export function assetRuleProblems(kind: AssetKind, values: Record<string, unknow
     const areaId = values[field]
     if (!areaId) continue
     const found = areaKinds.get(String(areaId))
-    if (!found) problems[field] = 'Pick an area at this site.'
-    else if (areaKind && found !== areaKind) problems[field] = areaKind === 'charging_area' ? 'Pick a charging area.' : 'Pick a fuel station.'
+    if (!found) problems[field] = RULE_WORDS.area_missing
+    else if (areaKind && found !== areaKind) problems[field] = areaKind === 'charging_area' ? RULE_WORDS.charging_area_needed : RULE_WORDS.fuel_station_needed
   }
   if (kind === 'cylinder' && values.status !== undefined && values.status !== current?.status && (values.status === 'in_use' || current?.status === 'in_use')) {
-    problems.status = 'A cylinder goes on and off a truck through a cylinder exchange.'
+    problems.status = RULE_WORDS.cylinder_status_by_exchange
   }
   return problems
 }
 
 export function refuseRuleProblems(problems: Record<string, string>) {
   const first = Object.values(problems)[0]
-  if (first) throw createError({ statusCode: 400, message: first, data: { fields: problems } })
+  const code = Object.entries(RULE_WORDS).find(([, words]) => words === first)?.[0] ?? 'check_fields'
+  if (first) throw codedError(400, code, first, { fields: problems })
 }
 
 // A condemned cylinder stays condemned: changing its status needs a lead (cylinder.uncondemn) and the
@@ -41,7 +50,7 @@ export function reviveCondemned(actor: Actor, kind: AssetKind, row: Record<strin
   const reason = typeof statusReason === 'string' ? statusReason.trim() : ''
   if (reason.length < 10) {
     const msg = 'This cylinder is condemned. To return it to use, write down why the condemnation was wrong (statusReason, 10 characters or more).'
-    throw createError({ statusCode: 400, message: msg, data: { fields: { statusReason: 'Say why it may be used again.' } } })
+    throw codedError(400, 'condemned_reason_needed', msg, { fields: { statusReason: 'Say why it may be used again.' } })
   }
   return `Condemned cylinder returned to ${String(nextStatus)}: ${reason.slice(0, 500)}`
 }

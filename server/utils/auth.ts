@@ -137,7 +137,7 @@ export async function requireActor(event: H3Event): Promise<Actor> {
     forgetOpenedSession(event)
     delete event.context.startedSession
     await clearUserSession(event)
-    throw createError({ statusCode: 401, message: 'Sign in to continue.' })
+    throw codedError(401, 'sign_in_needed', 'Sign in to continue.')
   }
   const bySite = new Map<string, SiteMembership>()
   const revisions: Record<string, string> = {}
@@ -184,7 +184,7 @@ export async function requireAbility(event: H3Event, ability: Ability, siteId?: 
   const actor = await requireActor(event)
   const rule: AbilityRule = ABILITIES[ability]
   if (rule.scope === 'site') {
-    if (!siteId || rolesAt(actor, siteId).length === 0) throw createError({ statusCode: 404, message: 'Not found.' })
+    if (!siteId || rolesAt(actor, siteId).length === 0) throw codedError(404, 'not_found', 'Not found.')
     if (!can(rolesAt(actor, siteId), ability)) throw forbidden(ability)
   }
   else if (rule.scope === 'any-site' && !actorCan(actor, ability)) {

@@ -85,7 +85,7 @@ export async function correctRecord<Row extends CorrectionRow>(
     const [original] = actor.siteIds.length
       ? await tx.select().from(t as PgTable).where(and(eq(t.id, id), inArray(t.siteId, actor.siteIds))).for('update') as unknown as Row[]
       : []
-    if (!original) throw createError({ statusCode: 404, message: `No such ${noun}.` })
+    if (!original) throw codedError(404, 'no_such_record', `No such ${noun}.`)
     const [stored] = await tx.select().from(t as PgTable).where(eq(t.idempotencyKey, input.idempotencyKey)) as unknown as Row[]
     if (stored) {
       if (stored.correctsId !== id || stored.userId !== actor.user.id) throw codedError(409, 'retry_key_taken', 'That retry key belongs to another record; reload the form.')

@@ -8,10 +8,9 @@ import { BACKDATE_LIMIT_HOURS } from '#shared/utils/battery-room-schemas'
 export function eventTime(at: string | undefined, field: string, now = new Date()): Date {
   if (!at) return now
   const when = new Date(at)
-  const refuse = (message: string) => createError({ statusCode: 400, message, data: { fields: { [field]: message } } })
-  if (when.getTime() > now.getTime() + 5 * 60_000) throw refuse('That time is in the future.')
+  if (when.getTime() > now.getTime() + 5 * 60_000) throw codedError(400, 'time_in_future', 'That time is in the future.', { fields: [field] })
   if (when.getTime() < now.getTime() - BACKDATE_LIMIT_HOURS * 3_600_000) {
-    throw refuse(`More than ${BACKDATE_LIMIT_HOURS} h ago; ask a lead to enter a correction instead.`)
+    throw codedError(400, 'too_far_back', `More than ${BACKDATE_LIMIT_HOURS} h ago; ask a lead to enter a correction instead.`, { params: { hours: BACKDATE_LIMIT_HOURS }, fields: [field] })
   }
   return when
 }

@@ -147,7 +147,7 @@ export async function readJob<R = unknown>(id: string, userId: string): Promise<
         message: t.message, result: t.result, createdAt: t.createdAt,
       }).from(t).where(and(eq(t.id, id), eq(t.userId, userId)))
     : []
-  if (!row) throw createError({ statusCode: 404, message: 'No such job.' })
+  if (!row) throw codedError(404, 'no_such_job', 'No such job.')
   return { ...row, result: row.result as R | null, createdAt: row.createdAt.toISOString() }
 }
 

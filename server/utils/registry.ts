@@ -164,15 +164,20 @@ export async function listAssets(event: H3Event, kind: AssetKind) {
 }
 
 // Finds one asset by id among the sites the user belongs to; anything else is 404.
+// A registry row out of the person's reach (refusal.no_such_<kind>).
+function noSuchAsset(kind: AssetKind) {
+  return codedError(404, `no_such_${kind}`, `No such ${assetKinds()[kind].noun}.`)
+}
+
 export async function findAssetForActor(event: H3Event, kind: AssetKind, id: string) {
   const actor = await requireActor(event)
   const cfg = assetKinds()[kind]
-  if (actor.siteIds.length === 0) throw createError({ statusCode: 404, message: `No such ${cfg.noun}.` })
+  if (actor.siteIds.length === 0) throw noSuchAsset(kind)
   const [found] = await useDb()
     .select({ row: cfg.table, tagCode: liveTagCode(kind, cfg.table) })
     .from(cfg.table as PgTable)
     .where(and(eq(cfg.table.id, id), inArray(cfg.table.siteId, actor.siteIds)))
-  if (!found) throw createError({ statusCode: 404, message: `No such ${cfg.noun}.` })
+  if (!found) throw noSuchAsset(kind)
   const row = found.row as Record<string, unknown> & { id: string, siteId: string }
   return { actor, row, tagCode: found.tagCode }
 }
@@ -188,11 +193,8 @@ function conflict(kind: AssetKind, values: Record<string, unknown>, error: unkno
   const unstorable = unstorableValueError(error, values)
   if (unstorable) throw unstorable
   if (isUniqueViolation(error)) {
-    throw createError({
-      statusCode: 409,
-      message: `A ${cfg.noun} "${String(values[cfg.identity])}" already exists at this site.`,
-      data: { fields: { [cfg.identity]: 'Already used at this site.' } },
-    })
+    const name = String(values[cfg.identity])
+    throw codedError(409, 'asset_taken', `A ${cfg.noun} "${name}" already exists at this site.`, { params: { name }, fields: { [cfg.identity]: 'Already used at this site.' } })
   }
   throw error
 }
@@ -245,7 +247,7 @@ export async function updateAsset(event: H3Event, kind: AssetKind) {
     return await useDb().transaction(async (tx) => {
       const [updated] = await tx.update(cfg.table).set(values as never)
         .where(and(eq(cfg.table.id, id), eq(cfg.table.siteId, row.siteId))).returning()
-      if (!updated) throw createError({ statusCode: 404, message: `No such ${cfg.noun}.` })
+      if (!updated) throw noSuchAsset(kind)
       await writeAudit(tx, { actor, siteId: row.siteId, action: revived ? 'uncondemn' : 'update', entity: kind, entityId: id, before: row, after: updated, note: revived })
       await recomputeSubjects(tx, row.siteId, await registrySubjects(tx, kind, row))
       return { item: updated }
@@ -262,17 +264,17 @@ export async function setAssetOutOfService(event: H3Event, kind: AssetKind) {
   const { id } = validateParams(event, idParamsSchema)
   const body = await validateBody(event, outOfServiceSchema)
   const { actor, row } = await findAssetForActor(event, kind, id)
-  if (!cfg.holdable) throw createError({ statusCode: 400, message: `An ${cfg.noun} cannot be put out of service.` })
+  if (!cfg.holdable) throw codedError(400, 'not_holdable', `An ${cfg.noun} cannot be put out of service.`)
   requireActorCan(actor, 'asset.hold', row.siteId)
   if (row.outOfService === body.outOfService) {
-    throw createError({ statusCode: 409, message: body.outOfService ? `This ${cfg.noun} is already out of service.` : `This ${cfg.noun} is already in service.` })
+    throw body.outOfService ? codedError(409, 'already_out_of_service', `This ${cfg.noun} is already out of service.`) : codedError(409, 'already_in_service', `This ${cfg.noun} is already in service.`)
   }
   return useDb().transaction(async (tx) => {
     const t = cfg.table as typeof tables.batteries
     const [updated] = await tx.update(t)
       .set({ outOfService: body.outOfService, outOfServiceReason: body.outOfService ? body.reason : null })
       .where(and(eq(t.id, id), eq(t.outOfService, !body.outOfService))).returning()
-    if (!updated) throw createError({ statusCode: 409, message: 'Someone changed this record at the same moment; reload and try again.' })
+    if (!updated) throw codedError(409, 'changed_same_moment', 'Someone changed this record at the same moment; reload and try again.')
     await tx.insert(tables.assetHolds).values({
       siteId: row.siteId, userId: actor.user.id, assetKind: kind, assetId: id,
       action: body.outOfService ? 'hold' : 'release', reason: body.reason || 'Released',

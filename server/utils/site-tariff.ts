@@ -7,7 +7,7 @@ import { parseSiteSettings } from '#shared/utils/site-settings'
 export async function setSiteTariff(actor: Actor, siteId: string, tariff: SiteTariff): Promise<SiteTariff> {
   return useDb().transaction(async (tx) => {
     const [before] = await tx.select({ settings: tables.sites.settings }).from(tables.sites).where(eq(tables.sites.id, siteId)).for('update')
-    if (!before) throw createError({ statusCode: 404, message: 'No such site.' })
+    if (!before) throw codedError(404, 'no_such_site', 'No such site.')
     const old = parseSiteSettings(before.settings)
     await tx.update(tables.sites).set({ settings: { ...old, ...tariff } }).where(eq(tables.sites.id, siteId))
     await writeAudit(tx, {

@@ -33,7 +33,7 @@ export function uploadLimits() {
   }
 }
 
-const rateRefusal = (perHour: number) => createError({ statusCode: 429, message: `You have uploaded ${perHour} files in the last hour, the most allowed. Try again later.` })
+const rateRefusal = (perHour: number) => codedError(429, 'uploads_too_many', `You have uploaded ${perHour} files in the last hour, the most allowed. Try again later.`, { params: { n: perHour } })
 
 async function uploadsThisHour(db: DbOrTx, userId: string): Promise<number> {
   const [row] = await db.select({ n: count() }).from(tables.uploads)
@@ -76,7 +76,7 @@ export function refuseOversizedRequest(event: H3Event) {
   const declared = Number(getRequestHeader(event, 'content-length'))
   const max = uploadMaxBytes()
   if (Number.isFinite(declared) && declared > max + MULTIPART_OVERHEAD_BYTES) {
-    throw createError({ statusCode: 413, message: `The file is larger than ${Math.round(max / 1024 / 1024)} MB.` })
+    throw codedError(413, 'file_too_large', `The file is larger than ${Math.round(max / 1024 / 1024)} MB.`, { params: { mb: Math.round(max / 1024 / 1024) } })
   }
 }
 
@@ -91,28 +91,28 @@ export async function readUploadedFile(event: H3Event, field = 'file'): Promise<
   refuseOversizedRequest(event)
   const contentType = getRequestHeader(event, 'content-type') ?? ''
   if (!contentType.startsWith('multipart/form-data')) {
-    throw createError({ statusCode: 415, message: 'Send the file as multipart/form-data.' })
+    throw codedError(415, 'upload_unreadable', 'Send the file as multipart/form-data.')
   }
   let parts: Awaited<ReturnType<typeof readMultipartFormData>>
   try {
     parts = await readMultipartFormData(event)
   }
   catch {
-    throw createError({ statusCode: 400, message: 'The upload could not be read. Try again.' })
+    throw codedError(400, 'upload_unreadable', 'The upload could not be read. Try again.')
   }
   const files = (parts ?? []).filter(p => p.name === field && p.filename !== undefined)
-  if (files.length !== 1) throw createError({ statusCode: 400, message: 'Attach one file.', data: { fields: { [field]: 'Attach one file.' } } })
+  if (files.length !== 1) throw codedError(400, 'attach_one_file', 'Attach one file.', { fields: [field] })
   const file = files[0]!
   const max = uploadMaxBytes()
   if (file.data.length === 0) throw codedError(400, 'file_empty', 'The file is empty.', { fields: [field] })
-  if (file.data.length > max) throw createError({ statusCode: 413, message: `The file is larger than ${Math.round(max / 1024 / 1024)} MB.` })
+  if (file.data.length > max) throw codedError(413, 'file_too_large', `The file is larger than ${Math.round(max / 1024 / 1024)} MB.`, { params: { mb: Math.round(max / 1024 / 1024) } })
   const name = file.filename ?? ''
   if (hostileFileName(name)) {
-    throw createError({ statusCode: 400, message: 'The file name is not allowed. Rename the file (no slashes or "..") and try again.', data: { fields: { [field]: 'File name not allowed.' } } })
+    throw codedError(400, 'file_name_not_allowed', 'The file name is not allowed. Rename the file (no slashes or "..") and try again.', { fields: { [field]: 'File name not allowed.' } })
   }
   const type = sniffUploadType(file.data)
   if (!type) {
-    throw createError({ statusCode: 415, message: 'Only PDF, JPEG or PNG files are accepted.', data: { fields: { [field]: 'PDF, JPEG or PNG only.' } } })
+    throw codedError(415, 'file_type_not_allowed', 'Only PDF, JPEG or PNG files are accepted.', { fields: { [field]: 'PDF, JPEG or PNG only.' } })
   }
   return { bytes: file.data, type, displayName: sanitizeDisplayName(name, type) }
 }
@@ -130,7 +130,7 @@ export async function storeUpload(actor: Actor, siteId: string, file: CheckedFil
       await tx.execute(sql`SELECT pg_advisory_xact_lock(hashtextextended(${`uploads:${siteId}`}, 7302))`)
       const [used] = await tx.select({ bytes: sql<number>`coalesce(sum(${tables.uploads.bytes}), 0)`.mapWith(Number) }).from(tables.uploads).where(eq(tables.uploads.siteId, siteId))
       if ((used?.bytes ?? 0) + file.bytes.length > siteQuotaBytes) {
-        throw createError({ statusCode: 413, message: `This site's room for files (${Math.round(siteQuotaBytes / 1024 / 1024)} MB) is full. Ask an admin to make room; nothing was stored.` })
+        throw codedError(413, 'site_files_full', `This site's room for files (${Math.round(siteQuotaBytes / 1024 / 1024)} MB) is full. Ask an admin to make room; nothing was stored.`, { params: { mb: Math.round(siteQuotaBytes / 1024 / 1024) } })
       }
       if (await uploadsThisHour(tx, actor.user.id) >= perUserPerHour) throw rateRefusal(perUserPerHour)
       const [row] = await tx.insert(tables.uploads).values({
@@ -158,10 +158,10 @@ export function publicUpload(row: UploadRow) {
 // An upload at one of the actor's sites; anything else is 404.
 export async function findUploadForActor(event: H3Event, id: string): Promise<{ actor: Actor, upload: UploadRow }> {
   const actor = await requireActor(event)
-  if (actor.siteIds.length === 0) throw createError({ statusCode: 404, message: 'No such file.' })
+  if (actor.siteIds.length === 0) throw codedError(404, 'no_such_file', 'No such file.')
   const [upload] = await useDb().select().from(tables.uploads)
     .where(and(eq(tables.uploads.id, id), inArray(tables.uploads.siteId, actor.siteIds)))
-  if (!upload) throw createError({ statusCode: 404, message: 'No such file.' })
+  if (!upload) throw codedError(404, 'no_such_file', 'No such file.')
   return { actor, upload }
 }
 

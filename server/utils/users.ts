@@ -18,7 +18,7 @@ export async function requirePersonInReach(event: H3Event, userId: string, abili
   const actor = await requireActor(event)
   const personSites = await personSiteIds(userId)
   const shared = personSites.filter(s => actor.siteIds.includes(s))
-  if (shared.length === 0 && userId !== actor.user.id) throw createError({ statusCode: 404, message: 'No such person.' })
+  if (shared.length === 0 && userId !== actor.user.id) throw codedError(404, 'no_such_person', 'No such person.')
   const reach = shared.filter(s => actorCan(actor, ability, s))
   if (reach.length === 0) throw forbidden(ability)
   return { actor, reach, personSites }
@@ -29,7 +29,7 @@ export async function requirePersonInReach(event: H3Event, userId: string, abili
 // enough (it would let an admin of one site take over the account of someone who runs another).
 export async function requireAccountAuthority(event: H3Event, userId: string) {
   const { actor, reach, personSites } = await requirePersonInReach(event, userId, 'user.manage')
-  if (personSites.some(s => !actorCan(actor, 'user.manage', s))) throw createError({ statusCode: 403, message: ACCOUNT_WIDE_REFUSAL, data: { sendLink: true } })
+  if (personSites.some(s => !actorCan(actor, 'user.manage', s))) throw createError({ statusCode: 403, message: ACCOUNT_WIDE_REFUSAL, data: { code: 'account_wide', sendLink: true } })
   return { actor, reach, personSites }
 }
 

@@ -46,7 +46,7 @@ export async function validateBody<S extends z.ZodType>(event: H3Event, schema: 
     body = await readBody(event)
   }
   catch {
-    throw createError({ statusCode: 400, message: 'The request body is not valid JSON.' })
+    throw codedError(400, 'body_unreadable', 'The request body is not valid JSON.')
   }
   refuseNulCharacters(body)
   const result = schema.safeParse(body ?? {})
@@ -64,18 +64,19 @@ export function validateQuery<S extends z.ZodType>(event: H3Event, schema: S): z
 
 export function validateParams<S extends z.ZodType>(event: H3Event, schema: S): z.output<S> {
   const result = schema.safeParse(getRouterParams(event, { decode: true }))
-  if (!result.success) throw createError({ statusCode: 404, message: 'Not found.' })
+  if (!result.success) throw codedError(404, 'not_found', 'Not found.')
   return result.data
 }
 
 /**
  * A refusal the floor pages show in the reader's words: `code` names `refusal.<code>` in every locale file,
  * `params` its numbers and names (values with a unit in the stored unit, suffixed), `message` the English
- * fallback, repeated at each named field.
+ * fallback, repeated at each named field (or, given field → words, each field's own English words).
  */
-export function codedError(statusCode: number, code: string, message: string, { params, fields = [] }: { params?: ReasonParams, fields?: string[] } = {}) {
+export function codedError(statusCode: number, code: string, message: string, { params, fields = [] }: { params?: ReasonParams, fields?: string[] | Record<string, string> } = {}) {
+  const named = Array.isArray(fields) ? Object.fromEntries(fields.map(f => [f, message])) : fields
   return createError({
     statusCode, message,
-    data: { code, ...(params ? { params } : {}), ...(fields.length ? { fields: Object.fromEntries(fields.map(f => [f, message])) } : {}) },
+    data: { code, ...(params ? { params } : {}), ...(Object.keys(named).length ? { fields: named } : {}) },
   })
 }

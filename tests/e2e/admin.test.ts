@@ -88,6 +88,9 @@ describe('user administration', () => {
       const again = await adminA.post('/api/users', { ...newUserBody(siteA, ['operator']), email: body.email.toUpperCase() })
       expect(again.status).toBe(409)
       expect(again.body.data.fields).toHaveProperty('email')
+      // coded, so a screen says it in the reader's words (refusal.email_taken)
+      expect(again.body.message).toBe('That e-mail already has an account.')
+      expect(again.body.data).toMatchObject({ code: 'email_taken', fields: { email: 'Already has an account.' } })
     })
 
     it.each([

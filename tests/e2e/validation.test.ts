@@ -235,6 +235,7 @@ describe('bad input is 400 with field messages, conflicts 409, never 500', () =>
       const again = await admin.post('/api/batteries', { siteId, ...batteryInput({ serial: first.body.item.serial }) })
       expect(again.status).toBe(409)
       expect(again.body.data.fields).toEqual({ serial: 'Already used at this site.' })
+      expect(again.body.data).toMatchObject({ code: 'asset_taken', params: { name: first.body.item.serial } })
       // serials are unique per site, not across sites
       expect((await admin.post('/api/batteries', { siteId: otherSiteId, ...batteryInput({ serial: first.body.item.serial }) })).status).toBe(201)
     })

@@ -7,7 +7,7 @@ export default defineAbilityHandler('site.edit', async (event) => {
   const actor = await requireAbility(event, 'site.edit', id)
   return useDb().transaction(async (tx) => {
     const [before] = await tx.select().from(tables.sites).where(eq(tables.sites.id, id)).for('update')
-    if (!before) throw createError({ statusCode: 404, message: 'No such site.' })
+    if (!before) throw codedError(404, 'no_such_site', 'No such site.')
     const settings = siteSettingsSchema.safeParse({ ...before.settings, ...settingsPatch })
     if (!settings.success) throw schemaFieldsError(settings.error, 'Check the site settings.', 'settings')
     const [site] = await tx.update(tables.sites).set({ ...fields, settings: settings.data }).where(eq(tables.sites.id, id)).returning()

@@ -17,7 +17,7 @@ export default defineAbilityHandler('site.create', async (event) => {
     })
   }
   catch (error) {
-    if (isUniqueViolation(error)) throw createError({ statusCode: 409, message: `A site named "${body.name}" already exists.`, data: { fields: { name: 'Already used.' } } })
+    if (isUniqueViolation(error)) throw codedError(409, 'site_name_taken', `A site named "${body.name}" already exists.`, { params: { name: body.name }, fields: { name: 'Already used.' } })
     throw error
   }
 })

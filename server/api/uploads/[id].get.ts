@@ -4,7 +4,7 @@ export default defineAbilityHandler('site.member', async (event) => {
   const { id } = validateParams(event, idParamsSchema)
   const { upload } = await findUploadForActor(event, id)
   const bytes = await readStoredFile(upload.storageKey)
-  if (!bytes) throw createError({ statusCode: 404, message: 'The file is missing from storage.' })
+  if (!bytes) throw codedError(404, 'file_missing', 'The file is missing from storage.')
   const disposition = getQuery(event).download === '1' ? 'attachment' : 'inline'
   const ascii = upload.displayName.replace(/[^\x20-\x7E]/g, '_').replace(/["\\]/g, '_')
   setResponseHeaders(event, {

@@ -8,7 +8,7 @@ export default defineAbilityHandler('user.manage', async (event) => {
   const { id } = validateParams(event, idParamsSchema)
   const body = await validateBody(event, userUpdateSchema)
   const { actor, personSites } = await requireAccountAuthority(event, id)
-  if (body.active === false && id === actor.user.id) throw createError({ statusCode: 400, message: 'You cannot deactivate yourself.' })
+  if (body.active === false && id === actor.user.id) throw codedError(400, 'own_deactivation', 'You cannot deactivate yourself.')
   const set: Partial<typeof tables.users.$inferInsert> = {}
   if (body.name !== undefined) set.name = body.name
   if (body.email !== undefined) set.email = body.email
@@ -18,12 +18,12 @@ export default defineAbilityHandler('user.manage', async (event) => {
     set.passwordHash = await hashPassword(body.password)
     set.passwordChangedAt = changedAt
   }
-  if (Object.keys(set).length === 0) throw createError({ statusCode: 400, message: 'Nothing to change.' })
+  if (Object.keys(set).length === 0) throw codedError(400, 'nothing_to_change', 'Nothing to change.')
   try {
     const item = await useDb().transaction(async (tx) => {
       const [before] = await tx.select(publicUserColumns).from(tables.users).where(eq(tables.users.id, id))
       const [user] = await tx.update(tables.users).set(set).where(eq(tables.users.id, id)).returning(publicUserColumns)
-      if (!user) throw createError({ statusCode: 404, message: 'No such person.' })
+      if (!user) throw codedError(404, 'no_such_person', 'No such person.')
       if (body.password !== undefined) await revokeOtherSessions(tx, id)
       await writeAudit(tx, { actor, siteId: personSites[0] ?? null, action: body.active === false ? 'deactivate' : 'update', entity: 'user', entityId: id, before, after: { ...user, passwordChanged: body.password !== undefined } })
       if (body.name !== undefined || body.active !== undefined) await recomputePersonAtSites(tx, id)
@@ -33,7 +33,7 @@ export default defineAbilityHandler('user.manage', async (event) => {
     return { item }
   }
   catch (error) {
-    if (isUniqueViolation(error)) throw createError({ statusCode: 409, message: 'That e-mail already has an account.', data: { fields: { email: 'Already has an account.' } } })
+    if (isUniqueViolation(error)) throw codedError(409, 'email_taken', 'That e-mail already has an account.', { fields: { email: 'Already has an account.' } })
     throw error
   }
 })

@@ -15,7 +15,7 @@ export default defineAbilityHandler('user.manage', async (event) => {
     })
   }
   catch (error) {
-    if (isUniqueViolation(error)) throw createError({ statusCode: 409, message: 'That e-mail already has an account.', data: { fields: { email: 'Already has an account.' } } })
+    if (isUniqueViolation(error)) throw codedError(409, 'email_taken', 'That e-mail already has an account.', { fields: { email: 'Already has an account.' } })
     throw error
   }
 })

@@ -30,7 +30,7 @@ export default defineAbilityHandler('report.view', async (event) => {
   await requireAbility(event, 'report.view', query.siteId)
   const db = useDb()
   const area = await areaAtSite(db, query.siteId, query.areaId)
-  if (area.kind !== 'charging_area') throw createError({ statusCode: 400, message: 'The ventilation check is for charging areas.', data: { fields: { areaId: 'Pick a charging area.' } } })
+  if (area.kind !== 'charging_area') throw codedError(400, 'ventilation_charging_area', 'The ventilation check is for charging areas.', { fields: { areaId: 'Pick a charging area.' } })
   const rows = await db.execute(sql`
     SELECT ch.id, ch.name, ch.charger_type AS "chargerType", ch.gassing_current_a AS "gassingCurrentA", ch.output_voltage AS "outputVoltage",
       ch.max_capacity_ah AS "maxCapacityAh", ch.chemistry_profiles AS "chemistryProfiles",

@@ -39,7 +39,7 @@ export async function computeBoard(query: BoardQuery): Promise<BoardAnswer | Jso
     // the wall board's cards are made as JSON by PostgreSQL; a truck's suggestion needs them as rows
     query.truckId ? loadBatteryRows(db, { siteId: query.siteId, areaId: query.areaId }) : boardCardsJson(db, query, now),
   ])
-  if (query.areaId && !areas.some(a => a.id === query.areaId)) throw createError({ statusCode: 404, message: 'No such charging area at this site.' })
+  if (query.areaId && !areas.some(a => a.id === query.areaId)) throw codedError(404, 'no_such_charging_area', 'No such charging area at this site.')
   const shiftStart = shiftStartedAt(now, settings.shiftStarts, settings.timeZone)
   const head = {
     now: now.toISOString(),
@@ -56,7 +56,7 @@ export async function computeBoard(query: BoardQuery): Promise<BoardAnswer | Jso
   }
   const cardsAt = cards.map(r => batteryCard(r, settings.timeZone, now))
   const truck = trucks.find(t => t.id === query.truckId)
-  if (!truck) throw createError({ statusCode: 404, message: 'No such electric truck at this site.' })
+  if (!truck) throw codedError(404, 'no_such_electric_truck', 'No such electric truck at this site.')
   const spec = truckSpec(truck)
   const byId = new Map(cards.map(r => [r.id, r]))
   const ranked = rankBatteriesForTruck(cardsAt.filter(c => c.state !== 'in_truck').map(c => ({

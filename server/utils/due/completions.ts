@@ -19,7 +19,7 @@ export async function findCustomSchedule(actor: Actor, id: string): Promise<Cust
   const [row] = actor.siteIds.length
     ? await useDb().select().from(s).where(and(eq(s.id, id), eq(s.kind, 'custom'), inArray(s.siteId, actor.siteIds)))
     : []
-  if (!row) throw createError({ statusCode: 404, message: 'No such schedule.' })
+  if (!row) throw codedError(404, 'no_such_schedule', 'No such schedule.')
   return row
 }
 
@@ -48,7 +48,7 @@ export async function recordCompletion(actor: Actor, schedule: CustomScheduleRow
   if (input.idempotencyKey) {
     const [earlier] = await db.select().from(c).where(eq(c.idempotencyKey, input.idempotencyKey))
     if (earlier) {
-      if (earlier.userId !== actor.user.id || earlier.scheduleId !== schedule.id) throw createError({ statusCode: 409, message: 'That retry key belongs to another record; reload the form.' })
+      if (earlier.userId !== actor.user.id || earlier.scheduleId !== schedule.id) throw codedError(409, 'retry_key_taken', 'That retry key belongs to another record; reload the form.')
       return { item: earlier, replayed: true }
     }
   }

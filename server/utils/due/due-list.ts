@@ -16,7 +16,7 @@ export function dueScopeFor(actor: Actor, siteId: string, role: DueQuery['role']
     return { roles: null, personId: actor.user.id }
   }
   if (role) {
-    if (!lead && !held.includes(role)) throw createError({ statusCode: 403, message: `You do not hold the ${ROLE_LABELS[role]} role here.` })
+    if (!lead && !held.includes(role)) throw codedError(403, 'role_not_held', `You do not hold the ${ROLE_LABELS[role]} role here.`, { params: { roles: [role] } })
     return { roles: [role], personId: actor.user.id }
   }
   return { roles: held, personId: actor.user.id }

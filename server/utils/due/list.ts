@@ -94,7 +94,7 @@ function shownRows(siteId: string, today: string, opts: DueOptions): SQL {
 export async function readDueList(db: SqlRunner, siteId: string, opts: DueOptions, now = new Date()): Promise<DueList> {
   const started = Date.now()
   const [site] = await rowsOf<{ id: string, name: string, timeZone: string }>(db, sql`SELECT id, name, time_zone AS "timeZone" FROM sites WHERE id = ${siteId}`)
-  if (!site) throw createError({ statusCode: 404, message: 'No such site.' })
+  if (!site) throw codedError(404, 'no_such_site', 'No such site.')
   const today = localDate(now, site.timeZone)
   const shown = shownRows(siteId, today, opts)
   const limit = Math.min(opts.limit, 1_000_000)

@@ -13,8 +13,8 @@ export function siteSchedules(siteId: string): Promise<ScheduleDefinition[]> {
   return loadSiteSchedules(useDb(), siteId)
 }
 
-function badInterval(message: string, field = 'every') {
-  return createError({ statusCode: 400, message, data: { fields: { [field]: message } } })
+function badInterval(code: string, message: string, field = 'every') {
+  return codedError(400, code, message, { fields: [field] })
 }
 
 // A built-in schedule: the site's own row of its kind, made on its first change.
@@ -24,8 +24,8 @@ export async function updateBuiltInSchedule(actor: Actor, kind: BuiltInDueKind, 
     const current = (await loadSiteSchedules(tx, input.siteId)).find(s => s.kind === kind)!
     const given = Object.fromEntries(Object.entries(input).filter(([k, v]) => k !== 'siteId' && v !== undefined)) as Partial<ScheduleDefinition>
     const next = { ...current, ...given }
-    if (next.rule !== 'date_rule' && (next.every === null || next.every < 1)) throw badInterval('Give an interval of 1 or more.')
-    if (kind === 'emissions_test' && (next.afterFailDays === null || next.afterFailDays < 1)) throw badInterval('Give the retest window in days.', 'afterFailDays')
+    if (next.rule !== 'date_rule' && (next.every === null || next.every < 1)) throw badInterval('interval_needed', 'Give an interval of 1 or more.')
+    if (kind === 'emissions_test' && (next.afterFailDays === null || next.afterFailDays < 1)) throw badInterval('retest_window_needed', 'Give the retest window in days.', 'afterFailDays')
     const values = {
       siteId: input.siteId, kind, title: next.title, appliesTo: next.appliesTo, subjectKind: current.subjectKind, rule: current.rule, every: next.every,
       everyUnit: next.everyUnit, withinDays: next.withinDays, afterFailDays: kind === 'emissions_test' ? next.afterFailDays : null,
@@ -60,10 +60,10 @@ export async function updateCustomSchedule(actor: Actor, id: string, input: z.ou
   return useDb().transaction(async (tx) => {
     const s = tables.schedules
     const [found] = await tx.select().from(s).where(and(eq(s.id, id), eq(s.siteId, input.siteId), eq(s.kind, 'custom'))).for('update')
-    if (!found) throw createError({ statusCode: 404, message: 'No such schedule at this site.' })
+    if (!found) throw codedError(404, 'no_such_schedule', 'No such schedule at this site.')
     const unit = input.unit ?? (found.rule === 'days' ? found.everyUnit ?? 'day' : found.rule) as Parameters<typeof customRuleColumns>[1]
     if ((unit === 'charges' && found.subjectKind !== 'battery') || (unit === 'hours' && found.subjectKind !== 'truck')) {
-      throw badInterval(unit === 'charges' ? 'Only batteries count charges.' : 'Only trucks have an hour meter.', 'unit')
+      throw (unit === 'charges' ? badInterval('charges_batteries_only', 'Only batteries count charges.', 'unit') : badInterval('hour_meter_trucks_only', 'Only trucks have an hour meter.', 'unit'))
     }
     const values = {
       title: input.title ?? found.title, ...customRuleColumns(input.every ?? found.every ?? 1, unit),

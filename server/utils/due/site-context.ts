@@ -42,6 +42,6 @@ export const siteToday = (ctx: Pick<SiteContext, 'timeZone'>, now = new Date()) 
 export async function loadDueSite(db: SqlRunner, siteId: string) {
   const [site] = await rowsOf<{ id: string, name: string, timeZone: string, settings: unknown }>(db, sql`
     SELECT id, name, time_zone AS "timeZone", settings FROM sites WHERE id = ${siteId}`)
-  if (!site) throw createError({ statusCode: 404, message: 'No such site.' })
+  if (!site) throw codedError(404, 'no_such_site', 'No such site.')
   return { id: site.id, name: site.name, timeZone: site.timeZone, settings: parseSiteSettings(site.settings), today: localDate(new Date(), site.timeZone) }
 }

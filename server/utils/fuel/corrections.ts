@@ -1,3 +1,4 @@
+import type { ReasonParams } from '#shared/utils/battery-fit'
 import type { EngineFuel } from '#shared/utils/emissions'
 import type {
   CoReadingCorrection, EmissionsCorrection, ExchangeCorrection, RefillCorrection, RequalificationCorrection,
@@ -6,7 +7,7 @@ import type { Actor } from '../auth'
 import type { CorrectionKindSpec } from '../corrections'
 
 type WithId<T> = T & { id: string }
-const fail = (statusCode: number, message: string, field?: string) => createError({ statusCode, message, data: field ? { fields: { [field]: message } } : undefined })
+const fail = (statusCode: number, code: string, message: string, field?: string, params?: ReasonParams) => codedError(statusCode, code, message, { params, fields: field ? [field] : [] })
 
 const refillSpec: CorrectionKindSpec<typeof tables.cylinderRefills.$inferSelect> = {
   kind: 'cylinder-refill', table: tables.cylinderRefills, subjects: r => [{ kind: 'cylinder', id: r.cylinderId }],
@@ -19,15 +20,15 @@ export async function correctRefill(actor: Actor, input: WithId<RefillCorrection
   return correctRecord(actor, refillSpec, input.id, input, async (tx, original) => {
     const refusal = lpTransferReason(await lpTransferStanding(tx, actor.user.id, (await fuelSiteFacts(tx, original.siteId)).today))
     if (refusal) throw createError({ statusCode: 403, message: refusal.message, data: { reasons: [refusal] } })
-    if (original.refused) throw fail(409, 'A refused refill stays as recorded: nothing went into the cylinder. Record a new refill if it was filled.')
-    if (input.grossBeforeLb === null || input.grossAfterLb === null) throw fail(400, 'Weigh the cylinder before and after filling.', input.grossBeforeLb === null ? 'grossBeforeLb' : 'grossAfterLb')
+    if (original.refused) throw fail(409, 'refused_refill_kept', 'A refused refill stays as recorded: nothing went into the cylinder. Record a new refill if it was filled.')
+    if (input.grossBeforeLb === null || input.grossAfterLb === null) throw fail(400, 'weigh_before_after', 'Weigh the cylinder before and after filling.', input.grossBeforeLb === null ? 'grossBeforeLb' : 'grossAfterLb')
     const [cylinder] = await tx.select().from(tables.lpCylinders).where(eq(tables.lpCylinders.id, original.cylinderId))
     const sg = input.productSg ?? original.productSg ?? PROPANE_DEFAULT_SG
     const fill = assessFill({ waterCapacityLb: cylinder!.waterCapacityLb, tareLb: cylinder!.tareLb, grossBeforeLb: input.grossBeforeLb, grossAfterLb: input.grossAfterLb, sg })
-    if (!fill.ok) throw createError({ statusCode: 400, message: fill.errors[0]!.message, data: { fields: Object.fromEntries(fill.errors.map(e => [e.field === 'sg' ? 'productSg' : e.field, e.message])) } })
+    if (!fill.ok) throw fillInputError(fill.errors)
     const tareFlagged = input.measuredTareLb !== null && input.measuredTareLb > 0 && tareLossFlagsRequalification(cylinder!.tareLb, input.measuredTareLb)
     if (fill.overfilled || tareFlagged) {
-      throw fail(409, `These figures fail the fill's checks (${fill.overfilled ? 'overfilled' : 'tare loss'}). A correction does not turn a fill into a refusal: quarantine the cylinder and record what was done.`)
+      throw fail(409, 'correction_fails_fill', `These figures fail the fill's checks (${fill.overfilled ? 'overfilled' : 'tare loss'}). A correction does not turn a fill into a refusal: quarantine the cylinder and record what was done.`)
     }
     return {
       values: {
@@ -57,12 +58,12 @@ export async function correctCylinderExchange(actor: Actor, input: WithId<Exchan
     const [latest] = await tx.select({ id: x.id }).from(x)
       .where(and(eq(x.truckId, original.truckId), sql`${isEffectiveRecord('cylinder_exchanges', 'cylinder_exchanges')}`))
       .orderBy(desc(x.at), desc(x.recordedAt)).limit(1)
-    if (latest?.id !== original.id) throw fail(409, 'Only the truck\'s latest cylinder change can name another cylinder; later changes were made from it.', 'cylinderOnId')
+    if (latest?.id !== original.id) throw fail(409, 'exchange_not_latest', 'Only the truck\'s latest cylinder change can name another cylinder; later changes were made from it.', 'cylinderOnId')
     const ids = [original.cylinderOnId, input.cylinderOnId].sort()
     const locked = await tx.select().from(tables.lpCylinders).where(and(inArray(tables.lpCylinders.id, ids), eq(tables.lpCylinders.siteId, original.siteId))).orderBy(asc(tables.lpCylinders.id)).for('update')
     const right = locked.find(c => c.id === input.cylinderOnId)
-    if (!right) throw fail(400, 'Pick a cylinder at this site.', 'cylinderOnId')
-    if (right.id === original.cylinderOffId) throw fail(400, 'That is the cylinder that came off.', 'cylinderOnId')
+    if (!right) throw fail(400, 'exchange_pick_cylinder', 'Pick a cylinder at this site.', 'cylinderOnId')
+    if (right.id === original.cylinderOffId) throw fail(400, 'exchange_cylinder_came_off', 'That is the cylinder that came off.', 'cylinderOnId')
     const reasons = cylinderMountBlocks(right, await fuelSiteFacts(tx, original.siteId), (await liveCylinderTag(tx, right.id)) ?? right.serial)
     if (reasons.length) throw createError({ statusCode: 409, message: reasons[0]!.message, data: { reasons } })
     const now = new Date()
@@ -85,13 +86,13 @@ const requalSpec: CorrectionKindSpec<typeof tables.requalifications.$inferSelect
 export async function correctRequalification(actor: Actor, input: WithId<RequalificationCorrection>) {
   return correctRecord(actor, requalSpec, input.id, input, async (tx, original) => {
     if (input.passed !== undefined && input.passed !== original.passed) {
-      throw fail(409, original.passed
+      throw fail(409, 'requal_result_kept', original.passed
         ? 'Pass or fail of a requalification is not corrected. To condemn the cylinder, record a new requalification.'
-        : 'Pass or fail of a requalification is not corrected. A lead returns a condemned cylinder to use (Return to use, with the reason).', 'passed')
+        : 'Pass or fail of a requalification is not corrected. A lead returns a condemned cylinder to use (Return to use, with the reason).', 'passed', original.passed ? undefined : { variant: 'failed' })
     }
     const suffix = REQUALIFICATION_MARK_SUFFIX[input.method]
     const marking = input.marking || `${original.performedOn.slice(5, 7)}-${original.performedOn.slice(2, 4)}${suffix ? ` ${suffix}` : ''}`
-    if (suffix && !new RegExp(`\\b${suffix}\\b`).test(marking)) throw fail(400, `An ${REQUALIFICATION_METHOD_LABELS[input.method].toLowerCase()} is marked with "${suffix}" after the date.`, 'marking')
+    if (suffix && !new RegExp(`\\b${suffix}\\b`).test(marking)) throw fail(400, 'requal_marking_suffix', `An ${REQUALIFICATION_METHOD_LABELS[input.method].toLowerCase()} is marked with "${suffix}" after the date.`, 'marking', { suffix })
     const facts = await fuelSiteFacts(tx, original.siteId)
     const nextDueOn = original.passed ? nextRequalificationDue(original.performedOn, input.method, requalificationYearsFromSettings(facts.settings)) : null
     return {
@@ -118,7 +119,7 @@ export async function correctEmissionsTest(actor: Actor, input: WithId<Emissions
     const facts = await fuelSiteFacts(tx, original.siteId)
     if (input.certificateUploadId) {
       const [upload] = await tx.select({ id: tables.uploads.id }).from(tables.uploads).where(and(eq(tables.uploads.id, input.certificateUploadId), eq(tables.uploads.siteId, original.siteId)))
-      if (!upload) throw fail(400, 'Upload the certificate again.', 'certificateUploadId')
+      if (!upload) throw fail(400, 'certificate_missing', 'Upload the certificate again.', 'certificateUploadId')
     }
     const verdict = assessEmissionsTest({
       fuel: truck!.power as EngineFuel, coIdlePercent: input.coIdlePct, coHighIdlePercent: input.coHighIdlePct,

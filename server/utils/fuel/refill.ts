@@ -1,5 +1,6 @@
 import type { FitReason } from '#shared/utils/battery-fit'
 import type { RefillInput } from '#shared/utils/fuel-schemas'
+import type { FillInputError } from '#shared/utils/lp-gas'
 import type { DbOrTx } from '../db'
 import type { Actor } from '../auth'
 
@@ -10,6 +11,14 @@ export async function cylinderFillBlocks(db: DbOrTx, cylinder: FuelCylinderRow, 
     ? await db.select({ fleetNumber: tables.trucks.fleetNumber }).from(tables.trucks).where(eq(tables.trucks.id, cylinder.currentTruckId))
     : []
   return fillStateReasons(cylinder, cylinderRequalification(cylinder, facts), truck?.fleetNumber ?? null)
+}
+
+// Weights a fill cannot have, as a 400: each field's own words, and the first problem's code
+// (refusal.fill_<problem>, the weight after filling below the tare as its `after` variant).
+export function fillInputError(errors: FillInputError[]) {
+  const first = errors[0]!
+  const params = first.problem === 'gross_below_tare' && first.field === 'grossAfterLb' ? { variant: 'after' } : undefined
+  return codedError(400, `fill_${first.problem}`, first.message, { params, fields: Object.fromEntries(errors.map(e => [e.field === 'sg' ? 'productSg' : e.field, e.message])) })
 }
 
 export interface RefillOutcome {
@@ -52,8 +61,7 @@ export async function recordRefill(actor: Actor, cylinderId: string, input: Refi
     if (input.grossBeforeLb !== null && input.grossAfterLb !== null) {
       const assessed = assessFill({ waterCapacityLb: cylinder.waterCapacityLb, tareLb: cylinder.tareLb, grossBeforeLb: input.grossBeforeLb, grossAfterLb: input.grossAfterLb, sg })
       if (!assessed.ok) {
-        const fields = Object.fromEntries(assessed.errors.map(e => [e.field === 'sg' ? 'productSg' : e.field, e.message]))
-        throw createError({ statusCode: 400, message: assessed.errors[0]!.message, data: { fields } })
+        throw fillInputError(assessed.errors)
       }
       fill = assessed
       if (assessed.overfilled) {

@@ -30,7 +30,7 @@ export interface FuelSiteFacts {
 export async function fuelSiteFacts(db: DbOrTx, siteId: string): Promise<FuelSiteFacts> {
   const [site] = await db.select({ id: tables.sites.id, name: tables.sites.name, timeZone: tables.sites.timeZone, settings: tables.sites.settings })
     .from(tables.sites).where(eq(tables.sites.id, siteId))
-  if (!site) throw createError({ statusCode: 404, message: 'No such site.' })
+  if (!site) throw codedError(404, 'no_such_site', 'No such site.')
   return { ...site, settings: siteSettingsSchema.parse(site.settings ?? {}), today: localDate(new Date(), site.timeZone) }
 }
 

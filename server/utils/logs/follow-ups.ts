@@ -40,11 +40,11 @@ export async function openChecklistFollowUp(tx: DbOrTx, actor: Actor, area: Area
 
 // Close a follow-up with what was done; its obligation goes with it.
 export async function closeFollowUp(actor: Actor, found: FollowUpRow, note: string) {
-  if (found.closedAt) throw createError({ statusCode: 409, message: 'This follow-up is closed already.' })
+  if (found.closedAt) throw codedError(409, 'follow_up_closed', 'This follow-up is closed already.')
   const f = tables.followUps
   return useDb().transaction(async (tx) => {
     const [row] = await tx.update(f).set({ closedAt: new Date(), closedBy: actor.user.id, closingNote: note }).where(and(eq(f.id, found.id), isNull(f.closedAt))).returning()
-    if (!row) throw createError({ statusCode: 409, message: 'This follow-up is closed already.' })
+    if (!row) throw codedError(409, 'follow_up_closed', 'This follow-up is closed already.')
     await writeAudit(tx, { actor, siteId: found.siteId, action: 'close', entity: 'follow_up', entityId: found.id, before: found, after: row })
     await recomputeSubjects(tx, found.siteId, [{ kind: 'follow_up', id: found.id }], { lock: false })
     return { item: row }

@@ -38,7 +38,7 @@ export async function reportScope(event: H3Event, ability: Ability, query: Repor
   const actor = await requireActor(event)
   if (query.siteId === 'all') {
     siteIds = sitesWhere(actor, ability)
-    if (siteIds.length === 0) throw createError({ statusCode: 403, message: refusalFor(ability).replace('at this site', 'at one of your sites') })
+    if (siteIds.length === 0) throw forbidden(ability, 'any_site')
   }
   else {
     await requireAbility(event, ability, query.siteId)
@@ -89,7 +89,7 @@ export const numOrNull = (v: unknown): number | null => (v === null || v === und
 /** A section's table as CSV (the first section unless `section` names another); 404 for an unknown one. */
 export function reportCsv(event: H3Event, report: ReportResponse, section?: string) {
   const picked = section ? report.sections.find(s => s.key === section) : report.sections[0]
-  if (!picked) throw createError({ statusCode: 404, message: `This report has no section "${section}".` })
+  if (!picked) throw codedError(404, 'no_such_report_section', `This report has no section "${section}".`, { params: { section: section ?? '' } })
   const fields = picked.columns.map(c => (c.unit ? `${c.label} (${c.unit})` : c.label))
   const rows = picked.rows.map(r => picked.columns.map((c): ReportCell => r[c.key] ?? ''))
   const sitePart = report.sites.length === 1 ? report.sites[0]!.name.toLowerCase().replace(/[^a-z0-9]+/g, '-') : 'all-sites'

@@ -5,7 +5,7 @@ export default defineAbilityHandler('account.self', async (event) => {
   const f = tables.calendarFeeds
   return useDb().transaction(async (tx) => {
     const [found] = await tx.select().from(f).where(and(eq(f.id, id), eq(f.userId, actor.user.id)))
-    if (!found) throw createError({ statusCode: 404, message: 'No such calendar feed.' })
+    if (!found) throw codedError(404, 'no_such_calendar_feed', 'No such calendar feed.')
     if (found.revokedAt) return { item: { id, revokedAt: found.revokedAt } }
     const [row] = await tx.update(f).set({ revokedAt: new Date() }).where(eq(f.id, id)).returning()
     await writeAudit(tx, { actor, siteId: null, action: 'revoke', entity: 'calendar_feed', entityId: id })

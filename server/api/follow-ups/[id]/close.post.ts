@@ -7,7 +7,7 @@ export default defineAbilityHandler('followup.close', async (event) => {
   const actor = await requireAbility(event, 'account.self')
   const f = tables.followUps
   const [found] = await useDb().select().from(f).where(and(eq(f.id, id), inArray(f.siteId, actor.siteIds.length ? actor.siteIds : ['00000000-0000-0000-0000-000000000000'])))
-  if (!found) throw createError({ statusCode: 404, message: 'No such follow-up.' })
+  if (!found) throw codedError(404, 'no_such_follow_up', 'No such follow-up.')
   if (found.ownerUserId !== actor.user.id) requireActorCan(actor, 'followup.close', found.siteId)
   return closeFollowUp(actor, found, body.note)
 })

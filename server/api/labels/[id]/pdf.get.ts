@@ -7,9 +7,9 @@ export default defineAbilityHandler('account.self', async (event) => {
   const { id } = validateParams(event, ParamsSchema)
   const actor = await requireAbility(event, 'account.self')
   const job = await readJob(id, actor.user.id)
-  if (job.status !== 'done') throw createError({ statusCode: 409, message: job.status === 'failed' ? (job.message ?? 'The sheet failed.') : 'The sheet is not ready yet.' })
+  if (job.status !== 'done') throw job.status === 'failed' ? codedError(409, 'label_sheet_failed', job.message ?? 'The sheet failed.') : codedError(409, 'label_sheet_not_ready', 'The sheet is not ready yet.')
   const pdf = await readJobFile(id)
-  if (!pdf) throw createError({ statusCode: 404, message: 'The sheet has expired; make it again.' })
+  if (!pdf) throw codedError(404, 'label_sheet_expired', 'The sheet has expired; make it again.')
   setHeader(event, 'content-type', 'application/pdf')
   setHeader(event, 'content-disposition', `attachment; filename="bayward-labels-${job.createdAt.slice(0, 10)}.pdf"`)
   return pdf

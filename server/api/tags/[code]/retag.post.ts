@@ -10,11 +10,11 @@ export default defineAbilityHandler('tag.retag', async (event) => {
   const body = await validateBody(event, BodySchema)
   const { actor, tag, kind, row } = await resolveTagForActor(event, code)
   requireActorCan(actor, 'tag.retag', row.siteId)
-  if (tag.retiredAt) throw createError({ statusCode: 409, message: `${tag.code} was already replaced; re-tag its current code instead.` })
+  if (tag.retiredAt) throw codedError(409, 'tag_replaced', `${tag.code} was already replaced; re-tag its current code instead.`, { params: { code: tag.code } })
   return useDb().transaction(async (tx) => {
     const [retired] = await tx.update(tables.tags).set({ retiredAt: new Date() })
       .where(and(eq(tables.tags.id, tag.id), isNull(tables.tags.retiredAt))).returning()
-    if (!retired) throw createError({ statusCode: 409, message: 'Someone re-tagged this asset at the same moment; reload.' })
+    if (!retired) throw codedError(409, 'retag_same_moment', 'Someone re-tagged this asset at the same moment; reload.')
     const newCode = await issueTag(tx, kind, row.id, row.siteId)
     await tx.update(tables.tags).set({ replacedByCode: newCode }).where(eq(tables.tags.id, tag.id))
     await recomputeSubjects(tx, row.siteId, [{ kind, id: row.id }])

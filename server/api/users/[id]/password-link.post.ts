@@ -6,10 +6,10 @@ export default defineAbilityHandler('user.manage', async (event) => {
   const db = useDb()
   const [target] = await db.select({ id: tables.users.id, email: tables.users.email, name: tables.users.name, active: tables.users.active })
     .from(tables.users).where(eq(tables.users.id, id))
-  if (!target) throw createError({ statusCode: 404, message: 'No such person.' })
-  if (!target.active) throw createError({ statusCode: 409, message: 'This account is deactivated; a link would not work. Ask an admin of all their sites to reactivate it.' })
+  if (!target) throw codedError(404, 'no_such_person', 'No such person.')
+  if (!target.active) throw codedError(409, 'account_deactivated', 'This account is deactivated; a link would not work. Ask an admin of all their sites to reactivate it.')
   if (!await countPasswordLinkRequest([`reset-email:${target.email.toLowerCase()}`])) {
-    throw createError({ statusCode: 429, message: 'Several links went to this person in the last 15 minutes. Ask them to check their mail, or wait and send again.' })
+    throw codedError(429, 'password_links_recent', 'Several links went to this person in the last 15 minutes. Ask them to check their mail, or wait and send again.')
   }
   await db.transaction(async (tx) => {
     await queuePasswordLink(tx, target, actor.user.name)

@@ -6,7 +6,7 @@ export default defineAbilityHandler('qualification.grant', async (event) => {
   const { id } = validateParams(event, idParamsSchema)
   const body = await validateBody(event, qualificationCreateSchema)
   const { actor, reach } = await requirePersonInReach(event, id, 'qualification.grant')
-  if (id === actor.user.id) throw createError({ statusCode: 403, message: 'Nobody records their own training or evaluation; ask a safety lead or an admin at your site.' })
+  if (id === actor.user.id) throw codedError(403, 'own_training', 'Nobody records their own training or evaluation; ask a safety lead or an admin at your site.')
   try {
     return await useDb().transaction(async (tx) => {
       const [q] = await tx.insert(tables.qualifications).values({ ...body, userId: id }).returning()

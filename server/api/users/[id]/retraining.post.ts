@@ -7,7 +7,7 @@ export default defineAbilityHandler('retraining.record', async (event) => {
   const { id } = validateParams(event, idParamsSchema)
   const body = await validateBody(event, retrainingSchema)
   const { actor, reach } = await requirePersonInReach(event, id, 'retraining.record')
-  if (id === actor.user.id) throw createError({ statusCode: 403, message: 'Nobody records their own retraining; ask a safety lead or an admin at your site.' })
+  if (id === actor.user.id) throw codedError(403, 'own_retraining', 'Nobody records their own retraining; ask a safety lead or an admin at your site.')
   return useDb().transaction(async (tx) => {
     const [item] = await tx.insert(tables.retrainingTriggers).values({
       siteId: reach[0]!, userId: actor.user.id, personId: id, reason: body.reason, truckClass: body.truckClass ?? null, happenedOn: body.happenedOn, note: body.note,

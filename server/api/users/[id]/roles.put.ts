@@ -6,7 +6,7 @@ export default defineAbilityHandler('role.assign', async (event) => {
   const { id } = validateParams(event, idParamsSchema)
   const body = await validateBody(event, userRolesSchema)
   const actor = await requireAbility(event, 'role.assign', body.siteId)
-  if (id === actor.user.id) throw createError({ statusCode: 403, message: 'Nobody changes their own roles; ask another admin of the site.' })
+  if (id === actor.user.id) throw codedError(403, 'own_roles', 'Nobody changes their own roles; ask another admin of the site.')
   await requirePersonInReach(event, id, 'role.assign')
   const db = useDb()
   return db.transaction(async (tx) => {
