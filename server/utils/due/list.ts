@@ -1,5 +1,5 @@
 import { sql, type SQL } from 'drizzle-orm'
-import { createError } from 'h3'
+import { codedError } from '../validation'
 import type { Role } from '../../../shared/types/auth'
 import type { DueGroup, DueItem, DueListReply } from '../../../shared/types/due'
 import type { ObligationState } from '../../../shared/utils/due-dates'

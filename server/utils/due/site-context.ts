@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm'
-import { createError } from 'h3'
+import { codedError } from '../validation'
 import { defaultSchedules, effectiveSchedules, type ScheduleDefinition, type StoredSchedule } from '../../../shared/utils/due-schedules'
 import { parseSiteSettings, type SiteSettings } from '../../../shared/utils/site-settings'
 import { localDate } from '../../../shared/utils/due-dates'
