@@ -165,6 +165,27 @@ describe('parseRefusal', () => {
     }
   })
 
+  it('says a duplicate e-mail, an oversized file and a role not held in Spanish from their codes and params', async () => {
+    // what the server answers (server/api/users/index.post.ts, server/utils/uploads.ts, server/utils/due/due-list.ts)
+    const email = fetchError(409, { message: 'That e-mail already has an account.', data: { code: 'email_taken', fields: { email: 'Already has an account.' } } })
+    const big = fetchError(413, { message: 'The file is larger than 10 MB.', data: { code: 'file_too_large', params: { mb: 10 } } })
+    const role = fetchError(403, { message: 'You do not hold the Technician role here.', data: { code: 'role_not_held', params: { roles: ['technician'] } } })
+    const { $i18n } = useNuxtApp()
+    try {
+      await $i18n.setLocale('es')
+      // refusal.* and role.* in i18n/locales/es.json
+      expect([errorMessage(email), errorFields(email)]).toEqual(['Ese correo ya tiene una cuenta.', { email: 'Ese correo ya tiene una cuenta.' }])
+      expect(errorMessage(big)).toBe('El archivo pesa más de 10 MB.')
+      expect(errorMessage(role)).toBe(`Usted no tiene el puesto de ${$i18n.t('role.technician')} aquí.`)
+      await $i18n.setLocale('en')
+      // English keeps the server's own words, at the field too
+      expect([errorMessage(email), errorFields(email)]).toEqual(['That e-mail already has an account.', { email: 'Already has an account.' }])
+    }
+    finally {
+      await $i18n.setLocale('en')
+    }
+  })
+
   it('says the upload, registry and database refusals from their codes in Spanish, at their fields and as a whole', async () => {
     // what the server answers (server/utils/uploads.ts, registry.ts updateAsset, pg-errors.ts unstorableValueError)
     const empty = fetchError(400, { message: 'The file is empty.', data: { code: 'file_empty', fields: { file: 'The file is empty.' } } })
