@@ -1,5 +1,7 @@
 import type { ReasonParams } from '#shared/utils/battery-fit'
 
+const ISO_DAY = /^\d{4}-\d{2}-\d{2}$/
+
 /** A reason as the server sends it: a code with its numbers and names, and English words as the fallback. */
 export interface CodedReason { code?: string | null, message: string, params?: ReasonParams }
 
@@ -8,7 +10,7 @@ export interface CodedReason { code?: string | null, message: string, params?: R
 // pre-fill inspection items and other closed codes (`reason_word.<param>.<code>`) named; the server's English words when this language has no words for the code.
 export function useReasonWords() {
   const { t, te, locale } = useNuxtApp().$i18n
-  const { number } = useLocaleFormat()
+  const { number, day } = useLocaleFormat()
   const { units } = storeToRefs(useSessionStore())
   const { holdReason } = useInspectionWords()
   const chemistry = (code: string) => (te(`chemistry.${code}`) ? t(`chemistry.${code}`) : code)
@@ -21,6 +23,8 @@ export function useReasonWords() {
       if (stored) out[stored[0]] = stored[1]
       else if (Array.isArray(value)) out[name] = value.length ? value.map(listItem(name)).join(name === 'items' ? '; ' : ', ') : t('chemistry.none')
       else if (typeof value === 'number') out[name] = number(value)
+      // a calendar day ('2026-12-03') as the reader's language writes dates
+      else if (ISO_DAY.test(value)) out[name] = day(value)
       else if (name === 'reason') out[name] = holdReason(value)
       else out[name] = name === 'chemistry' ? chemistry(value) : te(`reason_word.${name}.${value}`) ? t(`reason_word.${name}.${value}`) : value
     }

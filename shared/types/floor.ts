@@ -1,4 +1,5 @@
 import type { FitReason } from '../utils/battery-fit'
+import type { AuthorisationReason } from '../utils/truck-authorisation'
 import type { BatteryState } from '../utils/battery-state'
 import type { EmissionsPolicy } from '../utils/emissions'
 
@@ -77,7 +78,7 @@ export interface CylinderLookup {
 }
 
 /** POST /api/battery-room/swaps */
-export interface SwapAnswer { item: { id: string }, replayed: boolean, warnings: FitReason[], overridden?: FitReason[], /** why the operator is not authorised for the truck's class (site policy: warn) */ authorisation?: string }
+export interface SwapAnswer { item: { id: string }, replayed: boolean, warnings: FitReason[], overridden?: FitReason[], /** why the operator is not authorised for the truck's class (site policy: warn) */ authorisation?: AuthorisationReason | null }
 /** POST /api/battery-room/charges */
 export interface ChargeOnAnswer { item: { id: string }, replayed: boolean, warnings?: FitReason[] }
 /** POST /api/battery-room/charges/:id/end */
@@ -87,7 +88,7 @@ export interface CheckAnswer { item: { id: string, meanCorrectedSg: number | nul
 /** POST /api/cylinders/:id/refills */
 export interface RefillAnswer { item: { id: string, netAddedLb: number | null, gallonsAt60F: number | null }, cylinder: { id: string, status: string }, repeated: boolean }
 /** POST /api/trucks/:id/cylinder-exchanges */
-export interface ExchangeAnswer { item: { id: string }, repeated: boolean, /** why the operator is not authorised for the truck's class (site policy: warn) */ authorisation?: string }
+export interface ExchangeAnswer { item: { id: string }, repeated: boolean, /** why the operator is not authorised for the truck's class (site policy: warn) */ authorisation?: AuthorisationReason | null }
 /** POST /api/cylinders/:id/requalifications */
 export interface RequalificationAnswer { requalification: { dueOn: string } }
 /** POST /api/trucks/:id/emissions-tests */

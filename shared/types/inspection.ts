@@ -1,3 +1,4 @@
+import type { AuthorisationReason } from '../utils/truck-authorisation'
 import type { InspectionItem } from '../utils/truck-inspection'
 
 /** GET /api/trucks/:id/inspection: what the pre-shift check form needs. */
@@ -8,7 +9,7 @@ export interface InspectionFormAnswer {
   lastInspectionAt: string | null
   hold: { since: string, reason: string, byName: string | null } | null
   /** why the caller may not take this truck, in words, and what the site does about it */
-  authorisation: { problem: string, policy: 'warn' | 'block' } | null
+  authorisation: { problem: AuthorisationReason, policy: 'warn' | 'block' } | null
   mayReturn: boolean
 }
 
@@ -16,7 +17,7 @@ export interface InspectionFormAnswer {
 export interface InspectionRecorded {
   item: { id: string, criticalFailed: string[], failedCount: number }
   repeated: boolean
-  authorisation: string | null
+  authorisation: AuthorisationReason | null
   followUpId: string | null
 }
 

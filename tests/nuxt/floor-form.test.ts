@@ -12,6 +12,7 @@ import { useBatteryFlagWords } from '../../app/composables/useBatteryFlagWords'
 import { useDueWords } from '../../app/composables/useDueWords'
 import { useSessionStore } from '../../app/stores/session'
 import { overfillReason, prefillFailedReason, tareLossReason } from '../../shared/utils/fuel-reasons'
+import { truckAuthorisationReason } from '../../shared/utils/truck-authorisation'
 
 // The floor-form kit: one refusal parser for every shape the routes answer, the shared schema before
 // sending, and the states a form goes through.
@@ -115,6 +116,25 @@ describe('parseRefusal', () => {
     }
     finally {
       session.me = null
+      await $i18n.setLocale('en')
+    }
+  })
+
+  it('says why an operator may not take a truck of a class in the reader\'s words, its days as the language writes dates', async () => {
+    const { reasonText } = useReasonWords()
+    const { $i18n } = useNuxtApp()
+    const q = { trainedOn: '2022-03-01', evaluatedOn: '2022-03-02', expiresOn: '2025-03-02' }
+    const lapsed = truckAuthorisationReason(1, q, null, '2026-12-03')!
+    const called = truckAuthorisationReason(2, { ...q, evaluatedOn: '2026-01-10', expiresOn: '2029-01-10' }, { happenedOn: '2026-02-01', reason: 'near_miss' }, '2026-12-03')!
+    try {
+      await $i18n.setLocale('es')
+      // dates as es-US writes them (Intl.DateTimeFormat, dateStyle medium)
+      expect(reasonText(lapsed)).toBe('Su evaluación en montacargas clase 1 venció el 2 mar 2025 (evaluado el 2 mar 2022; cada tres años, 29 CFR 1910.178(l)(4)(iii)).')
+      expect(reasonText(called)).toBe('Se pidió reentrenamiento el 1 feb 2026 (tuvo un casi accidente); primero necesita una nueva evaluación en montacargas clase 2.')
+      await $i18n.setLocale('en')
+      expect(reasonText(called)).toBe('Retraining was called for on Feb 1, 2026 (involved in a near miss); a new evaluation on class 2 trucks is due first.')
+    }
+    finally {
       await $i18n.setLocale('en')
     }
   })

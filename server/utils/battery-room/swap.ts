@@ -139,7 +139,7 @@ export async function recordBatterySwap(actor: Actor, body: SwapInput) {
       const inserted = tx.insert(tables.batterySwaps).values(values).returning().then(rows => rows)
       const audited = writeAudit(tx, {
         actor, siteId, action: overridden.length ? 'swap_override' : 'swap', entity: 'battery_swap', entityId: values.id,
-        after: values, note: overridden.length ? body.overrideReason : [...warnings.map(w => w.message), authorisation ?? ''].join(' ').trim() || undefined,
+        after: values, note: overridden.length ? body.overrideReason : [...warnings.map(w => w.message), authorisation?.message ?? ''].join(' ').trim() || undefined,
       })
       const subjects: SubjectRef[] = [
         { kind: 'battery', id: batteryIn.id }, ...(body.batteryOutId ? [{ kind: 'battery' as const, id: body.batteryOutId }] : []), { kind: 'truck', id: truck.id },

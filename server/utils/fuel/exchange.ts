@@ -80,7 +80,7 @@ export async function recordExchange(actor: Actor, req: ExchangeRequest) {
       siteId: truck.siteId, userId: actor.user.id, at, truckId: truck.id, cylinderOffId: current?.id ?? null, cylinderOnId: on.id,
       idempotencyKey: req.idempotencyKey ?? null, note: req.note, hourMeter: req.hourMeter,
     }).returning()
-    await writeAudit(tx, { actor, siteId: truck.siteId, action: 'exchange', entity: 'cylinder_exchange', entityId: exchange!.id, after: exchange, note: authorisation ?? undefined })
+    await writeAudit(tx, { actor, siteId: truck.siteId, action: 'exchange', entity: 'cylinder_exchange', entityId: exchange!.id, after: exchange, note: authorisation?.message })
     await recomputeSubjects(tx, truck.siteId, [
       { kind: 'truck', id: truck.id }, { kind: 'cylinder', id: on.id }, ...(current ? [{ kind: 'cylinder' as const, id: current.id }] : []),
     ], { lock: false })

@@ -1,14 +1,14 @@
 import { parseSiteSettings } from '#shared/utils/site-settings'
 import { localDate } from '#shared/utils/due-dates'
-import { truckAuthorisationProblem, type ClassQualification, type RetrainingCall } from '#shared/utils/truck-authorisation'
+import { truckAuthorisationReason, type AuthorisationReason, type ClassQualification, type RetrainingCall } from '#shared/utils/truck-authorisation'
 import type { RetrainingReason } from '#shared/utils/truck-inspection'
 import type { DbOrTx } from '../db'
 import type { Actor } from '../auth'
 
 type TruckRow = Pick<typeof tables.trucks.$inferSelect, 'siteId' | 'truckClass' | 'fleetNumber'>
 
-/** Why this person may not take the truck today, in words (null when they may); see truck-authorisation.ts. */
-export async function truckAuthorisationFor(db: DbOrTx, userId: string, truck: TruckRow, today: string): Promise<string | null> {
+/** Why this person may not take the truck today, as a coded reason (null when they may); see truck-authorisation.ts. */
+export async function truckAuthorisationFor(db: DbOrTx, userId: string, truck: TruckRow, today: string): Promise<AuthorisationReason | null> {
   const q = tables.qualifications
   const r = tables.retrainingTriggers
   const kind = `truck_class_${truck.truckClass}` as typeof q.$inferSelect.kind
@@ -20,7 +20,7 @@ export async function truckAuthorisationFor(db: DbOrTx, userId: string, truck: T
       .where(and(eq(r.personId, userId), or(isNull(r.truckClass), eq(r.truckClass, truck.truckClass))))
       .orderBy(desc(r.happenedOn), desc(r.recordedAt)).limit(1),
   ])
-  return truckAuthorisationProblem(truck.truckClass, (qual as ClassQualification | undefined) ?? null, call ? { happenedOn: call.happenedOn, reason: call.reason as RetrainingReason } satisfies RetrainingCall : null, today)
+  return truckAuthorisationReason(truck.truckClass, (qual as ClassQualification | undefined) ?? null, call ? { happenedOn: call.happenedOn, reason: call.reason as RetrainingReason } satisfies RetrainingCall : null, today)
 }
 
 /**
@@ -28,13 +28,13 @@ export async function truckAuthorisationFor(db: DbOrTx, userId: string, truck: T
  * drive it). Under the site's policy 'block' it refuses with 409 and the reason; under 'warn' it answers
  * the reason, which the record keeps in its audit row and the screen shows.
  */
-export async function checkTruckAuthorisation(db: DbOrTx, actor: Actor, truck: TruckRow): Promise<string | null> {
+export async function checkTruckAuthorisation(db: DbOrTx, actor: Actor, truck: TruckRow): Promise<AuthorisationReason | null> {
   if (!rolesAt(actor, truck.siteId).includes('operator')) return null
   const [site] = await db.select({ settings: tables.sites.settings, timeZone: tables.sites.timeZone }).from(tables.sites).where(eq(tables.sites.id, truck.siteId))
   const problem = await truckAuthorisationFor(db, actor.user.id, truck, localDate(new Date(), site?.timeZone ?? 'UTC'))
   if (!problem) return null
   if (parseSiteSettings(site?.settings).truckAuthorisationPolicy === 'block') {
-    throw createError({ statusCode: 409, message: problem, data: { reasons: [{ code: 'truck_class_not_authorised', message: problem }], overridable: false } })
+    throw createError({ statusCode: 409, message: problem.message, data: { reasons: [problem], overridable: false } })
   }
   return problem
 }

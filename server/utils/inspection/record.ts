@@ -56,7 +56,7 @@ export async function recordInspection(actor: Actor, truck: TruckRow, input: Ins
       siteId: truck.siteId, userId: actor.user.id, at, idempotencyKey: input.idempotencyKey, note: input.note, truckId: truck.id,
       templateId: template.id, hourMeter: input.hourMeter, answers: input.answers, criticalFailed: critical.map(i => i.label), failedCount: failed.length,
     }).returning()
-    await writeAudit(tx, { actor, siteId: truck.siteId, action: 'inspect', entity: 'truck_inspection', entityId: item!.id, after: item, note: authorisation ?? undefined })
+    await writeAudit(tx, { actor, siteId: truck.siteId, action: 'inspect', entity: 'truck_inspection', entityId: item!.id, after: item, note: authorisation?.message })
     let followUpId: string | null = null
     if (failed.length) {
       const [site] = await tx.select({ timeZone: tables.sites.timeZone }).from(tables.sites).where(eq(tables.sites.id, truck.siteId))
