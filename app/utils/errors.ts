@@ -38,7 +38,14 @@ export function errorFields(error: unknown): Record<string, string> {
 export function refusalFields(refusal: Refusal | null): Record<string, string> {
   if (!refusal) return {}
   const coded = refusal.data.code === 'check_fields' ? undefined : codedRefusalText(refusal)
-  if (coded !== undefined) return Object.fromEntries(Object.keys(refusal.fields).map(k => [k, coded]))
+  if (coded !== undefined) {
+    // a field with its own problem (data.fieldCodes) is said from that code, the others from the refusal's
+    const own = (k: string) => {
+      const c = refusal.fieldCodes[k]
+      return c ? codedRefusalText({ ...refusal, reasons: [], data: { ...refusal.data, code: c.code, params: c.params } }) : undefined
+    }
+    return Object.fromEntries(Object.keys(refusal.fields).map(k => [k, own(k) ?? coded]))
+  }
   const i18n = tryUseNuxtApp()?.$i18n
   return sentFieldMessages(refusal.fields, refusal.issues, i18n && issueWordsFor(i18n.t, i18n.locale.value))
 }

@@ -16,6 +16,8 @@ export interface Refusal {
   fields: Record<string, string>
   /** each field's issue code and limits (`data.issues`), where the server sent them: refusalFields words them */
   issues: Record<string, SentIssue>
+  /** a field's own coded problem where a coded refusal's fields differ (`data.fieldCodes`) */
+  fieldCodes: Record<string, { code: string, params?: ReasonParams }>
   overridable: boolean
   offerQuarantine: boolean
   /** everything else the route put in `data` */
@@ -43,6 +45,11 @@ export function parseRefusal(error: unknown): Refusal | null {
     const issue = Object.hasOwn(sent, k) ? readSentIssue(sent[k]) : undefined
     return issue ? [[k, issue]] : []
   }))
+  const codes = data.fieldCodes && typeof data.fieldCodes === 'object' ? data.fieldCodes as Record<string, { code?: unknown, params?: unknown }> : {}
+  const fieldCodes = Object.fromEntries(Object.keys(fields).flatMap((k) => {
+    const c = Object.hasOwn(codes, k) ? codes[k] : undefined
+    return c && typeof c.code === 'string' ? [[k, { code: c.code, ...(c.params && typeof c.params === 'object' ? { params: c.params as ReasonParams } : {}) }]] : []
+  }))
   const message = e?.data?.message || reasons[0]?.message || e?.data?.statusMessage || `Bayward refused it (${status}).`
-  return { status, message, reasons, fields, issues, overridable: data.overridable === true, offerQuarantine: data.offerQuarantine === true, data }
+  return { status, message, reasons, fields, issues, fieldCodes, overridable: data.overridable === true, offerQuarantine: data.offerQuarantine === true, data }
 }

@@ -37,9 +37,9 @@ export function assetRuleProblems(kind: AssetKind, values: Record<string, unknow
 }
 
 export function refuseRuleProblems(problems: Record<string, string>) {
+  const codeOf = (words: string) => Object.entries(RULE_WORDS).find(([, w]) => w === words)?.[0] ?? 'check_fields'
   const first = Object.values(problems)[0]
-  const code = Object.entries(RULE_WORDS).find(([, words]) => words === first)?.[0] ?? 'check_fields'
-  if (first) throw codedError(400, code, first, { fields: problems })
+  if (first) throw codedError(400, codeOf(first), first, { fields: problems, fieldCodes: Object.fromEntries(Object.entries(problems).map(([f, words]) => [f, { code: codeOf(words) }])) })
 }
 
 // A condemned cylinder stays condemned: changing its status needs a lead (cylinder.uncondemn) and the

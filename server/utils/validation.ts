@@ -72,11 +72,16 @@ export function validateParams<S extends z.ZodType>(event: H3Event, schema: S): 
  * A refusal the floor pages show in the reader's words: `code` names `refusal.<code>` in every locale file,
  * `params` its numbers and names (values with a unit in the stored unit, suffixed), `message` the English
  * fallback, repeated at each named field (or, given field → words, each field's own English words).
+ * `fieldCodes` names a field's own problem where fields differ (two weights wrong in two ways): each field is
+ * then said from its own code, the summary from `code`.
  */
-export function codedError(statusCode: number, code: string, message: string, { params, fields = [] }: { params?: ReasonParams, fields?: string[] | Record<string, string> } = {}) {
+export function codedError(statusCode: number, code: string, message: string, { params, fields = [], fieldCodes }: { params?: ReasonParams, fields?: string[] | Record<string, string>, fieldCodes?: Record<string, FieldCode> } = {}) {
   const named = Array.isArray(fields) ? Object.fromEntries(fields.map(f => [f, message])) : fields
   return createError({
     statusCode, message,
-    data: { code, ...(params ? { params } : {}), ...(Object.keys(named).length ? { fields: named } : {}) },
+    data: { code, ...(params ? { params } : {}), ...(Object.keys(named).length ? { fields: named } : {}), ...(fieldCodes ? { fieldCodes } : {}) },
   })
 }
+
+/** One field's own coded problem (`refusal.<code>`, with its params). */
+export interface FieldCode { code: string, params?: ReasonParams }

@@ -160,6 +160,8 @@ describe('cylinder refill', () => {
     const res = await tech.post(`/api/cylinders/${c.id}/refills`, { inspection: passingInspection(), grossBeforeLb: 40, grossAfterLb: 35 })
     expect(res.status).toBe(400)
     expect(res.body.data.fields.grossAfterLb).toBeTruthy()
+    // each field's own problem, so a screen says each in the reader's language (refusal.fill_<problem>)
+    expect(res.body.data.fieldCodes).toEqual({ grossAfterLb: { code: 'fill_after_below_before' } })
     const missing = await tech.post(`/api/cylinders/${c.id}/refills`, { inspection: passingInspection() })
     expect(missing.status).toBe(400)
     expect(missing.body.data.fields.grossBeforeLb).toBeTruthy()

@@ -234,6 +234,29 @@ describe('parseRefusal', () => {
     }
   })
 
+  it('says each field of a coded refusal from its own problem where the fields differ', async () => {
+    // what fillInputError answers (server/utils/fuel/refill.ts) for a weight below the tare before and after the fill
+    const fill = fetchError(400, { message: 'Weight before filling is below the tare weight.', data: {
+      code: 'fill_gross_below_tare',
+      fields: { grossBeforeLb: 'Weight before filling is below the tare weight.', grossAfterLb: 'Weight after filling is below the tare weight.' },
+      fieldCodes: { grossBeforeLb: { code: 'fill_gross_below_tare' }, grossAfterLb: { code: 'fill_gross_below_tare', params: { variant: 'after' } } },
+    } })
+    const { $i18n } = useNuxtApp()
+    try {
+      await $i18n.setLocale('es')
+      expect(errorFields(fill)).toEqual({
+        grossBeforeLb: $i18n.t('refusal.fill_gross_below_tare'),
+        grossAfterLb: $i18n.t('refusal.fill_gross_below_tare_after'),
+      })
+      expect(errorFields(fill).grossAfterLb).not.toBe(errorFields(fill).grossBeforeLb)
+      await $i18n.setLocale('en')
+      expect(errorFields(fill).grossAfterLb).toBe('Weight after filling is below the tare weight.')
+    }
+    finally {
+      await $i18n.setLocale('en')
+    }
+  })
+
   it('no answer at all is no refusal', () => {
     expect(parseRefusal(new TypeError('Failed to fetch'))).toBeNull()
     expect(parseRefusal(undefined)).toBeNull()

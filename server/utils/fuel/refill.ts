@@ -16,9 +16,12 @@ export async function cylinderFillBlocks(db: DbOrTx, cylinder: FuelCylinderRow, 
 // Weights a fill cannot have, as a 400: each field's own words, and the first problem's code
 // (refusal.fill_<problem>, the weight after filling below the tare as its `after` variant).
 export function fillInputError(errors: FillInputError[]) {
-  const first = errors[0]!
-  const params = first.problem === 'gross_below_tare' && first.field === 'grossAfterLb' ? { variant: 'after' } : undefined
-  return codedError(400, `fill_${first.problem}`, first.message, { params, fields: Object.fromEntries(errors.map(e => [e.field === 'sg' ? 'productSg' : e.field, e.message])) })
+  const coded = (e: FillInputError) => ({ code: `fill_${e.problem}`, ...(e.problem === 'gross_below_tare' && e.field === 'grossAfterLb' ? { params: { variant: 'after' } } : {}) })
+  const field = (e: FillInputError) => (e.field === 'sg' ? 'productSg' : e.field)
+  const first = coded(errors[0]!)
+  return codedError(400, first.code, errors[0]!.message, {
+    params: first.params, fields: Object.fromEntries(errors.map(e => [field(e), e.message])), fieldCodes: Object.fromEntries(errors.map(e => [field(e), coded(e)])),
+  })
 }
 
 export interface RefillOutcome {
