@@ -8,6 +8,8 @@ export function useAssetImport(kind: AssetKind) {
   const session = useSessionStore()
   const report = ref<ImportReply | null>(null)
   const { progress, problem, follow } = useJob(400)
+  const { t } = useNuxtApp().$i18n
+  const { number } = useLocaleFormat()
 
   async function check(csv: string) {
     problem.value = ''
@@ -26,9 +28,9 @@ export function useAssetImport(kind: AssetKind) {
       const reply = await $fetch<ImportReply>(`${view.api}/import`, { method: 'POST', body: { siteId: session.siteId, csv, dryRun: false } })
       report.value = reply
       if (!reply.job) return
-      if (await follow(reply.job, reply.total, () => 'The import failed and nothing was written. Try again.')) {
+      if (await follow(reply.job, reply.total, () => t('asset_form.import.failed'))) {
         await refreshNuxtData(`${kind}-list`)
-        useToast().show(`${reply.total} imported.`)
+        useToast().show(t('asset_form.import.imported', { n: number(reply.total) }))
       }
     }
     catch (error) {
