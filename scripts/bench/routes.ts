@@ -32,12 +32,13 @@ export async function measurePass(server: BenchServer, sql: postgres.Sql, label:
   const area1 = benchId('area:1:1')
   const memory = memorySampler(server.pid)
   const figures: PassResult['figures'] = []
-  const measureGet = async (key: string, name: string, connections: number, request: () => CannonOptions['requests']) => {
+  // `verdict` names the target a route is judged by when it differs from its key (the reports of one site and of all)
+  const measureGet = async (key: string, name: string, connections: number, request: () => CannonOptions['requests'], verdict = key) => {
     if (key !== 'health' && !wanted(key)) return
     await new Promise(r => setTimeout(r, 2000))
     await drive(name, base, { connections, duration: WARMUP_S, requests: request() })
     const f = await drive(name, base, { connections, duration: DURATION_S, requests: request() })
-    figures.push({ ...f, key })
+    figures.push({ ...f, key: verdict })
     console.log(`  [${label}] ${name}: ${f.rps.toFixed(0)} req/s, p95 ${f.p95.toFixed(1)} ms, ${f.errors} errors`)
   }
 
@@ -53,9 +54,9 @@ export async function measurePass(server: BenchServer, sql: postgres.Sql, label:
   await measureGet('due-group', 'GET /api/due, one group opened (50 waterings)', 16, () => [get(`/api/due?siteId=${site1}&role=all&sort=due&kind=battery_watering&limit=50`, leadCookie)])
   await measureGet('list', 'GET /api/batteries (page 3 of 50, by Ah)', 16, () => [get(`/api/batteries?siteId=${site1}&page=3&pageSize=50&sort=capacityAh`, leadCookie)])
   // Reports over a year: one site, and all of the lead's sites (BAYWARD_BENCH_ONLY=report)
-  await measureGet('report', 'GET /api/reports/energy (a site, a year)', 4, () => [get(`/api/reports/energy?siteId=${site1}`, leadCookie)])
-  await measureGet('report', 'GET /api/reports/energy (all the lead\'s sites, a year)', 2, () => [get('/api/reports/energy?siteId=all', leadCookie)])
-  await measureGet('report', 'GET /api/reports/battery-health (a site, a year)', 4, () => [get(`/api/reports/battery-health?siteId=${site1}`, leadCookie)])
+  await measureGet('report', 'GET /api/reports/energy (a site, a year)', 4, () => [get(`/api/reports/energy?siteId=${site1}`, leadCookie)], 'report-site')
+  await measureGet('report', 'GET /api/reports/energy (all the lead\'s sites, a year)', 2, () => [get('/api/reports/energy?siteId=all', leadCookie)], 'report-all')
+  await measureGet('report', 'GET /api/reports/battery-health (a site, a year)', 4, () => [get(`/api/reports/battery-health?siteId=${site1}`, leadCookie)], 'report-site')
   const twoTrucks = wanted('swap') ? await runSwaps(server, sql, leadCookie, label, figures) : undefined
   return { figures, twoTrucks, memory: memory.stop() }
 }

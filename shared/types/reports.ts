@@ -1,5 +1,6 @@
 // What every report route answers (server/utils/reports/, /api/reports/<kind>): a few headline figures,
-// then sections, each a chart (an SVG drawn on the server, or none) over the table it was drawn from.
+// then sections, each a chart (its numbers, drawn in the browser; or none) over the table it was drawn from.
+import type { ChartData } from '../utils/report-chart'
 
 export const REPORT_KINDS = ['energy', 'battery-health', 'replacement', 'shortfall', 'propane', 'compliance'] as const
 export type ReportKind = typeof REPORT_KINDS[number]
@@ -22,7 +23,7 @@ export interface ReportSection {
   title: string
   /** how a figure is worked out, shown beside it (a convention, a constant and its source) */
   note?: string
-  chartSvg: string | null
+  chart: ChartData | null
   columns: ReportColumn[]
   rows: Record<string, ReportCell>[]
 }

@@ -57,6 +57,8 @@ describe('reports in the browser', () => {
       await page.goto(`/reports/${kind}?site=${siteId}&${RANGE}`)
       await page.locator('h2').first().waitFor()
       await page.getByText('The figures are aids for planning').first().waitFor()
+      // every chart drawn (the chart code comes with the first one) before the width and the picture are taken
+      await page.waitForFunction(() => [...document.querySelectorAll('.report-chart')].every(e => e.querySelector('svg')))
       expect(await fitsWidth(page), kind).toBe(true)
       // WCAG 2.1 AA as axe checks it (serious and critical findings), as tests/browser/accessibility.test.ts does
       const axe = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa']).options({ resultTypes: ['violations'] }).analyze()
@@ -65,6 +67,24 @@ describe('reports in the browser', () => {
       if (kind === 'battery-health' && name === 'phone') await page.getByText('Swipe the table sideways for more columns.').first().waitFor()
       await page.screenshot({ path: `screenshots/report-${kind}-${name}.png`, fullPage: true })
     }
+    await context.close()
+  })
+
+  it('draws a report\'s charts in the browser under the content security policy, and redraws them at a new width', async () => {
+    const { context, page } = await signInAt(browser, people.lead!, `/reports/energy?site=${siteId}&${RANGE}`, PHONE)
+    const refused: string[] = []
+    page.on('console', (m) => {
+      if (/Content Security Policy|Refused to/i.test(m.text())) refused.push(m.text())
+    })
+    await page.reload()
+    const chart = page.getByRole('img', { name: /^Chart: By month/ })
+    await chart.locator('svg').waitFor()
+    // the three months' bars and the cost line are drawn, on an axis named in kWh
+    await expect.poll(() => chart.locator('svg text').allTextContents()).toEqual(expect.arrayContaining(['kWh']))
+    const narrow = await chart.locator('svg').evaluate(e => e.getBoundingClientRect().width)
+    await page.setViewportSize(DESKTOP)
+    await expect.poll(() => chart.locator('svg').evaluate(e => e.getBoundingClientRect().width)).toBeGreaterThan(narrow)
+    expect(refused).toEqual([])
     await context.close()
   })
 

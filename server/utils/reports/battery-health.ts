@@ -71,7 +71,7 @@ export async function batteryHealthReport(scope: ReportScope): Promise<ReportRes
         key: 'fleet',
         title: t('report.health.fleet_title'),
         note: t('report.health.fleet_note', { act: SG_SPREAD_ACT.toFixed(3), days: RECENT_DAYS }),
-        chartSvg: null,
+        chart: null,
         columns: [
           { key: 'serial', label: t('report.col.battery') }, ...siteColumn(scope), { key: 'voltage', label: t('report.col.volts'), decimals: 0 },
           { key: 'cycles', label: t('report.col.cycles'), decimals: 0 }, { key: 'ratedCycles', label: t('report.col.rated'), decimals: 0 },
@@ -90,7 +90,7 @@ export async function batteryHealthReport(scope: ReportScope): Promise<ReportRes
         key: 'capacity',
         title: t('report.health.capacity_title'),
         note: t('report.health.capacity_note'),
-        chartSvg: chartOf(scope, {
+        chart: chartOf(scope, {
           kind: 'line', categories: months.map(m => monthText(m, LANGUAGE_TAGS[scope.language])), unit: 'Ah',
           series: [{ name: t('report.health.fleet'), data: monthRows.map(r => r.ahPerCharge) }, ...watched.map(b => ({ name: b.serial, data: months.map(m => ahAt(m, b.id)) }))],
         }),
@@ -101,7 +101,7 @@ export async function batteryHealthReport(scope: ReportScope): Promise<ReportRes
         key: 'cells',
         title: t('report.health.cells_title'),
         note: t('report.health.cells_note', { warn: SG_SPREAD_WARN.toFixed(3), act: SG_SPREAD_ACT.toFixed(3) }),
-        chartSvg: chartOf(scope, {
+        chart: chartOf(scope, {
           kind: 'bar', categories: months.map(m => monthText(m, LANGUAGE_TAGS[scope.language])), unit: t('report.unit.checks'), secondUnit: 'SG',
           series: [{ name: t('report.health.low_findings'), data: monthRows.map(r => r.lowFindings) }, { name: t('report.col.mean_spread'), type: 'line', data: monthRows.map(r => (r.spread === null ? null : Math.round(r.spread * 1000) / 1000)) }],
         }),

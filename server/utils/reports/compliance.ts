@@ -94,7 +94,7 @@ export async function complianceReport(scope: ReportScope): Promise<ReportRespon
         key: 'emissions',
         title: t('report.compliance.emissions_title'),
         note: t('report.compliance.emissions_note'),
-        chartSvg: chartOf(scope, {
+        chart: chartOf(scope, {
           kind: 'bar', categories: months.map(m => monthText(m, LANGUAGE_TAGS[scope.language])), unit: t('report.unit.tests'), secondUnit: '%',
           series: [{ name: t('report.col.tests'), data: monthRows.map(r => r.tests) }, { name: t('report.compliance.pass_rate_pct'), type: 'line', data: monthRows.map(r => (r.passRate === null ? null : Math.round(r.passRate))) }],
         }),
@@ -105,7 +105,7 @@ export async function complianceReport(scope: ReportScope): Promise<ReportRespon
         key: 'co',
         title: t('report.compliance.co_title'),
         note: t('report.compliance.co_note', { site_ppm: CO_LIMITS.nioshRel.ppm, site_source: CO_LIMITS.nioshRel.source, pel_ppm: CO_LIMITS.oshaPel.ppm, pel_source: CO_LIMITS.oshaPel.source }),
-        chartSvg: chartOf(scope, { kind: 'bar', ...chartTop(scope), categories: co.map(a => a.area), unit: 'ppm', series: [{ name: t('report.compliance.mean_twa'), data: co.map(a => Math.round(num(a.meanTwa) * 10) / 10) }, { name: t('report.compliance.highest_twa'), data: co.map(a => Math.round(num(a.maxTwa) * 10) / 10) }] }),
+        chart: chartOf(scope, { kind: 'bar', ...chartTop(scope), categories: co.map(a => a.area), unit: 'ppm', series: [{ name: t('report.compliance.mean_twa'), data: co.map(a => Math.round(num(a.meanTwa) * 10) / 10) }, { name: t('report.compliance.highest_twa'), data: co.map(a => Math.round(num(a.maxTwa) * 10) / 10) }] }),
         columns: [
           { key: 'area', label: t('report.col.area') }, { key: 'days', label: t('report.col.days_measured'), decimals: 0 }, { key: 'meanTwa', label: t('report.col.mean_twa'), unit: 'ppm', decimals: 1 },
           { key: 'maxTwa', label: t('report.col.highest_twa'), unit: 'ppm', decimals: 1 }, { key: 'overSite', label: t('report.col.days_over_site'), decimals: 0 }, { key: 'overPel', label: t('report.col.days_over_pel', { ppm: CO_LIMITS.oshaPel.ppm }), decimals: 0 },
@@ -116,14 +116,14 @@ export async function complianceReport(scope: ReportScope): Promise<ReportRespon
         key: 'logs',
         title: t('report.compliance.logs_title'),
         note: t('report.compliance.logs_note', { days }),
-        chartSvg: chartOf(scope, { kind: 'bar', ...chartTop(scope), categories: logRows.map(l => l.area), unit: '%', series: [{ name: `${t('report.col.completion')} (%)`, data: logRows.map(l => Math.round(l.completion)) }] }),
+        chart: chartOf(scope, { kind: 'bar', ...chartTop(scope), categories: logRows.map(l => l.area), unit: '%', series: [{ name: `${t('report.col.completion')} (%)`, data: logRows.map(l => Math.round(l.completion)) }] }),
         columns: [{ key: 'area', label: t('report.col.area') }, { key: 'logs', label: t('report.col.days_logged'), decimals: 0 }, { key: 'completion', label: t('report.col.completion'), unit: '%', decimals: 0 }, { key: 'signed', label: t('report.col.signed'), decimals: 0 }, { key: 'failed', label: t('report.col.failed_items'), decimals: 0 }],
         rows: logRows,
       },
       {
         key: 'failed-items',
         title: t('report.compliance.failed_items'),
-        chartSvg: null,
+        chart: null,
         columns: [{ key: 'item', label: t('report.col.item') }, { key: 'failed', label: t('report.col.times_failed'), decimals: 0 }],
         rows: failedItems.map(i => ({ item: i.item, failed: num(i.failed) })),
       },
@@ -131,7 +131,7 @@ export async function complianceReport(scope: ReportScope): Promise<ReportRespon
         key: 'evaluations',
         title: t('report.compliance.evaluations_title'),
         note: t('report.compliance.evaluations_note'),
-        chartSvg: null,
+        chart: null,
         columns: [{ key: 'person', label: t('report.col.operator') }, ...siteColumn(scope), { key: 'dueOn', label: t('report.col.due') }],
         rows: evaluations,
       },

@@ -84,7 +84,7 @@ export async function energyReport(scope: ReportScope, withPeak = true): Promise
         key: 'month',
         title: t('report.energy.by_month'),
         note: t('report.energy.convention'),
-        chartSvg: chartOf(scope, {
+        chart: chartOf(scope, {
           kind: 'bar', categories: monthList.map(m => monthText(m, LANGUAGE_TAGS[scope.language])), unit: 'kWh', secondUnit: cur || t('report.unit.cost'),
           series: [{ name: 'kWh', data: monthRows.map(r => Math.round(r.kwh)) }, { name: `${t('report.col.cost')}${cur ? ` (${cur})` : ''}`, type: 'line', data: monthRows.map(r => Math.round(r.cost * 100) / 100) }],
         }),
@@ -97,7 +97,7 @@ export async function energyReport(scope: ReportScope, withPeak = true): Promise
       {
         key: 'area',
         title: t('report.energy.by_area'),
-        chartSvg: chartOf(scope, { kind: 'bar', ...chartTop(scope), categories: areas.map(a => a.label), unit: 'kWh', series: [{ name: 'kWh', data: areas.map(a => Math.round(a.kwh)) }] }),
+        chart: chartOf(scope, { kind: 'bar', ...chartTop(scope), categories: areas.map(a => a.label), unit: 'kWh', series: [{ name: 'kWh', data: areas.map(a => Math.round(a.kwh)) }] }),
         columns: [{ key: 'area', label: t('report.col.charging_area') }, { key: 'charges', label: t('report.col.charges'), decimals: 0 }, { key: 'kwh', label: t('report.col.energy'), unit: 'kWh', decimals: 0 }, { key: 'cost', label: t('report.col.cost'), unit: cur, decimals: 2 }],
         rows: areas.map(a => ({ area: a.label, charges: a.charges, kwh: a.kwh, cost: a.cost })),
       },
@@ -105,7 +105,7 @@ export async function energyReport(scope: ReportScope, withPeak = true): Promise
         key: 'charger',
         title: t('report.energy.by_charger'),
         note: t('report.energy.charger_note', { days }),
-        chartSvg: chartOf(scope, { kind: 'bar', ...chartTop(scope), categories: chargers.map(c => c.label), unit: t('report.unit.h_day'), series: [{ name: t('report.energy.hours_per_day'), data: chargers.map(c => Math.round(hoursOnChargePerDay(c.hours, days) * 10) / 10) }] }),
+        chart: chartOf(scope, { kind: 'bar', ...chartTop(scope), categories: chargers.map(c => c.label), unit: t('report.unit.h_day'), series: [{ name: t('report.energy.hours_per_day'), data: chargers.map(c => Math.round(hoursOnChargePerDay(c.hours, days) * 10) / 10) }] }),
         columns: [
           { key: 'charger', label: t('report.col.charger') }, { key: 'area', label: t('report.col.area') }, { key: 'charges', label: t('report.col.charges'), decimals: 0 },
           { key: 'kwh', label: t('report.col.energy'), unit: 'kWh', decimals: 0 }, { key: 'cost', label: t('report.col.cost'), unit: cur, decimals: 2 },
@@ -138,7 +138,7 @@ function addPeakSplit(report: ReportResponse, scope: ReportScope, peak: Awaited<
     key: 'peak',
     title: t('report.energy.peak_title'),
     note: t('report.energy.peak_note'),
-    chartSvg: null,
+    chart: null,
     columns: [
       { key: 'site', label: t('report.col.site') }, { key: 'kwh', label: t('report.col.energy'), unit: 'kWh', decimals: 0 },
       { key: 'peakKwh', label: t('report.col.peak_kwh'), unit: 'kWh', decimals: 0 }, { key: 'peakShare', label: t('report.col.peak_share'), unit: '%', decimals: 0 },

@@ -38,7 +38,7 @@ export async function replacementReport(scope: ReportScope): Promise<ReportRespo
         key: 'quarter',
         title: t('report.replacement.quarter_title'),
         note: t('report.replacement.quarter_note', { days: RECENT_DAYS, day: scope.to }),
-        chartSvg: chartOf(scope, {
+        chart: chartOf(scope, {
           kind: 'bar', categories: quarters, unit: t('report.unit.batteries'), secondUnit: cur || t('report.unit.cost'),
           series: [{ name: t('report.col.batteries'), data: byQuarter.map(q => q.batteries) }, { name: `${t('report.col.cost')}${cur ? ` (${cur})` : ''}`, type: 'line', data: byQuarter.map(q => Math.round(q.cost)) }],
         }),
@@ -49,7 +49,7 @@ export async function replacementReport(scope: ReportScope): Promise<ReportRespo
         key: 'battery',
         title: t('report.replacement.battery_title'),
         note: t('report.replacement.battery_note'),
-        chartSvg: null,
+        chart: null,
         columns: [
           { key: 'serial', label: t('report.col.battery') }, ...siteColumn(scope), { key: 'cycles', label: t('report.col.cycles'), decimals: 0 }, { key: 'ratedCycles', label: t('report.col.rated'), decimals: 0 },
           { key: 'perWeek', label: t('report.col.recent_rate'), unit: t('report.unit.cycles_week'), decimals: 1 }, { key: 'reachesOn', label: t('report.col.reaches_rated') }, { key: 'price', label: t('report.col.price'), unit: cur, decimals: 2 },

@@ -9,7 +9,7 @@ import { LANGUAGE_TAGS, type Language } from '#shared/utils/languages'
 import { mailWords, type MailT } from '../mail-words'
 import { readerLanguage } from '../reader-language'
 import { rowsOf, uuidArray } from '../due/effective'
-import { CHART_TOP, chartSvg, loadCharts, type ChartSpec } from './chart'
+import { CHART_TOP, chartData, type ChartData, type ChartSpec } from '#shared/utils/report-chart'
 
 export interface ReportSite { id: string, name: string, timeZone: string, unitSystem: UnitSystem, settings: SiteSettings }
 
@@ -26,7 +26,7 @@ export interface ReportScope {
   /** the reader's language, and its words (i18n/locales, report.*) */
   language: Language
   t: MailT
-  /** false for a CSV answer: its charts would be drawn and thrown away */
+  /** false for a CSV answer: it carries no charts */
   charts?: boolean
 }
 
@@ -99,14 +99,14 @@ export function reportCsv(event: H3Event, report: ReportResponse, section?: stri
 export async function serveReport(event: H3Event, ability: Ability, build: (scope: ReportScope) => Promise<ReportResponse>) {
   const query = validateQuery(event, reportQuerySchema)
   const csv = query.format === 'csv'
-  const [scope] = await Promise.all([reportScope(event, ability, query), csv ? undefined : loadCharts()])
+  const scope = await reportScope(event, ability, query)
   const report = await build({ ...scope, charts: !csv })
-  return query.format === 'csv' ? reportCsv(event, report, query.section) : report
+  return csv ? reportCsv(event, report, query.section) : report
 }
 
-/** A section's chart as SVG, or none when the answer is CSV. */
-export function chartOf(scope: ReportScope, spec: ChartSpec): string | null {
-  return scope.charts === false ? null : chartSvg(spec)
+/** A section's chart as the numbers the browser draws, or none when the answer is CSV or there is nothing to draw. */
+export function chartOf(scope: ReportScope, spec: ChartSpec): ChartData | null {
+  return scope.charts === false ? null : chartData(spec)
 }
 
 /** A chart of many things cut to its CHART_TOP highest, saying so in the reader's words. */

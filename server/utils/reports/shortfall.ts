@@ -64,7 +64,7 @@ export async function shortfallReport(scope: ReportScope): Promise<ReportRespons
         key: 'hour',
         title: t('report.shortfall.hour_title'),
         note: t('report.shortfall.hour_note'),
-        chartSvg: chartOf(scope, {
+        chart: chartOf(scope, {
           kind: 'bar', categories: hours.map(h => h.hour.slice(0, 2)), unit: t('report.unit.swaps'), secondUnit: '%',
           series: [{ name: t('report.shortfall.series'), data: hours.map(h => h.shortfalls) }, { name: t('report.shortfall.share_pct'), type: 'line', data: hours.map(h => (h.share === null ? null : Math.round(h.share))) }],
         }),
@@ -75,7 +75,7 @@ export async function shortfallReport(scope: ReportScope): Promise<ReportRespons
       {
         key: 'area',
         title: t('report.shortfall.area_title'),
-        chartSvg: chartOf(scope, { kind: 'bar', ...chartTop(scope), categories: areas.map(a => a.area), unit: t('report.unit.swaps'), series: [{ name: t('report.shortfall.series'), data: areas.map(a => a.shortfalls) }] }),
+        chart: chartOf(scope, { kind: 'bar', ...chartTop(scope), categories: areas.map(a => a.area), unit: t('report.unit.swaps'), series: [{ name: t('report.shortfall.series'), data: areas.map(a => a.shortfalls) }] }),
         columns: [{ key: 'area', label: t('report.col.area') }, { key: 'swaps', label: t('report.col.swaps'), decimals: 0 }, { key: 'shortfalls', label: t('report.col.short'), decimals: 0 }, { key: 'share', label: t('report.col.share'), unit: '%', decimals: 0 }],
         rows: areas,
       },
@@ -83,7 +83,7 @@ export async function shortfallReport(scope: ReportScope): Promise<ReportRespons
         key: 'voltage',
         title: t('report.shortfall.voltage_title'),
         note: t('report.shortfall.voltage_note'),
-        chartSvg: null,
+        chart: null,
         columns: [{ key: 'voltage', label: t('report.col.voltage'), unit: 'V', decimals: 0 }, { key: 'trucks', label: t('report.col.trucks'), decimals: 0 }, { key: 'batteries', label: t('report.col.batteries'), decimals: 0 }, { key: 'perTruck', label: t('report.col.per_truck'), decimals: 2 }],
         rows: perTruck.map(r => ({ voltage: num(r.voltage), trucks: num(r.trucks), batteries: num(r.batteries), perTruck: num(r.trucks) > 0 ? num(r.batteries) / num(r.trucks) : null })),
       },
