@@ -2,7 +2,7 @@ import { sql, type SQL } from 'drizzle-orm'
 import { obligationStateSql } from '../due/list'
 import { rowsOf, type SqlRunner } from '../due/effective'
 import type { BoardCardData } from '../../../shared/types/floor'
-import { BATTERY_FLAG_LABELS, type BatteryCard, type FlagKey } from './status'
+import { BATTERY_FLAG_LABELS, inChargingArea, liveTag, obligationJoin, type BatteryCard, type FlagKey } from './status'
 
 // The Bay board's battery cards as one JSON text made by PostgreSQL from battery_status and the watering
 // and equalize obligations, with the state at `now` worked out there: the same cards as
@@ -28,17 +28,14 @@ const jsonList = (items: SQL[]) => sql`('[' || concat_ws(',', ${sql.join(items, 
 export async function boardCardsJson(db: SqlRunner, q: { siteId: string, areaId?: string }, now: Date): Promise<string> {
   const nowMs = sql`${now.getTime()}::float8`
   const where: SQL[] = [sql`b.site_id = ${q.siteId}`]
-  if (q.areaId) {
-    where.push(sql`(b.home_area_id = ${q.areaId} OR b.id IN (
-      SELECT s2.battery_id FROM battery_status s2 JOIN chargers c2 ON c2.id = s2.charger_id WHERE c2.area_id = ${q.areaId}))`)
-  }
+  if (q.areaId) where.push(inChargingArea(q.areaId))
   const today = sql`k.today`
   const [row] = await rowsOf<{ cards: string }>(db, sql`
     WITH k AS (SELECT (to_timestamp(${nowMs} / 1000) AT TIME ZONE st.time_zone)::date AS today FROM sites st WHERE st.id = ${q.siteId}),
     c AS (
       SELECT b.id, b.serial, b.voltage, b.capacity_ah, b.rated_cycles, b.out_of_service,
         CASE WHEN b.out_of_service THEN b.out_of_service_reason END AS oos_reason,
-        (SELECT t.code FROM tags t WHERE t.asset_kind = 'battery' AND t.asset_id = b.id AND t.retired_at IS NULL LIMIT 1) AS tag_code,
+        ${liveTag('battery', 'b.id')} AS tag_code,
         coalesce(s.cycles, 0) AS cycles, s.truck_id, s.charge_session_id,
         (SELECT tr.fleet_number FROM trucks tr WHERE tr.id = s.truck_id) AS fleet_number,
         (SELECT ch.name FROM chargers ch WHERE ch.id = s.charger_id) AS charger_name,
@@ -51,14 +48,8 @@ export async function boardCardsJson(db: SqlRunner, q: { siteId: string, areaId?
       FROM batteries b
       CROSS JOIN k
       LEFT JOIN battery_status s ON s.battery_id = b.id AND s.site_id = ${q.siteId}
-      LEFT JOIN LATERAL (
-        SELECT o.due_on, o.due_at_count, o.count_now, o.due_soon_days FROM obligations o
-        WHERE o.site_id = b.site_id AND o.rule_key = 'battery_watering' AND o.subject_kind = 'battery' AND o.subject_id = b.id LIMIT 1
-      ) w ON true
-      LEFT JOIN LATERAL (
-        SELECT o.due_on, o.due_at_count, o.count_now, o.due_soon_days FROM obligations o
-        WHERE o.site_id = b.site_id AND o.rule_key = 'battery_equalize' AND o.subject_kind = 'battery' AND o.subject_id = b.id LIMIT 1
-      ) e ON true
+      ${obligationJoin('w', 'battery_watering')}
+      ${obligationJoin('e', 'battery_equalize')}
       WHERE ${sql.join(where, sql` AND `)}
     ), d AS (
       SELECT c.*,

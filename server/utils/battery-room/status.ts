@@ -64,21 +64,24 @@ export interface BatteryCardQuery {
 }
 
 // Per battery, by index (LIMIT keeps the planner from turning these into hash joins over whole tables).
-const obligation = (alias: string, ruleKey: string) => sql.raw(`LEFT JOIN LATERAL (
+// The board's cards (board-cards.ts) read the same three pieces.
+/** The battery `b`'s obligation of `ruleKey` as `alias` (due_on, due_at_count, count_now, due_soon_days). */
+export const obligationJoin = (alias: string, ruleKey: string) => sql.raw(`LEFT JOIN LATERAL (
       SELECT o.due_on, o.due_at_count, o.count_now, o.due_soon_days FROM obligations o
       WHERE o.site_id = b.site_id AND o.rule_key = '${ruleKey}' AND o.subject_kind = 'battery' AND o.subject_id = b.id LIMIT 1
     ) ${alias} ON true`)
-const liveTag = (kind: string, idColumn: string) => sql.raw(`(SELECT t.code FROM tags t WHERE t.asset_kind = '${kind}' AND t.asset_id = ${idColumn} AND t.retired_at IS NULL LIMIT 1)`)
+/** The live tag's code of the asset of `kind` whose id is in `idColumn`. */
+export const liveTag = (kind: string, idColumn: string) => sql.raw(`(SELECT t.code FROM tags t WHERE t.asset_kind = '${kind}' AND t.asset_id = ${idColumn} AND t.retired_at IS NULL LIMIT 1)`)
+/** The battery `b` belongs to the charging area: its home, or it sits on one of the area's chargers. */
+export const inChargingArea = (areaId: string) => sql`(b.home_area_id = ${areaId} OR b.id IN (
+      SELECT s2.battery_id FROM battery_status s2 JOIN chargers c2 ON c2.id = s2.charger_id WHERE c2.area_id = ${areaId}))`
 
 export async function loadBatteryRows(db: SqlRunner, q: BatteryCardQuery): Promise<CardRow[]> {
   const sites = typeof q.siteId === 'string' ? [q.siteId] : q.siteId
   if (sites.length === 0 || q.batteryIds?.length === 0) return []
   const siteIs = (column: string) => sites.length === 1 ? sql`${sql.raw(column)} = ${sites[0]}` : sql`${sql.raw(column)} = ANY(${uuidArray(sites)})`
   const where: SQL[] = [siteIs('b.site_id')]
-  if (q.areaId) {
-    where.push(sql`(b.home_area_id = ${q.areaId} OR b.id IN (
-      SELECT s2.battery_id FROM battery_status s2 JOIN chargers c2 ON c2.id = s2.charger_id WHERE c2.area_id = ${q.areaId}))`)
-  }
+  if (q.areaId) where.push(inChargingArea(q.areaId))
   if (q.batteryIds) where.push(sql`b.id = ANY(${uuidArray(q.batteryIds)})`)
   return rowsOf<CardRow>(db, sql`
     SELECT b.id, b.site_id AS "siteId", b.serial, ${liveTag('battery', 'b.id')} AS "tagCode", b.home_area_id AS "homeAreaId", b.chemistry, b.voltage,
@@ -95,8 +98,8 @@ export async function loadBatteryRows(db: SqlRunner, q: BatteryCardQuery): Promi
     FROM batteries b
     JOIN sites st ON st.id = b.site_id
     LEFT JOIN battery_status s ON s.battery_id = b.id AND ${siteIs('s.site_id')}
-    ${obligation('w', 'battery_watering')}
-    ${obligation('e', 'battery_equalize')}
+    ${obligationJoin('w', 'battery_watering')}
+    ${obligationJoin('e', 'battery_equalize')}
     WHERE ${sql.join(where, sql` AND `)}
     ORDER BY b.serial COLLATE natural_sort`)
 }
