@@ -1,5 +1,7 @@
 // When the outbox tries a message again, and when a site's daily digest is due.
 
+import { keptDateFormat } from './intl-formats'
+
 /** First retry after this many seconds; each later one waits twice as long. */
 export const MAIL_RETRY_BASE_SECONDS = 30
 /** Never wait longer than an hour between tries. */
@@ -16,7 +18,7 @@ export function mailRetryDelaySeconds(attempts: number): number | null {
 
 /** The hour (0–23) an instant falls in at a site, from the platform's time-zone data. */
 export function localHour(instant: Date, timeZone: string): number {
-  const hour = new Intl.DateTimeFormat('en-GB', { timeZone, hour: '2-digit', hourCycle: 'h23' }).format(instant)
+  const hour = keptDateFormat('en-GB', { timeZone, hour: '2-digit', hourCycle: 'h23' }).format(instant)
   return Number(hour)
 }
 

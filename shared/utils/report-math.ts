@@ -1,3 +1,4 @@
+import { keptDateFormat } from './intl-formats'
 // The arithmetic of the reports, apart from the SQL that gathers its inputs (tests/unit/report-math.test.ts).
 
 /** Hours a charger spent on charge per day of the range. */
@@ -119,7 +120,7 @@ export function sameDaysLastMonth(today: string): { from: string, to: string } {
 /** A month ('2026-03') as a language names it, short ("Mar 2026", "mar 2026"), for a table or a chart's axis. */
 export function monthText(month: string, languageTag: string): string {
   if (!/^\d{4}-\d{2}$/.test(month)) return month
-  return new Intl.DateTimeFormat(languageTag, { month: 'short', year: 'numeric', timeZone: 'UTC' }).format(new Date(`${month}-01T00:00:00Z`))
+  return keptDateFormat(languageTag, { month: 'short', year: 'numeric', timeZone: 'UTC' }).format(new Date(`${month}-01T00:00:00Z`))
 }
 
 /** The months wholly inside from … to that ended before yesterday ('YYYY-MM', in order). */

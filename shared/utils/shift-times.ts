@@ -1,10 +1,12 @@
+import { keptDateFormat } from './intl-formats'
+
 // When the current shift began at a site: the latest of the site's shift start times (site-local HH:MM)
 // at or before `now`, today or, before the first start of the day, yesterday's last one. A truck is
 // examined before it is placed in service each day, and after each shift where trucks run round the clock
 // (29 CFR 1910.178(q)(7)), so "checked this shift" means a check at or after this instant.
 
 function localParts(instant: Date, timeZone: string) {
-  const parts = new Intl.DateTimeFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit', second: '2-digit', hourCycle: 'h23' })
+  const parts = keptDateFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit', second: '2-digit', hourCycle: 'h23' })
     .formatToParts(instant)
   const get = (type: string) => Number(parts.find(p => p.type === type)?.value)
   return { year: get('year'), month: get('month'), day: get('day'), hour: get('hour'), minute: get('minute'), second: get('second') }

@@ -1,6 +1,8 @@
 // Display conversions between the stored US customary units and metric.
 // Every factor is an exact definition (international yard and pound agreement, 1959; US gallon = 231 in³).
 
+import { keptNumberFormat } from './intl-formats'
+
 export type UnitSystem = 'us' | 'metric'
 
 /** Kilograms in one avoirdupois pound (exact). */
@@ -99,7 +101,7 @@ function displayDecimals(value: number, options: UnitFormatOptions | undefined):
 function formatQuantity(value: number, symbol: string, options: UnitFormatOptions | undefined): string {
   if (!Number.isFinite(value)) return '—'
   const decimals = displayDecimals(value, options)
-  const text = new Intl.NumberFormat('en-US', { maximumFractionDigits: decimals, minimumFractionDigits: 0 })
+  const text = keptNumberFormat('en-US', { maximumFractionDigits: decimals, minimumFractionDigits: 0 })
     .format(value)
   return `${text === '-0' ? '0' : text} ${symbol}`
 }

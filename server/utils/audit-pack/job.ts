@@ -6,6 +6,7 @@ import { AuditPdf } from './pdf'
 import { CO_TWA_TABLE, PACK_SECTIONS, packCoReadings, packEmissionsTests, type PackColumn, type PackColumnKey, type PackTable } from './sections'
 import { CORRECTION_CSV_FIELDS, correctionCsvCells, type PackCorrectableRow } from './sql'
 import { PackZip, certificateFileName } from './zip'
+import { keptDateFormat } from '#shared/utils/intl-formats'
 
 // The audit-pack job: each section's tables are read through a cursor a batch at a time and written to
 // the PDF and to their CSV in the ZIP as they come; the certificates go in last, one file at a time.
@@ -33,7 +34,7 @@ export const readAuditZip = (jobId: string) => readStoredFile(auditZipKey(jobId)
 
 /** "2026-12-02 10:15" in the site's time. */
 export function siteClock(at: Date, timeZone: string): string {
-  return new Intl.DateTimeFormat('sv-SE', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit' }).format(at)
+  return keptDateFormat('sv-SE', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit' }).format(at)
 }
 
 /** A batch of rows as CSV text (through csvText, like every CSV Bayward sends); the header only on the first. */

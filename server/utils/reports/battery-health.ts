@@ -45,14 +45,16 @@ export async function batteryHealthReport(scope: ReportScope): Promise<ReportRes
   const watched = fleet.slice(0, 4)
   const { ah, checks } = await monthlyHealth(scope, watched.map(b => b.id))
   const months = monthsBetween(scope.from, scope.to)
+  const ahBy = new Map(ah.map(a => [`${a.month}|${a.batteryId ?? ''}`, a.ah]))
   const ahAt = (month: string, batteryId: string | null) => {
-    const r = ah.find(a => a.month === month && a.batteryId === batteryId)
-    return r ? Math.round(num(r.ah)) : null
+    const v = ahBy.get(`${month}|${batteryId ?? ''}`)
+    return v === undefined ? null : Math.round(num(v))
   }
   const checkAt = new Map(checks.map(c => [c.month, c]))
   const monthRows = months.map(m => ({
     month: m, ahPerCharge: ahAt(m, null), spread: numOrNull(checkAt.get(m)?.spread), checks: num(checkAt.get(m)?.checks), lowFindings: num(checkAt.get(m)?.lowFindings),
   }))
+  const monthNames = months.map(m => monthText(m, LANGUAGE_TAGS[scope.language]))
   const nearEnd = fleet.filter(b => b.cycles >= 0.8 * b.ratedCycles).length
   const { t } = scope
   return {
@@ -91,7 +93,7 @@ export async function batteryHealthReport(scope: ReportScope): Promise<ReportRes
         title: t('report.health.capacity_title'),
         note: t('report.health.capacity_note'),
         chart: chartOf(scope, {
-          kind: 'line', categories: months.map(m => monthText(m, LANGUAGE_TAGS[scope.language])), unit: 'Ah',
+          kind: 'line', categories: monthNames, unit: 'Ah',
           series: [{ name: t('report.health.fleet'), data: monthRows.map(r => r.ahPerCharge) }, ...watched.map(b => ({ name: b.serial, data: months.map(m => ahAt(m, b.id)) }))],
         }),
         columns: [{ key: 'month', label: t('report.col.month'), month: true }, { key: 'ahPerCharge', label: t('report.col.fleet_ah'), decimals: 0 }, ...watched.map(b => ({ key: `b${b.id}`, label: b.serial, decimals: 0 }))],
@@ -102,7 +104,7 @@ export async function batteryHealthReport(scope: ReportScope): Promise<ReportRes
         title: t('report.health.cells_title'),
         note: t('report.health.cells_note', { warn: SG_SPREAD_WARN.toFixed(3), act: SG_SPREAD_ACT.toFixed(3) }),
         chart: chartOf(scope, {
-          kind: 'bar', categories: months.map(m => monthText(m, LANGUAGE_TAGS[scope.language])), unit: t('report.unit.checks'), secondUnit: 'SG',
+          kind: 'bar', categories: monthNames, unit: t('report.unit.checks'), secondUnit: 'SG',
           series: [{ name: t('report.health.low_findings'), data: monthRows.map(r => r.lowFindings) }, { name: t('report.col.mean_spread'), type: 'line', data: monthRows.map(r => (r.spread === null ? null : Math.round(r.spread * 1000) / 1000)) }],
         }),
         columns: [{ key: 'month', label: t('report.col.month'), month: true }, { key: 'checks', label: t('report.col.checks'), decimals: 0 }, { key: 'spread', label: t('report.col.mean_spread'), unit: 'SG', decimals: 3 }, { key: 'lowFindings', label: t('report.col.finding_low'), decimals: 0 }],

@@ -10,6 +10,7 @@ import { mailWords, type MailT } from '../mail-words'
 import { readerLanguage } from '../reader-language'
 import { rowsOf, uuidArray } from '../due/effective'
 import { CHART_TOP, chartData, type ChartData, type ChartSpec } from '#shared/utils/report-chart'
+import { keptDateFormat, keptNumberFormat } from '#shared/utils/intl-formats'
 
 export interface ReportSite { id: string, name: string, timeZone: string, unitSystem: UnitSystem, settings: SiteSettings }
 
@@ -67,13 +68,13 @@ export function scopeCte(scope: ReportScope): SQL {
 
 /** A number in the reader's way of writing it, with this many decimals. */
 export function numberText(value: number, language: Language, decimals = 0): string {
-  return value.toLocaleString(LANGUAGE_TAGS[language], { minimumFractionDigits: decimals, maximumFractionDigits: decimals })
+  return keptNumberFormat(LANGUAGE_TAGS[language], { minimumFractionDigits: decimals, maximumFractionDigits: decimals }).format(value)
 }
 
 /** A calendar day ('2026-11-03') as the reader's language writes it, medium ("Nov 3, 2026", "3 nov 2026"). */
 export function dayText(day: string, language: Language): string {
   if (!/^\d{4}-\d{2}-\d{2}$/.test(day)) return day
-  return new Intl.DateTimeFormat(LANGUAGE_TAGS[language], { dateStyle: 'medium', timeZone: 'UTC' }).format(new Date(`${day}T00:00:00Z`))
+  return keptDateFormat(LANGUAGE_TAGS[language], { dateStyle: 'medium', timeZone: 'UTC' }).format(new Date(`${day}T00:00:00Z`))
 }
 
 /** Money with the sites' currency code ("1,234.50 USD"), or the bare number across currencies. */
