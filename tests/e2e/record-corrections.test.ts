@@ -163,6 +163,12 @@ describe('record corrections', () => {
     expect(await useTestDb().select().from(tables.cylinderRefills).where(eq(tables.cylinderRefills.correctsId, id))).toHaveLength(0)
     await lpTransferQualification(untrained.id)
     expect((await correct(client, 'cylinder-refill', id, correctionBody('cylinder-refill', w))).status).toBe(201)
+    // figures that would overfill the cylinder are refused, saying which check failed (its code's variant)
+    const other = await freshRecord('cylinder-refill', w)
+    const over = await correct(client, 'cylinder-refill', other, { ...correctionBody('cylinder-refill', w), grossAfterLb: 70 })
+    expect(over.status).toBe(409)
+    expect(over.body.data).toMatchObject({ code: 'correction_fails_fill', params: { variant: 'overfilled' } })
+    expect(await useTestDb().select().from(tables.cylinderRefills).where(eq(tables.cylinderRefills.correctsId, other))).toHaveLength(0)
   })
 
   it('an emissions test corrected from a pass to a fail sends the failure notice; a pass corrected to a pass does not', async () => {

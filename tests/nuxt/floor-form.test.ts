@@ -50,6 +50,11 @@ describe('parseRefusal', () => {
         'La batería sigue cargando; deje que termine la carga.',
         'Words from the server.',
       ])
+      // a refill correction that fails the fill's checks says which check, by its variant
+      const { refusalText } = useReasonWords()
+      const failsFill = (variant: string) => refusalText(parseRefusal(fetchError(409, { message: 'These figures fail the fill\'s checks (overfilled).', data: { code: 'correction_fails_fill', params: { variant } } }))!)
+      expect(failsFill('overfilled')).toMatch(/^Estos datos no pasan las revisiones del llenado: el cilindro quedaría sobrellenado\./)
+      expect(failsFill('tare_loss')).toMatch(/: el peso tara medido bajó lo bastante para pedir recalificación\./)
       await $i18n.setLocale('en')
       expect(reasonText(refusal.reasons[2]!)).toBe('Battery is still on charge; let the charge finish.')
     }

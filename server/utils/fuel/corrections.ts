@@ -28,7 +28,8 @@ export async function correctRefill(actor: Actor, input: WithId<RefillCorrection
     if (!fill.ok) throw fillInputError(fill.errors)
     const tareFlagged = input.measuredTareLb !== null && input.measuredTareLb > 0 && tareLossFlagsRequalification(cylinder!.tareLb, input.measuredTareLb)
     if (fill.overfilled || tareFlagged) {
-      throw fail(409, 'correction_fails_fill', `These figures fail the fill's checks (${fill.overfilled ? 'overfilled' : 'tare loss'}). A correction does not turn a fill into a refusal: quarantine the cylinder and record what was done.`)
+      const variant = fill.overfilled ? 'overfilled' : 'tare_loss'
+      throw fail(409, 'correction_fails_fill', `These figures fail the fill's checks (${fill.overfilled ? 'overfilled' : 'tare loss'}). A correction does not turn a fill into a refusal: quarantine the cylinder and record what was done.`, undefined, { variant })
     }
     return {
       values: {
