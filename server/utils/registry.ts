@@ -43,7 +43,7 @@ function kinds(): Record<AssetKind, KindConfig> {
         outOfService: { schema: bool, column: t.outOfService },
       },
       areaRefs: { homeAreaId: null }, holdable: true,
-      status: { table: ts, on: eq(ts.truckId, t.id), columns: { hourMeter: ts.hourMeter } },
+      status: { table: ts, on: statusOf(ts.truckId, t.id, ts.siteId, t.siteId), columns: { hourMeter: ts.hourMeter } },
     },
     battery: {
       table: b, noun: 'battery', identity: 'serial', defaultSort: 'serial',
@@ -56,7 +56,7 @@ function kinds(): Record<AssetKind, KindConfig> {
         outOfService: { schema: bool, column: b.outOfService },
       },
       areaRefs: { homeAreaId: 'charging_area' }, holdable: true,
-      status: { table: bs, on: eq(bs.batteryId, b.id), columns: { cycleCount: bs.cycles, state: bs.state, readyAt: bs.readyAt } },
+      status: { table: bs, on: statusOf(bs.batteryId, b.id, bs.siteId, b.siteId), columns: { cycleCount: bs.cycles, state: bs.state, readyAt: bs.readyAt } },
     },
     charger: {
       table: c, noun: 'charger', identity: 'name', defaultSort: 'name',
@@ -122,6 +122,12 @@ export function listConditions(event: H3Event, kind: AssetKind, query: ListQuery
   const sortKey = query.sort ?? cfg.defaultSort
   const sortCol = cfg.sortable[sortKey]!
   return { condition: and(...where), sortKey, order: [query.dir === 'desc' ? desc(sortCol) : asc(sortCol), asc(cfg.table.id)] }
+}
+
+// A status row joined by its subject's id and site: the site lets PostgreSQL read only the site's status rows by
+// index (joined by id alone, it read all of them: 25,000 battery rows for a page of 50).
+function statusOf(statusId: PgColumn, id: PgColumn, statusSite: PgColumn, site: PgColumn): SQL {
+  return and(eq(statusId, id), eq(statusSite, site))!
 }
 
 // The kind's status read model (cycles and state of a battery, a truck's hour meter now) beside each row.
