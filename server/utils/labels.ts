@@ -1,6 +1,6 @@
 import { readFileSync } from 'node:fs'
 import { createRequire } from 'node:module'
-import { PDFDocument, rgb, type PDFFont } from 'pdf-lib'
+import type { PDFDocument, PDFFont } from 'pdf-lib'
 import type { AssetKind } from '#shared/utils/asset-schemas'
 import type { LabelSelection } from '#shared/utils/label-schemas'
 
@@ -64,7 +64,9 @@ function fitText(text: string, font: PDFFont, size: number, width: number): stri
 export async function buildLabelPdf(items: LabelItem[], layout: LabelSelection['layout'], paper: LabelSelection['paper'],
   progress: (done: number) => Promise<void> = async () => {}, language?: string | null): Promise<Uint8Array> {
   const t = mailWords(language)
-  const doc = await PDFDocument.create()
+  // (pdf-lib, about 15 MB once loaded, comes with the first PDF rather than at server start)
+  const { PDFDocument: Pdf, rgb } = await import('pdf-lib')
+  const doc = await Pdf.create()
   doc.registerFontkit(await loadFontkit())
   doc.setTitle('Bayward label sheet')
   doc.setCreator('Bayward')

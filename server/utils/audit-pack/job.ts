@@ -2,7 +2,7 @@ import type { Sql } from 'postgres'
 import { CoTwaGrouper, StandingTally, cellNumber, coTwaVerdict, type AuditPackStamp, type CoTwaRow } from '#shared/utils/audit-pack'
 import type { Language } from '#shared/utils/languages'
 import { mailWords, type MailT } from '../mail-words'
-import { AuditPdf } from './pdf'
+import type { AuditPdf } from './pdf'
 import { CO_TWA_TABLE, PACK_SECTIONS, packCoReadings, packEmissionsTests, type PackColumn, type PackColumnKey, type PackTable } from './sections'
 import { CORRECTION_CSV_FIELDS, correctionCsvCells, type PackCorrectableRow } from './sql'
 import { PackZip, certificateFileName } from './zip'
@@ -51,7 +51,8 @@ const columnsIn = (t: MailT, columns: PackColumnKey[]): PackColumn[] => columns.
 export const auditPackJob = defineJob('audit-pack', async (input: AuditPackInput, run): Promise<AuditPackResult> => {
   const t = mailWords(input.language)
   const stamp: AuditPackStamp = { siteName: input.siteName, from: input.from, to: input.to, madeAt: siteClock(new Date(), input.timeZone), madeBy: input.madeBy }
-  const pdf = await AuditPdf.create(stamp, t)
+  // (the PDF writer and pdf-lib come with the first pack rather than at server start)
+  const pdf = await (await import('./pdf')).AuditPdf.create(stamp, t)
   const zip = new PackZip()
   // the pool's own client, for its cursors (drizzle has none)
   const client = (useDb() as unknown as { $client: Sql }).$client

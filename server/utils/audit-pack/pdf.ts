@@ -1,10 +1,15 @@
-import {
-  PDFDocument, beginText, endText, lineTo, moveTo, popGraphicsState, pushGraphicsState, rgb, setFillingRgbColor, setFontAndSize, setLineWidth,
-  setStrokingRgbColor, setTextMatrix, showText, stroke, type PDFFont, type PDFName, type PDFOperator, type PDFPage,
-} from 'pdf-lib'
+import type { PDFDocument, PDFFont, PDFName, PDFOperator, PDFPage } from 'pdf-lib'
 import { pageHeaderText, pageNumberText, type AuditPackStamp, type PackWords } from '#shared/utils/audit-pack'
 import { loadFontkit, robotoFlex } from '../labels'
 import type { PackColumn } from './sections'
+
+// pdf-lib (about 15 MB once loaded) comes with the first pack rather than at server start: AuditPdf.create loads it.
+type PdfLib = typeof import('pdf-lib')
+let loaded: PdfLib | undefined
+const pdfLib = (): PdfLib => {
+  if (!loaded) throw new Error('pdf-lib is used before AuditPdf.create loaded it')
+  return loaded
+}
 
 // The audit pack's PDF, written a row at a time: US Letter landscape, the stamp (site, range, made when and
 // by whom) at the top of every page and its number at the foot, tables whose cells wrap to a few lines.
@@ -34,7 +39,8 @@ export class AuditPdf {
 
   /** `t` writes the pack's own words in the language of the person who asked for it. */
   static async create(stamp: AuditPackStamp, t: PackWords): Promise<AuditPdf> {
-    const doc = await PDFDocument.create()
+    loaded ??= await import('pdf-lib')
+    const doc = await pdfLib().PDFDocument.create()
     doc.registerFontkit(await loadFontkit())
     doc.setTitle(t('audit_pack.pdf.doc_title', { site: stamp.siteName, from: stamp.from, to: stamp.to }))
     doc.setCreator('Bayward')
@@ -88,7 +94,7 @@ export class AuditPdf {
   }
 
   private text(t: string, x: number, size: number, color = INK) {
-    this.page.drawText(t, { x, y: this.y - size, size, font: this.font, color: rgb(...color) })
+    this.page.drawText(t, { x, y: this.y - size, size, font: this.font, color: pdfLib().rgb(...color) })
   }
 
   /** Words wrapped to `width` at `size`, at most `max` lines (the last cut with an ellipsis). */
@@ -165,6 +171,7 @@ export class AuditPdf {
   // A row as one text object and a few strokes, written as raw operators: drawing each cell through
   // drawText costs nine operators and a graphics state apiece, which over a year of records is most of the time.
   private cells(values: string[], o: { color: Color, struck?: boolean, rule?: boolean }) {
+    const { beginText, endText, lineTo, moveTo, popGraphicsState, pushGraphicsState, setFillingRgbColor, setFontAndSize, setLineWidth, setStrokingRgbColor, setTextMatrix, showText, stroke } = pdfLib()
     const pad = 3
     const wrapped = values.map((v, i) => this.wrap(v, this.widths[i]! - 2 * pad))
     const height = Math.max(...wrapped.map(l => l.length)) * LINE + 3
@@ -205,11 +212,11 @@ export class AuditPdf {
     const pages = this.doc.getPages()
     const header = this.fit(pageHeaderText(this.stamp, this.t), PAGE.width - 2 * MARGIN, 9)
     pages.forEach((page, i) => {
-      page.drawText(header, { x: MARGIN, y: PAGE.height - MARGIN - 9, size: 9, font: this.font, color: rgb(...INK) })
-      page.drawLine({ start: { x: MARGIN, y: PAGE.height - MARGIN - 14 }, end: { x: PAGE.width - MARGIN, y: PAGE.height - MARGIN - 14 }, thickness: 0.6, color: rgb(...MUTED) })
+      page.drawText(header, { x: MARGIN, y: PAGE.height - MARGIN - 9, size: 9, font: this.font, color: pdfLib().rgb(...INK) })
+      page.drawLine({ start: { x: MARGIN, y: PAGE.height - MARGIN - 14 }, end: { x: PAGE.width - MARGIN, y: PAGE.height - MARGIN - 14 }, thickness: 0.6, color: pdfLib().rgb(...MUTED) })
       const footer = pageNumberText(i + 1, pages.length, this.t)
-      page.drawText(footer, { x: PAGE.width - MARGIN - this.font.widthOfTextAtSize(footer, 8), y: MARGIN, size: 8, font: this.font, color: rgb(...MUTED) })
-      page.drawText(this.t('audit_pack.pdf.footer'), { x: MARGIN, y: MARGIN, size: 8, font: this.font, color: rgb(...MUTED) })
+      page.drawText(footer, { x: PAGE.width - MARGIN - this.font.widthOfTextAtSize(footer, 8), y: MARGIN, size: 8, font: this.font, color: pdfLib().rgb(...MUTED) })
+      page.drawText(this.t('audit_pack.pdf.footer'), { x: MARGIN, y: MARGIN, size: 8, font: this.font, color: pdfLib().rgb(...MUTED) })
     })
     return this.doc.save()
   }
