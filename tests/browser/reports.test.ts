@@ -14,6 +14,7 @@ await setup(builtServer)
 
 let browser: Browser
 let siteId: string
+let chargerId: string
 const people: Record<string, { id: string, email: string, password: string }> = {}
 const RANGE = 'from=2026-01-01&to=2026-03-31'
 
@@ -25,6 +26,7 @@ beforeAll(async () => {
   siteId = (await site({ name: `Ashgrove DC ${Date.now()}` })).id
   const areaId = (await area({ siteId, kind: 'charging_area', name: 'Charge room East' })).id
   const charger = await roomCharger(siteId, areaId, { name: 'East 36 V' })
+  chargerId = charger.id
   const b = await battery({ siteId, homeAreaId: areaId, ratedCycles: 1500 })
   const tech = await user({ siteId, roles: ['technician'] })
   people.lead = await user({ siteId, roles: ['facilities_lead'], name: 'Fay Facilities' })
@@ -86,6 +88,29 @@ describe('reports in the browser', () => {
     await expect.poll(() => chart.locator('svg').evaluate(e => e.getBoundingClientRect().width)).toBeGreaterThan(narrow)
     expect(refused).toEqual([])
     await context.close()
+  })
+
+  it('a chart\'s tooltip shows a name a lead wrote as text, never as markup', async () => {
+    const name = '<img src=x onerror="window.__injected=1">East 36 V'
+    await useTestDb().update(tables.chargers).set({ name }).where(eq(tables.chargers.id, chargerId))
+    try {
+      const { context, page } = await signInAt(browser, people.lead!, `/reports/energy?site=${siteId}&${RANGE}`, DESKTOP)
+      const chart = page.getByRole('img', { name: /^Chart: By charger/ })
+      await chart.locator('svg').waitFor()
+      await chart.scrollIntoViewIfNeeded()
+      const box = (await chart.boundingBox())!
+      await page.mouse.move(box.x + box.width / 2, box.y + box.height / 2)
+      // the tooltip (ECharts' HTML box beside the drawing) names the charger with its angle brackets as typed,
+      // and no element was made from them
+      const tooltip = chart.locator(':scope > div:not(:has(svg))')
+      await expect.poll(() => tooltip.textContent()).toContain(name)
+      expect(await chart.locator('img').count()).toBe(0)
+      expect(await page.evaluate(() => (window as unknown as { __injected?: number }).__injected)).toBeUndefined()
+      await context.close()
+    }
+    finally {
+      await useTestDb().update(tables.chargers).set({ name: 'East 36 V' }).where(eq(tables.chargers.id, chargerId))
+    }
   })
 
   it('the facilities lead\'s home shows this month\'s figures, each a link to its report', async () => {
