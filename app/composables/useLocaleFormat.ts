@@ -1,13 +1,9 @@
 import { LANGUAGE_TAGS, isLanguage } from '#shared/utils/languages'
+import { keptDateFormat, keptNumberFormat } from '#shared/utils/intl-formats'
 
 // Numbers, money and dates as the reader's language writes them on a US floor (en-US, es-US). Intl with the
 // regional tag: the bare 'es' would write 1850 without its comma and a 24-hour clock.
-const formatters = new Map<string, Intl.NumberFormat | Intl.DateTimeFormat>()
-function cached<T extends Intl.NumberFormat | Intl.DateTimeFormat>(key: string, make: () => T): T {
-  let f = formatters.get(key)
-  if (!f) formatters.set(key, (f = make()))
-  return f as T
-}
+// The formatters are made once per tag and options and kept (shared/utils/intl-formats.ts).
 
 export function useLocaleFormat() {
   const { locale } = useNuxtApp().$i18n
@@ -15,14 +11,14 @@ export function useLocaleFormat() {
   return {
     /** the BCP 47 tag of the reader's language (en-US, es-US) */
     tag,
-    number: (value: number, maximumFractionDigits = 2) => cached(`n${tag()}${maximumFractionDigits}`, () => new Intl.NumberFormat(tag(), { maximumFractionDigits })).format(value),
-    money: (value: number, currency: string) => cached(`m${tag()}${currency}`, () => new Intl.NumberFormat(tag(), { style: 'currency', currency })).format(value),
-    dateTime: (at: string | Date) => cached(`d${tag()}`, () => new Intl.DateTimeFormat(tag(), { dateStyle: 'medium', timeStyle: 'short' })).format(new Date(at)),
+    number: (value: number, maximumFractionDigits = 2) => keptNumberFormat(tag(), { maximumFractionDigits }).format(value),
+    money: (value: number, currency: string) => keptNumberFormat(tag(), { style: 'currency', currency }).format(value),
+    dateTime: (at: string | Date) => keptDateFormat(tag(), { dateStyle: 'medium', timeStyle: 'short' }).format(new Date(at)),
     /** the clock time alone (3:05 PM / 3:05 p.m.) */
-    time: (at: string | Date) => cached(`t${tag()}`, () => new Intl.DateTimeFormat(tag(), { hour: 'numeric', minute: '2-digit' })).format(new Date(at)),
+    time: (at: string | Date) => keptDateFormat(tag(), { hour: 'numeric', minute: '2-digit' }).format(new Date(at)),
     /** the date alone, medium (Dec 3, 2026 / 3 dic 2026) */
-    date: (at: string | Date) => cached(`D${tag()}`, () => new Intl.DateTimeFormat(tag(), { dateStyle: 'medium' })).format(new Date(at)),
+    date: (at: string | Date) => keptDateFormat(tag(), { dateStyle: 'medium' }).format(new Date(at)),
     /** a calendar day ('2026-12-03') as `date` writes it, read at its noon so no time zone moves it to the day before */
-    day: (isoDay: string) => cached(`D${tag()}`, () => new Intl.DateTimeFormat(tag(), { dateStyle: 'medium' })).format(new Date(`${isoDay}T12:00:00`)),
+    day: (isoDay: string) => keptDateFormat(tag(), { dateStyle: 'medium' }).format(new Date(`${isoDay}T12:00:00`)),
   }
 }

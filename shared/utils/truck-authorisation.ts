@@ -48,8 +48,3 @@ export function truckAuthorisationReason(truckClass: number, q: ClassQualificati
   }
   return null
 }
-
-/** The same in English words only. */
-export function truckAuthorisationProblem(truckClass: number, q: ClassQualification | null, retraining: RetrainingCall | null, today: string): string | null {
-  return truckAuthorisationReason(truckClass, q, retraining, today)?.message ?? null
-}

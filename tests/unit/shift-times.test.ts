@@ -3,7 +3,7 @@ import dayjs from 'dayjs'
 import utc from 'dayjs/plugin/utc'
 import timezone from 'dayjs/plugin/timezone'
 import { shiftStartedAt, zonedInstant } from '../../shared/utils/shift-times'
-import { truckAuthorisationProblem, evaluationDueOn } from '../../shared/utils/truck-authorisation'
+import { truckAuthorisationReason, evaluationDueOn } from '../../shared/utils/truck-authorisation'
 import { inspectionHold } from '../../shared/utils/truck-inspection'
 
 dayjs.extend(utc)
@@ -35,12 +35,12 @@ describe('who may drive a truck', () => {
     expect(evaluationDueOn({ ...q, expiresOn: '2025-06-30' })).toBe('2025-06-30')
   })
   it('refuses with the reason in words: no record, never evaluated, lapsed, retraining called for', () => {
-    expect(truckAuthorisationProblem(2, null, null, '2026-01-10')).toContain('not authorised for class 2')
-    expect(truckAuthorisationProblem(1, { ...q, evaluatedOn: null }, null, '2026-01-10')).toContain('no evaluation')
-    expect(truckAuthorisationProblem(1, q, null, '2026-02-10')).toBeNull()
-    expect(truckAuthorisationProblem(1, q, null, '2026-02-11')).toContain('lapsed on 2026-02-10')
-    expect(truckAuthorisationProblem(1, q, { happenedOn: '2025-05-01', reason: 'near_miss' }, '2025-06-01')).toContain('near miss')
-    expect(truckAuthorisationProblem(1, q, { happenedOn: '2022-05-01', reason: 'near_miss' }, '2025-06-01')).toBeNull()
+    expect(truckAuthorisationReason(2, null, null, '2026-01-10')?.message ?? null).toContain('not authorised for class 2')
+    expect(truckAuthorisationReason(1, { ...q, evaluatedOn: null }, null, '2026-01-10')?.message ?? null).toContain('no evaluation')
+    expect(truckAuthorisationReason(1, q, null, '2026-02-10')?.message ?? null).toBeNull()
+    expect(truckAuthorisationReason(1, q, null, '2026-02-11')?.message ?? null).toContain('lapsed on 2026-02-10')
+    expect(truckAuthorisationReason(1, q, { happenedOn: '2025-05-01', reason: 'near_miss' }, '2025-06-01')?.message ?? null).toContain('near miss')
+    expect(truckAuthorisationReason(1, q, { happenedOn: '2022-05-01', reason: 'near_miss' }, '2025-06-01')?.message ?? null).toBeNull()
   })
 })
 
