@@ -2,8 +2,8 @@ import pg from 'pg'
 
 // One LISTEN connection per app server on the channel bayward_changes, which the database's triggers
 // notify on every write (migration 0007): 's:<site>' when a site's records change, 'n:<site>' when the
-// site itself does, 'u:<user>' when a person, their memberships or one of their sessions does, 'j' when
-// a job is queued. While it is up, each site's revision is a counter here, moved by the notifications,
+// site itself does, 'c:<site>' when one of its schedules does (migration 0020), 'u:<user>' when a person,
+// their memberships or one of their sessions does, 'j' when a job is queued. While it is up, each site's revision is a counter here, moved by the notifications,
 // and people's rights are kept in memory (rights-cache.ts) until told; while it is down or not yet up,
 // every request reads both from the database. A reconnect drops everything kept, since notifications
 // sent meanwhile were missed.
@@ -14,6 +14,7 @@ let client: pg.Client | undefined
 let up = false
 let epoch = 0
 const siteCounters = new Map<string, number>()
+const configCounters = new Map<string, number>()
 const handlers = new Set<ChangeHandler>()
 
 /** Whether notifications are arriving, so what is kept in memory can be trusted. */
@@ -22,6 +23,15 @@ export const changeFeedUp = () => up
 /** The revision of a site as this server knows it from notifications (a read-cache key, not a number to compare). */
 export function localSiteRevision(siteId: string): string {
   return `n${epoch}.${siteCounters.get(siteId) ?? 0}`
+}
+
+/**
+ * The revision of a site's configuration (its row: settings, time zone; and its schedules) as this server
+ * knows it from notifications, or undefined while the feed is not up. Records written at the site do not
+ * move it, so what is read from the configuration is kept across a busy site's writes.
+ */
+export function localSiteConfigRevision(siteId: string): string | undefined {
+  return up ? `c${epoch}.${configCounters.get(siteId) ?? 0}` : undefined
 }
 
 /** Called on every notification, and with kind 'reset' when the feed went down or came back. */
@@ -37,6 +47,7 @@ function emit(kind: string, id: string) {
 function received(payload: string | undefined) {
   const [kind = '', id = ''] = (payload ?? '').split(':')
   if (kind === 's') siteCounters.set(id, (siteCounters.get(id) ?? 0) + 1)
+  else if (kind === 'n' || kind === 'c') configCounters.set(id, (configCounters.get(id) ?? 0) + 1)
   else if (kind === 'sync') return passed(id)
   emit(kind, id)
 }
@@ -44,6 +55,7 @@ function received(payload: string | undefined) {
 function reset() {
   epoch += 1
   siteCounters.clear()
+  configCounters.clear()
   emit('reset', '')
   passed(null)
 }

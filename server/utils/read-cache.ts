@@ -1,6 +1,7 @@
 import { LRUCache } from 'lru-cache'
 import type { H3Event } from 'h3'
 import type { Actor } from './auth'
+import { localSiteConfigRevision } from './change-feed'
 
 // Read models (the Bay board, due lists, a tag's state) computed once per site revision and kept in
 // this server process for a few seconds. Every write at the site moves its revision, by a trigger in
@@ -31,8 +32,31 @@ export function siteRevision(actor: Actor, siteId: string): string | undefined {
  * The value of `compute` for this site at its current revision, shared by every request that asks within
  * `ttlMs`. Requests arriving while it is being computed wait for the same promise. A failure is not kept.
  */
-export async function cachedForSite<T>(actor: Actor, siteId: string, key: string, ttlMs: number, compute: () => Promise<T>, sizeOf: (value: T) => number = DEFAULT_SIZE): Promise<T> {
+export function cachedForSite<T>(actor: Actor, siteId: string, key: string, ttlMs: number, compute: () => Promise<T>, sizeOf: (value: T) => number = DEFAULT_SIZE): Promise<T> {
+  return cachedAt(siteId, siteRevision(actor, siteId), key, ttlMs, compute, sizeOf)
+}
+
+/**
+ * The revision of the site's configuration for this actor: the notifications' count of changes to the site
+ * row and its schedules, so a record written at the site leaves it alone. For a browser that has just written
+ * (its revisions read from the database) and while notifications are not arriving, the site's revision.
+ */
+export function siteConfigRevision(actor: Actor, siteId: string): string | undefined {
   const revision = siteRevision(actor, siteId)
+  if (revision === undefined || String(revision).startsWith('d')) return revision
+  return localSiteConfigRevision(siteId) ?? revision
+}
+
+/**
+ * The same as cachedForSite for what is computed from the site's configuration alone (its settings, time
+ * zone and schedules): kept until the configuration changes or `ttlMs` passes, across writes of records.
+ */
+export function cachedConfigForSite<T>(actor: Actor, siteId: string, key: string, ttlMs: number, compute: () => Promise<T>): Promise<T> {
+  const revision = siteConfigRevision(actor, siteId)
+  return cachedAt(siteId, revision === undefined ? undefined : `cfg.${revision}`, key, ttlMs, compute, DEFAULT_SIZE)
+}
+
+async function cachedAt<T>(siteId: string, revision: string | undefined, key: string, ttlMs: number, compute: () => Promise<T>, sizeOf: (value: T) => number): Promise<T> {
   if (!enabled() || revision === undefined) return compute()
   const fullKey = `${siteId}@${revision}:${key}`
   const hit = cache.get(fullKey)

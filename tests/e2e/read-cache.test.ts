@@ -1,11 +1,11 @@
 import { afterAll, beforeEach, describe, expect, it } from 'vitest'
 import { setup } from '@nuxt/test-utils/e2e'
-import { eq, sql } from 'drizzle-orm'
+import { and, eq, sql } from 'drizzle-orm'
 import { randomUUID } from 'node:crypto'
-import { builtServer, signIn, type Client } from '../support/http'
+import { builtServer, client, signIn, type Client } from '../support/http'
 import { battery, batteryInput, closeTestDb, refreshReadModels, site, tables, user, useTestDb } from '../support/db'
 import { pastCharge, qualify, roomCharger, tagFor, fittedTruck, putInTruck } from '../support/battery-room'
-import { chargingArea, dueList } from '../support/due'
+import { chargingArea, dueList, endedCharges, obligationOf } from '../support/due'
 
 await setup(builtServer)
 
@@ -161,6 +161,28 @@ describe('cached read models answer the write just before them', () => {
     expect((await outsider.get(`/api/tags/${code}`)).status).toBe(404)
     expect((await outsider.get(`/api/battery-room/board?siteId=${siteId}`)).status).toBe(404)
     expect((await outsider.get(`/api/due?siteId=${siteId}`)).status).toBe(404)
+  })
+
+  it('a schedule or a site setting changed straight in the database applies to the next record of someone who has not just written', async () => {
+    // each server keeps a site's schedules and settings until a notification says they changed
+    // (cachedConfigForSite); `quiet` is the same person with no recent write, so nothing is read afresh for them
+    const quiet = () => client(tech.cookie)
+    expect((await tech.put('/api/schedules/battery_watering', { siteId, every: 8 })).status).toBe(200)
+    const b = await battery({ siteId, homeAreaId: areaId })
+    await endedCharges(siteId, b.id, chargerId, techId, [40, 30, 20])
+    const watering = async () => obligationOf(await dueList(tech, { siteId, kind: 'battery_watering' }), 'battery_watering', b.id)!.detailWords
+    const on = await quiet().post('/api/battery-room/charges', { batteryId: b.id, chargerId, idempotencyKey: randomUUID() })
+    expect(on.status, JSON.stringify(on.body)).toBe(201)
+    expect(await watering()).toMatchObject({ params: { every: 8 } })
+    expect((await quiet().get(`/api/battery-room/board?siteId=${siteId}`)).status).toBe(200) // reads the settings and keeps them
+
+    await useTestDb().update(tables.schedules).set({ every: 4 }).where(and(eq(tables.schedules.siteId, siteId), eq(tables.schedules.kind, 'battery_watering')))
+    await useTestDb().update(tables.sites).set({ settings: sql`${tables.sites.settings} || '{"maxChargeTempF": 90}'::jsonb` }).where(eq(tables.sites.id, siteId))
+    await new Promise(r => setTimeout(r, 300)) // the notifications' way to the server
+    const off = await quiet().post(`/api/battery-room/charges/${on.body.item.id}/end`, { ampHoursReturned: 400, endTempF: 95, outcome: 'complete' })
+    expect(off.status, JSON.stringify(off.body)).toBe(200)
+    expect(off.body.item.ranHot).toBe(true) // 95 °F is over the 90 °F set a moment ago (115 °F before)
+    expect(await watering()).toMatchObject({ params: { now: 4, every: 4 } })
   })
 
   it('answers stay fresh for a person whose membership changes', async () => {

@@ -4,5 +4,5 @@ import { boardQuerySchema } from '#shared/utils/battery-room-schemas'
 export default defineAbilityHandler('site.member', async (event) => {
   const query = validateQuery(event, boardQuerySchema)
   const actor = await requireAbility(event, 'site.member', query.siteId)
-  return cachedJsonForSite(event, actor, query.siteId, boardCacheKey(query), BOARD_CACHE_MS, () => computeBoard(query))
+  return cachedJsonForSite(event, actor, query.siteId, boardCacheKey(query), BOARD_CACHE_MS, () => computeBoard(actor, query))
 })

@@ -6,6 +6,7 @@ import type { TruckCheckState } from '#shared/types/inspection'
 import { shiftStartedAt } from '#shared/utils/shift-times'
 import { boardCard, boardCardsJson } from './board-cards'
 import { truckCheckState } from '../inspection/shift'
+import type { Actor } from '../auth'
 
 export type BoardQuery = z.output<typeof boardQuerySchema>
 
@@ -17,11 +18,11 @@ export const BOARD_CACHE_MS = 5_000
 
 export const boardCacheKey = (query: BoardQuery) => `board:${query.areaId ?? ''}:${query.truckId ?? ''}`
 
-export async function computeBoard(query: BoardQuery): Promise<BoardAnswer | JsonText> {
+export async function computeBoard(actor: Actor, query: BoardQuery): Promise<BoardAnswer | JsonText> {
   const db = useDb()
   const now = new Date()
   const [settings, areas, trucks, cards] = await Promise.all([
-    batteryRoomSettings(db, query.siteId),
+    cachedBatteryRoomSettings(actor, query.siteId),
     db.select({ id: tables.areas.id, name: tables.areas.name }).from(tables.areas)
       .where(and(eq(tables.areas.siteId, query.siteId), eq(tables.areas.kind, 'charging_area'), eq(tables.areas.archived, false)))
       .orderBy(asc(natural(tables.areas.name))),

@@ -101,7 +101,7 @@ export async function endChargeSession(actor: Actor, found: ChargeSession, body:
   }
   const endedAt = eventTime(body.endedAt, 'endedAt')
   if (endedAt.getTime() < found.at.getTime()) throw badField('endedAt', 'charge_end_before_start', 'The charge cannot end before it started.')
-  const settings = await batteryRoomSettings(useDb(), found.siteId)
+  const settings = await cachedBatteryRoomSettings(actor, found.siteId)
   return useDb().transaction(async (tx) => {
     const [battery] = await tx.select().from(tables.batteries).where(eq(tables.batteries.id, found.batteryId)).for('update')
     if (body.equalize && !takesEqualize(battery!.chemistry)) throw refusal([NO_EQUALIZE], { overridable: false, fields: { equalize: NO_EQUALIZE.message } }, 400)

@@ -11,9 +11,12 @@ export async function batteryRoomSettings(db: DbOrTx, siteId: string): Promise<S
   return { ...parseSiteSettings(row?.settings), timeZone: row?.timeZone ?? 'UTC' }
 }
 
-/** The same, kept per site revision: settings only change by a write to the site, which moves the revision. */
-export function cachedBatteryRoomSettings(actor: Actor, siteId: string) {
-  return cachedForSite(actor, siteId, 'battery-room-settings', 60_000, () => batteryRoomSettings(useDb(), siteId))
+/**
+ * The same, kept until the site's row changes (not until the next record written there). Inside a
+ * transaction pass the transaction (see cachedSiteContext).
+ */
+export function cachedBatteryRoomSettings(actor: Actor, siteId: string, db: DbOrTx = useDb()) {
+  return cachedConfigForSite(actor, siteId, 'battery-room-settings', 60_000, () => batteryRoomSettings(db, siteId))
 }
 
 /** A refused action: 409 with every reason in words. */

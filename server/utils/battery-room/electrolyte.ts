@@ -28,7 +28,7 @@ export async function recordElectrolyteCheck(actor: Actor, battery: BatteryRow, 
     throw badField('cells', 'cells_missing', `Enter all ${cellCount} cells (${body.cells.length} entered).`, { cells: cellCount, entered: body.cells.length })
   }
   const at = eventTime(body.at, 'at')
-  const settings = await batteryRoomSettings(useDb(), siteId)
+  const settings = await cachedBatteryRoomSettings(actor, siteId)
   const summary = summarizeElectrolyteReadings(body.cells, { referenceTempF: settings.sgReferenceTempF, correctionPerDegF: settings.sgCorrectionPerDegF }, settings.cellSpreadThreshold)
   try {
     return await useDb().transaction(async (tx) => {

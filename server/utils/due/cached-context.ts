@@ -3,10 +3,11 @@ import type { SqlRunner } from './effective'
 import { loadSiteContext, type SiteContext } from './site-context'
 
 /**
- * The site's context kept per site revision: settings and schedules change only by writes that move it.
+ * The site's context (its row and its schedules), kept until either changes (a schedule edit, a settings
+ * change) rather than until the next record written at the site.
  * Inside a transaction pass the transaction: a miss read through the pool would hold one connection
  * while waiting for another, and at shift change every connection can be held that way at once.
  */
 export function cachedSiteContext(actor: Actor, siteId: string, db: SqlRunner = useDb()): Promise<SiteContext> {
-  return cachedForSite(actor, siteId, 'site-context', 60_000, () => loadSiteContext(db, siteId))
+  return cachedConfigForSite(actor, siteId, 'site-context', 60_000, () => loadSiteContext(db, siteId))
 }

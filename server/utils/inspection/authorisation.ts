@@ -1,4 +1,3 @@
-import { parseSiteSettings } from '#shared/utils/site-settings'
 import { localDate } from '#shared/utils/due-dates'
 import { truckAuthorisationReason, type AuthorisationReason, type ClassQualification, type RetrainingCall } from '#shared/utils/truck-authorisation'
 import type { RetrainingReason } from '#shared/utils/truck-inspection'
@@ -30,10 +29,10 @@ export async function truckAuthorisationFor(db: DbOrTx, userId: string, truck: T
  */
 export async function checkTruckAuthorisation(db: DbOrTx, actor: Actor, truck: TruckRow): Promise<AuthorisationReason | null> {
   if (!rolesAt(actor, truck.siteId).includes('operator')) return null
-  const [site] = await db.select({ settings: tables.sites.settings, timeZone: tables.sites.timeZone }).from(tables.sites).where(eq(tables.sites.id, truck.siteId))
-  const problem = await truckAuthorisationFor(db, actor.user.id, truck, localDate(new Date(), site?.timeZone ?? 'UTC'))
+  const site = await cachedBatteryRoomSettings(actor, truck.siteId, db)
+  const problem = await truckAuthorisationFor(db, actor.user.id, truck, localDate(new Date(), site.timeZone))
   if (!problem) return null
-  if (parseSiteSettings(site?.settings).truckAuthorisationPolicy === 'block') {
+  if (site.truckAuthorisationPolicy === 'block') {
     throw createError({ statusCode: 409, message: problem.message, data: { reasons: [problem], overridable: false } })
   }
   return problem
