@@ -163,6 +163,29 @@ describe('cached read models answer the write just before them', () => {
     expect((await outsider.get(`/api/due?siteId=${siteId}`)).status).toBe(404)
   })
 
+  it('a battery\'s tag, read by someone who has not just written, shows a swap, a truck renamed and a change made straight in the database', async () => {
+    // `quiet` is the same person with no recent write, so their revisions come from the notifications alone
+    const quiet = client(tech.cookie)
+    const b = await battery({ siteId, homeAreaId: areaId })
+    await pastCharge({ siteId, userId: techId, batteryId: b.id, chargerId, endedHoursAgo: 12 })
+    const code = await tagFor('battery', b.id, siteId)
+    const state = async () => (await quiet.get(`/api/tags/${code}`)).body.status as { state: string, label: string }
+    expect((await state()).state).toBe('ready')
+
+    const truck = await fittedTruck(siteId)
+    const swap = await tech.post('/api/battery-room/swaps', { truckId: truck.id, batteryInId: b.id, hourMeter: 10, idempotencyKey: randomUUID() })
+    expect(swap.status, JSON.stringify(swap.body)).toBe(201)
+    expect(await state()).toMatchObject({ state: 'in_truck', label: expect.stringContaining(truck.fleetNumber) })
+    const renamed = await tech.patch(`/api/trucks/${truck.id}`, { fleetNumber: `${truck.fleetNumber}-R` })
+    expect(renamed.status, JSON.stringify(renamed.body)).toBe(200)
+    expect((await state()).label).toContain(`${truck.fleetNumber}-R`)
+
+    await useTestDb().update(tables.batteries).set({ outOfService: true, outOfServiceReason: 'Cracked case' }).where(eq(tables.batteries.id, b.id))
+    await refreshReadModels(siteId, [{ kind: 'battery', id: b.id }])
+    await new Promise(r => setTimeout(r, 300)) // the notifications' way to the server
+    expect((await state()).state).toBe('out_of_service')
+  })
+
   it('a schedule or a site setting changed straight in the database applies to the next record of someone who has not just written', async () => {
     // each server keeps a site's schedules and settings until a notification says they changed
     // (cachedConfigForSite); `quiet` is the same person with no recent write, so nothing is read afresh for them
