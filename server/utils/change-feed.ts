@@ -3,7 +3,8 @@ import pg from 'pg'
 // One LISTEN connection per app server on the channel bayward_changes, which the database's triggers
 // notify on every write (migration 0007): 's:<site>' when a site's records change, 'n:<site>' when the
 // site itself does, 'c:<site>' when one of its schedules does (migration 0020), 'u:<user>' when a person,
-// their memberships or one of their sessions does, 'j' when a job is queued. While it is up, each site's revision is a counter here, moved by the notifications,
+// their memberships or one of their sessions does, 'j' when a job is queued. While it is up, each site's
+// revision is a counter here, moved by the notifications (and so is its configuration's, by 'n' and 'c'),
 // and people's rights are kept in memory (rights-cache.ts) until told; while it is down or not yet up,
 // every request reads both from the database. A reconnect drops everything kept, since notifications
 // sent meanwhile were missed.
