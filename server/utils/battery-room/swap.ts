@@ -53,9 +53,12 @@ export async function recordBatterySwap(actor: Actor, body: SwapInput) {
       // locks are those the last swap of these batteries committed)
       // (one IN over a union, not an OR of two: the planner then reads the battery ids by index, not every battery of the sites)
       const lockIds = sql`${t.id} IN (SELECT x FROM unnest(${uuidArray(ids)}) x UNION ALL SELECT ${bs.batteryId} FROM ${bs} WHERE ${bs.truckId} = ${body.truckId})`
-      // every statement of a swap reads or writes a few rows by id: one generic plan each (see computeReadModels)
+      // every statement of a swap reads or writes a few rows by id: one generic plan each (see computeReadModels).
+      // Sent before the array below is built: two of its look-ups are async functions that send their
+      // statement as soon as they are called, and planned without it they were planned anew at every swap.
+      const generic = tx.execute(sql`SET LOCAL plan_cache_mode = force_generic_plan`).then(() => undefined)
       const [, [truck], lockedRows, places, [stored], rowsIn, qualified, [truckNow]] = await Promise.all([
-        tx.execute(sql`SET LOCAL plan_cache_mode = force_generic_plan`),
+        generic,
         tx.select().from(tables.trucks)
           .where(and(eq(tables.trucks.id, body.truckId), inArray(tables.trucks.siteId, actor.siteIds))).for('update'),
         tx.select({ id: t.id, siteId: t.siteId, serial: t.serial }).from(t)

@@ -60,7 +60,9 @@ export async function computeReadModels(db: SqlRunner, ctx: SiteContext, pick: S
   // A write's recompute reads a few subjects by id with the same long statements every time: planning them
   // anew for each write cost more than running them, so they keep one generic plan for the rest of the
   // write's transaction (a no-op outside one). Whole-site reads (the rebuild) are planned for their data.
-  if (subjectIds) await db.execute(sql`SET LOCAL plan_cache_mode = force_generic_plan`)
+  // Sent without waiting for its answer: the look-ups below go after it on the same connection.
+  const generic = subjectIds ? Promise.resolve(db.execute(sql`SET LOCAL plan_cache_mode = force_generic_plan`).then(() => undefined)) : undefined
+  generic?.catch(() => undefined) // (its failure is answered below, not reported as unhandled while the completions load)
   const completions = anyCustom ? await loadCompletionFacts(db, ctx.id, subjectIds) : []
   const [batteries, trucks, chargers, areas, cylinders, people, logs, followUps, sites] = await Promise.all([
     wanted('battery') ? loadBatteryFactsFor(db, { siteId: ctx.id, batteryIds: pick.battery, chargesSince: customChargesSince(ctx) }, completions) : [],
@@ -72,6 +74,7 @@ export async function computeReadModels(db: SqlRunner, ctx: SiteContext, pick: S
     wanted('log') ? loadLogFactsFor(db, ctx.id, pick.log) : [],
     wanted('follow_up') ? loadFollowUpFactsFor(db, ctx.id, pick.follow_up) : [],
     wanted('site') ? loadSiteFacts(db, ctx.id, completions) : [],
+    generic,
   ])
   const policy = { coolDownMinutes: ctx.settings.coolDownMinutes, cellSpreadThreshold: ctx.settings.cellSpreadThreshold, maxChargeTempF: ctx.settings.maxChargeTempF }
   for (const f of batteries) {
