@@ -6,7 +6,7 @@ import type { StoredBatteryState } from '../../../shared/utils/derived-battery'
 import { localDate } from '../../../shared/utils/due-dates'
 import { obligationStateAt } from '../../../shared/utils/due-rules'
 import { justFinishedCharge } from '../../../shared/utils/battery-room-schemas'
-import { epochMs, rowsOf, dateFromMs, uuidArray, type SqlRunner } from '../due/effective'
+import { epochMs, rowsOf, dateFromMs, idIn, type SqlRunner } from '../due/effective'
 
 // Batteries as the Bay board, the floor forms and the tag page show them, read from battery_status and
 // the battery's watering and equalize obligations in one statement. Cooling turns Ready, and Due soon
@@ -79,10 +79,10 @@ export const inChargingArea = (areaId: string) => sql`(b.home_area_id = ${areaId
 export async function loadBatteryRows(db: SqlRunner, q: BatteryCardQuery): Promise<CardRow[]> {
   const sites = typeof q.siteId === 'string' ? [q.siteId] : q.siteId
   if (sites.length === 0 || q.batteryIds?.length === 0) return []
-  const siteIs = (column: string) => sites.length === 1 ? sql`${sql.raw(column)} = ${sites[0]}` : sql`${sql.raw(column)} = ANY(${uuidArray(sites)})`
+  const siteIs = (column: string) => idIn(column, sites)
   const where: SQL[] = [siteIs('b.site_id')]
   if (q.areaId) where.push(inChargingArea(q.areaId))
-  if (q.batteryIds) where.push(sql`b.id = ANY(${uuidArray(q.batteryIds)})`)
+  if (q.batteryIds) where.push(idIn('b.id', q.batteryIds))
   return rowsOf<CardRow>(db, sql`
     SELECT b.id, b.site_id AS "siteId", b.serial, ${liveTag('battery', 'b.id')} AS "tagCode", b.home_area_id AS "homeAreaId", b.chemistry, b.voltage,
       b.cell_count AS "cellCount", b.capacity_ah AS "capacityAh", b.weight_lb AS "weightLb", b.length_in AS "lengthIn",

@@ -3,13 +3,13 @@ import type { CompletionFact } from '../../../shared/utils/derived-custom'
 import type { AreaFacts, ChargerFacts, CylinderFacts, TruckFacts } from '../../../shared/utils/derived-subjects'
 import type { RequalificationMethod } from '../../../shared/utils/requalification'
 import { CHARGER_ITEM_KEY, EXTINGUISHER_ITEM_KEY, EYEWASH_ITEM_KEY } from '../../../shared/utils/area-checklists'
-import { isEffectiveRecord, epochMs, rowsOf, dateFromMs, uuidArray, type SqlRunner } from './effective'
+import { isEffectiveRecord, epochMs, rowsOf, dateFromMs, idIn, type SqlRunner } from './effective'
 import { groupCompletions } from './facts-battery'
 
 // Facts of trucks, chargers, areas and cylinders from their effective records (one statement per kind).
 
 const scope = (alias: string, siteId: string, ids?: readonly string[]): SQL =>
-  ids ? sql`${sql.raw(alias)}.site_id = ${siteId} AND ${sql.raw(alias)}.id = ANY(${uuidArray(ids)})` : sql`${sql.raw(alias)}.site_id = ${siteId}`
+  ids ? sql`${sql.raw(alias)}.site_id = ${siteId} AND ${idIn(`${alias}.id`, ids)}` : sql`${sql.raw(alias)}.site_id = ${siteId}`
 
 const liveTag = (kind: string, idColumn: string) =>
   sql`(SELECT code FROM tags WHERE tags.asset_kind = ${kind} AND tags.asset_id = ${sql.raw(idColumn)} AND tags.retired_at IS NULL)`

@@ -2,7 +2,7 @@ import { sql, type SQL } from 'drizzle-orm'
 import type { BatteryChemistry } from '../../../shared/utils/battery-fit'
 import type { BatteryFacts } from '../../../shared/utils/derived-battery'
 import type { CompletionFact } from '../../../shared/utils/derived-custom'
-import { isEffectiveRecord, epochMs, rowsOf, dateFromMs, uuidArray, type SqlRunner } from './effective'
+import { isEffectiveRecord, epochMs, rowsOf, dateFromMs, idIn, type SqlRunner } from './effective'
 
 // A battery's facts from its effective records, for many batteries in one statement: LATERAL look-ups
 // pick each battery's latest rows through the (battery_id, at) indexes, so the number of statements does
@@ -51,7 +51,7 @@ export interface BatteryFactsQuery {
 
 export async function loadBatteryFactsFor(db: SqlRunner, q: BatteryFactsQuery, completions: CompletionFact[] = []): Promise<BatteryFacts[]> {
   if (q.batteryIds && q.batteryIds.length === 0) return []
-  const where: SQL = q.batteryIds ? sql`b.site_id = ${q.siteId} AND b.id = ANY(${uuidArray(q.batteryIds)})` : sql`b.site_id = ${q.siteId}`
+  const where: SQL = q.batteryIds ? sql`b.site_id = ${q.siteId} AND ${idIn('b.id', q.batteryIds)}` : sql`b.site_id = ${q.siteId}`
   const since = q.chargesSince ? sql`${q.chargesSince.toISOString()}::timestamptz` : sql`NULL::timestamptz`
   // the earliest moment a rule counts charges from: the last watering or equalize (flooded), or a lead-added schedule
   const anchor = sql`LEAST(CASE WHEN b.chemistry = 'flooded_lead_acid' THEN LEAST(COALESCE(wt.at, '-infinity'::timestamptz), COALESCE(eq.ended_at, '-infinity'::timestamptz)) END, ${since})`

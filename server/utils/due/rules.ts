@@ -8,7 +8,7 @@ import {
   siteObligations, truckObligations, truckStatusFrom, type TruckStatusRow,
 } from '../../../shared/utils/derived-subjects'
 import { requalificationYearsFromSettings } from '../../../shared/utils/fuel-policy'
-import { uuidArray, type SqlRunner } from './effective'
+import { idIn, type SqlRunner } from './effective'
 import { loadBatteryFactsFor } from './facts-battery'
 import { loadAreaFactsFor, loadChargerFactsFor, loadCylinderFactsFor, loadTruckFactsFor } from './facts-assets'
 import { loadCompletionFacts, loadFollowUpFactsFor, loadLogFactsFor, loadOperatorFactsFor, loadSiteFacts } from './facts-people'
@@ -112,7 +112,7 @@ async function lockSubjects(db: SqlRunner, pick: SubjectSelection) {
     const ids = pick[kind]
     const table = SUBJECT_TABLES[kind]
     if (!ids?.length || !table) continue
-    await db.execute(sql`SELECT 1 FROM ${sql.raw(table)} WHERE id = ANY(${uuidArray([...ids].sort())}) ORDER BY id FOR NO KEY UPDATE`)
+    await db.execute(sql`SELECT 1 FROM ${sql.raw(table)} WHERE ${idIn('id', [...ids].sort())} ORDER BY id FOR NO KEY UPDATE`)
   }
 }
 
