@@ -19,7 +19,11 @@ function codedRefusalText(r: Refusal | null): string | undefined {
   const app = tryUseNuxtApp()
   if (!r || !app?.$i18n || app.$i18n.locale.value === 'en' || !(r.reasons[0]?.code || typeof r.data.code === 'string')) return undefined
   try {
-    return app.runWithContext(() => useReasonWords().refusalText(r)) as string
+    // In a component's setup or render the composables find the app themselves. Elsewhere (an event
+    // handler after an await) they run in the app's context; on the server that call answers with a
+    // promise, which a page rendered there showed as "[object Promise]".
+    const text = getCurrentInstance() ? useReasonWords().refusalText(r) : app.runWithContext(() => useReasonWords().refusalText(r))
+    return typeof text === 'string' ? text : undefined
   }
   catch {
     return undefined

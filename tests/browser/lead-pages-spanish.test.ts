@@ -1,16 +1,17 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { setup } from '@nuxt/test-utils/e2e'
+import { setup, url } from '@nuxt/test-utils/e2e'
 import type { Browser } from 'playwright-core'
 import { eq } from 'drizzle-orm'
 import { builtServer } from '../support/http'
 import { area, closeTestDb, site, tables, user, useTestDb } from '../support/db'
-import { DESKTOP, launchChromium, signInAt, untilHydrated } from '../support/chromium'
+import { DESKTOP, PHONE, launchChromium, signInAt, untilHydrated } from '../support/chromium'
 
 await setup(builtServer)
 
 let browser: Browser
 let lead: { email: string, password: string }
 let admin: { email: string, password: string }
+let technician: { email: string, password: string }
 let areaId: string
 
 // A safety lead who reads Spanish: the area log's day and the due schedules are in Spanish, dates as es-US writes them.
@@ -24,6 +25,9 @@ beforeAll(async () => {
   const a = await user({ siteId, roles: ['admin'] })
   await useTestDb().update(tables.users).set({ language: 'es' }).where(eq(tables.users.id, a.id))
   admin = a
+  const tech = await user({ siteId, roles: ['technician'] })
+  await useTestDb().update(tables.users).set({ language: 'es' }).where(eq(tables.users.id, tech.id))
+  technician = tech
 })
 afterAll(async () => {
   await browser?.close()
@@ -83,6 +87,22 @@ describe('lead pages in Spanish', () => {
     await expect.poll(() => field.getByRole('alert').textContent()).toBe('No más de 1,440.')
     expect(await page.getByText('Revise los campos marcados.').count()).toBe(1)
     expect(await page.getByText('1440').count()).toBe(0)
+    await context.close()
+  })
+
+  it('a page refused to a technician says why in Spanish as the server renders it, and the browser takes it over unchanged', async () => {
+    const { page, context } = await signInAt(browser, technician, '/account', PHONE)
+    // the leads' overrides page, rendered on the server for a technician: the refusal's coded words
+    const html = await (await page.request.get(url('/bay/overrides'))).text()
+    const main = html.slice(html.indexOf('<main'), html.indexOf('</main>'))
+    expect(main).toContain('necesita uno de estos puestos')
+    expect(main).not.toContain('[object Promise]')
+    const problems: string[] = []
+    page.on('console', m => (m.type() === 'error' || m.type() === 'warning') && problems.push(m.text()))
+    await page.goto(url('/bay/overrides'))
+    await page.waitForLoadState('networkidle')
+    expect(await page.getByText(/necesita uno de estos puestos/).count()).toBe(1)
+    expect(problems.filter(p => /hydrat/i.test(p))).toEqual([])
     await context.close()
   })
 })
