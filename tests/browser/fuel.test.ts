@@ -4,7 +4,7 @@ import { setup, url } from '@nuxt/test-utils/e2e'
 import type { Browser, Page } from 'playwright-core'
 import { eq } from 'drizzle-orm'
 import { builtServer } from '../support/http'
-import { closeTestDb, refreshReadModels, site, tables, truck, user, useTestDb } from '../support/db'
+import { charger, closeTestDb, refreshReadModels, site, tables, truck, user, useTestDb } from '../support/db'
 import { DESKTOP, PHONE, launchChromium, signInAt, untilHydrated } from '../support/chromium'
 import { freshCylinder, fuelStation, isoDaysFromNow, lpTransferQualification, lpTruck } from '../support/fuel'
 import { PREFILL_INSPECTION_ITEMS } from '../../shared/utils/lp-gas'
@@ -52,6 +52,8 @@ beforeAll(async () => {
     await refreshReadModels(siteId, [{ kind: 'truck', id: x.t.id }])
   }
   await lpTruck(siteId)
+  // a charger whose line on the asset list is longer than a phone is wide
+  await charger({ siteId, name: 'North wall 48 V lithium-ion opportunity charger no. 12', outputVoltage: 48, chargerType: 'iui' })
 })
 afterAll(async () => {
   await browser?.close()
@@ -77,7 +79,12 @@ describe('fuel station in the browser', () => {
     expect(await page.getByText('31 lb of propane added').isVisible()).toBe(true)
     await page.goto(url('/cage'))
     await expect.poll(() => page.locator('[data-count="full"]').first().innerText()).toBe('5')
+    // the page fits the phone: the cylinder table scrolls inside its card, the header's buttons wrap
+    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(PHONE.width)
     await page.screenshot({ path: 'screenshots/fuel-cage-phone.png', fullPage: true })
+    await page.goto(url('/chargers'))
+    await expect.poll(() => page.getByText('North wall 48 V lithium-ion opportunity charger no. 12').first().isVisible()).toBe(true)
+    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(PHONE.width)
     await page.goto(url(`/requalify?code=${emptySerial}`))
     await expect.poll(() => page.getByRole('heading', { name: 'Requalification history' }).isVisible()).toBe(true)
     await page.screenshot({ path: 'screenshots/fuel-requalify-phone.png', fullPage: true })
