@@ -85,6 +85,14 @@ describe('fuel station in the browser', () => {
     await page.goto(url('/chargers'))
     await expect.poll(() => page.getByText('North wall 48 V lithium-ion opportunity charger no. 12').first().isVisible()).toBe(true)
     expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(PHONE.width)
+    // a smaller phone: the header's buttons, the home's due cards and the cage still fit
+    await page.setViewportSize({ width: 360, height: 800 })
+    for (const path of ['/', '/cage', '/chargers']) {
+      await page.goto(url(path))
+      await page.waitForLoadState('networkidle')
+      expect({ path, width: await page.evaluate(() => document.documentElement.scrollWidth) }).toEqual({ path, width: 360 })
+    }
+    await page.setViewportSize(PHONE)
     await page.goto(url(`/requalify?code=${emptySerial}`))
     await expect.poll(() => page.getByRole('heading', { name: 'Requalification history' }).isVisible()).toBe(true)
     await page.screenshot({ path: 'screenshots/fuel-requalify-phone.png', fullPage: true })
