@@ -1,4 +1,5 @@
-import { and, eq, getTableColumns, inArray, sql } from 'drizzle-orm'
+import { and, eq, getTableColumns, getTableName, inArray, sql } from 'drizzle-orm'
+import type { PgTable } from 'drizzle-orm/pg-core'
 import type { PostgresJsDatabase } from 'drizzle-orm/postgres-js'
 import * as schema from '../../database/schema'
 import type { ObligationRecord } from '../../../shared/utils/due-rules'
@@ -53,32 +54,47 @@ export async function writeReadModels(db: ReadModelDb, scope: WriteScope, comput
     await db.delete(schema.batteryStatus).where(eq(schema.batteryStatus.siteId, scope.siteId))
     await db.delete(schema.truckStatus).where(eq(schema.truckStatus.siteId, scope.siteId))
   }
-  const bs = schema.batteryStatus
-  const ts = schema.truckStatus
   const pending: Promise<unknown>[] = [db.delete(o).where(and(...where)) as unknown as Promise<unknown>]
   if (!scope.wholeSite && rows.length <= BATCH && batteries.length <= BATCH && computed.truckStatus.length <= BATCH) {
     // one write's worth: sent together (one round trip on the transaction's connection)
-    if (rows.length) pending.push(db.insert(o).values(rows.map(r => obligationValues(scope.siteId, r))) as unknown as Promise<unknown>)
-    if (batteries.length) pending.push(upsertBatteries(db, batteries.map(batteryValues), bs))
-    if (computed.truckStatus.length) pending.push(upsertTrucks(db, computed.truckStatus.map(truckValues), ts))
+    if (rows.length) pending.push(insertObligations(db, rows.map(r => obligationValues(scope.siteId, r))))
+    if (batteries.length) pending.push(upsertBatteries(db, batteries.map(batteryValues)))
+    if (computed.truckStatus.length) pending.push(upsertTrucks(db, computed.truckStatus.map(truckValues)))
     await Promise.all(pending)
     return
   }
   await Promise.all(pending)
-  await inBatches(rows, batch => db.insert(o).values(batch.map(r => obligationValues(scope.siteId, r))))
-  await inBatches(batteries, batch => upsertBatteries(db, batch.map(batteryValues), bs))
-  await inBatches(computed.truckStatus, batch => upsertTrucks(db, batch.map(truckValues), ts))
+  await inBatches(rows, batch => insertObligations(db, batch.map(r => obligationValues(scope.siteId, r))))
+  await inBatches(batteries, batch => upsertBatteries(db, batch.map(batteryValues)))
+  await inBatches(computed.truckStatus, batch => upsertTrucks(db, batch.map(truckValues)))
 }
 
-// every column but the key takes the new row's value (columns are snake_case in the database)
-const excludedAll = (table: typeof schema.batteryStatus | typeof schema.truckStatus, key: string) =>
-  Object.fromEntries(Object.keys(getTableColumns(table)).filter(k => k !== key)
-    .map(k => [k, sql.raw(`excluded."${k.replace(/[A-Z]/g, c => `_${c.toLowerCase()}`)}"`)]))
-
-function upsertBatteries(db: ReadModelDb, values: (typeof schema.batteryStatus.$inferInsert)[], bs: typeof schema.batteryStatus) {
-  return db.insert(bs).values(values).onConflictDoUpdate({ target: bs.batteryId, set: excludedAll(bs, 'batteryId') }) as unknown as Promise<unknown>
+/**
+ * An INSERT of any number of rows whose text never changes: the rows go as one JSON parameter that
+ * PostgreSQL reads into the table's row type (json_populate_recordset), in the order given. So the
+ * statement is prepared once per connection and planned once, and no SQL is built per row and value (for
+ * a swap's obligations, 6 rows of 22 columns, drizzle spent ~0.6 ms of server CPU building the text of
+ * 132 parameters). `omit`: columns left to their default (the obligation's id); `conflictKey`: update
+ * every other column of a row whose key is there already.
+ */
+function jsonRowsInsert<T extends PgTable>(table: T, opts: { omit?: string[], conflictKey?: string }) {
+  const columns = Object.entries(getTableColumns(table)).filter(([key]) => !opts.omit?.includes(key))
+    // the schema names no columns: drizzle's snake_case setting makes them from the keys
+    .map(([key, column]) => ({ key, name: column.keyAsName ? key.replace(/[A-Z]/g, c => `_${c.toLowerCase()}`) : column.name }))
+  const quoted = (name: string) => `"${name}"`
+  const list = columns.map(c => quoted(c.name)).join(', ')
+  const tableName = quoted(getTableName(table))
+  const conflict = opts.conflictKey ? columns.find(c => c.key === opts.conflictKey)!.name : undefined
+  const head = sql.raw(`INSERT INTO ${tableName} (${list}) SELECT ${list} FROM json_populate_recordset(NULL::${tableName}, `)
+  const tail = sql.raw(`::json) WITH ORDINALITY AS r ORDER BY r.ordinality${conflict
+    ? ` ON CONFLICT (${quoted(conflict)}) DO UPDATE SET ${columns.filter(c => c.name !== conflict).map(c => `${quoted(c.name)} = excluded.${quoted(c.name)}`).join(', ')}`
+    : ''}`)
+  return (db: ReadModelDb, rows: readonly Record<string, unknown>[]): Promise<unknown> => {
+    const json = JSON.stringify(rows.map(row => Object.fromEntries(columns.map(c => [c.name, row[c.key] ?? null]))))
+    return db.execute(sql`${head}${json}${tail}`) as unknown as Promise<unknown>
+  }
 }
 
-function upsertTrucks(db: ReadModelDb, values: (typeof schema.truckStatus.$inferInsert)[], ts: typeof schema.truckStatus) {
-  return db.insert(ts).values(values).onConflictDoUpdate({ target: ts.truckId, set: excludedAll(ts, 'truckId') }) as unknown as Promise<unknown>
-}
+const insertObligations = jsonRowsInsert(schema.obligations, { omit: ['id'] })
+const upsertBatteries = jsonRowsInsert(schema.batteryStatus, { conflictKey: 'batteryId' })
+const upsertTrucks = jsonRowsInsert(schema.truckStatus, { conflictKey: 'truckId' })
