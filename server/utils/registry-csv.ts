@@ -14,6 +14,6 @@ export async function exportAssets(event: H3Event, kind: AssetKind) {
   const rows = await withStatusJoin(cfg, useDb().select({ row: cfg.table, tagCode: liveTagCode(kind, cfg.table), ...cfg.status?.columns })
     .from(cfg.table as PgTable)).where(condition).orderBy(...order).limit(200_000)
   const { byId } = await areaNames(query.siteId)
-  const csv = toCsv(kind, (rows as ListRow[]).map(registryListItem), byId)
+  const csv = toCsv(kind, (rows as ListRow[]).map(row => registryListItem(row)), byId)
   return sendCsv(event, `bayward-${kind}-list-${new Date().toISOString().slice(0, 10)}.csv`, csv)
 }

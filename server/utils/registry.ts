@@ -137,11 +137,19 @@ export function withStatusJoin(cfg: KindConfig, query: any): any {
 }
 
 export type ListRow = { row: Record<string, unknown>, tagCode: string | null } & Record<string, unknown>
-export function registryListItem({ row, tagCode, ...status }: ListRow) {
-  const given = Object.fromEntries(Object.entries(status).filter(([, v]) => v !== null && v !== undefined))
+/** A list row as the list sends it: the asset's columns, its status columns that are set, and its tag code. */
+export function registryListItem(item: ListRow, now = new Date()) {
+  // one object written field by field: spreading the row and the status into new objects cost ~8 µs an item
+  const out: Record<string, unknown> = Object.assign({}, item.row)
+  for (const key in item) {
+    if (key === 'row' || key === 'tagCode') continue
+    const value = item[key]
+    if (value !== null && value !== undefined) out[key] = value
+  }
   // a battery's stored state reads as it stands now (a charged one is Cooling until ready-at, then Ready)
-  if (typeof given.state === 'string') given.state = batteryStateAt(given.state as StoredBatteryState, (given.readyAt as Date | undefined) ?? null, new Date()).state
-  return { ...row, ...given, tagCode }
+  if (typeof out.state === 'string') out.state = batteryStateAt(out.state as StoredBatteryState, (out.readyAt as Date | undefined) ?? null, now).state
+  out.tagCode = item.tagCode
+  return out
 }
 
 // Server-side paged, sorted, filtered list of one asset kind at one site.
@@ -151,6 +159,7 @@ export async function listAssets(event: H3Event, kind: AssetKind) {
   await requireAbility(event, 'site.member', query.siteId)
   const { condition, sortKey, order } = listConditions(event, kind, query)
   const db = useDb()
+  const now = new Date()
   const [items, [{ total } = { total: 0 }]] = await Promise.all([
     withStatusJoin(cfg, db.select({ row: cfg.table, tagCode: liveTagCode(kind, cfg.table), ...cfg.status?.columns }).from(cfg.table as PgTable))
       .where(condition)
@@ -160,7 +169,7 @@ export async function listAssets(event: H3Event, kind: AssetKind) {
     db.select({ total: count() }).from(cfg.table as PgTable).where(condition),
   ])
   return {
-    items: (items as ListRow[]).map(registryListItem),
+    items: (items as ListRow[]).map(item => registryListItem(item, now)),
     total: Number(total),
     page: query.page,
     pageSize: query.pageSize,
