@@ -160,12 +160,19 @@ export async function listAssets(event: H3Event, kind: AssetKind) {
   const { condition, sortKey, order } = listConditions(event, kind, query)
   const db = useDb()
   const now = new Date()
+  const columns = { row: cfg.table, tagCode: liveTagCode(kind, cfg.table), ...cfg.status?.columns }
+  const offset = (query.page - 1) * query.pageSize
+  // Sorted by the asset's own columns, the page's ids are found first and only those 50 rows are joined to
+  // their status (joined first, PostgreSQL read and sorted the status of every asset of the site). A sort
+  // key named like a status column (a battery's cycles, a truck's hour meter now) needs the join to sort.
+  const sortsByStatus = !!cfg.status && Object.hasOwn(cfg.status.columns, sortKey)
+  const pageRows = sortsByStatus
+    ? withStatusJoin(cfg, db.select(columns).from(cfg.table as PgTable)).where(condition).orderBy(...order).limit(query.pageSize).offset(offset)
+    : withStatusJoin(cfg, db.select(columns).from(cfg.table as PgTable))
+        .where(inArray(cfg.table.id, db.select({ id: cfg.table.id }).from(cfg.table as PgTable).where(condition).orderBy(...order).limit(query.pageSize).offset(offset)))
+        .orderBy(...order)
   const [items, [{ total } = { total: 0 }]] = await Promise.all([
-    withStatusJoin(cfg, db.select({ row: cfg.table, tagCode: liveTagCode(kind, cfg.table), ...cfg.status?.columns }).from(cfg.table as PgTable))
-      .where(condition)
-      .orderBy(...order)
-      .limit(query.pageSize)
-      .offset((query.page - 1) * query.pageSize),
+    pageRows,
     db.select({ total: count() }).from(cfg.table as PgTable).where(condition),
   ])
   return {

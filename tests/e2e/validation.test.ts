@@ -368,6 +368,16 @@ describe('a list pages, sorts, filters and searches on the server', () => {
     expect(res.body.total).toBe(7)
   })
 
+  it('sends the same row, status included, whether the page is sorted by its own columns or by a status column', async () => {
+    // by serial the page's ids are found before the status is joined; by cycles the status is joined to sort
+    const bySerial = (await list('pageSize=10')).body.items as { id: string }[]
+    const byCycles = (await list('sort=cycleCount&pageSize=10')).body.items as { id: string }[]
+    expect(byCycles.map(i => i.id).sort()).toEqual(bySerial.map(i => i.id).sort())
+    for (const item of bySerial) expect(byCycles.find(i => i.id === item.id)).toEqual(item)
+    expect(bySerial[0]).toHaveProperty('cycleCount')
+    expect(bySerial[0]).toHaveProperty('tagCode')
+  })
+
   it('sorts by a number column', async () => {
     const res = await list('sort=voltage&dir=desc')
     const volts = res.body.items.map((i: { voltage: number }) => i.voltage)
