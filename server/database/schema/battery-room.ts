@@ -22,7 +22,9 @@ export const batterySwaps = pgTable('battery_swaps', {
   index().on(t.batteryOutId, t.at),
   index().on(t.userId),
   uniqueIndex('battery_swaps_idem').on(t.idempotencyKey).where(sql`${t.idempotencyKey} IS NOT NULL`),
-  uniqueIndex('battery_swaps_corrected_once').on(t.correctsId),
+  // a record is corrected at most once; only correction rows are indexed (the "not corrected" checks look up
+  // `corrects_id = <id>`, which this partial index answers, and a new record adds nothing to it)
+  uniqueIndex('battery_swaps_corrected_once').on(t.correctsId).where(sql`${t.correctsId} IS NOT NULL`),
 ])
 
 // A charge session opens when a battery goes on a charger and is closed once when it comes off.
@@ -53,9 +55,14 @@ export const chargeSessions = pgTable('charge_sessions', {
   uniqueIndex('charge_sessions_open_battery').on(t.batteryId).where(sql`${t.endedAt} IS NULL AND ${t.correctsId} IS NULL`),
   uniqueIndex('charge_sessions_open_charger').on(t.chargerId).where(sql`${t.endedAt} IS NULL AND ${t.correctsId} IS NULL`),
   uniqueIndex('charge_sessions_idem').on(t.idempotencyKey).where(sql`${t.idempotencyKey} IS NOT NULL`),
+  // a battery's open session (a correction row included) without reading its closed ones, and its counted
+  // cycles from the index alone (the id for the "not corrected" check is in the key): the battery status
+  // every swap, charge and check recomputes reads both
+  index('charge_sessions_open_by_battery').on(t.batteryId, t.at).where(sql`${t.endedAt} IS NULL`),
+  index('charge_sessions_cycles_by_battery').on(t.batteryId, t.id).where(sql`${t.countedCycle}`),
   index().on(t.userId),
   index().on(t.endedBy),
-  uniqueIndex('charge_sessions_corrected_once').on(t.correctsId),
+  uniqueIndex('charge_sessions_corrected_once').on(t.correctsId).where(sql`${t.correctsId} IS NOT NULL`),
 ])
 
 export const electrolyteChecks = pgTable('electrolyte_checks', {
@@ -78,7 +85,7 @@ export const electrolyteChecks = pgTable('electrolyte_checks', {
   index().on(t.batteryId, t.at),
   uniqueIndex('electrolyte_checks_idem').on(t.idempotencyKey).where(sql`${t.idempotencyKey} IS NOT NULL`),
   index().on(t.userId),
-  uniqueIndex('electrolyte_checks_corrected_once').on(t.correctsId),
+  uniqueIndex('electrolyte_checks_corrected_once').on(t.correctsId).where(sql`${t.correctsId} IS NOT NULL`),
 ])
 
 export const cellReadings = pgTable('cell_readings', {

@@ -31,7 +31,7 @@ export const cylinderRefills = pgTable('cylinder_refills', {
   index().on(t.cylinderId, t.at),
   uniqueIndex('cylinder_refills_idem').on(t.idempotencyKey).where(sql`${t.idempotencyKey} IS NOT NULL`),
   index().on(t.userId),
-  uniqueIndex('cylinder_refills_corrected_once').on(t.correctsId),
+  uniqueIndex('cylinder_refills_corrected_once').on(t.correctsId).where(sql`${t.correctsId} IS NOT NULL`),
 ])
 
 export const cylinderExchanges = pgTable('cylinder_exchanges', {
@@ -50,7 +50,7 @@ export const cylinderExchanges = pgTable('cylinder_exchanges', {
   index().on(t.cylinderOffId),
   uniqueIndex('cylinder_exchanges_idem').on(t.idempotencyKey).where(sql`${t.idempotencyKey} IS NOT NULL`),
   index().on(t.userId),
-  uniqueIndex('cylinder_exchanges_corrected_once').on(t.correctsId),
+  uniqueIndex('cylinder_exchanges_corrected_once').on(t.correctsId).where(sql`${t.correctsId} IS NOT NULL`),
 ])
 
 // 49 CFR 180.209 requalification, with the marking stamped on the cylinder.
@@ -64,7 +64,7 @@ export const requalifications = pgTable('requalifications', {
   nextDueOn: date(),
   correctsId: uuid().references((): AnyPgColumn => requalifications.id),
   correctionReason: correctionReason(),
-}, t => [index().on(t.cylinderId, t.performedOn), index().on(t.siteId), index().on(t.userId), uniqueIndex('requalifications_corrected_once').on(t.correctsId),
+}, t => [index().on(t.cylinderId, t.performedOn), index().on(t.siteId), index().on(t.userId), uniqueIndex('requalifications_corrected_once').on(t.correctsId).where(sql`${t.correctsId} IS NOT NULL`),
   uniqueIndex('requalifications_idem').on(t.idempotencyKey).where(sql`${t.idempotencyKey} IS NOT NULL`)])
 
 export const emissionsTests = pgTable('emissions_tests', {
@@ -85,7 +85,7 @@ export const emissionsTests = pgTable('emissions_tests', {
   certificateUploadId: uuid().references(() => uploads.id),
   correctsId: uuid().references((): AnyPgColumn => emissionsTests.id),
   correctionReason: correctionReason(),
-}, t => [index().on(t.truckId, t.testedOn), index().on(t.siteId, t.nextDueOn), index().on(t.userId), index().on(t.certificateUploadId), uniqueIndex('emissions_tests_corrected_once').on(t.correctsId),
+}, t => [index().on(t.truckId, t.testedOn), index().on(t.siteId, t.nextDueOn), index().on(t.userId), index().on(t.certificateUploadId), uniqueIndex('emissions_tests_corrected_once').on(t.correctsId).where(sql`${t.correctsId} IS NOT NULL`),
   uniqueIndex('emissions_tests_idem').on(t.idempotencyKey).where(sql`${t.idempotencyKey} IS NOT NULL`)])
 
 export const coReadings = pgTable('co_readings', {
@@ -96,5 +96,5 @@ export const coReadings = pgTable('co_readings', {
   durationHours: doublePrecision().notNull(),
   correctsId: uuid().references((): AnyPgColumn => coReadings.id),
   correctionReason: correctionReason(),
-}, t => [index().on(t.areaId, t.takenOn), index().on(t.siteId, t.takenOn), index().on(t.userId), uniqueIndex('co_readings_corrected_once').on(t.correctsId),
+}, t => [index().on(t.areaId, t.takenOn), index().on(t.siteId, t.takenOn), index().on(t.userId), uniqueIndex('co_readings_corrected_once').on(t.correctsId).where(sql`${t.correctsId} IS NOT NULL`),
   uniqueIndex('co_readings_idem').on(t.idempotencyKey).where(sql`${t.idempotencyKey} IS NOT NULL`)])
