@@ -66,6 +66,21 @@ describe('battery swaps', () => {
     expect(truckHistory.body.items[0].title).toBe(`Battery ${fresh.serial} fitted`)
   })
 
+  it('writes again only the obligations a swap changes: a battery\'s unchanged ones keep their rows', async () => {
+    const t = await fittedTruck(siteId, { hourMeter: 1100 })
+    const fresh = await ready()
+    await refreshReadModels(siteId, [{ kind: 'battery', id: fresh.id }])
+    const obligationsOf = async (subjectId: string) => (await useTestDb().select().from(tables.obligations).where(eq(tables.obligations.subjectId, subjectId)))
+      .map(o => ({ id: o.id, ruleKey: o.ruleKey, dueOn: o.dueOn, countNow: o.countNow, computedAt: o.computedAt.getTime() }))
+      .sort((a, b) => a.ruleKey.localeCompare(b.ruleKey))
+    const before = await obligationsOf(fresh.id)
+    expect(before.length).toBeGreaterThan(0)
+    const res = await swap(operator, { truckId: t.id, batteryInId: fresh.id, hourMeter: 1300 })
+    expect(res.status, JSON.stringify(res.body)).toBe(201)
+    // same rows, same ids, not even their computing time moved: nothing about them changed
+    expect(await obligationsOf(fresh.id)).toEqual(before)
+  })
+
   it.each([
     ['voltage', { voltage: 48, cellCount: 24 }, 'voltage_mismatch'],
     ['connector', { connector: 'Red 175 A' }, 'connector_mismatch'],

@@ -54,16 +54,24 @@ export async function writeReadModels(db: ReadModelDb, scope: WriteScope, comput
     await db.delete(schema.batteryStatus).where(eq(schema.batteryStatus.siteId, scope.siteId))
     await db.delete(schema.truckStatus).where(eq(schema.truckStatus.siteId, scope.siteId))
   }
-  const pending: Promise<unknown>[] = [db.delete(o).where(and(...where)) as unknown as Promise<unknown>]
   if (!scope.wholeSite && rows.length <= BATCH && batteries.length <= BATCH && computed.truckStatus.length <= BATCH) {
-    // one write's worth: sent together (one round trip on the transaction's connection)
-    if (rows.length) pending.push(insertObligations(db, rows.map(r => obligationValues(scope.siteId, r))))
+    // One write's worth, sent together (one round trip on the transaction's connection). Only what changed
+    // is written: the scope's obligations the rules no longer give are deleted, a new one is inserted, and
+    // one whose words, dates and counts are what they were is left as it is (a swap leaves most of the
+    // batteries' obligations unchanged), so it keeps its id and costs no new row version nor index entries.
+    const values = rows.map(r => obligationValues(scope.siteId, r))
+    const json = obligationsJson(values)
+    const pending: Promise<unknown>[] = [
+      db.delete(o).where(and(...where, sql`NOT EXISTS (SELECT 1 FROM json_populate_recordset(NULL::"obligations", ${json}::json) AS r
+        WHERE r.rule_key = ${o.ruleKey} AND r.subject_kind = ${o.subjectKind} AND r.subject_id = ${o.subjectId})`)) as unknown as Promise<unknown>,
+    ]
+    if (rows.length) pending.push(upsertObligations(db, values, json))
     if (batteries.length) pending.push(upsertBatteries(db, batteries.map(batteryValues)))
     if (computed.truckStatus.length) pending.push(upsertTrucks(db, computed.truckStatus.map(truckValues)))
     await Promise.all(pending)
     return
   }
-  await Promise.all(pending)
+  await db.delete(o).where(and(...where))
   await inBatches(rows, batch => insertObligations(db, batch.map(r => obligationValues(scope.siteId, r))))
   await inBatches(batteries, batch => upsertBatteries(db, batch.map(batteryValues)))
   await inBatches(computed.truckStatus, batch => upsertTrucks(db, batch.map(truckValues)))
@@ -77,24 +85,32 @@ export async function writeReadModels(db: ReadModelDb, scope: WriteScope, comput
  * 132 parameters). `omit`: columns left to their default (the obligation's id); `conflictKey`: update
  * every other column of a row whose key is there already.
  */
-function jsonRowsInsert<T extends PgTable>(table: T, opts: { omit?: string[], conflictKey?: string }) {
+function jsonRowsInsert<T extends PgTable>(table: T, opts: { omit?: string[], conflictKey?: string[], onlyChanged?: boolean }) {
   const columns = Object.entries(getTableColumns(table)).filter(([key]) => !opts.omit?.includes(key))
     // the schema names no columns: drizzle's snake_case setting makes them from the keys
     .map(([key, column]) => ({ key, name: column.keyAsName ? key.replace(/[A-Z]/g, c => `_${c.toLowerCase()}`) : column.name }))
   const quoted = (name: string) => `"${name}"`
   const list = columns.map(c => quoted(c.name)).join(', ')
   const tableName = quoted(getTableName(table))
-  const conflict = opts.conflictKey ? columns.find(c => c.key === opts.conflictKey)!.name : undefined
-  const head = sql.raw(`INSERT INTO ${tableName} (${list}) SELECT ${list} FROM json_populate_recordset(NULL::${tableName}, `)
+  const conflict = opts.conflictKey?.map(key => columns.find(c => c.key === key)!.name)
+  // the columns an update sets: all but the key, and for `onlyChanged` all but computed_at decide whether it does
+  const set = columns.filter(c => !conflict?.includes(c.name))
+  const compared = set.filter(c => c.key !== 'computedAt').map(c => quoted(c.name))
+  const head = sql.raw(`INSERT INTO ${tableName} AS t (${list}) SELECT ${list} FROM json_populate_recordset(NULL::${tableName}, `)
   const tail = sql.raw(`::json) WITH ORDINALITY AS r ORDER BY r.ordinality${conflict
-    ? ` ON CONFLICT (${quoted(conflict)}) DO UPDATE SET ${columns.filter(c => c.name !== conflict).map(c => `${quoted(c.name)} = excluded.${quoted(c.name)}`).join(', ')}`
+    ? ` ON CONFLICT (${conflict.map(quoted).join(', ')}) DO UPDATE SET ${set.map(c => `${quoted(c.name)} = excluded.${quoted(c.name)}`).join(', ')}${opts.onlyChanged
+      ? ` WHERE (${compared.map(c => `t.${c}`).join(', ')}) IS DISTINCT FROM (${compared.map(c => `excluded.${c}`).join(', ')})`
+      : ''}`
     : ''}`)
-  return (db: ReadModelDb, rows: readonly Record<string, unknown>[]): Promise<unknown> => {
-    const json = JSON.stringify(rows.map(row => Object.fromEntries(columns.map(c => [c.name, row[c.key] ?? null]))))
-    return db.execute(sql`${head}${json}${tail}`) as unknown as Promise<unknown>
-  }
+  const toJson = (rows: readonly Record<string, unknown>[]) => JSON.stringify(rows.map(row => Object.fromEntries(columns.map(c => [c.name, row[c.key] ?? null]))))
+  const write = (db: ReadModelDb, rows: readonly Record<string, unknown>[], json = toJson(rows)): Promise<unknown> =>
+    db.execute(sql`${head}${json}${tail}`) as unknown as Promise<unknown>
+  return Object.assign(write, { toJson })
 }
 
 const insertObligations = jsonRowsInsert(schema.obligations, { omit: ['id'] })
-const upsertBatteries = jsonRowsInsert(schema.batteryStatus, { conflictKey: 'batteryId' })
-const upsertTrucks = jsonRowsInsert(schema.truckStatus, { conflictKey: 'truckId' })
+/** an obligation written again: inserted, or its row updated only where something but the computing time differs */
+const upsertObligations = jsonRowsInsert(schema.obligations, { omit: ['id'], conflictKey: ['siteId', 'ruleKey', 'subjectKind', 'subjectId'], onlyChanged: true })
+const obligationsJson = upsertObligations.toJson
+const upsertBatteries = jsonRowsInsert(schema.batteryStatus, { conflictKey: ['batteryId'] })
+const upsertTrucks = jsonRowsInsert(schema.truckStatus, { conflictKey: ['truckId'] })
