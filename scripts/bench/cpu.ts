@@ -12,7 +12,7 @@ import { BENCH, benchDatabaseUrl, benchId } from './shape'
 const root = fileURLToPath(new URL('../..', import.meta.url))
 const count = Number(process.env.BAYWARD_CPU_REQUESTS ?? 200)
 const encoding = process.env.BAYWARD_CPU_ENCODING ?? 'identity'
-const server = await startServer(root, '.output', benchDatabaseUrl(), { BAYWARD_READ_CACHE: process.env.BAYWARD_READ_CACHE ?? 'false' })
+const server = await startServer(root, process.env.BAYWARD_BUILD_NAME ? `.output-${process.env.BAYWARD_BUILD_NAME}` : '.output', benchDatabaseUrl(), { BAYWARD_READ_CACHE: process.env.BAYWARD_READ_CACHE ?? 'false' })
 try {
   const lead = await server.signIn(BENCH.leadEmail)
   const floor = await server.signIn(BENCH.floorEmail)

@@ -1,4 +1,4 @@
-// `npx tsx scripts/bench/swap-cpu.ts`: time and CPU per battery change, one at a time, read cache off
+// `npx tsx scripts/bench/swap-cpu.ts`: time and CPU per battery change, one at a time, read cache off (BAYWARD_BUILD_NAME=x runs the build in .output-x)
 // (BAYWARD_SWAP_COUNT, 30 by default; BAYWARD_READ_CACHE=true for the caches on). Each change takes a Ready battery of the bench data set, as the bench's swaps do.
 import { randomUUID } from 'node:crypto'
 import { fileURLToPath } from 'node:url'
@@ -10,7 +10,7 @@ import { BENCH, benchDatabaseUrl } from './shape'
 
 const root = fileURLToPath(new URL('../..', import.meta.url))
 const count = Number(process.env.BAYWARD_SWAP_COUNT ?? 30)
-const server = await startServer(root, '.output', benchDatabaseUrl(), { BAYWARD_READ_CACHE: process.env.BAYWARD_READ_CACHE ?? 'false' })
+const server = await startServer(root, process.env.BAYWARD_BUILD_NAME ? `.output-${process.env.BAYWARD_BUILD_NAME}` : '.output', benchDatabaseUrl(), { BAYWARD_READ_CACHE: process.env.BAYWARD_READ_CACHE ?? 'false' })
 const sql = postgres(benchDatabaseUrl(), { max: 1 })
 try {
   const lead = await server.signIn(BENCH.leadEmail)
