@@ -208,11 +208,15 @@ export function forbidden(ability: Ability, variant?: 'any_site') {
  * Every route file's handler: `export default defineAbilityHandler('<ability>', async (event) => …)`. The
  * ability is the route's declaration from the one permissions map (shared/utils/abilities.ts); the route
  * checks it with `requireAbility` after reading its params and body, and the role × route matrix test reads
- * the declaration from the file to know what each role must be answered.
+ * the declaration from the file to know what each role must be answered. A route whose ability is not public
+ * answers 401 to a request without a live session before it reads anything.
  */
 export function defineAbilityHandler<Req extends EventHandlerRequest = EventHandlerRequest, Res = unknown>(ability: Ability, handler: EventHandler<Req, Res>) {
+  const signedIn = ABILITIES[ability].scope !== 'public'
   return defineEventHandler<Req>(async (event) => {
     event.context.routeAbility = ability
+    // signed out is answered 401 before the route reads its input, so a bad query or body is not checked for a stranger
+    if (signedIn) await requireActor(event)
     if (event.method === 'GET' || event.method === 'HEAD') return handler(event)
     setCookie(event, WROTE_COOKIE, '1', { maxAge: WROTE_SECONDS, path: '/', httpOnly: true, sameSite: 'lax', secure: true })
     const answer = await handler(event)

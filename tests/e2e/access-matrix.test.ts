@@ -93,6 +93,25 @@ describe('role × route matrix', () => {
     expect(wrote, `${file}: refused requests that wrote audit rows`).toEqual([])
   })
 
+  // A stranger learns nothing of a route's input rules: with a query and a body that no route accepts, every
+  // route that is not public answers 401, not the 400 its validation would give a signed-in caller.
+  it('signed out, every route that is not public answers 401 before it reads its input', async () => {
+    const stranger = callers.find(c => !c.user)!.client
+    const got: Record<string, number> = {}
+    for (const file of FILES) {
+      const ability = declared(file) as Ability
+      if (ABILITIES[ability].scope === 'public') continue
+      const method = /\.(get|post|patch|put|delete)\.ts$/.exec(file)?.[1] ?? 'get'
+      const path = file.replace(/^server\/(api\/)?/, m => (m.includes('api') ? '/api/' : '/'))
+        .replace(/\.(get|post|patch|put|delete)?\.?ts$/, '').replace(/\/index$/, '').replace(/\[[^\]]+\]/g, 'not-an-id')
+      const reply = method === 'get' || method === 'delete'
+        ? await stranger[method](`${path}?siteId=not-a-site&limit=-1`)
+        : await stranger[method](path, { siteId: 'not-a-site', unexpected: true })
+      if (reply.status !== 401) got[`${method.toUpperCase()} ${path}`] = reply.status
+    }
+    expect(got).toEqual({})
+  })
+
   it('a person holding several roles at a site has what each of them gives', async () => {
     const both = await signIn(await user({ siteId: world.siteId, roles: ['operator', 'facilities_lead'] }))
     expect((await both.get(`/api/incidents?siteId=${world.siteId}`)).status).toBe(200)
