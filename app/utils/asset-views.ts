@@ -27,6 +27,8 @@ export interface ColumnView {
   sortable?: boolean
   unit?: MeasureUnit
   options?: Record<string, string>
+  /** a unit that is never converted (V, Ah, A, h), written after the value where no column head names it: the phone's cards */
+  suffix?: string
 }
 
 export interface AssetView {
@@ -54,9 +56,9 @@ export const ASSET_VIEWS: Record<AssetKind, AssetView> = {
       { key: 'truckClass', label: 'Class', sortable: true },
       { key: 'power', label: 'Power', sortable: true, options: POWER_LABELS },
       { key: 'model', label: 'Model' },
-      { key: 'systemVoltage', label: 'Volts', sortable: true },
+      { key: 'systemVoltage', label: 'Volts', sortable: true, suffix: 'V' },
       { key: 'minBatteryWeightLb', label: 'Min battery', unit: 'lb' },
-      { key: 'hourMeter', label: 'Hours', sortable: true },
+      { key: 'hourMeter', label: 'Hours', sortable: true, suffix: 'h' },
     ],
     filters: [
       { key: 'power', label: 'Power', options: POWER_LABELS },
@@ -85,8 +87,8 @@ export const ASSET_VIEWS: Record<AssetKind, AssetView> = {
     kind: 'battery', path: ASSET_PATHS.battery, api: '/api/batteries', noun: 'battery', plural: 'Batteries', titleKey: 'serial',
     columns: [
       { key: 'serial', label: 'Serial', sortable: true },
-      { key: 'voltage', label: 'Volts', sortable: true },
-      { key: 'capacityAh', label: 'Ah', sortable: true },
+      { key: 'voltage', label: 'Volts', sortable: true, suffix: 'V' },
+      { key: 'capacityAh', label: 'Ah', sortable: true, suffix: 'Ah' },
       { key: 'chemistry', label: 'Chemistry', sortable: true, options: chemistryOptions },
       { key: 'weightLb', label: 'Weight', sortable: true, unit: 'lb' },
       { key: 'connector', label: 'Connector' },
@@ -122,11 +124,11 @@ export const ASSET_VIEWS: Record<AssetKind, AssetView> = {
     kind: 'charger', path: ASSET_PATHS.charger, api: '/api/chargers', noun: 'charger', plural: 'Chargers', titleKey: 'name',
     columns: [
       { key: 'name', label: 'Name', sortable: true },
-      { key: 'outputVoltage', label: 'Volts', sortable: true },
-      { key: 'maxCurrentA', label: 'Max A', sortable: true },
+      { key: 'outputVoltage', label: 'Volts', sortable: true, suffix: 'V' },
+      { key: 'maxCurrentA', label: 'Max A', sortable: true, suffix: 'A' },
       { key: 'chargerType', label: 'Type', sortable: true, options: CHARGER_TYPE_LABELS },
-      { key: 'minCapacityAh', label: 'Min Ah' },
-      { key: 'maxCapacityAh', label: 'Max Ah' },
+      { key: 'minCapacityAh', label: 'Min Ah', suffix: 'Ah' },
+      { key: 'maxCapacityAh', label: 'Max Ah', suffix: 'Ah' },
     ],
     filters: [{ key: 'outOfService', label: 'Service', options: yesNo }],
     fields: [
@@ -219,6 +221,12 @@ export function formatMeasure(value: unknown, unit: MeasureUnit, system: 'us' | 
   const shown = toSiteUnits(value, unit, system)
   const digits = unit === 'in' && system === 'us' ? 1 : 0
   return `${shown.toLocaleString('en-US', { maximumFractionDigits: digits })} ${unitLabel(unit, system)}`
+}
+
+/** A cell on a phone's card, where no column head says what the number is: its fixed unit follows it ("24 V"). */
+export function formatCardCell(value: unknown, col: Pick<ColumnView, 'unit' | 'options' | 'suffix'>, system: 'us' | 'metric'): string {
+  const text = formatCell(value, col, system)
+  return col.suffix && text !== '—' ? `${text} ${col.suffix}` : text
 }
 
 export function formatCell(value: unknown, col: Pick<ColumnView, 'unit' | 'options'>, system: 'us' | 'metric'): string {

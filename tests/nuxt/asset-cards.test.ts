@@ -1,0 +1,28 @@
+import { describe, expect, it } from 'vitest'
+import { ASSET_VIEWS, formatCardCell, formatCell } from '../../app/utils/asset-views'
+
+// On a phone an asset is a card whose second line is three values with no column head above them, so a number
+// in a fixed unit carries the unit's symbol (SI: V, A, h; Ah as the trade writes a battery's capacity).
+const card = (kind: keyof typeof ASSET_VIEWS, item: Record<string, unknown>, units: 'us' | 'metric' = 'us') =>
+  ASSET_VIEWS[kind].columns.slice(1, 4).map(c => formatCardCell(item[c.key], c, units)).join(' · ')
+
+describe('asset cards', () => {
+  it('a battery reads its volts and ampere-hours', () => {
+    expect(card('battery', { voltage: 24, capacityAh: 510, chemistry: 'flooded_lead_acid' })).toBe('24 V · 510 Ah · Flooded lead-acid')
+  })
+
+  it('a charger reads volts and amperes; an unknown value stays a dash without a unit', () => {
+    expect(card('charger', { outputVoltage: 48, maxCurrentA: null, chargerType: undefined })).toBe('48 V · — · —')
+  })
+
+  it('a converted measure keeps its own unit and gains no second one', () => {
+    const weight = ASSET_VIEWS.battery.columns.find(c => c.key === 'weightLb')!
+    expect(formatCardCell(1000, weight, 'us')).toBe(formatCell(1000, weight, 'us'))
+    expect(formatCardCell(1000, weight, 'metric')).toBe('454 kg') // 1 lb = 0.45359237 kg, exact by definition
+  })
+
+  it('the desktop table keeps the bare number under its head', () => {
+    const volts = ASSET_VIEWS.battery.columns.find(c => c.key === 'voltage')!
+    expect(formatCell(24, volts, 'us')).toBe('24')
+  })
+})
