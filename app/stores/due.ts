@@ -8,12 +8,14 @@ export interface DueFilter {
   role?: Role | 'all'
   state?: string
   kind?: string
+  /** one lead-added schedule (a group of the due page) */
+  schedule?: string
   sort?: 'due' | 'kind' | 'subject' | 'role'
   /** how many obligations to load (the server's page size when absent) */
   limit?: number
 }
 
-const keyOf = (siteId: string, filter: DueFilter) => `${siteId}|${filter.role ?? ''}|${filter.state ?? ''}|${filter.kind ?? ''}|${filter.sort ?? ''}|${filter.limit ?? ''}`
+const keyOf = (siteId: string, filter: DueFilter) => `${siteId}|${filter.role ?? ''}|${filter.state ?? ''}|${filter.kind ?? ''}|${filter.schedule ?? ''}|${filter.sort ?? ''}|${filter.limit ?? ''}`
 
 // The user's due lists, one per site and filter, refreshed after anything is recorded.
 export const useDueStore = defineStore('due', () => {

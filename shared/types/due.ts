@@ -27,7 +27,11 @@ export interface DueItem {
 
 /** One kind of obligation in the list: how many in each state; the list's groups come worst state first. */
 export interface DueGroup {
+  /** the kind, or `custom:<schedule id>` for a lead-added schedule */
+  key: string
   kind: DueKind
+  /** the lead-added schedule the group is (null for a built-in kind) */
+  scheduleId: string | null
   label: string
   counts: Record<ObligationState, number>
   worst: ObligationState

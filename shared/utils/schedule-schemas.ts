@@ -20,6 +20,8 @@ export const dueQuerySchema = z.object({
   role: z.enum([...ROLES, 'all']).optional(),
   state: csv(OBLIGATION_STATES),
   kind: csv(DUE_KINDS),
+  /** one lead-added schedule's obligations (a group of the due page) */
+  schedule: z.uuid({ error: 'No such schedule.' }).optional(),
   sort: z.enum(DUE_SORTS).default('due'),
   /** 0: the counts and groups only (the due page's summary) */
   limit: z.coerce.number().int().min(0).max(20_000).default(DUE_PAGE_SIZE),

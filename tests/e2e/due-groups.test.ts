@@ -9,15 +9,17 @@ import type { Client } from '../support/http'
 await setup(builtServer)
 
 // The due list grouped by kind: each group's counts by state are those of the whole filtered list (not
-// only the page), the worst state comes first, and filters narrow the groups as they narrow the rows.
+// only the page), the worst state comes first, and filters narrow the groups as they narrow the rows. Each
+// schedule a lead added is a group of its own, under its title.
 const RANK = ['overdue', 'due_soon', 'upcoming', 'done']
 
 function groupsFromItems(list: DueReply) {
   const by = new Map<string, Record<string, number>>()
   for (const i of list.items) {
-    const c = by.get(i.kind) ?? { overdue: 0, due_soon: 0, upcoming: 0, done: 0 }
+    const key = i.kind === 'custom' ? `custom:${i.scheduleId}` : i.kind
+    const c = by.get(key) ?? { overdue: 0, due_soon: 0, upcoming: 0, done: 0 }
     c[i.state] = (c[i.state] ?? 0) + 1
-    by.set(i.kind, c)
+    by.set(key, c)
   }
   return Object.fromEntries(by)
 }
@@ -25,6 +27,7 @@ function groupsFromItems(list: DueReply) {
 describe('due list grouped by kind', () => {
   let siteId: string
   let lead: Client
+  const schedules: { id: string, title: string }[] = []
   beforeAll(async () => {
     siteId = (await site()).id
     const p = await person(siteId, ['facilities_lead'])
@@ -39,6 +42,15 @@ describe('due list grouped by kind', () => {
     const testedOn = daysFrom(todayIn(), -400)
     await useTestDb().insert(tables.emissionsTests).values({ siteId, userId: p.id, truckId: t.id, testedOn, testerName: 'Invented Tailpipe Services', coIdlePct: 0.4, coHighIdlePct: 0.3, passed: true, nextDueOn: daysFrom(testedOn, 365) })
     await refreshReadModels(siteId, [{ kind: 'truck', id: t.id }])
+    // two schedules a lead adds: one per battery (three), one for the site
+    for (const body of [
+      { title: 'Battery cable and plug inspection', subjectKind: 'battery', every: 6, unit: 'month' },
+      { title: 'Spill kit restock check', subjectKind: 'site', every: 1, unit: 'year' },
+    ]) {
+      const res = await lead.post('/api/schedules/custom', { siteId, dueSoonDays: 7, responsibleRole: 'facilities_lead', source: 'Common practice', ...body })
+      expect(res.status, JSON.stringify(res.body)).toBe(201)
+      schedules.push({ id: res.body.item.id, title: body.title })
+    }
   })
   afterAll(closeTestDb)
 
@@ -54,7 +66,7 @@ describe('due list grouped by kind', () => {
     expect(summary.counts).toEqual(all.counts)
     expect(summary.total).toBe(all.total)
     const expected = groupsFromItems(all)
-    expect(Object.fromEntries(all.groups.map(g => [g.kind, g.counts]))).toEqual(expected)
+    expect(Object.fromEntries(all.groups.map(g => [g.key, g.counts]))).toEqual(expected)
     expect(all.groups.reduce((n, g) => n + g.total, 0)).toBe(all.total)
     const ranks = all.groups.map(g => RANK.indexOf(g.worst))
     expect(ranks).toEqual([...ranks].sort((a, b) => a - b))
@@ -71,5 +83,21 @@ describe('due list grouped by kind', () => {
     expect(watering.groups.map(g => g.kind)).toEqual(['battery_watering'])
     expect(watering.groups[0]!.total).toBe(watering.total)
     expect(watering.groups[0]!.label).toMatch(/water/i)
+  })
+
+  it('each schedule a lead added is its own group under its title, and opens to its own obligations', async () => {
+    const all = await dueList(lead, { siteId, role: 'all', limit: 0 })
+    const custom = all.groups.filter(g => g.kind === 'custom')
+    expect(custom.map(g => [g.key, g.scheduleId, g.label, g.total]).sort()).toEqual([
+      [`custom:${schedules[0]!.id}`, schedules[0]!.id, 'Battery cable and plug inspection', 3],
+      [`custom:${schedules[1]!.id}`, schedules[1]!.id, 'Spill kit restock check', 1],
+    ].sort())
+    for (const g of all.groups.filter(x => x.kind !== 'custom')) expect([g.key, g.scheduleId]).toEqual([g.kind, null])
+    const opened = await dueList(lead, { siteId, role: 'all', kind: 'custom', schedule: schedules[0]!.id })
+    expect(opened.items.map(o => o.scheduleId)).toEqual([schedules[0]!.id, schedules[0]!.id, schedules[0]!.id])
+    expect(opened.groups.map(g => g.key)).toEqual([`custom:${schedules[0]!.id}`])
+    expect(opened.total).toBe(3)
+    const bad = await lead.get(`/api/due?siteId=${siteId}&schedule=not-a-schedule`)
+    expect([bad.status, bad.body.data?.fields?.schedule]).toEqual([400, 'No such schedule.'])
   })
 })

@@ -37,7 +37,7 @@ export function cachedDueListJson(event: H3Event, actor: Actor, siteId: string, 
 }
 
 export function dueOptionsFrom(query: DueQuery, scope: { roles: Role[] | null, personId: string }): DueOptions {
-  return { roles: scope.roles, personId: scope.personId, states: query.state ?? OPEN_STATES, kinds: query.kind ?? null, sort: query.sort, limit: query.limit }
+  return { roles: scope.roles, personId: scope.personId, states: query.state ?? OPEN_STATES, kinds: query.kind ?? null, scheduleId: query.schedule ?? null, sort: query.sort, limit: query.limit }
 }
 
 export const DUE_CSV_COLUMNS = ['state', 'dueOn', 'what', 'subject', 'tagCode', 'area', 'responsibleRole', 'lastDoneOn', 'detail'] as const

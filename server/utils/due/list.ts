@@ -25,6 +25,8 @@ export interface DueOptions {
   personId: string | null
   states: readonly ObligationState[]
   kinds: readonly DueKind[] | null
+  /** only the obligations of this lead-added schedule (one of the due page's groups) */
+  scheduleId?: string | null
   sort: DueQuery['sort']
   limit: number
 }
@@ -81,10 +83,11 @@ function shownRows(siteId: string, today: string, opts: DueOptions): SQL {
     : sql`(ob.responsible_role::text = ANY(${`{${opts.roles.join(',')}}`}::text[])
         ${opts.personId ? sql`OR (ob.person_id = ${opts.personId} AND ob.kind IN ('operator_evaluation', 'follow_up'))` : sql``})`
   const kinds = opts.kinds ? sql`AND ob.kind = ANY(${`{${opts.kinds.join(',')}}`}::text[])` : sql``
+  const schedule = opts.scheduleId ? sql`AND ob.schedule_id = ${opts.scheduleId}` : sql``
   return sql`
     WITH o AS (
       SELECT ob.*, ${obligationStateSql(today, 'ob')} AS state FROM obligations ob
-      WHERE ob.site_id = ${siteId} AND ${scope} ${kinds}
+      WHERE ob.site_id = ${siteId} AND ${scope} ${kinds} ${schedule}
     )
     SELECT o.*, o.state AS shown_state, o.due_on AS shown_due FROM o WHERE o.state = ANY(${`{${open.join(',')}}`}::text[])
     ${wantDone ? sql`UNION ALL SELECT o.*, 'done', o.last_done_on FROM o WHERE o.last_done_on >= ${today}::date - ${DONE_WINDOW_DAYS}::int` : sql``}`
@@ -99,7 +102,11 @@ export async function readDueList(db: SqlRunner, siteId: string, opts: DueOption
   const shown = shownRows(siteId, today, opts)
   const limit = Math.min(opts.limit, 1_000_000)
   const [counted, rows] = await Promise.all([
-    rowsOf<{ kind: DueKind, state: ObligationState, n: number }>(db, sql`SELECT kind, shown_state AS state, count(*)::int AS n FROM (${shown}) s GROUP BY 1, 2`),
+    // a built-in kind is one group; each lead-added schedule is a group of its own, under its title
+    rowsOf<GroupCount>(db, sql`
+      SELECT kind, CASE WHEN kind = 'custom' THEN schedule_id END AS "scheduleId", min(CASE WHEN kind = 'custom' THEN what END) AS title,
+        shown_state AS state, count(*)::int AS n
+      FROM (${shown}) s GROUP BY 1, 2, 4`),
     limit === 0
       ? []
       : rowsOf<Row>(db, sql`
@@ -130,16 +137,27 @@ export async function readDueList(db: SqlRunner, siteId: string, opts: DueOption
 
 const STATE_ORDER: ObligationState[] = ['overdue', 'due_soon', 'upcoming', 'done']
 
-/** Counts per kind and state as groups: the worst state first, then the most in it, then by name. */
-export function dueGroups(counted: readonly { kind: DueKind, state: ObligationState, n: number }[]): DueGroup[] {
-  const byKind = new Map<DueKind, DueGroup>()
+/** Obligations counted by kind, lead-added schedule (null for a built-in kind) and state. */
+export interface GroupCount { kind: DueKind, scheduleId?: string | null, title?: string | null, state: ObligationState, n: number }
+
+/**
+ * Counts as groups: one per built-in kind and one per lead-added schedule, named by its title; the worst
+ * state first, then the most in it, then by name.
+ */
+export function dueGroups(counted: readonly GroupCount[]): DueGroup[] {
+  const byKey = new Map<string, DueGroup>()
   for (const c of counted) {
-    const g = byKind.get(c.kind) ?? { kind: c.kind, label: DUE_KIND_LABELS[c.kind], counts: { overdue: 0, due_soon: 0, upcoming: 0, done: 0 }, worst: 'done', total: 0 }
+    const scheduleId = c.kind === 'custom' ? c.scheduleId ?? null : null
+    const key = scheduleId ? `custom:${scheduleId}` : c.kind
+    const g = byKey.get(key) ?? {
+      key, kind: c.kind, scheduleId, label: (scheduleId && c.title) || DUE_KIND_LABELS[c.kind],
+      counts: { overdue: 0, due_soon: 0, upcoming: 0, done: 0 }, worst: 'done', total: 0,
+    }
     g.counts[c.state] += Number(c.n)
     g.total += Number(c.n)
-    byKind.set(c.kind, g)
+    byKey.set(key, g)
   }
-  const groups = [...byKind.values()]
+  const groups = [...byKey.values()]
   for (const g of groups) g.worst = STATE_ORDER.find(st => g.counts[st] > 0) ?? 'done'
   const rank = (g: DueGroup) => STATE_ORDER.indexOf(g.worst)
   return groups.sort((a, b) => rank(a) - rank(b) || b.counts[b.worst] - a.counts[a.worst] || a.label.localeCompare(b.label))
