@@ -3,7 +3,7 @@ import { setup } from '@nuxt/test-utils/e2e'
 import { mkdirSync } from 'node:fs'
 import { eq } from 'drizzle-orm'
 import type { Browser } from 'playwright-core'
-import { builtServer } from '../support/http'
+import { builtServer, signIn } from '../support/http'
 import { battery, charger, closeTestDb, refreshReadModels, site, tables, user, useTestDb } from '../support/db'
 import { fittedTruck } from '../support/battery-room'
 import { DESKTOP, PHONE, launchChromium, signInAt } from '../support/chromium'
@@ -11,7 +11,7 @@ import { endedCharges, oldBattery } from '../support/due'
 
 await setup(builtServer)
 
-// The lead's due list as groups by kind (phone and desktop), and correcting an electrolyte check from a
+// The lead's due list as groups by kind (phone and desktop), a lead's own schedules as groups of their own, and correcting an electrolyte check from a
 // battery's history: the original struck through beside its correction, with why.
 let browser: Browser
 // the machine that runs these may be busy: wait for the page as long as a person would
@@ -57,6 +57,26 @@ describe('grouped due list and corrections in the browser', () => {
       await context.close()
     })
   }
+
+  it('each schedule a lead added is its own group under its title, and opens to its own rows (390 px)', async () => {
+    const api = await signIn(lead)
+    const ids: string[] = []
+    for (const title of ['Battery cable and plug inspection', 'Spill kit restock check']) {
+      const res = await api.post('/api/schedules/custom', { siteId, title, subjectKind: title.startsWith('Battery') ? 'battery' : 'site', every: 6, unit: 'month', dueSoonDays: 7, responsibleRole: 'facilities_lead', source: 'Common practice' })
+      expect(res.status, JSON.stringify(res.body)).toBe(201)
+      ids.push(res.body.item.id)
+    }
+    const { page, context } = await signInAt(browser, lead, '/due', PHONE)
+    const cables = page.locator(`[data-due-group="custom:${ids[0]}"]`)
+    await expect.poll(() => cables.count(), SLOW).toBe(1)
+    expect(await cables.textContent()).toMatch(/Battery cable and plug inspection.*6 upcoming/)
+    expect(await page.locator(`[data-due-group="custom:${ids[1]}"]`).textContent()).toMatch(/Spill kit restock check.*1 upcoming/)
+    await cables.getByRole('button').first().click()
+    const rows = cables.locator('[data-due-kind]:visible')
+    await expect.poll(() => rows.count(), SLOW).toBe(6)
+    for (const text of await rows.allTextContents()) expect(text).toMatch(/Battery cable and plug inspection/)
+    await context.close()
+  })
 
   it('a battery\'s history offers Correct this; the original is struck through beside the correction', async () => {
     const { page, context } = await signInAt(browser, lead, `/batteries/${batteryId}`, PHONE)
