@@ -2,17 +2,17 @@
 // with the read cache off (BAYWARD_MEMORY_SECONDS, 10 by default), with the requests a second, the p95 and the
 // server's peak resident memory (VmHWM) after each. For trying a memory setting against the build it runs
 // (BAYWARD_BUILD_NAME; BAYWARD_HEAP_GROWING_PERCENT or BAYWARD_BENCH_NODE_ARGS): run two settings in turn.
-import { readFileSync } from 'node:fs'
 import { fileURLToPath } from 'node:url'
 import { drive } from './load'
-import { startServer } from './server'
+import { memorySampler, startServer } from './server'
 import { BENCH, benchDatabaseUrl, benchId } from './shape'
 
 const root = fileURLToPath(new URL('../..', import.meta.url))
 const outputDir = process.env.BAYWARD_BUILD_NAME ? `.output-${process.env.BAYWARD_BUILD_NAME}` : '.output'
 const seconds = Number(process.env.BAYWARD_MEMORY_SECONDS ?? 10)
 const server = await startServer(root, outputDir, benchDatabaseUrl(), { BAYWARD_READ_CACHE: 'false' })
-const peakMb = () => Number(/VmHWM:\s+(\d+)/.exec(readFileSync(`/proc/${server.pid}/status`, 'utf8'))?.[1] ?? 0) / 1024
+// VmHWM is the process's peak since it started, so a sampler's reading after each route is the peak so far
+const peakMb = () => memorySampler(server.pid).stop().hwmMb
 try {
   const lead = await server.signIn(BENCH.leadEmail)
   const site1 = benchId('site:1')
