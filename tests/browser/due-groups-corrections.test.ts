@@ -75,6 +75,13 @@ describe('grouped due list and corrections in the browser', () => {
     const rows = cables.locator('[data-due-kind]:visible')
     await expect.poll(() => rows.count(), SLOW).toBe(6)
     for (const text of await rows.allTextContents()) expect(text).toMatch(/Battery cable and plug inspection/)
+    // the Task filter offers each by its title; picking one leaves its group alone on the page
+    const task = page.getByTestId('due-filter-kind')
+    expect(await task.locator('optgroup option').allTextContents()).toEqual(['Every schedule a lead added', 'Battery cable and plug inspection', 'Spill kit restock check'])
+    await task.selectOption(`custom:${ids[1]}`)
+    await expect.poll(() => page.locator('[data-due-group]').evaluateAll(els => els.map(e => e.getAttribute('data-due-group'))), SLOW).toEqual([`custom:${ids[1]}`])
+    expect(await task.inputValue()).toBe(`custom:${ids[1]}`)
+    expect(await page.getByRole('link', { name: 'Export CSV' }).getAttribute('href')).toContain(`schedule=${ids[1]}`)
     await context.close()
   })
 

@@ -97,6 +97,9 @@ describe('due list grouped by kind', () => {
     expect(opened.items.map(o => o.scheduleId)).toEqual([schedules[0]!.id, schedules[0]!.id, schedules[0]!.id])
     expect(opened.groups.map(g => g.key)).toEqual([`custom:${schedules[0]!.id}`])
     expect(opened.total).toBe(3)
+    // the Task filter's list: the site's schedules a lead added, by title, whatever the filter
+    expect(all.schedules).toEqual([...schedules].sort((a, b) => a.title.localeCompare(b.title)))
+    expect(opened.schedules).toEqual(all.schedules)
     const bad = await lead.get(`/api/due?siteId=${siteId}&schedule=not-a-schedule`)
     expect([bad.status, bad.body.data?.fields?.schedule]).toEqual([400, 'No such schedule.'])
   })

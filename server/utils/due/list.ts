@@ -96,8 +96,14 @@ function shownRows(siteId: string, today: string, opts: DueOptions): SQL {
 // The due list of one site: the page in the asked order, the counts by state, the site.
 export async function readDueList(db: SqlRunner, siteId: string, opts: DueOptions, now = new Date()): Promise<DueList> {
   const started = Date.now()
-  const [site] = await rowsOf<{ id: string, name: string, timeZone: string }>(db, sql`SELECT id, name, time_zone AS "timeZone" FROM sites WHERE id = ${siteId}`)
-  if (!site) throw codedError(404, 'no_such_site', 'No such site.')
+  // the site, and the schedules its leads added (the Task filter offers each by its title)
+  const [row] = await rowsOf<{ id: string, name: string, timeZone: string, schedules: DueListReply['schedules'] }>(db, sql`
+    SELECT s.id, s.name, s.time_zone AS "timeZone",
+      (SELECT coalesce(json_agg(json_build_object('id', c.id, 'title', c.title) ORDER BY c.title, c.id), '[]'::json)
+        FROM schedules c WHERE c.site_id = s.id AND c.kind = 'custom' AND c.active) AS schedules
+    FROM sites s WHERE s.id = ${siteId}`)
+  if (!row) throw codedError(404, 'no_such_site', 'No such site.')
+  const { schedules, ...site } = row
   const today = localDate(now, site.timeZone)
   const shown = shownRows(siteId, today, opts)
   const limit = Math.min(opts.limit, 1_000_000)
@@ -130,6 +136,7 @@ export async function readDueList(db: SqlRunner, siteId: string, opts: DueOption
     items: rows.map(toObligation),
     counts,
     groups: dueGroups(counted),
+    schedules,
     total: counts.overdue + counts.due_soon + counts.upcoming + counts.done,
     meta: { queries: limit === 0 ? 2 : 3, ms: Date.now() - started },
   }
