@@ -72,8 +72,9 @@ export function chartOption(chart: ChartData, width: number) {
     legend: { show: chart.series.length > 1, top: chart.note ? 20 : 0, textStyle: { fontSize: 13 } },
     xAxis: { type: 'category', data: chart.categories, axisLabel: { hideOverlap: true, rotate: chart.categories.length > 6 ? 45 : 0, fontSize: 13 } },
     yAxis: [
-      { type: 'value', name: chart.unit, minInterval: wholeLeft ? 1 : undefined, splitLine: { lineStyle: { color: '#e2e8f0' } } },
-      ...(twoAxes ? [{ type: 'value', name: chart.secondUnit ?? '', splitLine: { show: false } }] : []),
+      // an axis's name starts at its axis and runs inwards, so a long one ("batteries") is not cut at the edge
+      { type: 'value', name: chart.unit, nameTextStyle: { align: 'left' }, minInterval: wholeLeft ? 1 : undefined, splitLine: { lineStyle: { color: '#e2e8f0' } } },
+      ...(twoAxes ? [{ type: 'value', name: chart.secondUnit ?? '', nameTextStyle: { align: 'right' }, splitLine: { show: false } }] : []),
     ],
     series: chart.series.map(s => ({
       name: s.name,
