@@ -20,6 +20,13 @@ export function useDueWords() {
       const params = Object.fromEntries(Object.entries(w.params ?? {}).map(([k, v]) => [k, typeof v === 'number' ? number(v, 1) : /^\d{4}-\d{2}-\d{2}$/.test(v) ? day(v) : v]))
       return typeof w.params?.n === 'number' ? t(`due.detail.${w.code}`, params, w.params.n) : t(`due.detail.${w.code}`, params)
     },
+    /** the subject's name; an area log's day ("North charge room · 2026-11-30") in the reader's date words */
+    subject: (item: Pick<DueItem, 'subject'>): string => {
+      const { label, periodStart } = item.subject
+      return item.subject.kind === 'log' && periodStart && label.endsWith(` · ${periodStart}`)
+        ? `${label.slice(0, -periodStart.length)}${day(periodStart)}`
+        : label
+    },
     actionLabel: (item: Pick<DueItem, 'kind' | 'action'>) => (te(`due.action.${item.kind}`) ? t(`due.action.${item.kind}`) : item.action.label),
     when: (item: Pick<DueItem, 'dueOn' | 'state' | 'remaining'>, today: string): string => {
       const on = item.dueOn ? day(item.dueOn) : ''

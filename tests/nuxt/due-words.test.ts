@@ -1,0 +1,31 @@
+import { describe, expect, it } from 'vitest'
+import { mountSuspended } from '@nuxt/test-utils/runtime'
+import { createPinia, setActivePinia } from 'pinia'
+import { useDueWords } from '../../app/composables/useDueWords'
+import DueFilters from '../../app/components/due/DueFilters.vue'
+
+// The due list's words: an area log's day in the reader's date words, and the Task filter offering each
+// schedule a lead added by its title.
+const log = (label: string, periodStart: string | null) => ({ subject: { kind: 'log' as const, id: 'l1', label, tagCode: null, areaId: 'a1', periodStart } })
+
+describe('due words', () => {
+  it('an area log reads its day as a date, not as ISO; other subjects keep their name', () => {
+    const words = useDueWords()
+    expect(words.subject(log('North charge room · 2026-11-30', '2026-11-30'))).toBe('North charge room · Nov 30, 2026')
+    expect(words.subject(log('North charge room', null))).toBe('North charge room')
+    expect(words.subject({ subject: { kind: 'battery', id: 'b1', label: 'QB24M-1175 · 2026-11-30', tagCode: 'B-00025', areaId: null, periodStart: '2026-11-30' } })).toBe('QB24M-1175 · 2026-11-30')
+  })
+
+  it('the Task filter lists each lead-added schedule by its title and sets kind and schedule together', async () => {
+    setActivePinia(createPinia())
+    const schedules = [{ id: '7b0c6a3e-5a0b-4c41-9a57-1d1f0f4b2c11', title: 'Battery cable and plug inspection' }, { id: '9d2e4f10-1a2b-4c3d-8e9f-0a1b2c3d4e5f', title: 'Spill kit restock check' }]
+    const picked: unknown[] = []
+    const wrapper = await mountSuspended(DueFilters, { props: { 'modelValue': { kind: undefined }, schedules, 'onUpdate:modelValue': (v: unknown) => picked.push(v) } })
+    const select = wrapper.find('[data-testid="due-filter-kind"]')
+    expect(select.findAll('optgroup option').map(o => o.text())).toEqual(['Every schedule a lead added', ...schedules.map(s => s.title)])
+    await select.setValue(`custom:${schedules[1]!.id}`)
+    expect(picked.at(-1)).toMatchObject({ kind: 'custom', schedule: schedules[1]!.id })
+    await select.setValue('battery_watering')
+    expect(picked.at(-1)).toMatchObject({ kind: 'battery_watering', schedule: undefined })
+  })
+})
