@@ -237,3 +237,9 @@ export function formatCell(value: unknown, col: Pick<ColumnView, 'unit' | 'optio
   if (typeof value === 'number') return value.toLocaleString('en-US', { maximumFractionDigits: 1 })
   return String(value)
 }
+
+/** A page's name inside a sentence ("Search batteries…"): its first letter lowered, unless its first word is an acronym ("LP cylinders", "GLP"). */
+export function inSentence(name: string): string {
+  const first = name.split(/\s/, 1)[0] ?? ''
+  return first.length > 1 && first === first.toLocaleUpperCase() ? name : name.charAt(0).toLocaleLowerCase() + name.slice(1)
+}

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { ASSET_VIEWS, formatCardCell, formatCell } from '../../app/utils/asset-views'
+import { ASSET_VIEWS, formatCardCell, formatCell, inSentence } from '../../app/utils/asset-views'
 
 // On a phone an asset is a card whose second line is three values with no column head above them, so a number
 // in a fixed unit carries the unit's symbol (SI: V, A, h; Ah as the trade writes a battery's capacity).
@@ -24,5 +24,12 @@ describe('asset cards', () => {
   it('the desktop table keeps the bare number under its head', () => {
     const volts = ASSET_VIEWS.battery.columns.find(c => c.key === 'voltage')!
     expect(formatCell(24, volts, 'us')).toBe('24')
+  })
+
+  it('a page name inside a sentence loses its capital, an acronym keeps its capitals', () => {
+    expect(inSentence('Batteries')).toBe('batteries')
+    expect(inSentence('LP cylinders')).toBe('LP cylinders')
+    expect(inSentence('Cilindros de gas LP')).toBe('cilindros de gas LP')
+    expect(inSentence('Áreas')).toBe('áreas')
   })
 })
