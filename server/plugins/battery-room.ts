@@ -35,6 +35,7 @@ export default defineNitroPlugin(() => {
       state: s.state,
       label: `${s.label}${where}${cooling}`,
       tone: STATE_TONES[s.state],
+      params: stateParams(s.state, facts.truckFleetNumber, facts.chargerName, s.coolingMinutesLeft),
       flags: s.flagList.map(f => ({ key: f.key, label: f.label, tone: FLAG_TONES[f.key] ?? 'caution' })),
     }
   })
@@ -120,3 +121,11 @@ export default defineNitroPlugin(() => {
     })
   })
 })
+
+/** where a battery is, as values for the reader's words: its truck, its charger, or minutes of cooling left */
+function stateParams(state: string, truck: string | null, charger: string | null, minutesLeft: number) {
+  if (state === 'in_truck' && truck) return { truck }
+  if (state === 'on_charge' && charger) return { charger }
+  if (state === 'cooling') return { minutesLeft }
+  return undefined
+}

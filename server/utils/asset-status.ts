@@ -8,6 +8,8 @@ export interface AssetStatus {
   /** the state in words, as product.md names it (e.g. "Ready", "Out of service") */
   label: string
   tone: StatusTone
+  /** the state's particulars for the reader's words: the truck a battery is in, the charger it is on, minutes of cooling left */
+  params?: { truck?: string, charger?: string, minutesLeft?: number }
   /** further flags in words, e.g. "Watering due" (with `params` for the reader's words, e.g. a time) */
   flags: { key: string, label: string, tone: StatusTone, params?: Record<string, string | number> }[]
   /** what is due on the asset, soonest first (from its obligations; a count rule may have no date) */

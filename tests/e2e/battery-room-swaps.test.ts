@@ -58,6 +58,8 @@ describe('battery swaps', () => {
     const tag = await operator.get(`/api/tags/${code}`)
     expect(tag.body.status).toMatchObject({ state: 'in_truck', tone: 'neutral' })
     expect(tag.body.status.label).toContain(t.fleetNumber)
+    // the truck as a value of its own, for the page to say in the reader's words
+    expect(tag.body.status.params).toEqual({ truck: t.fleetNumber })
     const outTag = await operator.get(`/api/tags/${await tagFor('battery', out.id, siteId)}`)
     expect(outTag.body.status).toMatchObject({ state: 'needs_charge', label: 'Needs charge' })
     const history = await operator.get(`/api/history/battery/${fresh.id}`)
