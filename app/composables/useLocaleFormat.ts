@@ -5,19 +5,24 @@ import { keptDateFormat, keptNumberFormat } from '#shared/utils/intl-formats'
 // regional tag: the bare 'es' would write 1850 without its comma and a 24-hour clock.
 // The formatters are made once per tag and options and kept (shared/utils/intl-formats.ts).
 
+// Moments (a time, a date and time) read on the clock of the site being worked on, so a lead away from it, and the
+// server drawing the page first, say the same "shift began 2:00 PM" as the floor; a calendar day (`day`) has no zone.
+
 export function useLocaleFormat() {
   const { locale } = useNuxtApp().$i18n
   const tag = () => LANGUAGE_TAGS[isLanguage(locale.value) ? locale.value : 'en']
+  const session = useSessionStore()
+  const zone = (): { timeZone?: string } => (session.currentSite?.timeZone ? { timeZone: session.currentSite.timeZone } : {})
   return {
     /** the BCP 47 tag of the reader's language (en-US, es-US) */
     tag,
     number: (value: number, maximumFractionDigits = 2) => keptNumberFormat(tag(), { maximumFractionDigits }).format(value),
     money: (value: number, currency: string) => keptNumberFormat(tag(), { style: 'currency', currency }).format(value),
-    dateTime: (at: string | Date) => keptDateFormat(tag(), { dateStyle: 'medium', timeStyle: 'short' }).format(new Date(at)),
+    dateTime: (at: string | Date) => keptDateFormat(tag(), { dateStyle: 'medium', timeStyle: 'short', ...zone() }).format(new Date(at)),
     /** the clock time alone (3:05 PM / 3:05 p.m.) */
-    time: (at: string | Date) => keptDateFormat(tag(), { hour: 'numeric', minute: '2-digit' }).format(new Date(at)),
+    time: (at: string | Date) => keptDateFormat(tag(), { hour: 'numeric', minute: '2-digit', ...zone() }).format(new Date(at)),
     /** the date alone, medium (Dec 3, 2026 / 3 dic 2026) */
-    date: (at: string | Date) => keptDateFormat(tag(), { dateStyle: 'medium' }).format(new Date(at)),
+    date: (at: string | Date) => keptDateFormat(tag(), { dateStyle: 'medium', ...zone() }).format(new Date(at)),
     /** a calendar day ('2026-12-03') as `date` writes it, read at its noon so no time zone moves it to the day before */
     day: (isoDay: string) => keptDateFormat(tag(), { dateStyle: 'medium' }).format(new Date(`${isoDay}T12:00:00`)),
   }

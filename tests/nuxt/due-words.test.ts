@@ -2,6 +2,8 @@ import { describe, expect, it } from 'vitest'
 import { mountSuspended } from '@nuxt/test-utils/runtime'
 import { createPinia, setActivePinia } from 'pinia'
 import { useDueWords } from '../../app/composables/useDueWords'
+import { useLocaleFormat } from '../../app/composables/useLocaleFormat'
+import { useSessionStore } from '../../app/stores/session'
 import DueFilters from '../../app/components/due/DueFilters.vue'
 
 // The due list's words: an area log's day in the reader's date words, and the Task filter offering each
@@ -27,5 +29,16 @@ describe('due words', () => {
     expect(picked.at(-1)).toMatchObject({ kind: 'custom', schedule: schedules[1]!.id })
     await select.setValue('battery_watering')
     expect(picked.at(-1)).toMatchObject({ kind: 'battery_watering', schedule: undefined })
+  })
+
+  it('a moment reads on the site\'s clock whatever the reader\'s own zone; a calendar day stays the day it names', () => {
+    setActivePinia(createPinia())
+    const session = useSessionStore()
+    session.me = { user: { id: 'u1', email: 'lead@example.test', name: 'Lee Lead' }, memberships: [{ siteId: 's1', siteName: 'North Yard', roles: ['facilities_lead'] }], sites: [{ id: 's1', name: 'North Yard', timeZone: 'America/Chicago', unitSystem: 'us' }] }
+    const { time, dateTime, day } = useLocaleFormat()
+    // 20:00 UTC is 2:00 PM in Chicago on 4 December (CST, UTC-6; the IANA tz database via the runtime's Intl)
+    expect(time('2026-12-04T20:00:00Z')).toBe('2:00 PM')
+    expect(dateTime('2026-12-05T03:30:00Z')).toBe('Dec 4, 2026, 9:30 PM')
+    expect(day('2026-12-04')).toBe('Dec 4, 2026')
   })
 })
