@@ -60,7 +60,7 @@ describe('battery room on the floor', () => {
     expect((await storedBattery(fresh.id)).currentTruckId).toBe(t.id)
     // its tag page says which truck it is in; the identity line does not repeat the heading
     await page.goto(url(`/t/${inCode}`))
-    await expect.poll(() => page.getByTestId('asset-state').innerText()).toBe(`In truck · truck ${t.fleetNumber}`)
+    await expect.poll(() => page.getByTestId('asset-state').innerText()).toBe(`In truck ${t.fleetNumber}`)
     const heading = await page.getByRole('heading', { level: 1 }).innerText()
     expect(await page.locator('header p.mt-1').innerText()).not.toContain(heading)
     await page.context().close()
