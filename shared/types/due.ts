@@ -45,7 +45,7 @@ export interface DueListReply {
   counts: Record<ObligationState, number>
   /** every obligation of the filter grouped by kind (not only the page's), worst state first */
   groups: DueGroup[]
-  /** the site's active schedules a lead added, by title (the Task filter offers each) */
+  /** the site's active schedules a lead added whose responsible role the list covers, by title (the Task filter offers each) */
   schedules: { id: string, title: string }[]
   total: number
   meta: { queries: number, ms: number }

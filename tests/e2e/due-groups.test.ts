@@ -100,6 +100,11 @@ describe('due list grouped by kind', () => {
     // the Task filter's list: the site's schedules a lead added, by title, whatever the filter
     expect(all.schedules).toEqual([...schedules].sort((a, b) => a.title.localeCompare(b.title)))
     expect(opened.schedules).toEqual(all.schedules)
+    // only the schedules the list's roles answer for: both are the facilities lead's
+    expect((await dueList(lead, { siteId, role: 'facilities_lead', limit: 0 })).schedules).toEqual(all.schedules)
+    expect((await dueList(lead, { siteId, role: 'technician', limit: 0 })).schedules).toEqual([])
+    const tech = await person(siteId, ['technician'])
+    expect((await dueList(tech.client, { siteId, limit: 0 })).schedules).toEqual([])
     const bad = await lead.get(`/api/due?siteId=${siteId}&schedule=not-a-schedule`)
     expect([bad.status, bad.body.data?.fields?.schedule]).toEqual([400, 'No such schedule.'])
   })

@@ -96,11 +96,12 @@ function shownRows(siteId: string, today: string, opts: DueOptions): SQL {
 // The due list of one site: the page in the asked order, the counts by state, the site.
 export async function readDueList(db: SqlRunner, siteId: string, opts: DueOptions, now = new Date()): Promise<DueList> {
   const started = Date.now()
-  // the site, and the schedules its leads added (the Task filter offers each by its title)
+  // the site, and the schedules its leads added that the list's roles answer for (the Task filter offers each by its title)
+  const forRoles = opts.roles === null ? sql`` : sql`AND c.responsible_role::text = ANY(${`{${opts.roles.join(',')}}`}::text[])`
   const [row] = await rowsOf<{ id: string, name: string, timeZone: string, schedules: DueListReply['schedules'] }>(db, sql`
     SELECT s.id, s.name, s.time_zone AS "timeZone",
       (SELECT coalesce(json_agg(json_build_object('id', c.id, 'title', c.title) ORDER BY c.title, c.id), '[]'::json)
-        FROM schedules c WHERE c.site_id = s.id AND c.kind = 'custom' AND c.active) AS schedules
+        FROM schedules c WHERE c.site_id = s.id AND c.kind = 'custom' AND c.active ${forRoles}) AS schedules
     FROM sites s WHERE s.id = ${siteId}`)
   if (!row) throw codedError(404, 'no_such_site', 'No such site.')
   const { schedules, ...site } = row
