@@ -2,6 +2,7 @@ import type { FitReason } from '../utils/battery-fit'
 import type { AuthorisationReason } from '../utils/truck-authorisation'
 import type { BatteryState } from '../utils/battery-state'
 import type { EmissionsPolicy } from '../utils/emissions'
+import type { TruckCheckState } from './inspection'
 
 // What the floor routes answer, written once: the route declares it as its return type and the floor
 // forms read it. Only the fields the forms use are named; the routes may send more.
@@ -55,6 +56,17 @@ export interface BoardCardData {
 }
 
 /** GET /api/battery-room/lookup: a scanned or typed code with what the swap, charge and check forms need. */
+/** GET /api/battery-room/board: the batteries of an area (or the site) by state and, for a truck, the battery to take */
+export interface BoardReply {
+  now: string
+  areaId: string | null
+  areas: { id: string, name: string }[]
+  policy: { coolDownMinutes: number, cellSpreadThreshold: number }
+  batteries: BoardCardData[]
+  trucks: { id: string, fleetNumber: string, systemVoltage: number | null, outOfService: boolean, batteryId: string | null, inspection: TruckCheckState | null }[]
+  suggestion: { truckId: string, choice: string | null, ranked: string[], compatibleNotReady: number } | null
+}
+
 export interface FloorLookup {
   kind: 'battery' | 'truck' | 'charger'
   id: string

@@ -50,8 +50,11 @@ describe('battery room on the floor', () => {
     await page.keyboard.press('Enter')
     await page.getByLabel('3 · Battery going in').waitFor()
     await expect.poll(() => page.evaluate(() => document.activeElement?.closest('label')?.textContent ?? '')).toContain('Battery going in')
-    await page.keyboard.type(inCode!)
-    await page.keyboard.press('Enter')
+    // the form names the battery the Bay board would hand out for this truck; one tap puts it in the field
+    const suggestion = page.getByTestId('swap-suggestion')
+    await expect.poll(() => suggestion.innerText()).toContain(`The Bay board suggests ${fresh.serial}`)
+    await suggestion.getByRole('button', { name: `Use ${inCode}` }).click()
+    await expect.poll(() => suggestion.count()).toBe(0)
     await expect.poll(() => page.evaluate(() => document.activeElement?.closest('label')?.textContent ?? '')).toContain('Hour meter')
     await page.keyboard.type('1234.5')
     await page.screenshot({ path: 'screenshots/battery-room-swap-phone.png', fullPage: true })

@@ -1,8 +1,7 @@
 import type { z } from 'zod'
 import { batteryTruckFit, isIssuableBattery, rankBatteriesForTruck } from '#shared/utils/battery-fit'
 import type { boardQuerySchema } from '#shared/utils/battery-room-schemas'
-import type { BoardCardData } from '#shared/types/floor'
-import type { TruckCheckState } from '#shared/types/inspection'
+import type { BoardReply as BoardAnswer } from '#shared/types/floor'
 import { shiftStartedAt } from '#shared/utils/shift-times'
 import { boardCard, boardCardsJson } from './board-cards'
 import { truckCheckState } from '../inspection/shift'
@@ -73,14 +72,4 @@ export async function computeBoard(actor: Actor, query: BoardQuery): Promise<Boa
     compatibleNotReady: ranked.filter(r => r.fitReasons.length === 0 && !r.ready).length,
   }
   return { ...head, batteries: cardsAt.map(boardCard), trucks: truckList, suggestion }
-}
-
-export interface BoardAnswer {
-  now: string
-  areaId: string | null
-  areas: { id: string, name: string }[]
-  policy: { coolDownMinutes: number, cellSpreadThreshold: number }
-  batteries: BoardCardData[]
-  trucks: { id: string, fleetNumber: string, systemVoltage: number | null, outOfService: boolean, batteryId: string | null, inspection: TruckCheckState | null }[]
-  suggestion: { truckId: string, choice: string | null, ranked: string[], compatibleNotReady: number } | null
 }
