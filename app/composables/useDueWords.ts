@@ -7,6 +7,7 @@ import type { DueItem } from '~/stores/due'
 export function useDueWords() {
   const { t, te } = useNuxtApp().$i18n
   const { number, day } = useLocaleFormat()
+  const followUp = useFollowUpWords()
   const kindLabel = (kind: DueKind | string, fallback: string) => (kind !== 'custom' && te(`due.kind.${kind}`) ? t(`due.kind.${kind}`) : fallback)
   return {
     stateLabel: (state: ObligationState) => t(`due.state.${state}`),
@@ -20,9 +21,10 @@ export function useDueWords() {
       const params = Object.fromEntries(Object.entries(w.params ?? {}).map(([k, v]) => [k, typeof v === 'number' ? number(v, 1) : /^\d{4}-\d{2}-\d{2}$/.test(v) ? day(v) : v]))
       return typeof w.params?.n === 'number' ? t(`due.detail.${w.code}`, params, w.params.n) : t(`due.detail.${w.code}`, params)
     },
-    /** the subject's name; an area log's day ("North charge room · 2026-11-30") in the reader's date words */
+    /** the subject's name; an area log's day ("North charge room · 2026-11-30") in the reader's date words, a follow-up's title in the reader's words */
     subject: (item: Pick<DueItem, 'subject'>): string => {
-      const { label, periodStart } = item.subject
+      const { label, periodStart, labelWords } = item.subject
+      if (item.subject.kind === 'follow_up' && labelWords) return followUp.title({ title: label, titleWords: labelWords })
       return item.subject.kind === 'log' && periodStart && label.endsWith(` · ${periodStart}`)
         ? `${label.slice(0, -periodStart.length)}${day(periodStart)}`
         : label

@@ -17,7 +17,7 @@ export function writeAreaLogs(ctx: SeedContext) {
   const weekStart = clock.weekStart()
   const failedOn = clock.dateDaysAgo(2)
   const oldFailOn = clock.dateDaysAgo(16)
-  let failedEntryId: string | null = null
+  let failed: { entryId: string, area: string, item: string } | null = null
 
   for (const site of [ctx.sites.mb, ctx.sites.fx]) {
     const templates = {
@@ -48,29 +48,31 @@ export function writeAreaLogs(ctx: SeedContext) {
           if (failEyewash && item.key === 'eyewash_flushed_reachable') {
             result = 'fail'
             note = 'Weak flow from the left nozzle when flushed. Portable eyewash placed beside the station; plumber called.'
-            failedEntryId = id
+            failed = { entryId: id, area: area.name, item: item.label }
           }
           if (failExtinguisher && item.key === 'extinguisher_present_charged') {
             result = 'fail'
             note = 'Gauge needle in the red. Swapped for the spare from the dock office.'
-            writeFollowUp(ctx, site, id, 'Yard fuel cage extinguisher gauge in the red', periodStart, addMinutes(at, 240), 'Recharged unit back on its bracket; spare returned to the dock office.')
+            writeFollowUp(ctx, site, { entryId: id, area: area.name, item: item.label }, periodStart, addMinutes(at, 240), 'Recharged unit back on its bracket; spare returned to the dock office.')
           }
           rows.areaLogEntries.push({ id, siteId: site.id, userId: site.people.technician, at, recordedAt: new Date(at.getTime() + rand.int(2, 20) * 1000), logId, itemKey: item.key, result, note })
         }
       }
     }
   }
-  if (failedEntryId) writeFollowUp(ctx, ctx.sites.mb, failedEntryId, 'North charge room eyewash: weak flow on the daily check', failedOn, null, null)
+  if (failed) writeFollowUp(ctx, ctx.sites.mb, failed, failedOn, null, null)
 }
 
-function writeFollowUp(ctx: SeedContext, site: SiteContext, entryId: string, title: string, failedOn: string, closedAt: Date | null, closingNote: string | null) {
+// as a failed checklist item opens one: the English title, and its codes for the reader's words
+function writeFollowUp(ctx: SeedContext, site: SiteContext, failed: { entryId: string, area: string, item: string }, failedOn: string, closedAt: Date | null, closingNote: string | null) {
   const openedAt = ctx.clock.at(failedOn, 7, 30)
   ctx.rows.followUps.push({
     id: ctx.newId(),
     siteId: site.id,
     source: 'checklist',
-    sourceId: entryId,
-    title,
+    sourceId: failed.entryId,
+    title: `${failed.area}: ${failed.item} — failed on ${failedOn}`,
+    titleWords: { code: 'checklist', params: { area: failed.area, item: failed.item, date: failedOn } },
     ownerUserId: site.people.safety,
     openedOn: failedOn,
     closedAt,

@@ -27,7 +27,10 @@ export function writeInspections(ctx: SeedContext, trucks: TruckRow[]) {
         hourMeter: null, answers, criticalFailed: critical.map(i => i.label), failedCount: Object.keys(fail).length,
       })
       if (Object.keys(fail).length) {
-        rows.followUps.push({ siteId: site.id, source: 'truck_inspection', sourceId: id, title: `Truck ${t.fleetNumber}: ${Object.keys(fail).map(k => DEFAULT_INSPECTION_ITEMS[power].find(i => i.key === k)!.label).join('; ')} — failed pre-shift check on ${clock.dateOf(at)}`, openedOn: clock.dateOf(at) })
+        // as a failed check opens it: the English title, and its codes for the reader's words
+        const items = Object.keys(fail).map(k => DEFAULT_INSPECTION_ITEMS[power].find(i => i.key === k)!.label).join('; ')
+        const date = clock.dateOf(at)
+        rows.followUps.push({ siteId: site.id, source: 'truck_inspection', sourceId: id, title: `Truck ${t.fleetNumber}: ${items} — failed pre-shift check on ${date}`, openedOn: date, titleWords: { code: 'preshift', params: { truck: t.fleetNumber!, items, date } } })
       }
     })
   }

@@ -155,6 +155,8 @@ export interface DueSubject {
   areaId?: string | null
   /** a log's period start, for log_review */
   periodStart?: string | null
+  /** a follow-up's title as codes, for the reader's words (its label is the title as stored, in English) */
+  labelWords?: { code: string, params: Record<string, string> } | null
 }
 
 // Where one tap goes to record the work that closes an obligation.

@@ -148,8 +148,14 @@ describe('pre-shift truck inspection', () => {
     const res = await inspect(operator, t.id, { answers: answers('electric', { lights: 'Left headlight out' }) })
     expect(res.status).toBe(201)
     expect(res.body.item).toMatchObject({ criticalFailed: [], failedCount: 1 })
-    expect(await followUpsOf(res.body.item.id)).toHaveLength(1)
+    const [followUp] = await followUpsOf(res.body.item.id)
+    expect(followUp).toBeDefined()
     expect((await truckStatusOf(t.id)).holdReason).toBeNull()
+    // the due list names it by its stored title and carries the codes the reader's words are made from
+    const due = await safety.get(`/api/due?siteId=${siteId}&kind=follow_up&limit=1000`)
+    expect(due.status).toBe(200)
+    const item = due.body.items.find((i: { subject: { id: string } }) => i.subject.id === followUp!.id)
+    expect(item.subject).toMatchObject({ kind: 'follow_up', label: followUp!.title, labelWords: { code: 'preshift', params: { truck: t.fleetNumber, items: 'Headlights and warning lights work', date: followUp!.openedOn } } })
     expect((await swapOnto(t.id)).status).toBe(201)
   })
 

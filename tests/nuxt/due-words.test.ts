@@ -18,6 +18,22 @@ describe('due words', () => {
     expect(words.subject({ subject: { kind: 'battery', id: 'b1', label: 'QB24M-1175 · 2026-11-30', tagCode: 'B-00025', areaId: null, periodStart: '2026-11-30' } })).toBe('QB24M-1175 · 2026-11-30')
   })
 
+  it('a follow-up reads its title in the reader\'s words when it came with codes, its day as a date', async () => {
+    const words = useDueWords()
+    const followUp = (labelWords: { code: string, params: Record<string, string> } | null) => ({ subject: { kind: 'follow_up' as const, id: 'f1', label: 'Truck MB-01: Service brake stops the truck smoothly — failed pre-shift check on 2026-12-03', tagCode: null, labelWords } })
+    const coded = followUp({ code: 'preshift', params: { truck: 'MB-01', items: 'Service brake stops the truck smoothly', date: '2026-12-03' } })
+    expect(words.subject(coded)).toBe('Truck MB-01: Service brake stops the truck smoothly — failed pre-shift check on Dec 3, 2026')
+    expect(words.subject(followUp(null))).toBe(coded.subject.label)
+    const { $i18n } = useNuxtApp()
+    try {
+      await $i18n.setLocale('es')
+      expect(useDueWords().subject(coded)).toBe('Montacargas MB-01: El freno de servicio detiene el montacargas sin jalones — falló la inspección antes del turno el 3 dic 2026')
+    }
+    finally {
+      await $i18n.setLocale('en')
+    }
+  })
+
   it('the Task filter lists each lead-added schedule by its title and sets kind and schedule together', async () => {
     setActivePinia(createPinia())
     const schedules = [{ id: '7b0c6a3e-5a0b-4c41-9a57-1d1f0f4b2c11', title: 'Battery cable and plug inspection' }, { id: '9d2e4f10-1a2b-4c3d-8e9f-0a1b2c3d4e5f', title: 'Spill kit restock check' }]
