@@ -1,5 +1,6 @@
 import { LANGUAGE_TAGS, isLanguage } from '#shared/utils/languages'
 import { keptDateFormat, keptNumberFormat } from '#shared/utils/intl-formats'
+import { localDate } from '#shared/utils/due-dates'
 
 // Numbers, money and dates as the reader's language writes them on a US floor (en-US, es-US). Intl with the
 // regional tag: the bare 'es' would write 1850 without its comma and a 24-hour clock.
@@ -25,5 +26,8 @@ export function useLocaleFormat() {
     date: (at: string | Date) => keptDateFormat(tag(), { dateStyle: 'medium', ...zone() }).format(new Date(at)),
     /** a calendar day ('2026-12-03') as `date` writes it, read at its noon so no time zone moves it to the day before */
     day: (isoDay: string) => keptDateFormat(tag(), { dateStyle: 'medium' }).format(new Date(`${isoDay}T12:00:00`)),
+    /** today's calendar day at the site being worked on ('2026-12-04'), the device's own day without a site; not UTC's,
+     * which is already tomorrow on a US evening shift */
+    today: (at = new Date()) => localDate(at, session.currentSite?.timeZone ?? Intl.DateTimeFormat().resolvedOptions().timeZone),
   }
 }

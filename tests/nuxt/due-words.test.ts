@@ -51,10 +51,13 @@ describe('due words', () => {
     setActivePinia(createPinia())
     const session = useSessionStore()
     session.me = { user: { id: 'u1', email: 'lead@example.test', name: 'Lee Lead' }, memberships: [{ siteId: 's1', siteName: 'North Yard', roles: ['facilities_lead'] }], sites: [{ id: 's1', name: 'North Yard', timeZone: 'America/Chicago', unitSystem: 'us' }] }
-    const { time, dateTime, day } = useLocaleFormat()
+    const { time, dateTime, day, today } = useLocaleFormat()
     // 20:00 UTC is 2:00 PM in Chicago on 4 December (CST, UTC-6; the IANA tz database via the runtime's Intl)
     expect(time('2026-12-04T20:00:00Z')).toBe('2:00 PM')
     expect(dateTime('2026-12-05T03:30:00Z')).toBe('Dec 4, 2026, 9:30 PM')
     expect(day('2026-12-04')).toBe('Dec 4, 2026')
+    // a form's "today" on the evening shift is the site's 4 December, though UTC has reached the 5th
+    expect(today(new Date('2026-12-05T03:30:00Z'))).toBe('2026-12-04')
+    expect(today(new Date('2026-12-05T06:30:00Z'))).toBe('2026-12-05')
   })
 })
