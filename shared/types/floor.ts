@@ -3,6 +3,7 @@ import type { AuthorisationReason } from '../utils/truck-authorisation'
 import type { BatteryState } from '../utils/battery-state'
 import type { EmissionsPolicy } from '../utils/emissions'
 import type { TruckCheckState } from './inspection'
+import type { CoExposureAssessment } from '../utils/co-exposure'
 
 // What the floor routes answer, written once: the route declares it as its return type and the floor
 // forms read it. Only the fields the forms use are named; the routes may send more.
@@ -106,7 +107,7 @@ export interface RequalificationAnswer { requalification: { dueOn: string } }
 /** POST /api/trucks/:id/emissions-tests */
 export interface EmissionsTestAnswer { item: { id: string, passed: boolean, nextDueOn: string }, verdict: { pass: boolean, reasons: string[], findings: FitReason[] }, policy: EmissionsPolicy, source: string }
 /** POST /api/fuel/co-readings */
-export interface CoReadingsAnswer { items: { id: string, ppm: number, durationHours: number }[], alert: boolean, assessment: { twaPpm: number }, limits: object }
+export interface CoReadingsAnswer { items: { id: string, ppm: number, durationHours: number }[], alert: boolean, assessment: CoExposureAssessment, limits: object }
 /** POST /api/incidents */
 export interface IncidentAnswer { alerted: number }
 /** POST /api/logs/entries */

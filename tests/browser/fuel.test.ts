@@ -105,7 +105,17 @@ describe('fuel station in the browser', () => {
     await untilHydrated(page, 'form input')
     await page.getByLabel('CO (ppm) #1').fill('150')
     await page.getByLabel('Hours #1').fill('2')
+    await page.getByRole('combobox', { name: /^Area/ }).selectOption({ index: 1 })
     await page.screenshot({ path: 'screenshots/fuel-co-phone.png', fullPage: true })
+    await page.getByRole('button', { name: 'Save readings' }).click()
+    // on a phone each day is a card that leads with the 8-hour average and its standing, and nothing runs off the side:
+    // 150 ppm for 2 h over 8 h is 37.5 ppm (the 8-hour TWA of 29 CFR 1910.1000(d)(1), unsampled hours at zero)
+    const cards = page.getByTestId('co-day-cards')
+    await expect.poll(() => cards.innerText()).toContain('8-h TWA 37.5 ppm · Peak 150 ppm')
+    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(PHONE.width)
+    // the saved card keeps the day's standing in sight, beside the day's card
+    expect(await page.getByText('Over the site limit').filter({ visible: true }).count()).toBe(2)
+    await page.screenshot({ path: 'screenshots/fuel-co-days-phone.png', fullPage: true })
     await page.context().close()
   })
 
