@@ -79,8 +79,12 @@ describe('fuel station in the browser', () => {
     expect(await page.getByText('31 lb of propane added').isVisible()).toBe(true)
     await page.goto(url('/cage'))
     await expect.poll(() => page.locator('[data-count="full"]').first().innerText()).toBe('5')
-    // the page fits the phone: the cylinder table scrolls inside its card, the header's buttons wrap
+    // the page fits the phone: a line a cylinder instead of the table, the header's buttons wrap
     expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(PHONE.width)
+    const lines = page.getByTestId('cage-cylinder-cards').filter({ hasText: emptySerial })
+    await expect.poll(() => lines.count()).toBe(1)
+    expect(await lines.locator('li').filter({ hasText: 'On truck' }).count()).toBe(1)
+    expect(await lines.evaluate(e => e.scrollWidth <= e.clientWidth)).toBe(true)
     await page.screenshot({ path: 'screenshots/fuel-cage-phone.png', fullPage: true })
     await page.goto(url('/chargers'))
     await expect.poll(() => page.getByText('North wall 48 V lithium-ion opportunity charger no. 12').first().isVisible()).toBe(true)
