@@ -14,6 +14,7 @@ await setup(builtServer)
 let browser: Browser
 let siteId: string
 let emptySerial: string
+let fullSerial: string
 const people: Record<string, { email: string, password: string }> = {}
 
 // Invented fuel station: a few full and empty cylinders, LP and gasoline trucks with tests in each bucket.
@@ -24,7 +25,7 @@ beforeAll(async () => {
   siteId = s.id
   const station = await fuelStation(siteId, 200)
   await useTestDb().update(tables.areas).set({ name: `Fuel station ${Date.now().toString(36)}` }).where(eq(tables.areas.id, station.id))
-  for (let i = 0; i < 4; i++) await freshCylinder(siteId, { areaId: station.id, status: 'full' })
+  for (let i = 0; i < 4; i++) fullSerial = (await freshCylinder(siteId, { areaId: station.id, status: 'full' })).serial
   await freshCylinder(siteId, { areaId: station.id, status: 'quarantined' })
   const soon = new Date()
   soon.setUTCMonth(soon.getUTCMonth() + 2)
@@ -100,8 +101,12 @@ describe('fuel station in the browser', () => {
     await page.goto(url(`/requalify?code=${emptySerial}`))
     await expect.poll(() => page.getByRole('heading', { name: 'Requalification history' }).isVisible()).toBe(true)
     await page.screenshot({ path: 'screenshots/fuel-requalify-phone.png', fullPage: true })
-    await page.goto(url('/exchange'))
+    // opened from a full cylinder's tag ("Put on a truck"): the cylinder waits for the truck, then fills its field
+    await page.goto(url(`/exchange?on=${fullSerial}`))
+    await expect.poll(() => page.getByText(`${fullSerial} goes on the truck you pick.`).isVisible()).toBe(true)
     await page.getByLabel('Truck').selectOption({ index: 1 })
+    await expect.poll(() => page.getByLabel('Cylinder going on').inputValue()).toBe(fullSerial)
+    await expect.poll(() => page.getByText(/is full and in date \(requalification due [A-Z][a-z]{2} \d{1,2}, \d{4}\)/).isVisible()).toBe(true)
     await expect.poll(() => page.getByText('Before you take it off').isVisible()).toBe(true)
     await page.screenshot({ path: 'screenshots/fuel-exchange-phone.png', fullPage: true })
     await page.goto(url('/co'))
