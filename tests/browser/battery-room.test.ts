@@ -69,6 +69,15 @@ describe('battery room on the floor', () => {
     await page.context().close()
   })
 
+  it('opened from a ready battery\'s tag, the change form holds the battery and waits at the truck field', async () => {
+    const fresh = await readyBattery({ siteId, userId: people.technician!.id, chargerId, homeAreaId: areaId })
+    const code = await tagFor('battery', fresh.id, siteId)
+    const page = await signedIn(people.operator!, `/swap?in=${code}`)
+    await expect.poll(() => page.getByLabel('3 · Battery going in').inputValue()).toBe(code)
+    await expect.poll(() => page.evaluate(() => document.activeElement?.closest('label')?.textContent ?? '')).toContain('Truck')
+    await page.context().close()
+  })
+
   it('a technician enters a 12-cell reading with the keyboard only', async () => {
     const b = await battery({ siteId, homeAreaId: areaId, voltage: 24, cellCount: 12 })
     await pastCharge({ siteId, userId: people.technician!.id, batteryId: b.id, chargerId, endedHoursAgo: 1 })
