@@ -120,7 +120,7 @@ export async function readDueList(db: SqlRunner, siteId: string, opts: DueOption
       : rowsOf<Row>(db, sql`
       SELECT p.id, p.kind, p.schedule_id AS "scheduleId", p.rule_key AS "ruleKey", p.what, p.subject_kind AS "subjectKind", p.subject_id AS "subjectId",
         p.label, p.tag_code AS "tagCode", p.area_id AS "areaId", a.name AS "areaName", p.person_id AS "personId", p.period_start::text AS "periodStart",
-        fu.title_words AS "labelWords", p.shown_due::text AS "shownDue", p.shown_state AS "shownState", p.last_done_on::text AS "lastDoneOn",
+        CASE WHEN p.subject_kind = 'follow_up' THEN (SELECT fu.title_words FROM follow_ups fu WHERE fu.id = p.subject_id) END AS "labelWords", p.shown_due::text AS "shownDue", p.shown_state AS "shownState", p.last_done_on::text AS "lastDoneOn",
         CASE WHEN p.due_at_count IS NOT NULL AND p.count_now IS NOT NULL THEN round((p.due_at_count - p.count_now)::numeric, 1)::float8 END AS remaining,
         p.detail, p.detail_words AS "detailWords", p.responsible_role AS "responsibleRole"
       FROM (
@@ -128,7 +128,6 @@ export async function readDueList(db: SqlRunner, siteId: string, opts: DueOption
         FROM (${shown}) s ORDER BY ${ORDER[opts.sort]} LIMIT ${limit}
       ) p
       LEFT JOIN areas a ON a.id = p.area_id
-      LEFT JOIN follow_ups fu ON p.subject_kind = 'follow_up' AND fu.id = p.subject_id
       ORDER BY ${ORDER[opts.sort]}`),
   ])
   const counts: Record<ObligationState, number> = { overdue: 0, due_soon: 0, upcoming: 0, done: 0 }
