@@ -8,6 +8,7 @@ export function useFollowUpWords() {
   const { t, te } = useNuxtApp().$i18n
   const { day } = useLocaleFormat()
   const { failedItems } = useInspectionWords()
+  const { labelWords } = useChecklistWords()
   return {
     title: (f: { title: string, titleWords?: FollowUpTitleWords | null }): string => {
       const w = f.titleWords
@@ -19,6 +20,7 @@ export function useFollowUpWords() {
         ...(p.date ? { date: day(p.date) } : {}),
         ...(p.kind ? { kind: te(`incident.kind.${p.kind}`) ? t(`incident.kind.${p.kind}`) : p.kind } : {}),
         ...(w.code === 'preshift' && p.items ? { items: failedItems(p.items.split('; ')) } : {}),
+        ...(w.code === 'checklist' && p.item ? { item: labelWords(p.item) } : {}),
       })
     },
   }

@@ -43,6 +43,10 @@ describe('lead pages in Spanish', () => {
     await expect.poll(() => card.getByText('Sin empezar').isVisible()).toBe(true)
     // the day's heading as es-US writes it (miércoles, 4 de mar de 2026), not the English weekday
     expect(await card.getByRole('heading').textContent()).toMatch(/miércoles/)
+    // the default checklist's title and the area's cautions (eyewash, PPE) in Spanish too
+    expect(await card.textContent()).toContain('Área de carga — revisión diaria')
+    expect(await page.getByText('Lavaojos a la mano antes de tocar una batería').count()).toBe(1)
+    expect(await page.getByText('Eyewash within reach').count()).toBe(0)
     expect(await page.getByRole('link', { name: 'Informe para auditoría' }).count()).toBe(1)
 
     await page.goto(page.url().replace(/\/logs.*$/, '/schedules'))

@@ -80,7 +80,7 @@ export interface LogDay {
   title: string
   items: ChecklistItem[]
   entries: EffectiveEntry[]
-  followUps: { id: string, title: string, closedAt: Date | null, sourceId: string }[]
+  followUps: { id: string, title: string, titleWords: { code: string, params: Record<string, string> } | null, closedAt: Date | null, sourceId: string }[]
 }
 
 // The logs of an area for a day, a week, or any range, with the template items each was filled against.
@@ -94,7 +94,7 @@ export async function areaLogDays(db: DbOrTx, siteId: string, area: AreaRow, fro
   const entries = await entriesOf(db, logs.map(x => x.log.id))
   const entryIds = entries.map(e => e.entry.id)
   const followUps = entryIds.length
-    ? await db.select({ id: tables.followUps.id, title: tables.followUps.title, closedAt: tables.followUps.closedAt, sourceId: tables.followUps.sourceId })
+    ? await db.select({ id: tables.followUps.id, title: tables.followUps.title, titleWords: tables.followUps.titleWords, closedAt: tables.followUps.closedAt, sourceId: tables.followUps.sourceId })
         .from(tables.followUps).where(and(eq(tables.followUps.source, 'checklist'), inArray(tables.followUps.sourceId, entryIds)))
     : []
   const current = await activeTemplate(db, siteId, area.kind, cadence)
