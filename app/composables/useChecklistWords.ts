@@ -3,7 +3,6 @@ import { AREA_LOG_CAUTIONS, DEFAULT_CHECKLIST_ITEMS, DEFAULT_CHECKLIST_TITLES } 
 
 // The default checklists' English words by item key, to tell an unedited item from one a lead has reworded.
 const DEFAULT_WORDS = new Map(Object.values(DEFAULT_CHECKLIST_ITEMS).flat().map(i => [i.key, i]))
-const DEFAULT_KEYS = new Map(Object.values(DEFAULT_CHECKLIST_ITEMS).flat().map(i => [i.label, i.key]))
 const TITLE_KEYS = new Map(Object.entries(DEFAULT_CHECKLIST_TITLES).flatMap(([kind, byCadence]) =>
   Object.entries(byCadence).map(([cadence, title]) => [title, `${kind}_${cadence}`])))
 
@@ -13,13 +12,7 @@ const TITLE_KEYS = new Map(Object.entries(DEFAULT_CHECKLIST_TITLES).flatMap(([ki
 export function useChecklistWords() {
   const { t, te } = useNuxtApp().$i18n
   const known = (item: ChecklistItem) => DEFAULT_WORDS.get(item.key)?.label === item.label && te(`logs.item.${item.key}`)
-  /** a stored item label ("Eyewash flushed and reachable"): the default item in the reader's words, a lead's own as written */
-  const labelWords = (label: string) => {
-    const key = DEFAULT_KEYS.get(label)
-    return key && te(`logs.item.${key}`) ? t(`logs.item.${key}`) : label
-  }
   return {
-    labelWords,
     itemLabel: (item: ChecklistItem) => (known(item) ? t(`logs.item.${item.key}`) : item.label),
     itemHint: (item: ChecklistItem) => (item.hint && known(item) && DEFAULT_WORDS.get(item.key)?.hint === item.hint && te(`logs.item_hint.${item.key}`) ? t(`logs.item_hint.${item.key}`) : item.hint),
     title: (title: string) => {
