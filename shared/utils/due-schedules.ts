@@ -1,5 +1,6 @@
 import type { Role } from '../types/auth'
 import type { IntervalUnit } from './due-dates'
+import type { FollowUpTitleWords } from './follow-up-words'
 
 // The recurring obligations Bayward tracks, their default rules and where each rule comes from.
 // The Schedules page is the one source of every interval: the defaults below, each replaced by the
@@ -156,7 +157,7 @@ export interface DueSubject {
   /** a log's period start, for log_review */
   periodStart?: string | null
   /** a follow-up's title as codes, for the reader's words (its label is the title as stored, in English) */
-  labelWords?: { code: string, params: Record<string, string> } | null
+  labelWords?: FollowUpTitleWords | null
 }
 
 // Where one tap goes to record the work that closes an obligation.

@@ -6,6 +6,7 @@ import {
 } from '#shared/utils/area-checklists'
 import type { DbOrTx } from '../db'
 import type { Actor } from '../auth'
+import type { FollowUpTitleWords } from '#shared/utils/follow-up-words'
 
 export type AreaRow = typeof tables.areas.$inferSelect
 export type TemplateRow = typeof tables.checklistTemplates.$inferSelect
@@ -80,7 +81,7 @@ export interface LogDay {
   title: string
   items: ChecklistItem[]
   entries: EffectiveEntry[]
-  followUps: { id: string, title: string, titleWords: { code: string, params: Record<string, string> } | null, closedAt: Date | null, sourceId: string }[]
+  followUps: { id: string, title: string, titleWords: FollowUpTitleWords | null, closedAt: Date | null, sourceId: string }[]
 }
 
 // The logs of an area for a day, a week, or any range, with the template items each was filled against.
