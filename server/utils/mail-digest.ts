@@ -1,10 +1,9 @@
 import { sql } from 'drizzle-orm'
 import type { Role } from '#shared/types/auth'
 import { digestDue } from '#shared/utils/mail-schedule'
-import type { DueKind } from '#shared/utils/due-schedules'
 import type { Obligation } from './due/list'
-import { followUpTitle } from '#shared/utils/follow-up-words'
 import { mailWords, type MailT } from './mail-words'
+import { dueDetail, dueSubjectName, dueTaskName } from './due-words'
 
 // The daily digest: each lead gets what is overdue and due soon in their roles' lists, in their language
 // (users.language, English when unset). With `force` it goes now; otherwise once a day from the site's digest hour.
@@ -53,19 +52,11 @@ export async function sendDigests({ siteIds, force = false, now = new Date() }: 
 
 const SHOWN = 60
 
-/** The subject's name; a follow-up's title in the reader's words when it came with codes (dates stay ISO, as the digest writes them). */
-function subjectName(t: MailT, o: Obligation): string {
-  const { label, labelWords } = o.subject
-  return o.subject.kind === 'follow_up' && labelWords ? followUpTitle({ title: label, titleWords: labelWords }, { t, has: key => t(key) !== key, day: d => d }) : label
-}
-
-/** A built-in task by its name in the reader's words; a task a lead added keeps the words the lead wrote. */
-function taskName(t: MailT, o: Obligation): string {
-  return o.kind !== 'custom' && DUE_KIND_LABELS[o.kind as DueKind] === o.what ? t(`due.kind.${o.kind}`) : o.what
-}
-
 function digestBody(t: MailT, name: string, siteName: string, today: string, items: Obligation[]) {
-  const line = (o: Obligation) => `  • ${o.dueOn ?? t('mail.digest_now')}  ${taskName(t, o)} — ${subjectName(t, o)}${o.detail ? ` (${o.detail})` : ''}\n    ${appLink(o.action.to)}`
+  const line = (o: Obligation) => {
+    const detail = dueDetail(t, o)
+    return `  • ${o.dueOn ?? t('mail.digest_now')}  ${dueTaskName(t, o)} — ${dueSubjectName(t, o)}${detail ? ` (${detail})` : ''}\n    ${appLink(o.action.to)}`
+  }
   const section = (heading: string, none: string, shown: Obligation[]) => (shown.length
     ? `${t(heading, { n: shown.length })}\n${shown.slice(0, SHOWN).map(line).join('\n')}${shown.length > SHOWN ? `\n  ${t('mail.digest_more', { n: shown.length - SHOWN })}` : ''}`
     : t(none))

@@ -47,6 +47,23 @@ describe('the due list as a private calendar feed', () => {
     expect(events.every(e => !e.summary.includes('Emissions'))).toBe(true)
   })
 
+  it('the feed is written in its owner\'s language (users.language): task, state, role and the calendar\'s name', async () => {
+    const { client: lector, id } = await person(siteId, ['technician'])
+    await useTestDb().update(tables.users).set({ language: 'es' }).where(eq(tables.users.id, id))
+    const created = await lector.post('/api/calendar/feeds')
+    const res = await fetch(url(new URL(created.body.item.url as string).pathname))
+    expect(res.status).toBe(200)
+    const calendar = new ICAL.Component(ICAL.parse(await res.text()))
+    expect(calendar.getFirstPropertyValue('x-wr-calname')).toMatch(/^Pendientes de Bayward — /)
+    const events = calendar.getAllSubcomponents('vevent').map(v => new ICAL.Event(v))
+    const eyewash = events.find(e => e.uid === `eyewash_activation-${areaId}@bayward`)
+    expect(eyewash).toBeTruthy()
+    expect(eyewash!.summary).toMatch(/^Vencido: /)
+    expect(eyewash!.summary).not.toContain('Eyewash')
+    expect(eyewash!.description).toMatch(/^Vencido en /)
+    expect(events.every(e => !/Overdue|Due soon|Upcoming/.test(`${e.summary} ${e.description}`))).toBe(true)
+  })
+
   it('a revoked URL, an unknown token and someone else\'s revoke all answer 404', async () => {
     const created = await tech.post('/api/calendar/feeds')
     const path = new URL(created.body.item.url as string).pathname
