@@ -122,6 +122,13 @@ describe('due list, area logs and the ventilation check in the browser', () => {
           await page.goto(url(`/ventilation?area=${areaId}`))
           await page.waitForLoadState('networkidle')
           await expect.poll(() => page.getByLabel('Verdict').textContent()).toContain('Installed exhaust')
+          if (viewport === PHONE) {
+            // a line a charger, its hydrogen in sight, nothing past the right edge
+            const lines = page.getByRole('list', { name: 'Chargers in this area' }).getByRole('listitem')
+            expect(await lines.count()).toBeGreaterThan(0)
+            expect(await lines.first().textContent()).toMatch(/H₂ [\d.]+ ft³\/min/)
+            expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(PHONE.width)
+          }
           await shot(page, 'ventilation', viewport)
           await page.goto(url('/due'))
           await page.waitForLoadState('networkidle')
