@@ -6,13 +6,12 @@ import { LANGUAGES } from './languages'
 /** The longest range one report covers (days): three years of monthly figures. */
 export const REPORT_MAX_DAYS = 3 * 366
 
-/** Today and a year back, as YYYY-MM-DD (the range a report opens on). */
-export function defaultReportRange(today: Date = new Date()): { from: string, to: string } {
-  const to = today.toISOString().slice(0, 10)
-  const back = new Date(today)
+/** The year to `today` ('YYYY-MM-DD', the reader's site's day; UTC's when not given), as YYYY-MM-DD: the range a report opens on. */
+export function defaultReportRange(today: string = new Date().toISOString().slice(0, 10)): { from: string, to: string } {
+  const back = new Date(`${today}T00:00:00Z`)
   back.setUTCFullYear(back.getUTCFullYear() - 1)
   back.setUTCDate(back.getUTCDate() + 1)
-  return { from: back.toISOString().slice(0, 10), to }
+  return { from: back.toISOString().slice(0, 10), to: today }
 }
 
 // ?siteId=<uuid>|all&from=YYYY-MM-DD&to=YYYY-MM-DD&format=json|csv&section=<key>&lang=en|es (the page's language)
@@ -25,7 +24,7 @@ export const reportQuerySchema = z.object({
   lang: z.enum(LANGUAGES, 'Use lang=en or lang=es.').optional(),
 }).transform((q, ctx) => {
   const range = defaultReportRange()
-  const from = q.from ?? (q.to ? defaultReportRange(new Date(`${q.to}T00:00:00Z`)).from : range.from)
+  const from = q.from ?? (q.to ? defaultReportRange(q.to).from : range.from)
   const to = q.to ?? range.to
   if (from > to) ctx.addIssue({ code: 'custom', path: ['from'], message: 'The start date is after the end date.' })
   else if (daysInRange(from, to) > REPORT_MAX_DAYS) ctx.addIssue({ code: 'custom', path: ['to'], message: 'A report covers at most three years.' })

@@ -9,6 +9,7 @@ import {
 import 'dayjs/locale/es'
 import { mailWords } from '../../server/utils/mail-words'
 import { defaultReportRange, reportQuerySchema } from '../../shared/utils/report-schemas'
+import { scopeToday } from '../../server/utils/reports/scope'
 import { daysInRange } from '../../shared/utils/area-checklists'
 
 dayjs.extend(utc)
@@ -94,12 +95,26 @@ describe('report arithmetic', () => {
 
 describe('report query', () => {
   it('defaults to the year to today, and refuses a backwards or too long range', () => {
-    const range = defaultReportRange(new Date('2026-12-02T10:00:00Z'))
+    const range = defaultReportRange('2026-12-02')
     expect(range).toEqual({ from: '2025-12-03', to: '2026-12-02' })
     expect(reportQuerySchema.safeParse({ siteId: 'all', from: '2026-04-01', to: '2026-03-01' }).success).toBe(false)
     expect(reportQuerySchema.safeParse({ siteId: 'all', from: '2020-01-01', to: '2026-01-01' }).success).toBe(false)
     expect(reportQuerySchema.safeParse({ siteId: 'somewhere' }).success).toBe(false)
     const ok = reportQuerySchema.parse({ siteId: 'all', to: '2026-03-31' })
     expect(ok).toMatchObject({ from: '2025-04-01', to: '2026-03-31', format: 'json' })
+  })
+})
+
+describe('the facilities lead\'s "this month so far"', () => {
+  // 01:30 UTC on 1 December is 19:30 on 30 November in Chicago (UTC−6 in winter) and 10:30 on 1 December in
+  // Tokyo (UTC+9): IANA time zone database, read through the runtime's Intl
+  const at = new Date('2026-12-01T01:30:00Z')
+  const site = (timeZone: string) => ({ id: timeZone, name: timeZone, timeZone, unitSystem: 'us' as const, settings: {} as never })
+  it('ends on the site\'s own day, not UTC\'s', () => {
+    expect(scopeToday({ sites: [site('America/Chicago')] }, at)).toBe('2026-11-30')
+  })
+  it('across sites in several zones, on the latest of their days', () => {
+    expect(scopeToday({ sites: [site('America/Chicago'), site('Asia/Tokyo')] }, at)).toBe('2026-12-01')
+    expect(scopeToday({ sites: [] }, at)).toBe('2026-12-01')
   })
 })

@@ -11,6 +11,7 @@ import { readerLanguage } from '../reader-language'
 import { rowsOf, uuidArray } from '../due/effective'
 import { CHART_TOP, chartData, type ChartData, type ChartSpec } from '#shared/utils/report-chart'
 import { keptDateFormat, keptNumberFormat } from '#shared/utils/intl-formats'
+import { localDate } from '#shared/utils/due-dates'
 
 export interface ReportSite { id: string, name: string, timeZone: string, unitSystem: UnitSystem, settings: SiteSettings }
 
@@ -54,6 +55,12 @@ export async function reportScope(event: H3Event, ability: Ability, query: Repor
     sites, siteIds: sites.map(s => s.id), from: query.from, to: query.to, units, currency: currencies.size === 1 ? [...currencies][0]! : '',
     language, t: mailWords(language, { groupCounts: true }),
   }
+}
+
+/** Today at the scope's sites: the latest of their calendar days (sites in several time zones reach a day at different
+ * instants; a range ending on the latest covers every site up to now, as each site's range is read in its own zone). */
+export function scopeToday(scope: Pick<ReportScope, 'sites'>, now = new Date()): string {
+  return scope.sites.map(s => localDate(now, s.timeZone)).sort().at(-1) ?? localDate(now, 'UTC')
 }
 
 // `scope` as a CTE: each site with the range's start and end as instants in the site's own time zone, so a
