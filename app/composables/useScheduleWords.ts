@@ -2,7 +2,7 @@ import { defaultSchedules, type ScheduleDefinition } from '#shared/utils/due-sch
 
 // Schedules in the reader's words: the interval, the due-soon window, the count unit (the English of
 // shared/utils/schedule-words.ts, said through the locale files); a built-in schedule's name and what it applies
-// to while still as the defaults word them (a lead's own wording is shown as written).
+// to and where it comes from while still as the defaults word them (a lead's own wording is shown as written).
 const DEFAULTS = new Map(defaultSchedules().map(s => [s.kind, s]))
 export function useScheduleWords() {
   const { t } = useNuxtApp().$i18n
@@ -20,6 +20,8 @@ export function useScheduleWords() {
   return {
     title: (s: Pick<ScheduleDefinition, 'kind' | 'title'>) => (builtIn(s)?.title === s.title ? t(`due.kind.${s.kind}`) : s.title),
     appliesTo: (s: Pick<ScheduleDefinition, 'kind' | 'appliesTo'>) => (builtIn(s)?.appliesTo === s.appliesTo ? t(`schedules.applies_to.${s.kind}`) : s.appliesTo),
+    /** where the interval comes from (the rule or policy it rests on); the citations stay as written in every language */
+    source: (s: Pick<ScheduleDefinition, 'kind' | 'source'>) => (s.source && builtIn(s)?.source === s.source ? t(`schedules.source.${s.kind}`) : s.source),
     interval,
     dueSoon: (days: number) => (days <= 0 ? t('schedules.words.due_soon_day') : t('schedules.words.due_soon', { n: days }, days)),
     countUnit: (rule: ScheduleDefinition['rule']) => (rule === 'charges' || rule === 'hours' ? t(`schedules.count_unit.${rule}`) : null),

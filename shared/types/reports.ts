@@ -16,6 +16,8 @@ export interface ReportColumn {
   decimals?: number
   /** the cells are months ('2026-03', as the CSV keeps them), shown as the reader's language names them ("Mar 2026") */
   month?: boolean
+  /** the cells are days ('2026-03-31', as the CSV keeps them), shown as the reader's language writes a date */
+  date?: boolean
 }
 
 export interface ReportSection {

@@ -5,6 +5,7 @@ import { eq } from 'drizzle-orm'
 import { area, battery, closeTestDb, cylinder, rebuildSite, site, tables, truck, user, useTestDb } from '../support/db'
 import { defaultSiteSettings } from '../../shared/utils/site-settings'
 import { roomCharger } from '../support/battery-room'
+import { CHARGING_KEYS, allPass, todayIn } from '../support/due'
 import type { ReportResponse } from '../../shared/types/reports'
 
 await setup(builtServer)
@@ -166,6 +167,23 @@ describe('reports', () => {
     const res = await report(lead, 'propane', `siteId=${siteA}&from=2026-04-01&to=2026-04-30`)
     expect(section(res.body, 'month').rows.find(r => r.month === '2026-04')!.cost).toBeCloseTo(5, 9)
     expect(res.body.caveats).toEqual([])
+  })
+
+  it('compliance in the reader\'s language: a failed default checklist item by its Spanish name; propane\'s requalification rows too', async () => {
+    const logArea = (await area({ siteId: siteA, kind: 'charging_area', name: 'Log room' })).id
+    const today = todayIn()
+    const entries = allPass(CHARGING_KEYS).map(e => (e.itemKey === 'eyewash_flushed_reachable' ? { ...e, result: 'fail', note: 'Weak flow.' } : e))
+    expect((await tech.post('/api/logs/entries', { siteId: siteA, areaId: logArea, date: today, entries })).status).toBe(201)
+    const en = await report(safety, 'compliance', `siteId=${siteA}&from=${today}&to=${today}&lang=en`)
+    expect(section(en.body, 'failed-items').rows).toEqual([{ item: 'Eyewash flushed and reachable', failed: 1 }])
+    const es = await report(safety, 'compliance', `siteId=${siteA}&from=${today}&to=${today}&lang=es`)
+    expect(section(es.body, 'failed-items').rows).toEqual([{ item: 'Lavaojos probado y a la mano', failed: 1 }])
+    // made June 2014: requalification due by June 2026, 12 years on (49 CFR 180.209)
+    await cylinder({ siteId: siteA, manufactureYear: 2014, manufactureMonth: 6 })
+    const requal = section((await report(lead, 'propane', `siteId=${siteA}&${range}&lang=es`)).body, 'requalification')
+    expect(requal.columns.find(c => c.key === 'dueOn')).toMatchObject({ date: true })
+    expect(requal.rows.length).toBeGreaterThan(0)
+    expect(requal.rows.every(r => r.what === 'Recalificación de cilindros')).toBe(true)
   })
 
   it('who may read what: a technician is refused, another site is not found, "all" means the person\'s own sites', async () => {

@@ -34,7 +34,7 @@ describe('lead words in English match the shared labels', () => {
     same('schedules.unit.', CUSTOM_UNIT_LABELS)
     same('schedules.subject.', CUSTOM_SUBJECT_LABELS)
     same('schedules.group.', SCHEDULE_GROUP_LABELS)
-    for (const s of defaultSchedules()) expect([s.kind, at(`due.kind.${s.kind}`), at(`schedules.applies_to.${s.kind}`)]).toEqual([s.kind, s.title, s.appliesTo])
+    for (const s of defaultSchedules()) expect([s.kind, at(`due.kind.${s.kind}`), at(`schedules.applies_to.${s.kind}`), at(`schedules.source.${s.kind}`)]).toEqual([s.kind, s.title, s.appliesTo, s.source])
   })
 
   it('assets and labels', () => {

@@ -2,9 +2,14 @@ import { monthsBetween, monthText } from '#shared/utils/report-math'
 import { LANGUAGE_TAGS } from '#shared/utils/languages'
 import type { ReportResponse } from '#shared/types/reports'
 import { CO_LIMITS } from '#shared/utils/co-exposure'
-import { daysInRange } from '#shared/utils/area-checklists'
+import { DEFAULT_CHECKLIST_ITEMS, daysInRange } from '#shared/utils/area-checklists'
 import { isEffectiveRecord, rowsOf } from '../due/effective'
 import { chartOf, chartTop, num, numOrNull, scopeCte, siteColumn, totalsOf, type ReportScope } from './scope'
+
+// A default checklist item still worded as shipped, in the reader's words (logs.item.<key>); a lead's wording as written.
+const DEFAULT_ITEM_LABELS = new Map(Object.values(DEFAULT_CHECKLIST_ITEMS).flat().map(i => [i.key, i.label]))
+const itemWords = (t: ReportScope['t'], key: string, label: string) =>
+  (DEFAULT_ITEM_LABELS.get(key) === label && t(`logs.item.${key}`) !== `logs.item.${key}` ? t(`logs.item.${key}`) : label)
 
 const siteSuffix = (scope: ReportScope) => sql`CASE WHEN ${scope.siteIds.length > 1} THEN ' · ' || scope.site_name ELSE '' END`
 
@@ -49,14 +54,14 @@ async function complianceRows(scope: ReportScope) {
         AND EXISTS (SELECT 1 FROM area_log_entries x WHERE x.log_id = l.id)
       LEFT JOIN area_log_entries e ON e.log_id = l.id AND ${isEffectiveRecord('area_log_entries', 'e')}
       GROUP BY 1 ORDER BY 1`),
-    rowsOf<{ item: string, failed: number }>(db, sql`
+    rowsOf<{ key: string, item: string, failed: number }>(db, sql`
       WITH ${scopeCte(scope)}
-      SELECT coalesce(item.label, e.item_key) AS item, count(*)::int AS failed
+      SELECT e.item_key AS key, coalesce(item.label, e.item_key) AS item, count(*)::int AS failed
       FROM scope JOIN area_log_entries e ON e.site_id = scope.site_id AND e.at >= scope.t0 AND e.at < scope.t1
       JOIN area_logs l ON l.id = e.log_id JOIN checklist_templates t ON t.id = l.template_id
       LEFT JOIN LATERAL (SELECT i->>'label' AS label FROM jsonb_array_elements(t.items) i WHERE i->>'key' = e.item_key LIMIT 1) item ON true
       WHERE e.result = 'fail' AND ${isEffectiveRecord('area_log_entries', 'e')}
-      GROUP BY 1 ORDER BY 2 DESC, 1`),
+      GROUP BY 1, 2 ORDER BY 3 DESC, 2`),
     rowsOf<{ person: string, site: string, dueOn: string }>(db, sql`
       WITH ${scopeCte(scope)}
       SELECT o.label AS person, scope.site_name AS site, o.due_on::text AS "dueOn"
@@ -125,14 +130,14 @@ export async function complianceReport(scope: ReportScope): Promise<ReportRespon
         title: t('report.compliance.failed_items'),
         chart: null,
         columns: [{ key: 'item', label: t('report.col.item') }, { key: 'failed', label: t('report.col.times_failed'), decimals: 0 }],
-        rows: failedItems.map(i => ({ item: i.item, failed: num(i.failed) })),
+        rows: failedItems.map(i => ({ item: itemWords(t, i.key, i.item), failed: num(i.failed) })),
       },
       {
         key: 'evaluations',
         title: t('report.compliance.evaluations_title'),
         note: t('report.compliance.evaluations_note'),
         chart: null,
-        columns: [{ key: 'person', label: t('report.col.operator') }, ...siteColumn(scope), { key: 'dueOn', label: t('report.col.due') }],
+        columns: [{ key: 'person', label: t('report.col.operator') }, ...siteColumn(scope), { key: 'dueOn', label: t('report.col.due'), date: true }],
         rows: evaluations,
       },
     ],

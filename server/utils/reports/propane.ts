@@ -5,6 +5,7 @@ import { PROPANE_LB_PER_GAL_60F } from '#shared/utils/lp-gas'
 import { KG_PER_LB, LITRES_PER_US_GAL } from '#shared/utils/units'
 import { isEffectiveRecord, rowsOf } from '../due/effective'
 import { chartOf, chartTop, money, num, numberText, scopeCte, siteColumn, totalsOf, type ReportScope } from './scope'
+import { DUE_KIND_LABELS } from '#shared/utils/due-schedules'
 
 // Standing refills in the range by month (net pounds, gallons at 60 °F as recorded, cost at the price per
 // gallon kept on each refill when it was recorded, else the site's price now) and the refused ones with their reasons; propane per truck from the cylinder changes:
@@ -114,8 +115,9 @@ export async function propaneReport(scope: ReportScope): Promise<ReportResponse>
         title: t('report.propane.requal_title'),
         note: t('report.propane.requal_note'),
         chart: null,
-        columns: [{ key: 'serial', label: t('report.col.cylinder') }, ...siteColumn(scope), { key: 'dueOn', label: t('report.col.due') }, { key: 'what', label: t('report.col.what') }],
-        rows: requal,
+        columns: [{ key: 'serial', label: t('report.col.cylinder') }, ...siteColumn(scope), { key: 'dueOn', label: t('report.col.due'), date: true }, { key: 'what', label: t('report.col.what') }],
+        // the task's name in the reader's words (it is the built-in one here)
+        rows: requal.map(r => ({ ...r, what: r.what === DUE_KIND_LABELS.cylinder_requalification ? t('due.kind.cylinder_requalification') : r.what })),
       },
     ],
     caveats: pricedNow > 0 ? [t('report.propane.priced_now', { n: pricedNow })] : [],

@@ -52,7 +52,7 @@ export async function replacementReport(scope: ReportScope): Promise<ReportRespo
         chart: null,
         columns: [
           { key: 'serial', label: t('report.col.battery') }, ...siteColumn(scope), { key: 'cycles', label: t('report.col.cycles'), decimals: 0 }, { key: 'ratedCycles', label: t('report.col.rated'), decimals: 0 },
-          { key: 'perWeek', label: t('report.col.recent_rate'), unit: t('report.unit.cycles_week'), decimals: 1 }, { key: 'reachesOn', label: t('report.col.reaches_rated') }, { key: 'price', label: t('report.col.price'), unit: cur, decimals: 2 },
+          { key: 'perWeek', label: t('report.col.recent_rate'), unit: t('report.unit.cycles_week'), decimals: 1 }, { key: 'reachesOn', label: t('report.col.reaches_rated'), date: true }, { key: 'price', label: t('report.col.price'), unit: cur, decimals: 2 },
         ],
         rows: forecast.map(b => ({ serial: b.serial, site: b.site, cycles: b.cycles, ratedCycles: b.ratedCycles, perWeek: b.perDay * 7, reachesOn: b.reachesOn, price: b.replacementPrice })),
       },
