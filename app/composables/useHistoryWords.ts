@@ -15,13 +15,17 @@ export interface HistoryLineWords {
 export function useHistoryWords() {
   const { t } = useNuxtApp().$i18n
   const { codedText } = useReasonWords()
+  // a pre-shift check's failed items (stored as their labels): the default ones in the reader's words
+  const { failedItems } = useInspectionWords()
   return {
     title: (h: HistoryLineWords): string => {
       const said = h.titleWords ? codedText(`history.${h.titleWords.code}`, h.titleWords.params, h.title) : h.title
       return h.titleWords && h.record?.correctsId ? t('history.correction', { title: said }) : said
     },
     detail: (h: HistoryLineWords): string | null | undefined => (h.detailWords?.length
-      ? h.detailWords.map(w => codedText(`history.${w.code}`, w.params, '')).filter(Boolean).join(' · ')
+      ? h.detailWords.map(w => (w.code === 'preshift_failed_items' && typeof w.params?.checks === 'string'
+          ? failedItems(w.params.checks.split('; '))
+          : codedText(`history.${w.code}`, w.params, ''))).filter(Boolean).join(' · ')
       : h.detail),
     who: (h: HistoryLineWords): string => (h.who === 'System' ? t('history.system') : h.who),
   }

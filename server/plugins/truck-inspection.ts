@@ -28,7 +28,7 @@ export default defineNitroPlugin(() => {
         id: `inspection-${row.id}`, at: row.at, who,
         ...historyLine(
           row.criticalFailed.length ? { code: 'preshift_out_of_service' } : row.failedCount ? { code: 'preshift_items_failed', params: { n: row.failedCount } } : { code: 'preshift_passed' },
-          [...(row.criticalFailed.length ? [{ code: 'note', params: { note: row.criticalFailed.join('; ') } }] : []), ...(row.hourMeter !== null ? [{ code: 'hour_meter', params: { hours: row.hourMeter } }] : [])],
+          [...(row.criticalFailed.length ? [{ code: 'preshift_failed_items', params: { checks: row.criticalFailed.join('; ') } }] : []), ...(row.hourMeter !== null ? [{ code: 'hour_meter', params: { hours: row.hourMeter } }] : [])],
         ),
         tone: row.criticalFailed.length ? 'danger' : row.failedCount ? 'warning' : 'safe',
       })),

@@ -55,6 +55,23 @@ describe('lead pages in Spanish', () => {
     expect(await page.locator('#schedules-battery').textContent()).toContain('Baterías')
     expect(await page.getByText('Vence pronto').first().isVisible()).toBe(true)
     expect(await page.getByText('Due schedules').count()).toBe(0)
+    // where a built-in interval comes from, in Spanish; the citation as written
+    expect(await page.getByText('ANSI/ISEA Z358.1-2014: lavaojos fijo activado cada semana').count()).toBeGreaterThan(0)
+    expect(await page.getByText('plumbed eyewash activated weekly').count()).toBe(0)
+    await context.close()
+  })
+
+  it('the checklist editor names the default checklist and its items as each reader sees them; a reworded item loses the note', async () => {
+    const { page, context } = await signInAt(browser, lead, '/logs/templates', DESKTOP)
+    await page.getByRole('heading', { level: 1 }).waitFor()
+    const daily = page.locator('details').filter({ hasText: 'Área de carga — revisión diaria' })
+    await daily.locator('summary').click()
+    const first = daily.getByRole('textbox', { name: 'Punto 1', exact: true })
+    // the stored wording stays in the box (it is what is saved); the reader's words sit under it
+    expect(await first.inputValue()).toBe('Eyewash flushed and reachable')
+    await expect.poll(() => daily.getByText('En su idioma: Lavaojos probado y a la mano').count()).toBe(1)
+    await first.fill('Estación de lavaojos revisada')
+    expect(await daily.getByText('En su idioma: Lavaojos probado y a la mano').count()).toBe(0)
     await context.close()
   })
 

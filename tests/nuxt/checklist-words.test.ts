@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest'
 import { AREA_LOG_CAUTIONS, DEFAULT_CHECKLIST_ITEMS, DEFAULT_CHECKLIST_TITLES } from '../../shared/utils/area-checklists'
 import { useChecklistWords } from '../../app/composables/useChecklistWords'
 import { useFollowUpWords } from '../../app/composables/useFollowUpWords'
+import { useHistoryWords } from '../../app/composables/useHistoryWords'
 import en from '../../i18n/locales/en.json'
 
 // The area log in the reader's words: the default checklists, their titles and the area cautions have words in
@@ -47,6 +48,16 @@ describe('checklist words', () => {
       const { title } = useFollowUpWords()
       expect(title({ title: 'x', titleWords: { code: 'checklist', params: { area: 'North charge room', item: eyewash.label, date: '2026-12-02' } } }))
         .toBe('North charge room: Lavaojos probado y a la mano — falló el 2 dic 2026')
+    })
+  })
+
+  it('a truck\'s timeline names the failed pre-shift items in Spanish; an item a lead wrote stays as written', async () => {
+    const line = { title: 'Pre-shift check failed: out of service', titleWords: { code: 'preshift_out_of_service' }, detail: 'x', detailWords: [{ code: 'preshift_failed_items', params: { checks: 'Service brake stops the truck smoothly; Gate chain on' } }, { code: 'hour_meter', params: { hours: 120 } }], who: 'A' }
+    expect(useHistoryWords().detail(line)).toMatch(/^Service brake stops the truck smoothly; Gate chain on · /)
+    await withSpanish(() => {
+      const words = useHistoryWords()
+      expect(words.title(line)).not.toContain('Pre-shift')
+      expect(words.detail(line)).toMatch(/^El freno de servicio detiene el montacargas sin jalones; Gate chain on · /)
     })
   })
 })
