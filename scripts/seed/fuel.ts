@@ -2,6 +2,7 @@ import { addCalendarInterval, calendarDaysBetween } from '../../shared/utils/due
 import { assessFill, fillLimitLb, PREFILL_INSPECTION_ITEMS, PROPANE_DEFAULT_SG, tareLossFlagsRequalification } from '../../shared/utils/lp-gas'
 import { nextRequalificationDue, firstRequalificationDue, REQUALIFICATION_MARK_SUFFIX, type RequalificationMethod } from '../../shared/utils/requalification'
 import { cylinderRequalificationDue, requalificationYearsFromSettings } from '../../shared/utils/fuel-policy'
+import { prefillFailedReason } from '../../shared/utils/fuel-reasons'
 import { addMinutes, DAY_MS, HOUR_MS } from './clock'
 import type { SeedContext, SiteKey } from './context'
 import { HISTORY_DAYS } from './battery-history'
@@ -202,9 +203,11 @@ export function simulateFuelStation(ctx: SeedContext, cylinders: PlannedCylinder
       const row = s.c.row
       const base = { id: newId(), siteId, userId: technician, at, recordedAt: new Date(at.getTime() + rand.int(2, 30) * 1000), cylinderId: row.id }
       if (s.c.special === 'quarantine' && at >= quarantineFrom) {
-        const failed = PREFILL_INSPECTION_ITEMS.filter(item => item.key === 'dents').map(item => item.label)
+        const failed = PREFILL_INSPECTION_ITEMS.filter(item => item.key === 'dents')
         const reason = 'Dent in the shell above the foot ring, about 1 in across.'
-        rows.cylinderRefills.push({ ...base, inspection: { ...inspectionPass, dents: 'fail' }, refused: true, refusalReasons: [`Failed pre-fill inspection: ${failed.join('; ')}. Do not fill this cylinder.`], productSg: PROPANE_DEFAULT_SG, fillLimitLb: fillLimitLb(row.waterCapacityLb, PROPANE_DEFAULT_SG), note: reason })
+        // the refusal as the app stores it: the English words and the same as codes for each reader's words
+        const refusal = prefillFailedReason(failed.map(i => i.key), failed.map(i => i.label))
+        rows.cylinderRefills.push({ ...base, inspection: { ...inspectionPass, dents: 'fail' }, refused: true, refusalReasons: [refusal.message], refusalWords: [{ code: refusal.code, params: refusal.params }], productSg: PROPANE_DEFAULT_SG, fillLimitLb: fillLimitLb(row.waterCapacityLb, PROPANE_DEFAULT_SG), note: reason })
         const heldAt = addMinutes(at, 2)
         row.outOfService = true
         row.outOfServiceReason = reason

@@ -72,7 +72,7 @@ export default defineNitroPlugin(() => {
         at: r.at,
         who,
         ...(r.refused
-          ? historyLine({ code: 'refill_refused' }, r.refusalReasons.length ? [{ code: 'note', params: { note: r.refusalReasons.join(' ') } }] : [])
+          ? historyLine({ code: 'refill_refused' }, storedRefusals(r).map(x => ({ code: 'refusal_reason', params: { ...x.params, refusal: x.code, said: x.message } })))
           : historyLine({ code: 'refilled', params: { added_lb: tenth(r.netAddedLb ?? 0) } }, [
               ...(r.fillLimitLb !== null ? [{ code: 'fill_limit', params: { limit_lb: tenth(r.fillLimitLb) } }] : []),
               ...(r.gallonsAt60F !== null ? [{ code: 'volume_at_60f', params: { volume_gal: r.gallonsAt60F } }] : []),

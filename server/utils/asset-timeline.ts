@@ -22,6 +22,7 @@ export async function assetTimeline(kind: AssetKind, id: string, limit: number):
     ...(AUDIT_TITLES[r.action] ? { titleWords: { code: `audit_${r.action}` } } : {}),
     who: r.userName ?? 'System',
     detail: r.note,
+    ...quarantineWords(r.action, r.after),
     tone: r.action === 'out_of_service' ? 'danger' : undefined,
     changes: r.action === 'update' ? changedFields(r.before, r.after) : undefined,
   }))
@@ -29,6 +30,14 @@ export async function assetTimeline(kind: AssetKind, id: string, limit: number):
   return [...audit, ...more.flat()]
     .sort((a, b) => new Date(b.at).getTime() - new Date(a.at).getTime())
     .slice(0, limit)
+}
+
+// A cylinder quarantined (its note "Quarantined: <why>"): the same as codes, so the reader gets the word in theirs.
+function quarantineWords(action: string, after: unknown): Pick<HistoryEntry, 'detailWords'> {
+  const a = after as { status?: unknown, reason?: unknown } | null
+  return action === 'out_of_service' && a?.status === 'quarantined' && typeof a.reason === 'string'
+    ? { detailWords: [{ code: 'quarantined', params: { note: a.reason } }] }
+    : {}
 }
 
 function changedFields(before: unknown, after: unknown): { field: string, from: unknown, to: unknown }[] {

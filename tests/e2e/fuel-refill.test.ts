@@ -78,6 +78,12 @@ describe('cylinder refill', () => {
     const [stored] = await refillsOf(c.id)
     expect(stored).toMatchObject({ refused: true, netAddedLb: null })
     expect(stored!.refusalReasons[0]).toContain('Failed pre-fill inspection')
+    // the same reason as codes, for each reader's words
+    expect(stored!.refusalWords).toEqual([{ code: 'fill_inspection_failed', params: { items: ['dents'] } }])
+    // the cylinder's timeline says the reason in English and sends its codes for the reader's words
+    const line = (await tech.get(`/api/history/cylinder/${c.id}`)).body.items.find((h: { id: string }) => h.id === `refill-${stored!.id}`)
+    expect(line.detail).toBe(stored!.refusalReasons[0])
+    expect(line.detailWords).toEqual([{ code: 'refusal_reason', params: { items: ['dents'], refusal: 'fill_inspection_failed', said: stored!.refusalReasons[0] } }])
     expect((await storedCylinder(c.id)).status).toBe('empty')
 
     const q = await tech.post(`/api/cylinders/${c.id}/quarantine`, { reason: 'Dent above the foot ring.' })
@@ -86,6 +92,9 @@ describe('cylinder refill', () => {
     expect(after).toMatchObject({ status: 'quarantined', outOfService: true, outOfServiceReason: 'Dent above the foot ring.' })
     const holds = await useTestDb().select().from(tables.assetHolds).where(eq(tables.assetHolds.assetId, c.id))
     expect(holds).toMatchObject([{ action: 'hold', reason: 'Dent above the foot ring.' }])
+    // the timeline's quarantine line carries the words as codes too (history.quarantined)
+    const held = (await tech.get(`/api/history/cylinder/${c.id}`)).body.items.find((h: { detail?: string }) => h.detail === 'Quarantined: Dent above the foot ring.')
+    expect(held.detailWords).toEqual([{ code: 'quarantined', params: { note: 'Dent above the foot ring.' } }])
 
     const again = await tech.post(`/api/cylinders/${c.id}/refills`, { inspection: passingInspection(), ...FILL })
     expect(again.status).toBe(409)

@@ -184,6 +184,16 @@ describe('reports', () => {
     expect(requal.columns.find(c => c.key === 'dueOn')).toMatchObject({ date: true })
     expect(requal.rows.length).toBeGreaterThan(0)
     expect(requal.rows.every(r => r.what === 'Recalificación de cilindros')).toBe(true)
+    // a refused refill's reason from its codes (refusal.fill_inspection_failed, the item by its key); one stored
+    // before the codes were kept reads as stored
+    const who = await user({ siteId: siteA, roles: ['technician'] })
+    const refused = { siteId: siteA, userId: who.id, cylinderId: (await cylinder({ siteId: siteA })).id, at: new Date(), inspection: { dents: 'fail' as const }, refused: true }
+    await useTestDb().insert(tables.cylinderRefills).values([
+      { ...refused, refusalReasons: ['Failed pre-fill inspection: No dents. Do not fill this cylinder.'], refusalWords: [{ code: 'fill_inspection_failed', params: { items: ['dents'] } }] },
+      { ...refused, refusalReasons: ['Stored words only'] },
+    ])
+    const reasons = section((await report(lead, 'propane', `siteId=${siteA}&from=${today}&to=${today}&lang=es`)).body, 'refused').rows.map(r => r.reason)
+    expect(reasons.sort()).toEqual(['No pasó la inspección antes del llenado: Sin abolladuras. No llene este cilindro.', 'Stored words only'])
   })
 
   it('who may read what: a technician is refused, another site is not found, "all" means the person\'s own sites', async () => {

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest'
 import { AREA_LOG_CAUTIONS, DEFAULT_CHECKLIST_ITEMS, DEFAULT_CHECKLIST_TITLES } from '../../shared/utils/area-checklists'
 import { useChecklistWords } from '../../app/composables/useChecklistWords'
 import { useFollowUpWords } from '../../app/composables/useFollowUpWords'
-import { useHistoryWords } from '../../app/composables/useHistoryWords'
+import { useHistoryWords, type HistoryLineWords } from '../../app/composables/useHistoryWords'
 import en from '../../i18n/locales/en.json'
 
 // The area log in the reader's words: the default checklists, their titles and the area cautions have words in
@@ -51,13 +51,16 @@ describe('checklist words', () => {
     })
   })
 
-  it('a truck\'s timeline names the failed pre-shift items in Spanish; an item a lead wrote stays as written', async () => {
-    const line = { title: 'Pre-shift check failed: out of service', titleWords: { code: 'preshift_out_of_service' }, detail: 'x', detailWords: [{ code: 'preshift_failed_items', params: { checks: 'Service brake stops the truck smoothly; Gate chain on' } }, { code: 'hour_meter', params: { hours: 120 } }], who: 'A' }
+  it('a timeline in Spanish: failed pre-shift items (an item a lead wrote as written) and a refused refill\'s reasons', async () => {
+    const line: HistoryLineWords = { title: 'Pre-shift check failed: out of service', titleWords: { code: 'preshift_out_of_service' }, detail: 'x', detailWords: [{ code: 'preshift_failed_items', params: { checks: 'Service brake stops the truck smoothly; Gate chain on' } }, { code: 'hour_meter', params: { hours: 120 } }], who: 'A' }
     expect(useHistoryWords().detail(line)).toMatch(/^Service brake stops the truck smoothly; Gate chain on · /)
     await withSpanish(() => {
       const words = useHistoryWords()
       expect(words.title(line)).not.toContain('Pre-shift')
       expect(words.detail(line)).toMatch(/^El freno de servicio detiene el montacargas sin jalones; Gate chain on · /)
+      // a refused refill's reason by its refusal code, the pre-fill item by its key; an uncoded one as stored
+      const refused: HistoryLineWords = { title: 'Refill refused', detailWords: [{ code: 'refusal_reason', params: { items: ['dents'], refusal: 'fill_inspection_failed', said: 'Failed pre-fill inspection: No dents. Do not fill this cylinder.' } }, { code: 'refusal_reason', params: { refusal: 'refill_refused', said: 'As stored' } }], who: 'A' }
+      expect(words.detail(refused)).toBe('No pasó la inspección antes del llenado: Sin abolladuras. No llene este cilindro. · As stored')
     })
   })
 })

@@ -5,6 +5,7 @@ import { areas } from './core'
 import { lpCylinders, trucks } from './assets'
 import { uploads } from './logs'
 import { correctionReason, eventBase } from './event-base'
+import type { ReasonParams } from '../../../shared/utils/battery-fit'
 
 // A refill attempt, kept whether it was filled or refused (refusals are part of the record).
 export const cylinderRefills = pgTable('cylinder_refills', {
@@ -13,6 +14,8 @@ export const cylinderRefills = pgTable('cylinder_refills', {
   inspection: jsonb().$type<Record<string, 'pass' | 'fail'>>().notNull(),
   refused: boolean().notNull().default(false),
   refusalReasons: jsonb().$type<string[]>().notNull().default([]),
+  /** the same reasons as codes with their numbers (refusal.<code> in i18n/locales), so each reader gets them in their words; null on refills recorded before */
+  refusalWords: jsonb().$type<{ code: string, params?: ReasonParams }[]>(),
   grossBeforeLb: doublePrecision(),
   grossAfterLb: doublePrecision(),
   measuredTareLb: doublePrecision(),

@@ -49,7 +49,7 @@ export async function recordRefill(actor: Actor, cylinderId: string, input: Refi
       const [earlier] = await tx.select().from(tables.cylinderRefills).where(eq(tables.cylinderRefills.idempotencyKey, input.idempotencyKey))
       if (earlier) {
         if (earlier.cylinderId !== cylinderId || earlier.userId !== actor.user.id) throw codedError(409, 'retry_key_taken', 'That idempotency key was used for another record.')
-        return { refill: earlier, cylinder, status: 200 as const, reasons: earlier.refusalReasons.map(message => ({ code: 'refill_refused', message })), offerQuarantine: false }
+        return { refill: earlier, cylinder, status: 200 as const, reasons: storedRefusals(earlier), offerQuarantine: false }
       }
     }
     const at = eventTime(input.at, 'at')
@@ -91,6 +91,7 @@ export async function recordRefill(actor: Actor, cylinderId: string, input: Refi
       inspection: input.inspection,
       refused,
       refusalReasons: reasons.map(r => r.message),
+      refusalWords: reasons.map(r => (r.params ? { code: r.code, params: r.params } : { code: r.code })),
       grossBeforeLb: input.grossBeforeLb,
       grossAfterLb: input.grossAfterLb,
       measuredTareLb: input.measuredTareLb,
@@ -127,5 +128,13 @@ export async function recordRefill(actor: Actor, cylinderId: string, input: Refi
       reasons,
       offerQuarantine: refused && (failed.length > 0 || tareFlagged) && cylinder.status !== 'condemned' && cylinder.status !== 'quarantined',
     }
+  })
+}
+
+/** A stored refusal's reasons as the screen takes them: coded where the codes were kept, else the English as stored. */
+export function storedRefusals(r: { refusalReasons: string[], refusalWords: { code: string, params?: FitReason['params'] }[] | null }): FitReason[] {
+  return r.refusalReasons.map((message, i) => {
+    const w = r.refusalWords?.[i]
+    return w ? { ...w, message } : { code: 'refill_refused', message }
   })
 }

@@ -6,6 +6,8 @@ import { KG_PER_LB, LITRES_PER_US_GAL } from '#shared/utils/units'
 import { isEffectiveRecord, rowsOf } from '../due/effective'
 import { chartOf, chartTop, money, num, numberText, scopeCte, siteColumn, totalsOf, type ReportScope } from './scope'
 import { DUE_KIND_LABELS } from '#shared/utils/due-schedules'
+import type { ReasonParams } from '#shared/utils/battery-fit'
+import { mailReason } from '../mail-words'
 
 // Standing refills in the range by month (net pounds, gallons at 60 °F as recorded, cost at the price per
 // gallon kept on each refill when it was recorded, else the site's price now) and the refused ones with their reasons; propane per truck from the cylinder changes:
@@ -25,13 +27,15 @@ async function propaneRows(scope: ReportScope) {
       JOIN cylinder_refills r ON r.site_id = scope.site_id AND r.at >= scope.t0 AND r.at < scope.t1
       WHERE ${isEffectiveRecord('cylinder_refills', 'r')}
       GROUP BY 1`),
-    rowsOf<{ reason: string, refusals: number }>(db, sql`
+    // each reason with its codes where they were kept (refusal_words, in the same order), for the reader's words
+    rowsOf<{ reason: string, words: { code: string, params?: ReasonParams } | null, refusals: number }>(db, sql`
       WITH ${scopeCte(scope)}
-      SELECT reason, count(*)::int AS refusals
+      SELECT e.reason, r.refusal_words -> (e.n::int - 1) AS words, count(*)::int AS refusals
       FROM scope JOIN cylinder_refills r ON r.site_id = scope.site_id AND r.at >= scope.t0 AND r.at < scope.t1
-      CROSS JOIN LATERAL jsonb_array_elements_text(CASE WHEN jsonb_array_length(r.refusal_reasons) > 0 THEN r.refusal_reasons ELSE jsonb_build_array(${scope.t('report.no_reason')}::text) END) AS reason
+      CROSS JOIN LATERAL jsonb_array_elements_text(CASE WHEN jsonb_array_length(r.refusal_reasons) > 0 THEN r.refusal_reasons ELSE jsonb_build_array(${scope.t('report.no_reason')}::text) END)
+        WITH ORDINALITY AS e(reason, n)
       WHERE r.refused AND ${isEffectiveRecord('cylinder_refills', 'r')}
-      GROUP BY reason ORDER BY 2 DESC, 1`),
+      GROUP BY 1, 2 ORDER BY 3 DESC, 1`),
     rowsOf<{ truck: string, changes: number, lb: number, cost: number }>(db, sql`
       WITH ${scopeCte(scope)}
       SELECT t.fleet_number || CASE WHEN ${scope.siteIds.length > 1} THEN ' · ' || scope.site_name ELSE '' END AS truck, count(*)::int AS changes,
@@ -108,7 +112,7 @@ export async function propaneReport(scope: ReportScope): Promise<ReportResponse>
         title: t('report.propane.refused_title'),
         chart: null,
         columns: [{ key: 'reason', label: t('report.col.reason') }, { key: 'refusals', label: t('report.col.refusals'), decimals: 0 }],
-        rows: refusals.map(r => ({ reason: r.reason, refusals: num(r.refusals) })),
+        rows: refusals.map(r => ({ reason: r.words ? mailReason(t, { ...r.words, message: r.reason }, scope.units) : r.reason, refusals: num(r.refusals) })),
       },
       {
         key: 'requalification',

@@ -1,0 +1,1 @@
+ALTER TABLE "cylinder_refills" ADD COLUMN "refusal_words" jsonb;
