@@ -2,7 +2,7 @@ import { createHash, randomBytes } from 'node:crypto'
 import { createEvents, type EventAttributes } from 'ics'
 import type { Role } from '#shared/types/auth'
 import type { Actor } from './auth'
-import { mailWords } from './mail-words'
+import { mailDay, mailWords } from './mail-words'
 import { dueDetail, dueSubjectName, dueTaskName } from './due-words'
 
 // Private calendar feeds of a user's due list. The URL carries a random token; only its SHA-256 is
@@ -42,6 +42,7 @@ const dateArray = (iso: string): [number, number, number] => [Number(iso.slice(0
 export async function calendarFeedIcs(owner: { userId: string, name: string, language?: string | null }): Promise<string> {
   const db = useDb()
   const t = mailWords(owner.language)
+  const day = mailDay(owner.language)
   const memberships = await db.select({ siteId: tables.memberships.siteId, role: tables.memberships.role }).from(tables.memberships)
     .where(eq(tables.memberships.userId, owner.userId))
   const bySite = new Map<string, Role[]>()
@@ -51,11 +52,11 @@ export async function calendarFeedIcs(owner: { userId: string, name: string, lan
     const list = await computeDueList(siteId, { roles, personId: owner.userId, states: ['overdue', 'due_soon', 'upcoming'], kinds: null, sort: 'due', limit: 5000 })
     for (const o of list.items) {
       const on = o.dueOn ?? list.today
-      const named = `${dueTaskName(t, o)} — ${dueSubjectName(t, o)}`
+      const named = `${dueTaskName(t, o)} — ${dueSubjectName(t, day, o)}`
       events.push({
         uid: `${o.id.replace(/[^\w-]/g, '-')}@bayward`,
         title: o.state === 'overdue' ? t('mail.calendar_overdue', { title: named }) : named,
-        description: [t('mail.calendar_state_at', { state: t(`due.state.${o.state}`), site: list.site.name }), dueDetail(t, o), o.lastDoneOn ? t('mail.calendar_last_done', { on: o.lastDoneOn }) : null].filter(Boolean).join(' '),
+        description: [t('mail.calendar_state_at', { state: t(`due.state.${o.state}`), site: list.site.name }), dueDetail(t, day, o), o.lastDoneOn ? t('mail.calendar_last_done', { on: day(o.lastDoneOn) }) : null].filter(Boolean).join(' '),
         start: dateArray(on),
         end: dateArray(addCalendarInterval(on, 1, 'day')),
         url: new URL(o.action.to, (useRuntimeConfig().public.baseUrl as string) || 'http://localhost:3000').toString(),

@@ -2,7 +2,7 @@ import { sql } from 'drizzle-orm'
 import type { Role } from '#shared/types/auth'
 import { digestDue } from '#shared/utils/mail-schedule'
 import type { Obligation } from './due/list'
-import { mailWords, type MailT } from './mail-words'
+import { mailDay, mailWords, type MailDay, type MailT } from './mail-words'
 import { dueDetail, dueSubjectName, dueTaskName } from './due-words'
 
 // The daily digest: each lead gets what is overdue and due soon in their roles' lists, in their language
@@ -36,11 +36,12 @@ export async function sendDigests({ siteIds, force = false, now = new Date() }: 
       const mine = list.items.filter(o => u.roles.includes(o.responsibleRole))
       if (mine.length === 0) continue
       const t = mailWords(u.language)
+      const day = mailDay(u.language)
       const overdue = mine.filter(o => o.state === 'overdue').length
       messages.push({
         siteId: s.id, to: u.email, kind: 'digest',
         subject: `[Bayward] ${t('mail.digest_subject', { site: list.site.name, overdue, soon: mine.length - overdue })}`,
-        body: digestBody(t, u.name, list.site.name, list.today, mine),
+        body: digestBody(t, day, u.name, list.site.name, list.today, mine),
       })
     }
     await db.transaction(tx => queueMail(tx, messages))
@@ -52,10 +53,10 @@ export async function sendDigests({ siteIds, force = false, now = new Date() }: 
 
 const SHOWN = 60
 
-function digestBody(t: MailT, name: string, siteName: string, today: string, items: Obligation[]) {
+function digestBody(t: MailT, day: MailDay, name: string, siteName: string, today: string, items: Obligation[]) {
   const line = (o: Obligation) => {
-    const detail = dueDetail(t, o)
-    return `  • ${o.dueOn ?? t('mail.digest_now')}  ${dueTaskName(t, o)} — ${dueSubjectName(t, o)}${detail ? ` (${detail})` : ''}\n    ${appLink(o.action.to)}`
+    const detail = dueDetail(t, day, o)
+    return `  • ${o.dueOn ? day(o.dueOn) : t('mail.digest_now')}  ${dueTaskName(t, o)} — ${dueSubjectName(t, day, o)}${detail ? ` (${detail})` : ''}\n    ${appLink(o.action.to)}`
   }
   const section = (heading: string, none: string, shown: Obligation[]) => (shown.length
     ? `${t(heading, { n: shown.length })}\n${shown.slice(0, SHOWN).map(line).join('\n')}${shown.length > SHOWN ? `\n  ${t('mail.digest_more', { n: shown.length - SHOWN })}` : ''}`
@@ -63,7 +64,7 @@ function digestBody(t: MailT, name: string, siteName: string, today: string, ite
   return [
     t('mail.hello', { name: name.split(' ')[0]! }),
     '',
-    t('mail.digest_intro', { site: siteName, on: today }),
+    t('mail.digest_intro', { site: siteName, on: day(today) }),
     '',
     section('mail.digest_overdue', 'mail.digest_none_overdue', items.filter(o => o.state === 'overdue')),
     '',

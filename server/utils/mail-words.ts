@@ -1,6 +1,7 @@
 import type { FitReason, ReasonParams } from '#shared/utils/battery-fit'
 import type { Language } from '#shared/utils/languages'
 import { LANGUAGE_TAGS, isLanguage } from '#shared/utils/languages'
+import { keptDateFormat } from '#shared/utils/intl-formats'
 import type { UnitSystem } from '#shared/utils/units'
 import en from '../../i18n/locales/en.json'
 import enLead from '../../i18n/lead/en.json'
@@ -26,18 +27,31 @@ export function mailLanguage(setting: string | null | undefined): Language {
   return isLanguage(setting) ? setting : 'en'
 }
 
-/** `groupCounts`: the count `{n}` written as the language groups digits ("5,002"), for pages where every `n` is a count (reports). */
-export function mailWords(language: string | null | undefined, { groupCounts = false } = {}): MailT {
+/**
+ * `groupCounts`: the count `{n}` written as the language groups digits ("5,002"), for pages where every `n` is a count (reports).
+ * `days`: a parameter that is a calendar day ('2026-12-03') written as the language writes a date (e-mails).
+ */
+export function mailWords(language: string | null | undefined, { groupCounts = false, days = false } = {}): MailT {
   const lang = mailLanguage(language)
   const tree = MESSAGES[lang]
+  const day = days ? mailDay(lang) : null
   return (key, params = {}) => {
     const text = lookup(tree, key) ?? lookup(MESSAGES.en, key) ?? key
     // the singular of a "one | many" message unless the count says otherwise
     const plural = text.split(' | ')
     const chosen = plural.length === 2 ? plural[typeof params.n === 'number' && params.n !== 1 ? 1 : 0]! : text
-    const shown = (name: string) => (groupCounts && name === 'n' && typeof params.n === 'number' ? params.n.toLocaleString(LANGUAGE_TAGS[lang]) : String(params[name]))
+    const shown = (name: string) => (groupCounts && name === 'n' && typeof params.n === 'number'
+      ? params.n.toLocaleString(LANGUAGE_TAGS[lang])
+      : day && typeof params[name] === 'string' ? day(params[name]) : String(params[name]))
     return chosen.replace(/\{(\w+)\}/g, (whole, name: string) => (name in params ? shown(name) : whole))
   }
+}
+
+/** A calendar day ('2026-12-03') as the recipient's language writes a date ("Dec 3, 2026", "3 dic 2026"); other text as given. */
+export type MailDay = (isoDay: string) => string
+export function mailDay(language: string | null | undefined): MailDay {
+  const format = keptDateFormat(LANGUAGE_TAGS[mailLanguage(language)], { dateStyle: 'medium', timeZone: 'UTC' })
+  return isoDay => (/^\d{4}-\d{2}-\d{2}$/.test(isoDay) ? format.format(new Date(`${isoDay}T12:00:00Z`)) : isoDay)
 }
 
 /** A coded reason in the recipient's words; the server's English when the language has no words for its code. */

@@ -112,7 +112,7 @@ export async function queueAlert(tx: DbOrTx, alert: AlertInput): Promise<MailRow
   const units = place?.unitSystem ?? 'us'
   const to = new Map([...people, ...extra].map(p => [p.email.toLowerCase(), p]))
   return queueMail(tx, [...to.values()].map((p) => {
-    const t = mailWords(p.language)
+    const t = mailWords(p.language, { days: true })
     const say = (text: AlertText) => (typeof text === 'string' ? text : text(t, units))
     return {
       siteId: alert.siteId, to: p.email, kind: alert.kind, subject: `[Bayward] ${say(alert.subject)}`,

@@ -16,6 +16,12 @@ export interface FollowUpWordsOf {
 const INSPECTION_KEYS = new Map(Object.values(DEFAULT_INSPECTION_ITEMS).flat().map(i => [i.label, i.key]))
 const CHECKLIST_KEYS = new Map(Object.values(DEFAULT_CHECKLIST_ITEMS).flat().map(i => [i.label, i.key]))
 
+/** A failed checklist item as stored (its label): a default one still worded as shipped in the reader's words (logs.item.<key>), a lead's own as written. */
+export function checklistItemName(label: string, words: Pick<FollowUpWordsOf, 't' | 'has'>): string {
+  const key = CHECKLIST_KEYS.get(label)
+  return key && words.has(`logs.item.${key}`) ? words.t(`logs.item.${key}`) : label
+}
+
 /**
  * A follow-up's title in the reader's words (logs.follow_ups.title_<code>): the day as the reader reads it, an
  * incident's kind and a default checklist's items translated. A title without codes (made before they were stored,

@@ -43,7 +43,9 @@ describe('area logs: fill in, fail, sign, correct', () => {
     expect(mail).toHaveLength(1)
     expect(mail[0]).toMatchObject({ kind: 'alert:checklist_failed', siteId })
     expect(mail[0]!.subject).toContain('"Eyewash flushed and reachable" failed')
-    expect(mail[0]!.body).toContain(`A follow-up is open, due ${daysFrom(yesterday, 3)}.`)
+    // the due day as en-US writes a date (the runtime's Intl), e.g. "Dec 6, 2026"
+    const dueText = new Intl.DateTimeFormat('en-US', { dateStyle: 'medium', timeZone: 'UTC' }).format(new Date(`${daysFrom(yesterday, 3)}T12:00:00Z`))
+    expect(mail[0]!.body).toContain(`A follow-up is open, due ${dueText}.`)
   })
 
   it('a failed item without a note is refused (400 with the field)', async () => {

@@ -103,6 +103,9 @@ describe('alerts by e-mail through the outbox', () => {
     expect(spanishDigest.body).toContain('VENCIDO (')
     expect(spanishDigest.body).toContain('Firmar la bitácora del área')
     expect(spanishDigest.body).toContain('La lista completa: ')
+    // the day as es-US writes a date ("4 dic 2026"), not ISO
+    expect(spanishDigest.body).toMatch(/ al \d{1,2} [a-z]{3} \d{4}:/)
+    expect(spanishDigest.body.split('\n').filter(l => l.startsWith('  •')).filter(l => /\d{4}-\d{2}-\d{2}/.test(l))).toEqual([])
     expect(spanishDigest.body).not.toMatch(/OVERDUE|Sign the area log|Your due list/)
   })
 

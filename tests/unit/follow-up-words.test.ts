@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { followUpTitle } from '../../shared/utils/follow-up-words'
+import { checklistItemName, followUpTitle } from '../../shared/utils/follow-up-words'
 import { mailWords } from '../../server/utils/mail-words'
 
 // A follow-up's title as an e-mail says it (the daily digest): the recipient's language from the stored codes,
@@ -27,5 +27,12 @@ describe('follow-up titles in an e-mail', () => {
     expect(said('es', { ...checklist, titleWords: { ...checklist.titleWords, params: { ...checklist.titleWords.params, item: 'Gate chain on' } } })).toBe('Dock 9 fuel cage: Gate chain on — falló el 2026-12-01')
     expect(said('es', { title: 'Stored words', titleWords: { code: 'no_such_code', params: {} } })).toBe('Stored words')
     expect(said('es', { title: 'Stored words' })).toBe('Stored words')
+  })
+
+  it('a failed checklist item in an alert: a default one in the recipient\'s words, a lead\'s as written', () => {
+    const es = mailWords('es')
+    const words = { t: es, has: (key: string) => es(key) !== key }
+    expect(checklistItemName('Eyewash flushed and reachable', words)).toBe('Lavaojos probado y a la mano')
+    expect(checklistItemName('Gate chain on', words)).toBe('Gate chain on')
   })
 })

@@ -1,3 +1,4 @@
+import { checklistItemName } from '#shared/utils/follow-up-words'
 import type { ChecklistItem } from '#shared/utils/area-checklists'
 import type { DbOrTx } from '../db'
 import type { Actor } from '../auth'
@@ -23,12 +24,12 @@ export async function openChecklistFollowUp(tx: DbOrTx, actor: Actor, area: Area
   }).returning()
   await writeAudit(tx, { actor, siteId: area.siteId, action: 'create', entity: 'follow_up', entityId: followUp!.id, after: followUp })
   const dueOn = await followUpDueAt(tx, area.siteId, date)
-  // in each recipient's language; the item's name is as the lead wrote it
+  // in each recipient's language; a default item in their words, one a lead wrote as written
   await queueAlert(tx, {
     siteId: area.siteId, kind: 'alert:checklist_failed', audience: 'notice.checklist-failed',
-    subject: t => t('mail.item_failed_subject', { area: area.name, item: item.label }),
+    subject: t => t('mail.item_failed_subject', { area: area.name, item: checklistItemName(item.label, { t, has: key => t(key) !== key }) }),
     body: t => [
-      t('mail.item_failed', { who: actor.user.name, item: item.label, area: area.name, on: date }),
+      t('mail.item_failed', { who: actor.user.name, item: checklistItemName(item.label, { t, has: key => t(key) !== key }), area: area.name, on: date }),
       t('mail.note', { note: entry.note || '—' }),
       '',
       t('mail.follow_up_open', { on: dueOn }),

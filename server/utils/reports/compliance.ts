@@ -2,14 +2,10 @@ import { monthsBetween, monthText } from '#shared/utils/report-math'
 import { LANGUAGE_TAGS } from '#shared/utils/languages'
 import type { ReportResponse } from '#shared/types/reports'
 import { CO_LIMITS } from '#shared/utils/co-exposure'
-import { DEFAULT_CHECKLIST_ITEMS, daysInRange } from '#shared/utils/area-checklists'
+import { daysInRange } from '#shared/utils/area-checklists'
+import { checklistItemName } from '#shared/utils/follow-up-words'
 import { isEffectiveRecord, rowsOf } from '../due/effective'
 import { chartOf, chartTop, num, numOrNull, scopeCte, siteColumn, totalsOf, type ReportScope } from './scope'
-
-// A default checklist item still worded as shipped, in the reader's words (logs.item.<key>); a lead's wording as written.
-const DEFAULT_ITEM_LABELS = new Map(Object.values(DEFAULT_CHECKLIST_ITEMS).flat().map(i => [i.key, i.label]))
-const itemWords = (t: ReportScope['t'], key: string, label: string) =>
-  (DEFAULT_ITEM_LABELS.get(key) === label && t(`logs.item.${key}`) !== `logs.item.${key}` ? t(`logs.item.${key}`) : label)
 
 const siteSuffix = (scope: ReportScope) => sql`CASE WHEN ${scope.siteIds.length > 1} THEN ' · ' || scope.site_name ELSE '' END`
 
@@ -130,7 +126,8 @@ export async function complianceReport(scope: ReportScope): Promise<ReportRespon
         title: t('report.compliance.failed_items'),
         chart: null,
         columns: [{ key: 'item', label: t('report.col.item') }, { key: 'failed', label: t('report.col.times_failed'), decimals: 0 }],
-        rows: failedItems.map(i => ({ item: itemWords(t, i.key, i.item), failed: num(i.failed) })),
+        // a default item still worded as shipped in the reader's words; a lead's wording as written
+        rows: failedItems.map(i => ({ item: checklistItemName(i.item, { t, has: key => t(key) !== key }), failed: num(i.failed) })),
       },
       {
         key: 'evaluations',
