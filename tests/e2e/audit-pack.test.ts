@@ -142,6 +142,9 @@ describe('audit pack', () => {
     for (const words of ['Paquete de auditoría', '1. Bitácoras del área', '5. Lecturas de CO en interiores', 'Sobre el límite', 'Página 1 de']) expect(text).toContain(words)
     expect(text).toContain(CORRECTION_REASON.slice(0, 20))
     expect(text).not.toContain('Replaced by a correction')
+    // a refused refill's reason from its codes and the failed pre-fill check by its name, in Spanish
+    expect(text).toContain('No pasó la inspección')
+    expect(text).toContain('Sin abolladuras')
   })
 
   it('a technician is refused; a lead of another site gets nothing of this site, nor this pack', async () => {

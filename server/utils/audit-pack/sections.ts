@@ -4,6 +4,8 @@ import { QUALIFICATION_KINDS } from '#shared/utils/admin-schemas'
 import { RETRAINING_REASONS } from '#shared/utils/truck-inspection'
 import { REQUAL_METHOD_LABELS } from '#shared/utils/asset-schemas'
 import { packCorrectionColumns, packInRange, packSiteTime, type PackCorrectableRow } from './sql'
+import type { FitReason } from '#shared/utils/battery-fit'
+import { mailReason } from '../mail-words'
 
 // The audit pack's sections: per table, one statement scoped to the site and the range (read through a
 // cursor, a batch at a time), the columns of the PDF and how a row reads. The CSV of a table carries the
@@ -96,17 +98,27 @@ const requalifications: PackTable = {
 }
 
 const refills = packCorrectionColumns('cylinder_refills')
+// The reasons in the pack's language where their codes were kept (numbers as stored, in lb), else as stored; the
+// failed pre-fill checks by their names, not their keys.
+const refusalText = (r: Row, t: PackWords) => {
+  const said = Array.isArray(r.reasons) ? (r.reasons as string[]) : []
+  const words = Array.isArray(r.words) ? (r.words as { code: string, params?: FitReason['params'] }[]) : []
+  return said.map((message, i) => (words[i] ? mailReason(t, { ...words[i]!, message }, 'us') : message)).join('; ')
+}
+const failedChecks = (failed: unknown, t: PackWords) => (typeof failed === 'string' && failed
+  ? failed.split('; ').map(k => (t(`refill.item.${k}`) !== `refill.item.${k}` ? t(`refill.item.${k}`) : k)).join('; ')
+  : '')
 const refusedRefills: PackTable = {
   file: 'refused-refills.csv',
   title: 'refused',
   columns: [col('when', 0.9), col('cylinder', 0.9), col('why_refused', 3), col('failed_checks', 1.4), col('by', 1), CORRECTION_COLUMN],
   corrections: true,
-  sql: `SELECT ${refills.select}, ${packSiteTime('t.at')} AS "at", cy.serial AS "cylinder", t.refusal_reasons AS "reasons",
+  sql: `SELECT ${refills.select}, ${packSiteTime('t.at')} AS "at", cy.serial AS "cylinder", t.refusal_reasons AS "reasons", t.refusal_words AS "words",
       (SELECT string_agg(k, '; ' ORDER BY k) FROM jsonb_each_text(t.inspection) AS i(k, v) WHERE v = 'fail') AS "failed"
     FROM cylinder_refills t JOIN lp_cylinders cy ON cy.id = t.cylinder_id ${refills.join}
     WHERE t.site_id = $1 AND t.refused AND ${packInRange('t.at')}
     ORDER BY t.at, t.id`,
-  cells: (r, t) => [r.at, r.cylinder, list(r.reasons), r.failed ?? '', r.recordedBy, corrected(r, t)],
+  cells: (r, t) => [r.at, r.cylinder, refusalText(r, t), failedChecks(r.failed, t), r.recordedBy, corrected(r, t)],
 }
 
 const co = packCorrectionColumns('co_readings')
