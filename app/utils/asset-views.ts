@@ -232,8 +232,9 @@ export function formatCardCell(value: unknown, col: Pick<ColumnView, 'unit' | 'o
 export function formatCell(value: unknown, col: Pick<ColumnView, 'unit' | 'options'>, system: 'us' | 'metric'): string {
   if (value === null || value === undefined || value === '') return '—'
   if (col.unit) return formatMeasure(value, col.unit, system)
-  if (col.options) return col.options[String(value)] ?? String(value)
+  // a list (allowed chemistries, charger profiles) by its options' names, before a single value's look-up
   if (Array.isArray(value)) return value.map(v => col.options?.[v] ?? v).join(', ') || '—'
+  if (col.options) return col.options[String(value)] ?? String(value)
   if (typeof value === 'number') return value.toLocaleString('en-US', { maximumFractionDigits: 1 })
   return String(value)
 }

@@ -26,6 +26,12 @@ describe('asset cards', () => {
     expect(formatCell(24, volts, 'us')).toBe('24')
   })
 
+  it('a list of closed values reads by their names (a truck\'s allowed chemistries), not as codes', () => {
+    const allowed = ASSET_VIEWS.truck.fields.find(f => f.key === 'allowedChemistries')!
+    expect(formatCell(['flooded_lead_acid', 'lithium_ion'], allowed, 'us')).toBe('Flooded lead-acid, Lithium-ion')
+    expect(formatCell([], allowed, 'us')).toBe('—')
+  })
+
   it('a page name inside a sentence loses its capital, an acronym keeps its capitals', () => {
     expect(inSentence('Batteries')).toBe('batteries')
     expect(inSentence('LP cylinders')).toBe('LP cylinders')
