@@ -19,6 +19,8 @@ export interface FieldView {
   step?: string
   /** shown only when this returns true for the form's current values */
   when?: (v: Record<string, unknown>) => boolean
+  /** a number written as is, with no digit grouping (a year) */
+  plain?: boolean
 }
 
 export interface ColumnView {
@@ -29,6 +31,10 @@ export interface ColumnView {
   options?: Record<string, string>
   /** a unit that is never converted (V, Ah, A, h), written after the value where no column head names it: the phone's cards */
   suffix?: string
+  /** a number written as is, with no digit grouping (a year: 2014, not 2,014) */
+  plain?: boolean
+  /** the cells are calendar days ('2026-03-31'), shown as the reader's language writes a date */
+  date?: boolean
 }
 
 export interface AssetView {
@@ -154,8 +160,8 @@ export const ASSET_VIEWS: Record<AssetKind, AssetView> = {
       { key: 'specification', label: 'Spec', options: CYLINDER_SPEC_LABELS },
       { key: 'waterCapacityLb', label: 'Water capacity', sortable: true, unit: 'lb' },
       { key: 'tareLb', label: 'Tare', unit: 'lb' },
-      { key: 'manufactureYear', label: 'Made', sortable: true },
-      { key: 'lastRequalifiedOn', label: 'Last requalified', sortable: true },
+      { key: 'manufactureYear', label: 'Made', sortable: true, plain: true },
+      { key: 'lastRequalifiedOn', label: 'Last requalified', sortable: true, date: true },
     ],
     filters: [
       { key: 'status', label: 'Status', options: CYLINDER_STATUS_LABELS },
@@ -169,7 +175,7 @@ export const ASSET_VIEWS: Record<AssetKind, AssetView> = {
       { key: 'tareLb', label: 'Tare weight (stamped)', type: 'number', unit: 'lb' },
       { key: 'nominalPropaneLb', label: 'Propane capacity', type: 'number', unit: 'lb' },
       { key: 'manufactureMonth', label: 'Manufacture month', type: 'int' },
-      { key: 'manufactureYear', label: 'Manufacture year', type: 'int' },
+      { key: 'manufactureYear', label: 'Manufacture year', type: 'int', plain: true },
       { key: 'lastRequalifiedOn', label: 'Last requalified on', type: 'date' },
       { key: 'lastRequalificationMethod', label: 'Requalification method', type: 'select', options: REQUAL_METHOD_LABELS },
       { key: 'status', label: 'Status', type: 'select', options: { full: 'Full', empty: 'Empty', quarantined: 'Quarantined', condemned: 'Condemned' } },
@@ -224,18 +230,18 @@ export function formatMeasure(value: unknown, unit: MeasureUnit, system: 'us' | 
 }
 
 /** A cell on a phone's card, where no column head says what the number is: its fixed unit follows it ("24 V"). */
-export function formatCardCell(value: unknown, col: Pick<ColumnView, 'unit' | 'options' | 'suffix'>, system: 'us' | 'metric'): string {
+export function formatCardCell(value: unknown, col: Pick<ColumnView, 'unit' | 'options' | 'suffix' | 'plain'>, system: 'us' | 'metric'): string {
   const text = formatCell(value, col, system)
   return col.suffix && text !== '—' ? `${text} ${col.suffix}` : text
 }
 
-export function formatCell(value: unknown, col: Pick<ColumnView, 'unit' | 'options'>, system: 'us' | 'metric'): string {
+export function formatCell(value: unknown, col: Pick<ColumnView, 'unit' | 'options' | 'plain'>, system: 'us' | 'metric'): string {
   if (value === null || value === undefined || value === '') return '—'
   if (col.unit) return formatMeasure(value, col.unit, system)
   // a list (allowed chemistries, charger profiles) by its options' names, before a single value's look-up
   if (Array.isArray(value)) return value.map(v => col.options?.[v] ?? v).join(', ') || '—'
   if (col.options) return col.options[String(value)] ?? String(value)
-  if (typeof value === 'number') return value.toLocaleString('en-US', { maximumFractionDigits: 1 })
+  if (typeof value === 'number') return col.plain ? String(value) : value.toLocaleString('en-US', { maximumFractionDigits: 1 })
   return String(value)
 }
 

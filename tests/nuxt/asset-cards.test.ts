@@ -32,6 +32,12 @@ describe('asset cards', () => {
     expect(formatCell([], allowed, 'us')).toBe('—')
   })
 
+  it('a year is written as is, without digit grouping', () => {
+    const made = ASSET_VIEWS.cylinder.columns.find(c => c.key === 'manufactureYear')!
+    expect(formatCell(2014, made, 'us')).toBe('2014')
+    expect(formatCell(2014, ASSET_VIEWS.cylinder.fields.find(f => f.key === 'manufactureYear')!, 'us')).toBe('2014')
+  })
+
   it('a page name inside a sentence loses its capital, an acronym keeps its capitals', () => {
     expect(inSentence('Batteries')).toBe('batteries')
     expect(inSentence('LP cylinders')).toBe('LP cylinders')

@@ -1,7 +1,7 @@
 import type { ReportResponse } from '#shared/types/reports'
 import { cyclesPerDay, nextQuarters, quarterOf, ratedCyclesReachedOn } from '#shared/utils/report-math'
 import { batteryFacts, RECENT_DAYS } from './battery-facts'
-import { chartOf, money, siteColumn, totalsOf, type ReportScope } from './scope'
+import { chartOf, dayText, money, siteColumn, totalsOf, type ReportScope } from './scope'
 
 /** Each battery's forecast: the day it reaches its rated cycles at its own recent rate. */
 export function replacementForecast(scope: ReportScope, facts: Awaited<ReturnType<typeof batteryFacts>>) {
@@ -29,7 +29,7 @@ export async function replacementReport(scope: ReportScope): Promise<ReportRespo
     to: scope.to,
     sites: scope.sites.map(s => ({ id: s.id, name: s.name })),
     figures: [
-      { label: t('report.replacement.due_year'), value: String(year.batteries), detail: t('report.replacement.from_day', { day: scope.to }) },
+      { label: t('report.replacement.due_year'), value: String(year.batteries), detail: t('report.replacement.from_day', { day: dayText(scope.to, scope.language) }) },
       { label: t('report.replacement.their_cost'), value: money(year.cost, cur, language), detail: year.unpriced ? t('report.replacement.unpriced', { n: year.unpriced }) : undefined },
       { label: t('report.replacement.due_in', { quarter: quarters[0]! }), value: String(byQuarter[0]?.batteries ?? 0) },
     ],
@@ -37,7 +37,7 @@ export async function replacementReport(scope: ReportScope): Promise<ReportRespo
       {
         key: 'quarter',
         title: t('report.replacement.quarter_title'),
-        note: t('report.replacement.quarter_note', { days: RECENT_DAYS, day: scope.to }),
+        note: t('report.replacement.quarter_note', { days: RECENT_DAYS, day: dayText(scope.to, scope.language) }),
         chart: chartOf(scope, {
           kind: 'bar', categories: quarters, unit: t('report.unit.batteries'), secondUnit: cur || t('report.unit.cost'),
           series: [{ name: t('report.col.batteries'), data: byQuarter.map(q => q.batteries) }, { name: `${t('report.col.cost')}${cur ? ` (${cur})` : ''}`, type: 'line', data: byQuarter.map(q => Math.round(q.cost)) }],
