@@ -139,8 +139,15 @@ describe('section rows', async () => {
   it('a refused refill reads when, which cylinder, why and who', () => {
     const row = { ...facts(), id: 'r1', at: '2026-03-04 07:15', cylinder: 'LP-0042', reasons: ['Past its requalification date', 'Dented collar'], failed: 'collar; dents' }
     const cells = table('refused-refills.csv').cells(row, en)
-    expect(cells).toEqual(['2026-03-04 07:15', 'LP-0042', 'Past its requalification date; Dented collar', 'collar; dents', 'Dana Okafor', ''])
+    // a failed check by its name (refill.item.dents); a key with no name stays as stored
+    expect(cells).toEqual(['2026-03-04 07:15', 'LP-0042', 'Past its requalification date; Dented collar', 'collar; No dents', 'Dana Okafor', ''])
     expect(cells).toHaveLength(table('refused-refills.csv').columns.length)
+  })
+
+  it('a refused refill whose reasons kept their codes reads them in the pack\'s language', () => {
+    const row = { ...facts(), id: 'r2', at: '2026-03-04 07:15', cylinder: 'LP-0042', reasons: ['Failed pre-fill inspection: No dents. Do not fill this cylinder.'], words: [{ code: 'fill_inspection_failed', params: { items: ['dents'] } }], failed: 'dents' }
+    const cells = table('refused-refills.csv').cells(row, es)
+    expect(cells.slice(2, 4)).toEqual(['No pasó la inspección antes del llenado: Sin abolladuras. No llene este cilindro.', 'Sin abolladuras'])
   })
 
   it('an area-log correction carries its reason; an unsigned log says so', () => {
