@@ -50,14 +50,14 @@ async function complianceRows(scope: ReportScope) {
         AND EXISTS (SELECT 1 FROM area_log_entries x WHERE x.log_id = l.id)
       LEFT JOIN area_log_entries e ON e.log_id = l.id AND ${isEffectiveRecord('area_log_entries', 'e')}
       GROUP BY 1 ORDER BY 1`),
-    rowsOf<{ key: string, item: string, failed: number }>(db, sql`
+    rowsOf<{ item: string, failed: number }>(db, sql`
       WITH ${scopeCte(scope)}
-      SELECT e.item_key AS key, coalesce(item.label, e.item_key) AS item, count(*)::int AS failed
+      SELECT coalesce(item.label, e.item_key) AS item, count(*)::int AS failed
       FROM scope JOIN area_log_entries e ON e.site_id = scope.site_id AND e.at >= scope.t0 AND e.at < scope.t1
       JOIN area_logs l ON l.id = e.log_id JOIN checklist_templates t ON t.id = l.template_id
       LEFT JOIN LATERAL (SELECT i->>'label' AS label FROM jsonb_array_elements(t.items) i WHERE i->>'key' = e.item_key LIMIT 1) item ON true
       WHERE e.result = 'fail' AND ${isEffectiveRecord('area_log_entries', 'e')}
-      GROUP BY 1, 2 ORDER BY 3 DESC, 2`),
+      GROUP BY 1 ORDER BY 2 DESC, 1`),
     rowsOf<{ person: string, site: string, dueOn: string }>(db, sql`
       WITH ${scopeCte(scope)}
       SELECT o.label AS person, scope.site_name AS site, o.due_on::text AS "dueOn"

@@ -6,11 +6,11 @@ import { reportQuerySchema, type ReportQuery } from '#shared/utils/report-schema
 import { parseSiteSettings, type SiteSettings } from '#shared/utils/site-settings'
 import type { UnitSystem } from '#shared/utils/units'
 import { LANGUAGE_TAGS, type Language } from '#shared/utils/languages'
-import { mailWords, type MailT } from '../mail-words'
+import { mailDay, mailWords, type MailT } from '../mail-words'
 import { readerLanguage } from '../reader-language'
 import { rowsOf, uuidArray } from '../due/effective'
 import { CHART_TOP, chartData, type ChartData, type ChartSpec } from '#shared/utils/report-chart'
-import { keptDateFormat, keptNumberFormat } from '#shared/utils/intl-formats'
+import { keptNumberFormat } from '#shared/utils/intl-formats'
 import { localDate } from '#shared/utils/due-dates'
 
 export interface ReportSite { id: string, name: string, timeZone: string, unitSystem: UnitSystem, settings: SiteSettings }
@@ -80,8 +80,7 @@ export function numberText(value: number, language: Language, decimals = 0): str
 
 /** A calendar day ('2026-11-03') as the reader's language writes it, medium ("Nov 3, 2026", "3 nov 2026"). */
 export function dayText(day: string, language: Language): string {
-  if (!/^\d{4}-\d{2}-\d{2}$/.test(day)) return day
-  return keptDateFormat(LANGUAGE_TAGS[language], { dateStyle: 'medium', timeZone: 'UTC' }).format(new Date(`${day}T00:00:00Z`))
+  return mailDay(language)(day)
 }
 
 /** Money with the sites' currency code ("1,234.50 USD"), or the bare number across currencies. */
