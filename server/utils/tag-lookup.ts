@@ -3,6 +3,7 @@ import { LRUCache } from 'lru-cache'
 import type { PgTable } from 'drizzle-orm/pg-core'
 import type { AssetKind } from '#shared/utils/asset-schemas'
 import type { Actor } from './auth'
+import type { Database } from './db'
 
 const NOT_FOUND = 'No tag with that code at your sites. Check the code on the label and type it again.'
 
@@ -31,14 +32,30 @@ const codeKinds = new LRUCache<string, AssetKind>({ max: 20_000 })
 
 async function tagWithAsset(code: string, kind: AssetKind, siteIds: string[]) {
   if (siteIds.length === 0) return null
+  const [found] = await tagQuery(useDb(), kind).execute({ code })
+  // the user's sites are checked here, not in the statement: its text and plan then stay the same for everyone
+  if (!found || !siteIds.includes(found.tag.siteId) || !siteIds.includes((found.row as { siteId: string }).siteId)) return null
+  return { tag: found.tag, kind, row: found.row as Record<string, unknown> & { id: string, siteId: string }, liveCode: found.tagCode }
+}
+
+// The tag and its asset of one kind, as a statement whose SQL is built once per database and kind (a scan
+// builds no query text).
+function buildTagQuery(db: Database, kind: AssetKind) {
   const cfg = assetKinds()[kind]
-  const [found] = await useDb()
+  return db
     .select({ tag: tables.tags, row: cfg.table, tagCode: liveTagCode(kind, cfg.table) })
     .from(tables.tags)
     .innerJoin(cfg.table as PgTable, eq(cfg.table.id, tables.tags.assetId))
-    .where(and(eq(tables.tags.code, code), eq(tables.tags.assetKind, kind), inArray(tables.tags.siteId, siteIds), inArray(cfg.table.siteId, siteIds)))
-  if (!found) return null
-  return { tag: found.tag, kind, row: found.row as Record<string, unknown> & { id: string, siteId: string }, liveCode: found.tagCode }
+    .where(and(eq(tables.tags.code, sql.placeholder('code')), eq(tables.tags.assetKind, kind)))
+    .prepare(`bayward_tag_${kind}`)
+}
+const tagQueries = new WeakMap<Database, Map<AssetKind, ReturnType<typeof buildTagQuery>>>()
+function tagQuery(db: Database, kind: AssetKind) {
+  let byKind = tagQueries.get(db)
+  if (!byKind) tagQueries.set(db, byKind = new Map())
+  let query = byKind.get(kind)
+  if (!query) byKind.set(kind, query = buildTagQuery(db, kind))
+  return query
 }
 
 // Which site a code belongs to, learnt from earlier look-ups: a tag keeps its site for life. It only picks
