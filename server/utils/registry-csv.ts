@@ -13,7 +13,11 @@ export async function exportAssets(event: H3Event, kind: AssetKind) {
   const { condition, order } = listConditions(event, kind, query)
   const rows = await withStatusJoin(cfg, useDb().select({ row: cfg.table, tagCode: liveTagCode(kind, cfg.table), ...cfg.status?.columns })
     .from(cfg.table as PgTable)).where(condition).orderBy(...order).limit(200_000)
-  const { byId } = await areaNames(query.siteId)
+  const [{ byId }, [site]] = await Promise.all([
+    areaNames(query.siteId),
+    useDb().select({ timeZone: tables.sites.timeZone }).from(tables.sites).where(eq(tables.sites.id, query.siteId)),
+  ])
   const csv = toCsv(kind, (rows as ListRow[]).map(row => registryListItem(row)), byId)
-  return sendCsv(event, `bayward-${kind}-list-${new Date().toISOString().slice(0, 10)}.csv`, csv)
+  // the file is named by the site's today, as the people there write the date on it
+  return sendCsv(event, `bayward-${kind}-list-${localDate(new Date(), site?.timeZone ?? 'UTC')}.csv`, csv)
 }

@@ -67,6 +67,19 @@ describe('CSV exports cannot carry a formula into a spreadsheet', () => {
   })
 })
 
+describe('a list export is named by its site\'s day', () => {
+  // UTC+14 and UTC−11 (IANA time zone database, through the runtime's Intl): at any moment at least one of
+  // the two sites is on another day than UTC, so a file named by UTC's date fails one of them
+  it.each(['Pacific/Kiritimati', 'Pacific/Pago_Pago'])('%s', async (timeZone) => {
+    const siteId = (await site({ timeZone })).id
+    const lead = (await person(siteId, ['facilities_lead'])).client
+    const res = await lead.get(`/api/batteries/export?siteId=${siteId}`)
+    expect(res.status).toBe(200)
+    const day = new Intl.DateTimeFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit' }).format(new Date())
+    expect(res.headers.get('content-disposition')).toBe(`attachment; filename="bayward-battery-list-${day}.csv"`)
+  })
+})
+
 describe('signing out ends the session on the server', () => {
   it('a copy of the cookie replayed after sign-out answers 401; another device stays signed in', async () => {
     const who = await user({ siteId: (await site()).id })
