@@ -33,7 +33,8 @@ export async function computeBoard(actor: Actor, query: BoardQuery): Promise<Boa
       lastInspectionAt: tables.truckStatus.lastInspectionAt, holdSince: tables.truckStatus.holdSince, holdReason: tables.truckStatus.holdReason,
     }).from(tables.trucks)
       .leftJoin(tables.batteryStatus, eq(tables.batteryStatus.truckId, tables.trucks.id))
-      .leftJoin(tables.truckStatus, eq(tables.truckStatus.truckId, tables.trucks.id))
+      // joined by the site too, so PostgreSQL reads this site's truck status rows by index, not all of them
+      .leftJoin(tables.truckStatus, and(eq(tables.truckStatus.truckId, tables.trucks.id), eq(tables.truckStatus.siteId, query.siteId)))
       .where(and(eq(tables.trucks.siteId, query.siteId), eq(tables.trucks.power, 'electric')))
       .orderBy(asc(natural(tables.trucks.fleetNumber))),
     // the wall board's cards are made as JSON by PostgreSQL; a truck's suggestion needs them as rows
