@@ -3,13 +3,11 @@ import { codedError } from '../validation'
 import type { Role } from '../../../shared/types/auth'
 import type { DueGroup, DueItem, DueListReply } from '../../../shared/types/due'
 import type { ObligationState } from '../../../shared/utils/due-dates'
-import { localDate } from '../../../shared/utils/due-dates'
 import { DUE_KIND_LABELS, obligationActionPath, type DueKind, type DueSubject, type DueSubjectKind } from '../../../shared/utils/due-schedules'
 import type { DueQuery } from '../../../shared/utils/schedule-schemas'
 import { rowsOf, type SqlRunner } from './effective'
 
-// The due list, read from the obligations read model: one statement for the page, one for the counts,
-// one for the site. The state of each obligation is the rule module's obligationStateAt, restated in
+// The due list, read from the obligations read model: the page, the counts and the site in one statement. The state of each obligation is the rule module's obligationStateAt, restated in
 // SQL so the page can be sorted and cut in the database (tests/e2e/due-state-sql.test.ts compares the two).
 
 /** How far back a completed obligation still shows as Done. */
@@ -75,8 +73,9 @@ interface Row {
   responsibleRole: Role
 }
 
-// The rows shown for one filter: open obligations in the asked states, and those done in the last week.
-function shownRows(siteId: string, today: string, opts: DueOptions): SQL {
+// The rows shown for one filter, as the CTEs `o` and `shown` of a statement: open obligations in the
+// asked states, and those done in the last week. `today` is the site's today as SQL.
+function shownRows(siteId: string, today: SQL, opts: DueOptions): SQL {
   const open = opts.states.filter(s => s !== 'done')
   const wantDone = opts.states.includes('done')
   const scope = opts.roles === null
@@ -86,61 +85,61 @@ function shownRows(siteId: string, today: string, opts: DueOptions): SQL {
   const kinds = opts.kinds ? sql`AND ob.kind = ANY(${`{${opts.kinds.join(',')}}`}::text[])` : sql``
   const schedule = opts.scheduleId ? sql`AND ob.schedule_id = ${opts.scheduleId}` : sql``
   return sql`
-    WITH o AS (
+    o AS (
       SELECT ob.*, ${obligationStateSql(today, 'ob')} AS state FROM obligations ob
       WHERE ob.site_id = ${siteId} AND ${scope} ${kinds} ${schedule}
-    )
-    SELECT o.*, o.state AS shown_state, o.due_on AS shown_due FROM o WHERE o.state = ANY(${`{${open.join(',')}}`}::text[])
-    ${wantDone ? sql`UNION ALL SELECT o.*, 'done', o.last_done_on FROM o WHERE o.last_done_on >= ${today}::date - ${DONE_WINDOW_DAYS}::int` : sql``}`
+    ),
+    shown AS (
+      SELECT o.*, o.state AS shown_state, o.due_on AS shown_due FROM o WHERE o.state = ANY(${`{${open.join(',')}}`}::text[])
+      ${wantDone ? sql`UNION ALL SELECT o.*, 'done', o.last_done_on FROM o WHERE o.last_done_on >= ${today} - ${DONE_WINDOW_DAYS}::int` : sql``}
+    )`
 }
 
-// The due list of one site: the page in the asked order, the counts by state, the site.
+// The due list of one site: the page in the asked order, the counts by state, the site, in one statement
+// (the site's today is worked out from its time zone there, so nothing waits for a first answer).
 export async function readDueList(db: SqlRunner, siteId: string, opts: DueOptions, now = new Date()): Promise<DueList> {
   const started = Date.now()
-  // the site, and the schedules its leads added that the list's roles answer for (the Task filter offers each by its title)
+  // the schedules its leads added that the list's roles answer for (the Task filter offers each by its title)
   const forRoles = opts.roles === null ? sql`` : sql`AND c.responsible_role::text = ANY(${`{${opts.roles.join(',')}}`}::text[])`
-  const [row] = await rowsOf<{ id: string, name: string, timeZone: string, schedules: DueListReply['schedules'] }>(db, sql`
-    SELECT s.id, s.name, s.time_zone AS "timeZone",
-      (SELECT coalesce(json_agg(json_build_object('id', c.id, 'title', c.title) ORDER BY c.title, c.id), '[]'::json)
-        FROM schedules c WHERE c.site_id = s.id AND c.kind = 'custom' AND c.active ${forRoles}) AS schedules
-    FROM sites s WHERE s.id = ${siteId}`)
-  if (!row) throw codedError(404, 'no_such_site', 'No such site.')
-  const { schedules, ...site } = row
-  const today = localDate(now, site.timeZone)
-  const shown = shownRows(siteId, today, opts)
   const limit = Math.min(opts.limit, 1_000_000)
-  const [counted, rows] = await Promise.all([
-    // a built-in kind is one group; each lead-added schedule is a group of its own, under its title
-    rowsOf<GroupCount>(db, sql`
-      SELECT kind, CASE WHEN kind = 'custom' THEN schedule_id END AS "scheduleId", min(CASE WHEN kind = 'custom' THEN what END) AS title,
+  const today = sql`(SELECT k.today FROM k)`
+  // a built-in kind is one group; each lead-added schedule is a group of its own, under its title
+  const counts = sql`SELECT kind, CASE WHEN kind = 'custom' THEN schedule_id END AS "scheduleId", min(CASE WHEN kind = 'custom' THEN what END) AS title,
         shown_state AS state, count(*)::int AS n
-      FROM (${shown}) s GROUP BY 1, 2, 4`),
-    limit === 0
-      ? []
-      : rowsOf<Row>(db, sql`
-      SELECT p.id, p.kind, p.schedule_id AS "scheduleId", p.rule_key AS "ruleKey", p.what, p.subject_kind AS "subjectKind", p.subject_id AS "subjectId",
+      FROM shown s GROUP BY 1, 2, 4`
+  const page = sql`SELECT p.id, p.kind, p.schedule_id AS "scheduleId", p.rule_key AS "ruleKey", p.what, p.subject_kind AS "subjectKind", p.subject_id AS "subjectId",
         p.label, p.tag_code AS "tagCode", p.area_id AS "areaId", a.name AS "areaName", p.person_id AS "personId", p.period_start::text AS "periodStart",
         CASE WHEN p.subject_kind = 'follow_up' THEN (SELECT fu.title_words FROM follow_ups fu WHERE fu.id = p.subject_id) END AS "labelWords", p.shown_due::text AS "shownDue", p.shown_state AS "shownState", p.last_done_on::text AS "lastDoneOn",
         CASE WHEN p.due_at_count IS NOT NULL AND p.count_now IS NOT NULL THEN round((p.due_at_count - p.count_now)::numeric, 1)::float8 END AS remaining,
         p.detail, p.detail_words AS "detailWords", p.responsible_role AS "responsibleRole"
       FROM (
         SELECT s.*, CASE s.shown_state WHEN 'overdue' THEN 0 WHEN 'due_soon' THEN 1 WHEN 'upcoming' THEN 2 ELSE 3 END AS state_rank
-        FROM (${shown}) s ORDER BY ${ORDER[opts.sort]} LIMIT ${limit}
+        FROM shown s ORDER BY ${ORDER[opts.sort]} LIMIT ${limit}
       ) p
       LEFT JOIN areas a ON a.id = p.area_id
-      ORDER BY ${ORDER[opts.sort]}`),
-  ])
-  const counts: Record<ObligationState, number> = { overdue: 0, due_soon: 0, upcoming: 0, done: 0 }
-  for (const c of counted) counts[c.state] += Number(c.n)
+      ORDER BY ${ORDER[opts.sort]}`
+  const [row] = await rowsOf<{ id: string, name: string, timeZone: string, today: string, schedules: DueListReply['schedules'], counted: GroupCount[], rows: Row[] | null }>(db, sql`
+    WITH k AS (SELECT (to_timestamp(${now.getTime()}::float8 / 1000) AT TIME ZONE st.time_zone)::date AS today FROM sites st WHERE st.id = ${siteId}),
+    ${shownRows(siteId, today, opts)}
+    SELECT s.id, s.name, s.time_zone AS "timeZone", (SELECT k.today::text FROM k) AS today,
+      (SELECT coalesce(json_agg(json_build_object('id', c.id, 'title', c.title) ORDER BY c.title, c.id), '[]'::json)
+        FROM schedules c WHERE c.site_id = s.id AND c.kind = 'custom' AND c.active ${forRoles}) AS schedules,
+      (SELECT coalesce(json_agg(g), '[]'::json) FROM (${counts}) g) AS counted,
+      ${limit === 0 ? sql`NULL::json` : sql`(SELECT json_agg(r) FROM (${page}) r)`} AS rows
+    FROM sites s WHERE s.id = ${siteId}`)
+  if (!row) throw codedError(404, 'no_such_site', 'No such site.')
+  const { schedules, counted, rows, today: day, ...site } = row
+  const byState: Record<ObligationState, number> = { overdue: 0, due_soon: 0, upcoming: 0, done: 0 }
+  for (const c of counted) byState[c.state] += Number(c.n)
   return {
     site,
-    today,
-    items: rows.map(toObligation),
-    counts,
+    today: day,
+    items: (rows ?? []).map(toObligation),
+    counts: byState,
     groups: dueGroups(counted),
     schedules,
-    total: counts.overdue + counts.due_soon + counts.upcoming + counts.done,
-    meta: { queries: limit === 0 ? 2 : 3, ms: Date.now() - started },
+    total: byState.overdue + byState.due_soon + byState.upcoming + byState.done,
+    meta: { queries: 1, ms: Date.now() - started },
   }
 }
 
