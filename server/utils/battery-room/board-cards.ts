@@ -26,11 +26,52 @@ const code = (c: string) => JSON.stringify({ code: c })
 const jsonList = (items: SQL[]) => sql`('[' || concat_ws(',', ${sql.join(items, sql`, `)}) || ']')::json`
 
 export async function boardCardsJson(db: SqlRunner, q: { siteId: string, areaId?: string }, now: Date): Promise<string> {
+  const [row] = await rowsOf<{ cards: string }>(db, cardsStatement(q, now, sql``))
+  return row!.cards
+}
+
+/** A truck of the wall board's list, with what its pre-shift state is worked out from. */
+export interface WallTruck {
+  id: string
+  fleetNumber: string
+  systemVoltage: number
+  outOfService: boolean
+  batteryId: string | null
+  lastInspectionAt: string | null
+  holdSince: string | null
+  holdReason: string | null
+}
+
+/**
+ * The wall board in one statement: its cards (as boardCardsJson), the site's charging areas, its electric
+ * trucks and the site's settings. A board polls every few seconds; each statement is a round trip to PostgreSQL.
+ */
+export async function boardWallJson(db: SqlRunner, q: { siteId: string, areaId?: string }, now: Date) {
+  const [row] = await rowsOf<{ cards: string, areas: { id: string, name: string }[], trucks: WallTruck[], settings: unknown, timeZone: string }>(db, cardsStatement(q, now, sql`,
+    (SELECT st.settings FROM sites st WHERE st.id = ${q.siteId}) AS settings,
+    (SELECT st.time_zone FROM sites st WHERE st.id = ${q.siteId}) AS "timeZone",
+    (SELECT coalesce(json_agg(a), '[]') FROM (
+      SELECT ar.id, ar.name FROM areas ar
+      WHERE ar.site_id = ${q.siteId} AND ar.kind = 'charging_area' AND NOT ar.archived
+      ORDER BY ar.name COLLATE natural_sort) a) AS areas,
+    (SELECT coalesce(json_agg(t), '[]') FROM (
+      SELECT tr.id, tr.fleet_number AS "fleetNumber", tr.system_voltage AS "systemVoltage", tr.out_of_service AS "outOfService",
+        bs.battery_id AS "batteryId", ts.last_inspection_at AS "lastInspectionAt", ts.hold_since AS "holdSince", ts.hold_reason AS "holdReason"
+      FROM trucks tr
+      LEFT JOIN battery_status bs ON bs.truck_id = tr.id
+      -- joined by the site too, so PostgreSQL reads this site's truck status rows by index, not all of them
+      LEFT JOIN truck_status ts ON ts.truck_id = tr.id AND ts.site_id = ${q.siteId}
+      WHERE tr.site_id = ${q.siteId} AND tr.power = 'electric'
+      ORDER BY tr.fleet_number COLLATE natural_sort) t) AS trucks`))
+  return row!
+}
+
+function cardsStatement(q: { siteId: string, areaId?: string }, now: Date, more: SQL): SQL {
   const nowMs = sql`${now.getTime()}::float8`
   const where: SQL[] = [sql`b.site_id = ${q.siteId}`]
   if (q.areaId) where.push(inChargingArea(q.areaId))
   const today = sql`k.today`
-  const [row] = await rowsOf<{ cards: string }>(db, sql`
+  return sql`
     WITH k AS (SELECT (to_timestamp(${nowMs} / 1000) AT TIME ZONE st.time_zone)::date AS today FROM sites st WHERE st.id = ${q.siteId}),
     c AS (
       SELECT b.id, b.serial, b.voltage, b.capacity_ah, b.rated_cycles, b.out_of_service,
@@ -56,7 +97,7 @@ export async function boardCardsJson(db: SqlRunner, q: { siteId: string, areaId?
         CASE WHEN c.stored <> 'charged' THEN c.stored WHEN c.ready_ms > ${nowMs} THEN 'cooling' ELSE 'ready' END AS state
       FROM c
     )
-    SELECT coalesce(json_agg(x), '[]')::text AS cards FROM (
+    SELECT (SELECT coalesce(json_agg(x), '[]')::text FROM (
       SELECT d.id, d.serial, d.tag_code AS "tagCode", d.voltage, d.capacity_ah AS "capacityAh", d.cycles AS "cycleCount",
         d.rated_cycles AS "ratedCycles", d.oos_reason AS "outOfServiceReason", d.state,
         CASE WHEN d.state = 'cooling' THEN ceil((d.ready_ms - ${nowMs}) / 60000)::int ELSE 0 END AS "coolingMinutesLeft",
@@ -79,6 +120,5 @@ export async function boardCardsJson(db: SqlRunner, q: { siteId: string, areaId?
         CASE WHEN d.truck_id IS NOT NULL THEN json_build_object('id', d.truck_id, 'fleetNumber', d.fleet_number) END AS truck,
         CASE WHEN d.charge_session_id IS NOT NULL THEN json_build_object('chargerName', d.charger_name) END AS charge
       FROM d ORDER BY d.serial COLLATE natural_sort
-    ) x`)
-  return row!.cards
+    ) x) AS cards${more}`
 }

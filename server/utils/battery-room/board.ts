@@ -3,9 +3,11 @@ import { batteryTruckFit, isIssuableBattery, rankBatteriesForTruck } from '#shar
 import type { boardQuerySchema } from '#shared/utils/battery-room-schemas'
 import type { BoardReply as BoardAnswer } from '#shared/types/floor'
 import { shiftStartedAt } from '#shared/utils/shift-times'
-import { boardCard, boardCardsJson } from './board-cards'
+import { parseSiteSettings } from '#shared/utils/site-settings'
+import { boardCard, boardWallJson } from './board-cards'
 import { truckCheckState } from '../inspection/shift'
 import type { Actor } from '../auth'
+import type { Database } from '../db'
 
 export type BoardQuery = z.output<typeof boardQuerySchema>
 
@@ -20,26 +22,14 @@ export const boardCacheKey = (query: BoardQuery) => `board:${query.areaId ?? ''}
 export async function computeBoard(actor: Actor, query: BoardQuery): Promise<BoardAnswer | JsonText> {
   const db = useDb()
   const now = new Date()
-  const [settings, areas, trucks, cards] = await Promise.all([
-    cachedBatteryRoomSettings(actor, query.siteId),
-    db.select({ id: tables.areas.id, name: tables.areas.name }).from(tables.areas)
-      .where(and(eq(tables.areas.siteId, query.siteId), eq(tables.areas.kind, 'charging_area'), eq(tables.areas.archived, false)))
-      .orderBy(asc(natural(tables.areas.name))),
-    db.select({
-      id: tables.trucks.id, fleetNumber: tables.trucks.fleetNumber, systemVoltage: tables.trucks.systemVoltage, outOfService: tables.trucks.outOfService,
-      compartmentLengthIn: tables.trucks.compartmentLengthIn, compartmentWidthIn: tables.trucks.compartmentWidthIn, compartmentHeightIn: tables.trucks.compartmentHeightIn,
-      minBatteryWeightLb: tables.trucks.minBatteryWeightLb, maxBatteryWeightLb: tables.trucks.maxBatteryWeightLb, connector: tables.trucks.connector, allowedChemistries: tables.trucks.allowedChemistries,
-      batteryId: tables.batteryStatus.batteryId,
-      lastInspectionAt: tables.truckStatus.lastInspectionAt, holdSince: tables.truckStatus.holdSince, holdReason: tables.truckStatus.holdReason,
-    }).from(tables.trucks)
-      .leftJoin(tables.batteryStatus, eq(tables.batteryStatus.truckId, tables.trucks.id))
-      // joined by the site too, so PostgreSQL reads this site's truck status rows by index, not all of them
-      .leftJoin(tables.truckStatus, and(eq(tables.truckStatus.truckId, tables.trucks.id), eq(tables.truckStatus.siteId, query.siteId)))
-      .where(and(eq(tables.trucks.siteId, query.siteId), eq(tables.trucks.power, 'electric')))
-      .orderBy(asc(natural(tables.trucks.fleetNumber))),
-    // the wall board's cards are made as JSON by PostgreSQL; a truck's suggestion needs them as rows
-    query.truckId ? loadBatteryRows(db, { siteId: query.siteId, areaId: query.areaId }) : boardCardsJson(db, query, now),
-  ])
+  // the wall board (no truck chosen) reads its areas, trucks, cards and the site's settings in one
+  // statement; a truck's suggestion needs the cards as rows and the trucks' sizes
+  const [settings, areas, trucks, cards] = query.truckId
+    ? await Promise.all([
+        cachedBatteryRoomSettings(actor, query.siteId), areasOf(db, query.siteId), trucksOf(db, query.siteId),
+        loadBatteryRows(db, { siteId: query.siteId, areaId: query.areaId }),
+      ])
+    : await boardWallJson(db, query, now).then(w => [{ ...parseSiteSettings(w.settings), timeZone: w.timeZone }, w.areas, w.trucks, w.cards] as const)
   if (query.areaId && !areas.some(a => a.id === query.areaId)) throw codedError(404, 'no_such_charging_area', 'No such charging area at this site.')
   const shiftStart = shiftStartedAt(now, settings.shiftStarts, settings.timeZone)
   const head = {
@@ -56,7 +46,7 @@ export async function computeBoard(actor: Actor, query: BoardQuery): Promise<Boa
     return new JsonText(`${JSON.stringify(head).slice(0, -1)},"batteries":${cards},${JSON.stringify({ trucks: truckList, suggestion: null }).slice(1)}`)
   }
   const cardsAt = cards.map(r => batteryCard(r, settings.timeZone, now))
-  const truck = trucks.find(t => t.id === query.truckId)
+  const truck = (trucks as Awaited<ReturnType<typeof trucksOf>>).find(t => t.id === query.truckId)
   if (!truck) throw codedError(404, 'no_such_electric_truck', 'No such electric truck at this site.')
   const spec = truckSpec(truck)
   const byId = new Map(cards.map(r => [r.id, r]))
@@ -74,3 +64,21 @@ export async function computeBoard(actor: Actor, query: BoardQuery): Promise<Boa
   }
   return { ...head, batteries: cardsAt.map(boardCard), trucks: truckList, suggestion }
 }
+
+const areasOf = (db: Database, siteId: string) => db.select({ id: tables.areas.id, name: tables.areas.name }).from(tables.areas)
+  .where(and(eq(tables.areas.siteId, siteId), eq(tables.areas.kind, 'charging_area'), eq(tables.areas.archived, false)))
+  .orderBy(asc(natural(tables.areas.name)))
+
+/** The site's electric trucks with what a battery must fit (for a truck's suggestion). */
+const trucksOf = (db: Database, siteId: string) => db.select({
+  id: tables.trucks.id, fleetNumber: tables.trucks.fleetNumber, systemVoltage: tables.trucks.systemVoltage, outOfService: tables.trucks.outOfService,
+  compartmentLengthIn: tables.trucks.compartmentLengthIn, compartmentWidthIn: tables.trucks.compartmentWidthIn, compartmentHeightIn: tables.trucks.compartmentHeightIn,
+  minBatteryWeightLb: tables.trucks.minBatteryWeightLb, maxBatteryWeightLb: tables.trucks.maxBatteryWeightLb, connector: tables.trucks.connector, allowedChemistries: tables.trucks.allowedChemistries,
+  batteryId: tables.batteryStatus.batteryId,
+  lastInspectionAt: tables.truckStatus.lastInspectionAt, holdSince: tables.truckStatus.holdSince, holdReason: tables.truckStatus.holdReason,
+}).from(tables.trucks)
+  .leftJoin(tables.batteryStatus, eq(tables.batteryStatus.truckId, tables.trucks.id))
+  // joined by the site too, so PostgreSQL reads this site's truck status rows by index, not all of them
+  .leftJoin(tables.truckStatus, and(eq(tables.truckStatus.truckId, tables.trucks.id), eq(tables.truckStatus.siteId, siteId)))
+  .where(and(eq(tables.trucks.siteId, siteId), eq(tables.trucks.power, 'electric')))
+  .orderBy(asc(natural(tables.trucks.fleetNumber)))
