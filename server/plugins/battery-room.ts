@@ -26,8 +26,10 @@ const chargeValues = (r: typeof tables.chargeSessions.$inferSelect) => ({ ampHou
 // and electric trucks (the battery they hold), and adds swaps, charges and electrolyte checks to the timelines.
 export default defineNitroPlugin(() => {
   registerAssetStatus('battery', async (row) => {
-    const [facts] = await loadBatteryRows(useDb(), { siteId: row.siteId, batteryIds: [row.id] })
+    // its status and what is due on it, in one statement
+    const [facts] = await loadBatteryRows(useDb(), { siteId: row.siteId, batteryIds: [row.id], withObligations: true })
     if (!facts) return null
+    const due = statusDueItems(subjectObligations(facts.obligations ?? [], { kind: 'battery', id: row.id, label: String(row.serial ?? ''), tagCode: null }))
     const s = batteryRoomStatus(facts, facts.timeZone, new Date())
     const where = s.state === 'in_truck' ? ` · truck ${facts.truckFleetNumber}` : s.state === 'on_charge' ? ` · charger ${facts.chargerName}` : ''
     const cooling = s.state === 'cooling' ? ` · ${s.coolingMinutesLeft} min left` : ''
@@ -37,6 +39,7 @@ export default defineNitroPlugin(() => {
       tone: STATE_TONES[s.state],
       params: stateParams(s.state, facts.truckFleetNumber, facts.chargerName, s.coolingMinutesLeft),
       flags: s.flagList.map(f => ({ key: f.key, label: f.label, tone: FLAG_TONES[f.key] ?? 'caution' })),
+      due,
     }
   })
 

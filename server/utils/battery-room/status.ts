@@ -7,6 +7,7 @@ import { localDate } from '../../../shared/utils/due-dates'
 import { obligationStateAt } from '../../../shared/utils/due-rules'
 import { justFinishedCharge } from '../../../shared/utils/battery-room-schemas'
 import { epochMs, rowsOf, dateFromMs, idIn, type SqlRunner } from '../due/effective'
+import { subjectObligationsJson, type SubjectRow } from '../due/list'
 
 // Batteries as the Bay board, the floor forms and the tag page show them, read from battery_status and
 // the battery's watering and equalize obligations in one statement. Cooling turns Ready, and Due soon
@@ -38,6 +39,8 @@ interface CardRow {
   truckTagCode: string | null
   chargeSessionId: string | null
   chargerId: string | null
+  /** what is due on it, when asked for (withObligations) */
+  obligations?: SubjectRow[]
   chargerName: string | null
   cycles: number | null
   lastChargeEndedMs: number | null
@@ -61,6 +64,8 @@ export interface BatteryCardQuery {
   /** batteries whose home is this charging area, or that sit on one of its chargers */
   areaId?: string
   batteryIds?: readonly string[]
+  /** also what is due on each battery (the tag page's and the battery page's status) */
+  withObligations?: boolean
 }
 
 // Per battery, by index (LIMIT keeps the planner from turning these into hash joins over whole tables).
@@ -95,6 +100,7 @@ export async function loadBatteryRows(db: SqlRunner, q: BatteryCardQuery): Promi
       st.time_zone AS "timeZone",
       w.due_on::text AS "wDueOn", w.due_at_count AS "wDueAt", w.count_now AS "wNow", w.due_soon_days AS "wSoon",
       e.due_on::text AS "eDueOn", e.due_at_count AS "eDueAt", e.count_now AS "eNow", e.due_soon_days AS "eSoon"
+      ${q.withObligations ? sql`, ${subjectObligationsJson(sql.raw('b.site_id'), 'battery', sql.raw('b.id'))} AS obligations` : sql``}
     FROM batteries b
     JOIN sites st ON st.id = b.site_id
     LEFT JOIN battery_status s ON s.battery_id = b.id AND ${siteIs('s.site_id')}

@@ -206,18 +206,39 @@ export interface SubjectObligation {
   action: { label: string, to: string }
 }
 
-/** What is due on one subject (the tag page and the asset pages), soonest first, in its state on the site's today. */
-export async function obligationsOfSubject(db: SqlRunner, siteId: string, subject: Pick<DueSubject, 'kind' | 'id' | 'label' | 'tagCode'>): Promise<SubjectObligation[]> {
-  const rows = await rowsOf<Row & { state: Exclude<ObligationState, 'done'>, dueOn: string | null }>(db, sql`
+export type SubjectRow = Row & { state: Exclude<ObligationState, 'done'>, dueOn: string | null }
+
+// One subject's obligations in their state on the site's today; `siteId` and `subjectId` are SQL (a value,
+// or a column of an enclosing statement).
+const subjectRowsSql = (siteId: SQL, subjectKind: DueSubjectKind, subjectId: SQL) => sql`
     SELECT o.kind, o.schedule_id AS "scheduleId", o.what, o.due_on::text AS "dueOn", ${obligationStateSql(sql`(now() AT TIME ZONE st.time_zone)::date`)} AS state,
       o.area_id AS "areaId", o.period_start::text AS "periodStart", o.last_done_on::text AS "lastDoneOn", o.detail, o.detail_words AS "detailWords",
       CASE WHEN o.due_at_count IS NOT NULL AND o.count_now IS NOT NULL THEN round((o.due_at_count - o.count_now)::numeric, 1)::float8 END AS remaining
     FROM obligations o JOIN sites st ON st.id = o.site_id
-    WHERE o.site_id = ${siteId} AND o.subject_id = ${subject.id} AND o.subject_kind = ${subject.kind}
-    ORDER BY o.due_on NULLS LAST, o.what`)
+    WHERE o.site_id = ${siteId} AND o.subject_id = ${subjectId} AND o.subject_kind = ${subjectKind}
+    ORDER BY o.due_on NULLS LAST, o.what`
+
+/**
+ * One subject's obligations as a JSON column of another statement (the battery room reads a battery's
+ * status and what is due on it in one); read them with subjectObligations.
+ */
+export const subjectObligationsJson = (siteId: SQL, subjectKind: DueSubjectKind, subjectId: SQL) =>
+  sql`(SELECT coalesce(json_agg(x), '[]') FROM (${subjectRowsSql(siteId, subjectKind, subjectId)}) x)`
+
+/** The rows of obligationsOfSubject or subjectObligationsJson as the tag page and asset pages list them. */
+export function subjectObligations(rows: readonly SubjectRow[], subject: Pick<DueSubject, 'kind' | 'id' | 'label' | 'tagCode'>): SubjectObligation[] {
   return rows.map(r => ({
     kind: r.kind, scheduleId: r.scheduleId, what: r.what, dueOn: r.dueOn, state: r.state, remaining: r.remaining === null ? null : Number(r.remaining),
     detail: r.detail, detailWords: r.detailWords ?? null, lastDoneOn: r.lastDoneOn,
     action: obligationActionPath(r.kind, { ...subject, areaId: r.areaId, periodStart: r.periodStart }, r.scheduleId),
   }))
+}
+
+/** An asset's due items as its status lists them (asset-status.ts). */
+export const statusDueItems = (items: readonly SubjectObligation[]) =>
+  items.map(o => ({ what: o.what, kind: o.kind, dueOn: o.dueOn, state: o.state, detail: o.detail, detailWords: o.detailWords, action: o.action }))
+
+/** What is due on one subject (the tag page and the asset pages), soonest first, in its state on the site's today. */
+export async function obligationsOfSubject(db: SqlRunner, siteId: string, subject: Pick<DueSubject, 'kind' | 'id' | 'label' | 'tagCode'>): Promise<SubjectObligation[]> {
+  return subjectObligations(await rowsOf<SubjectRow>(db, subjectRowsSql(sql`${siteId}`, subject.kind, sql`${subject.id}`)), subject)
 }
