@@ -24,11 +24,13 @@ let leadId: string
 let operator: Client
 let outsider: Client
 let siteId: string
+let siteTimeZone: string
 let code: string
 let batteryId: string
 
 beforeAll(async () => {
-  siteId = (await site()).id
+  // UTC+14 (IANA time zone database): the site's day is not UTC's for ten hours of every day
+  ;({ id: siteId, timeZone: siteTimeZone } = await site({ timeZone: 'Pacific/Kiritimati' }))
   const otherSite = (await site()).id
   const leadUser = await user({ siteId, roles: ['facilities_lead'] })
   leadId = leadUser.id
@@ -44,7 +46,7 @@ afterAll(() => closeTestDb())
 
 async function bytes(client: Client, path: string) {
   const res = await fetch(url(path), { headers: { cookie: client.cookie ?? '' } })
-  return { status: res.status, type: res.headers.get('content-type'), body: Buffer.from(await res.arrayBuffer()) }
+  return { status: res.status, type: res.headers.get('content-type'), disposition: res.headers.get('content-disposition'), body: Buffer.from(await res.arrayBuffer()) }
 }
 
 describe('tag page data', () => {
@@ -93,6 +95,9 @@ describe('QR symbols decode to exactly the tag URL', () => {
     expect(job.status).toBe('done')
     const pdf = await bytes(lead, `/api/labels/${start.body.id}/pdf`)
     expect(pdf.type).toBe('application/pdf')
+    // named by the site's day (the sheet was made a moment ago), through the runtime's Intl
+    const day = new Intl.DateTimeFormat('en-CA', { timeZone: siteTimeZone, year: 'numeric', month: '2-digit', day: '2-digit' }).format(new Date())
+    expect(pdf.disposition).toBe(`attachment; filename="bayward-labels-${day}.pdf"`)
     const dir = mkdtempSync(join(tmpdir(), 'bayward-labels-'))
     writeFileSync(join(dir, 'sheet.pdf'), pdf.body)
     return { dir, text: execFileSync('pdftotext', [join(dir, 'sheet.pdf'), '-'], { encoding: 'utf8' }) }
