@@ -2,12 +2,16 @@ import type { AssetKind } from '#shared/utils/asset-schemas'
 
 // What is due on an asset (the tag page and the asset pages): its obligations, read from the obligations
 // table with their state on the site's today — the same rows the due list shows. A battery's come with its
-// status, in the battery room's one statement (plugins/battery-room.ts).
+// status, in the battery room's one statement (plugins/battery-room.ts); on the tag page, another asset's
+// come with the tag and the asset (server/utils/tag-lookup.ts).
 export default defineNitroPlugin(() => {
   for (const kind of ['truck', 'charger', 'cylinder', 'area'] as AssetKind[]) {
     registerAssetStatus(kind, async (row) => {
       const label = String(row.serial ?? row.fleetNumber ?? row.name ?? '')
-      const items = await obligationsOfSubject(useDb(), row.siteId, { kind, id: row.id, label, tagCode: null })
+      const subject = { kind, id: row.id, label, tagCode: null }
+      // the tag look-up brings them with the asset; other pages ask
+      const known = dueCameWithAsset(row)
+      const items = known ? subjectObligations(known, subject) : await obligationsOfSubject(useDb(), row.siteId, subject)
       return { due: statusDueItems(items) }
     })
   }

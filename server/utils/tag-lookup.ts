@@ -4,6 +4,7 @@ import type { PgTable } from 'drizzle-orm/pg-core'
 import type { AssetKind } from '#shared/utils/asset-schemas'
 import type { Actor } from './auth'
 import type { Database } from './db'
+import { keepDueWithAsset, subjectObligationsJson, type SubjectRow } from './due/list'
 
 const NOT_FOUND = 'No tag with that code at your sites. Check the code on the label and type it again.'
 
@@ -35,15 +36,18 @@ async function tagWithAsset(code: string, kind: AssetKind, siteIds: string[]) {
   const [found] = await tagQuery(useDb(), kind).execute({ code })
   // the user's sites are checked here, not in the statement: its text and plan then stay the same for everyone
   if (!found || !siteIds.includes(found.tag.siteId) || !siteIds.includes((found.row as { siteId: string }).siteId)) return null
+  if (found.due) keepDueWithAsset(found.row, found.due)
   return { tag: found.tag, kind, row: found.row as Record<string, unknown> & { id: string, siteId: string }, liveCode: found.tagCode }
 }
 
 // The tag and its asset of one kind, as a statement whose SQL is built once per database and kind (a scan
-// builds no query text).
+// builds no query text). What is due on the asset comes with it, except for a battery, whose status brings its
+// own (plugins/battery-room.ts).
 function buildTagQuery(db: Database, kind: AssetKind) {
   const cfg = assetKinds()[kind]
+  const due = kind === 'battery' ? sql<null>`NULL::json` : sql<SubjectRow[]>`${subjectObligationsJson(sql`${cfg.table}.site_id`, kind, sql`${cfg.table}.id`)}`
   return db
-    .select({ tag: tables.tags, row: cfg.table, tagCode: liveTagCode(kind, cfg.table) })
+    .select({ tag: tables.tags, row: cfg.table, tagCode: liveTagCode(kind, cfg.table), due })
     .from(tables.tags)
     .innerJoin(cfg.table as PgTable, eq(cfg.table.id, tables.tags.assetId))
     .where(and(eq(tables.tags.code, sql.placeholder('code')), eq(tables.tags.assetKind, kind)))

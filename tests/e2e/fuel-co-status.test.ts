@@ -104,6 +104,10 @@ describe('fuel states on the scanned tag and in the timeline', () => {
     expect(res.body.status.state).toBe('full')
     expect(res.body.status.due).toHaveLength(1)
     expect(res.body.status.due[0]).toMatchObject({ what: 'Cylinder requalification', dueOn: '2022-03-31', state: 'overdue', detail: 'Stamped 03-2010' })
+    // once the server knows the code's kind, what is due comes in the tag's own statement: the same items
+    // (another cylinder added first, so the site's revision moves and the tag's view is read again)
+    await freshCylinder(siteId, { areaId, status: 'full' })
+    expect((await tech.get(`/api/tags/${code}`)).body.status.due).toEqual(res.body.status.due)
     // the day goes as a parameter, for the reader's words (bay.flag.requalification_overdue)
     expect(res.body.status.flags).toContainEqual(expect.objectContaining({ key: 'requalification_overdue', params: { on: '2022-03-31' } }))
     // the refill and exchange forms find it by the tag code as typed ("l 9…") or scanned (…/t/L-9…)
