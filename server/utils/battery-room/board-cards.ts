@@ -48,8 +48,8 @@ export interface WallTruck {
  */
 export async function boardWallJson(db: SqlRunner, q: { siteId: string, areaId?: string }, now: Date) {
   const [row] = await rowsOf<{ cards: string, areas: { id: string, name: string }[], trucks: WallTruck[], settings: unknown, timeZone: string }>(db, cardsStatement(q, now, sql`,
-    (SELECT st.settings FROM sites st WHERE st.id = ${q.siteId}) AS settings,
-    (SELECT st.time_zone FROM sites st WHERE st.id = ${q.siteId}) AS "timeZone",
+    (SELECT k.settings FROM k) AS settings,
+    (SELECT k.time_zone FROM k) AS "timeZone",
     (SELECT coalesce(json_agg(a), '[]') FROM (
       SELECT ar.id, ar.name FROM areas ar
       WHERE ar.site_id = ${q.siteId} AND ar.kind = 'charging_area' AND NOT ar.archived
@@ -72,7 +72,7 @@ function cardsStatement(q: { siteId: string, areaId?: string }, now: Date, more:
   if (q.areaId) where.push(inChargingArea(q.areaId))
   const today = sql`k.today`
   return sql`
-    WITH k AS (SELECT (to_timestamp(${nowMs} / 1000) AT TIME ZONE st.time_zone)::date AS today FROM sites st WHERE st.id = ${q.siteId}),
+    WITH k AS (SELECT (to_timestamp(${nowMs} / 1000) AT TIME ZONE st.time_zone)::date AS today, st.settings, st.time_zone FROM sites st WHERE st.id = ${q.siteId}),
     c AS (
       SELECT b.id, b.serial, b.voltage, b.capacity_ah, b.rated_cycles, b.out_of_service,
         CASE WHEN b.out_of_service THEN b.out_of_service_reason END AS oos_reason,

@@ -7,8 +7,9 @@ import { DUE_KIND_LABELS, obligationActionPath, type DueKind, type DueSubject, t
 import type { DueQuery } from '../../../shared/utils/schedule-schemas'
 import { rowsOf, type SqlRunner } from './effective'
 
-// The due list, read from the obligations read model: the page, the counts and the site in one statement. The state of each obligation is the rule module's obligationStateAt, restated in
-// SQL so the page can be sorted and cut in the database (tests/e2e/due-state-sql.test.ts compares the two).
+// The due list, read from the obligations read model: the page, the counts and the site in one statement.
+// The state of each obligation is the rule module's obligationStateAt, restated in SQL so the page can be
+// sorted and cut in the database (tests/e2e/due-state-sql.test.ts compares the two).
 
 /** How far back a completed obligation still shows as Done. */
 export const DONE_WINDOW_DAYS = 7
