@@ -25,9 +25,10 @@ const chargeValues = (r: typeof tables.chargeSessions.$inferSelect) => ({ ampHou
 // The battery room describes batteries (state and care flags from battery_status and their obligations)
 // and electric trucks (the battery they hold), and adds swaps, charges and electrolyte checks to the timelines.
 export default defineNitroPlugin(() => {
+  // a battery's status and what is due on it, in one statement, or in the tag look-up's own
+  registerAssetFacts('battery', 'battery', batteryRowJson)
   registerAssetStatus('battery', async (row) => {
-    // its status and what is due on it, in one statement
-    const [facts] = await loadBatteryRows(useDb(), { siteId: row.siteId, batteryIds: [row.id], withObligations: true })
+    const facts = factsCameWithAsset<BatteryRow>(row, 'battery') ?? (await loadBatteryRows(useDb(), { siteId: row.siteId, batteryIds: [row.id], withObligations: true }))[0]
     if (!facts) return null
     const due = statusDueItems(subjectObligations(facts.obligations ?? [], { kind: 'battery', id: row.id, label: String(row.serial ?? ''), tagCode: null }))
     const s = batteryRoomStatus(facts, facts.timeZone, new Date())
@@ -43,10 +44,16 @@ export default defineNitroPlugin(() => {
     }
   })
 
+  // the battery an electric truck holds, read with the truck in the tag look-up's statement, or here
+  registerAssetFacts('truck', 'battery', table => sql`(SELECT json_build_object('serial', b.serial) FROM battery_status s
+    JOIN batteries b ON b.id = s.battery_id WHERE s.truck_id = ${table}.id AND ${table}.power = 'electric' LIMIT 1)`)
   registerAssetStatus('truck', async (row) => {
     if (row.power !== 'electric' || row.outOfService) return null
-    const [current] = await useDb().select({ serial: tables.batteries.serial }).from(tables.batteryStatus)
-      .innerJoin(tables.batteries, eq(tables.batteries.id, tables.batteryStatus.batteryId)).where(eq(tables.batteryStatus.truckId, row.id))
+    const came = factsCameWithAsset<{ serial: string } | null>(row, 'battery')
+    const [current] = came !== undefined
+      ? (came ? [came] : [])
+      : await useDb().select({ serial: tables.batteries.serial }).from(tables.batteryStatus)
+        .innerJoin(tables.batteries, eq(tables.batteries.id, tables.batteryStatus.batteryId)).where(eq(tables.batteryStatus.truckId, row.id))
     return current
       ? { state: 'battery_in', flags: [{ key: 'battery', label: `Battery ${current.serial}`, params: { serial: current.serial }, tone: 'neutral' as const }] }
       : { state: 'battery_needed', flags: [{ key: 'battery_none', label: 'No battery recorded', tone: 'caution' as const }] }

@@ -28,18 +28,32 @@ export default defineNitroPlugin(() => {
     return { flags }
   })
 
+  // an engine truck's last effective emissions test (its next due date from its obligation) and the cylinder
+  // fitted, read with the truck in the tag look-up's statement, or here
+  registerAssetFacts('truck', 'fuel', table => sql`(SELECT json_build_object(
+      'emissions', (SELECT json_build_object('passed', e.passed, 'testedOn', e.tested_on::text, 'nextDueOn', coalesce((
+          SELECT o.due_on FROM obligations o WHERE o.site_id = ${table}.site_id AND o.rule_key = 'emissions_test'
+            AND o.subject_kind = 'truck' AND o.subject_id = ${table}.id LIMIT 1), e.next_due_on)::text)
+        FROM emissions_tests e WHERE e.truck_id = ${table}.id AND ${isEffectiveRecord('emissions_tests', 'e')}
+        ORDER BY e.tested_on DESC, e.recorded_at DESC LIMIT 1),
+      'cylinder', (SELECT c.serial FROM lp_cylinders c WHERE c.current_truck_id = ${table}.id LIMIT 1))
+    WHERE ${table}.power <> 'electric')`)
   registerAssetStatus('truck', async (row) => {
     const truck = row as unknown as FuelTruckRow
     if (!isCombustionPower(truck.power)) return null
     const db = useDb()
-    const last = (await latestEmissionsTests(db, [truck.id])).get(truck.id) ?? null
+    type Came = { emissions: { passed: boolean, testedOn: string, nextDueOn: string | null } | null, cylinder: string | null }
+    const came = factsCameWithAsset<Came | null>(row, 'fuel')
+    const last = came ? came.emissions : (await latestEmissionsTests(db, [truck.id])).get(truck.id) ?? null
     const flags: { key: string, label: string, tone: 'danger' | 'warning' | 'notice', params?: Record<string, string> }[] = []
     if (!last) flags.push({ key: 'emissions_none', label: 'No emissions test on record', tone: 'warning' })
     else if (!last.passed) flags.push({ key: 'emissions_failed', label: `Emissions test failed on ${last.testedOn}: retest by ${last.nextDueOn}`, params: { on: String(last.testedOn), by: String(last.nextDueOn) }, tone: 'danger' })
     // The truck's state names its fuel side (an out-of-service truck keeps that state).
     let state: { state: string, label: string, tone: 'neutral' | 'caution' } | undefined
     if (truck.power === 'lp_gas') {
-      const [fitted] = await db.select({ serial: tables.lpCylinders.serial }).from(tables.lpCylinders).where(eq(tables.lpCylinders.currentTruckId, truck.id))
+      const [fitted] = came
+        ? (came.cylinder !== null ? [{ serial: came.cylinder }] : [])
+        : await db.select({ serial: tables.lpCylinders.serial }).from(tables.lpCylinders).where(eq(tables.lpCylinders.currentTruckId, truck.id))
       if (fitted) flags.push({ key: 'cylinder', label: `Cylinder ${fitted.serial}`, params: { serial: fitted.serial }, tone: 'notice' })
       state = fitted ? { state: 'cylinder_fitted', label: 'Cylinder fitted', tone: 'neutral' } : { state: 'cylinder_needed', label: 'No cylinder', tone: 'caution' }
     }

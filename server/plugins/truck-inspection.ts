@@ -3,9 +3,15 @@ import type { HistoryEntry } from '../utils/asset-history'
 // Pre-shift inspections on a truck: the inspection hold as the truck's state (29 CFR 1910.178(q)(7)), the
 // last check as a flag, and the checks and returns to service on its timeline.
 export default defineNitroPlugin(() => {
+  // the hold and the last check, read with the truck in the tag look-up's statement, or here
+  registerAssetFacts('truck', 'inspection', table => sql`(SELECT json_build_object('holdReason', ts.hold_reason, 'lastInspectionMs', ${epochMs('ts.last_inspection_at')})
+    FROM truck_status ts WHERE ts.truck_id = ${table}.id)`)
   registerAssetStatus('truck', async (row) => {
-    const [s] = await useDb().select({ holdReason: tables.truckStatus.holdReason, lastInspectionAt: tables.truckStatus.lastInspectionAt })
-      .from(tables.truckStatus).where(eq(tables.truckStatus.truckId, row.id))
+    const came = factsCameWithAsset<{ holdReason: string | null, lastInspectionMs: number | null } | null>(row, 'inspection')
+    const [s] = came !== undefined
+      ? (came ? [{ holdReason: came.holdReason, lastInspectionAt: dateFromMs(came.lastInspectionMs) }] : [])
+      : await useDb().select({ holdReason: tables.truckStatus.holdReason, lastInspectionAt: tables.truckStatus.lastInspectionAt })
+        .from(tables.truckStatus).where(eq(tables.truckStatus.truckId, row.id))
     if (s?.holdReason) {
       return { state: 'inspection_hold', label: 'Out of service after inspection', tone: 'danger' as const, flags: [{ key: 'inspection_hold', label: s.holdReason, tone: 'danger' as const }] }
     }

@@ -1,3 +1,4 @@
+import type { SQL } from 'drizzle-orm'
 import type { AssetKind } from '#shared/utils/asset-schemas'
 
 export type StatusTone = 'neutral' | 'danger' | 'warning' | 'caution' | 'notice' | 'safe'
@@ -25,6 +26,34 @@ const providers: Partial<Record<AssetKind, StatusProvider[]>> = {}
 
 export function registerAssetStatus(kind: AssetKind, provider: StatusProvider) {
   ;(providers[kind] ??= []).push(provider)
+}
+
+// A provider may also say how to read its facts inside the tag look-up's own statement (one JSON value
+// about the asset's row, `table` being the asset's table there): the look-up then keeps what came with the
+// row (keepFactsWithAsset), and the provider takes it from there instead of asking PostgreSQL again.
+// Other pages ask as before: a provider always handles a row that came without its facts.
+type FactsSql = (table: SQL) => SQL
+const factSqls: Partial<Record<AssetKind, { key: string, sql: FactsSql }[]>> = {}
+
+export function registerAssetFacts(kind: AssetKind, key: string, factsSql: FactsSql) {
+  if (!/^[a-z_]+$/.test(key)) throw new Error(`asset facts key ${key}: lower-case letters and _ only`)
+  ;(factSqls[kind] ??= []).push({ key, sql: factsSql })
+}
+
+/** One JSON object of every registered provider's facts about the row of `table`, or null when none registered. */
+export function assetFactsSql(kind: AssetKind, table: SQL): SQL | null {
+  const parts = factSqls[kind] ?? []
+  if (!parts.length) return null
+  return sql`json_build_object(${sql.join(parts.map(p => sql`${sql.raw(`'${p.key}'`)}, ${p.sql(table)}`), sql`, `)})`
+}
+
+const factsWithAsset = new WeakMap<object, Record<string, unknown>>()
+/** Keeps the facts that came with an asset's row, for its providers (keyed by the row object, gone with it). */
+export const keepFactsWithAsset = (row: object, facts: Record<string, unknown>) => void factsWithAsset.set(row, facts)
+/** The facts of `key` that came with the row, or undefined when it came without them. */
+export function factsCameWithAsset<T>(row: object, key: string): T | undefined {
+  const facts = factsWithAsset.get(row)
+  return facts && key in facts ? facts[key] as T : undefined
 }
 
 export async function assetStatus(kind: AssetKind, row: AssetRow): Promise<AssetStatus> {

@@ -4,7 +4,6 @@ import type { PgTable } from 'drizzle-orm/pg-core'
 import type { AssetKind } from '#shared/utils/asset-schemas'
 import type { Actor } from './auth'
 import type { Database } from './db'
-import { keepDueWithAsset, subjectObligationsJson, type SubjectRow } from './due/list'
 
 const NOT_FOUND = 'No tag with that code at your sites. Check the code on the label and type it again.'
 
@@ -36,18 +35,18 @@ async function tagWithAsset(code: string, kind: AssetKind, siteIds: string[]) {
   const [found] = await tagQuery(useDb(), kind).execute({ code })
   // the user's sites are checked here, not in the statement: its text and plan then stay the same for everyone
   if (!found || !siteIds.includes(found.tag.siteId) || !siteIds.includes((found.row as { siteId: string }).siteId)) return null
-  if (found.due) keepDueWithAsset(found.row, found.due)
+  if (found.facts) keepFactsWithAsset(found.row, found.facts)
   return { tag: found.tag, kind, row: found.row as Record<string, unknown> & { id: string, siteId: string }, liveCode: found.tagCode }
 }
 
 // The tag and its asset of one kind, as a statement whose SQL is built once per database and kind (a scan
-// builds no query text). What is due on the asset comes with it, except for a battery, whose status brings its
-// own (plugins/battery-room.ts).
+// builds no query text). The facts the asset's status providers registered come with it (asset-status.ts:
+// what is due on it, a battery's status, a truck's battery), so its status asks PostgreSQL nothing more.
 function buildTagQuery(db: Database, kind: AssetKind) {
   const cfg = assetKinds()[kind]
-  const due = kind === 'battery' ? sql<null>`NULL::json` : sql<SubjectRow[]>`${subjectObligationsJson(sql`${cfg.table}.site_id`, kind, sql`${cfg.table}.id`)}`
+  const facts = sql<Record<string, unknown> | null>`${assetFactsSql(kind, sql`${cfg.table}`) ?? sql`NULL::json`}`
   return db
-    .select({ tag: tables.tags, row: cfg.table, tagCode: liveTagCode(kind, cfg.table), due })
+    .select({ tag: tables.tags, row: cfg.table, tagCode: liveTagCode(kind, cfg.table), facts })
     .from(tables.tags)
     .innerJoin(cfg.table as PgTable, eq(cfg.table.id, tables.tags.assetId))
     .where(and(eq(tables.tags.code, sql.placeholder('code')), eq(tables.tags.assetKind, kind)))

@@ -8,7 +8,9 @@ import jsQR from 'jsqr'
 import { PNG } from 'pngjs'
 import { eq } from 'drizzle-orm'
 import { builtServer, signIn, type Client } from '../support/http'
-import { batteryInput, closeTestDb, site, user, useTestDb, tables } from '../support/db'
+import { battery, batteryInput, closeTestDb, refreshReadModels, site, user, useTestDb, tables } from '../support/db'
+import { fittedTruck, putInTruck, tagFor } from '../support/battery-room'
+import { freshCylinder, isoDaysFromNow, lpTruck } from '../support/fuel'
 
 await setup(builtServer)
 
@@ -73,6 +75,38 @@ describe('tag page data', () => {
   it('needs a session', async () => {
     const res = await fetch(url(`/api/tags/${code}`))
     expect(res.status).toBe(401)
+  })
+})
+
+describe('a tag\'s status read with the tag, or asked for', () => {
+  it('is the same both ways for a battery, an electric truck, a held truck and an LP-gas truck', async () => {
+    // the first look-up of a code learns its kind and asks each status provider; later ones read the
+    // providers' facts in the tag's own statement (asset-status.ts). A site of its own: the label sheets
+    // below print every asset of theirs.
+    const siteId = (await site()).id
+    const person = await user({ siteId, roles: ['facilities_lead'] })
+    const lead = await signIn(person)
+    const electric = await fittedTruck(siteId)
+    const held = await fittedTruck(siteId)
+    const inTruck = await battery({ siteId })
+    await putInTruck(inTruck.id, electric.id, person.id)
+    await refreshReadModels(siteId, [{ kind: 'truck', id: held.id }])
+    await useTestDb().update(tables.truckStatus).set({ holdReason: 'Brakes: pedal goes to the floor', lastInspectionAt: new Date() }).where(eq(tables.truckStatus.truckId, held.id))
+    const lp = await lpTruck(siteId)
+    await freshCylinder(siteId, { currentTruckId: lp.id, status: 'in_use' })
+    expect((await lead.post(`/api/trucks/${lp.id}/emissions-tests`, { testedOn: isoDaysFromNow(-1), testerName: 'Invented Tailpipe Services', coIdlePct: 1.2, coHighIdlePct: 0.8 })).status).toBe(201)
+    const codes = [
+      await tagFor('battery', inTruck.id, siteId), await tagFor('truck', electric.id, siteId), await tagFor('truck', held.id, siteId), await tagFor('truck', lp.id, siteId),
+    ]
+    const first = await Promise.all(codes.map(async c => (await lead.get(`/api/tags/${c}`)).body))
+    expect(first[0].status.state).toBe('in_truck')
+    expect(first[1].status.flags).toContainEqual(expect.objectContaining({ key: 'battery', params: { serial: inTruck.serial } }))
+    expect(first[2].status.state).toBe('inspection_hold')
+    expect(first[3].status.state).toBe('cylinder_fitted')
+    expect(first[3].status.due.map((d: { kind: string }) => d.kind)).toContain('emissions_test')
+    // a write at the site moves its revision, so each view is read again, now with the code's kind known
+    expect((await lead.post('/api/batteries', { ...batteryInput(), siteId })).status).toBe(201)
+    for (const [i, c] of codes.entries()) expect((await lead.get(`/api/tags/${c}`)).body.status, c).toEqual(first[i].status)
   })
 })
 

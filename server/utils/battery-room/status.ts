@@ -81,14 +81,9 @@ export const liveTag = (kind: string, idColumn: string) => sql.raw(`(SELECT t.co
 export const inChargingArea = (areaId: string) => sql`(b.home_area_id = ${areaId} OR b.id IN (
       SELECT s2.battery_id FROM battery_status s2 JOIN chargers c2 ON c2.id = s2.charger_id WHERE c2.area_id = ${areaId}))`
 
-export async function loadBatteryRows(db: SqlRunner, q: BatteryCardQuery): Promise<CardRow[]> {
-  const sites = typeof q.siteId === 'string' ? [q.siteId] : q.siteId
-  if (sites.length === 0 || q.batteryIds?.length === 0) return []
-  const siteIs = (column: string) => idIn(column, sites)
-  const where: SQL[] = [siteIs('b.site_id')]
-  if (q.areaId) where.push(inChargingArea(q.areaId))
-  if (q.batteryIds) where.push(idIn('b.id', q.batteryIds))
-  return rowsOf<CardRow>(db, sql`
+// The card rows' SELECT without its order: `where` picks the batteries (b), `statusSite` the status rows' sites.
+function batteryRowsSql(where: SQL, statusSite: SQL, withObligations?: boolean) {
+  return sql`
     SELECT b.id, b.site_id AS "siteId", b.serial, ${liveTag('battery', 'b.id')} AS "tagCode", b.home_area_id AS "homeAreaId", b.chemistry, b.voltage,
       b.cell_count AS "cellCount", b.capacity_ah AS "capacityAh", b.weight_lb AS "weightLb", b.length_in AS "lengthIn",
       b.width_in AS "widthIn", b.height_in AS "heightIn", b.connector, b.rated_cycles AS "ratedCycles",
@@ -100,15 +95,32 @@ export async function loadBatteryRows(db: SqlRunner, q: BatteryCardQuery): Promi
       st.time_zone AS "timeZone",
       w.due_on::text AS "wDueOn", w.due_at_count AS "wDueAt", w.count_now AS "wNow", w.due_soon_days AS "wSoon",
       e.due_on::text AS "eDueOn", e.due_at_count AS "eDueAt", e.count_now AS "eNow", e.due_soon_days AS "eSoon"
-      ${q.withObligations ? sql`, ${subjectObligationsJson(sql.raw('b.site_id'), 'battery', sql.raw('b.id'))} AS obligations` : sql``}
+      ${withObligations ? sql`, ${subjectObligationsJson(sql.raw('b.site_id'), 'battery', sql.raw('b.id'))} AS obligations` : sql``}
     FROM batteries b
     JOIN sites st ON st.id = b.site_id
-    LEFT JOIN battery_status s ON s.battery_id = b.id AND ${siteIs('s.site_id')}
+    LEFT JOIN battery_status s ON s.battery_id = b.id AND ${statusSite}
     ${obligationJoin('w', 'battery_watering')}
     ${obligationJoin('e', 'battery_equalize')}
-    WHERE ${sql.join(where, sql` AND `)}
+    WHERE ${where}`
+}
+
+export async function loadBatteryRows(db: SqlRunner, q: BatteryCardQuery): Promise<CardRow[]> {
+  const sites = typeof q.siteId === 'string' ? [q.siteId] : q.siteId
+  if (sites.length === 0 || q.batteryIds?.length === 0) return []
+  const siteIs = (column: string) => idIn(column, sites)
+  const where: SQL[] = [siteIs('b.site_id')]
+  if (q.areaId) where.push(inChargingArea(q.areaId))
+  if (q.batteryIds) where.push(idIn('b.id', q.batteryIds))
+  return rowsOf<CardRow>(db, sql`${batteryRowsSql(sql.join(where, sql` AND `), siteIs('s.site_id'), q.withObligations)}
     ORDER BY b.serial COLLATE natural_sort`)
 }
+
+/**
+ * One battery's row with what is due on it (as loadBatteryRows gives it with withObligations), as a JSON
+ * value, for the battery whose row is `table`'s in the statement around it (the tag look-up's).
+ */
+export const batteryRowJson = (table: SQL) =>
+  sql`(SELECT row_to_json(x) FROM (${batteryRowsSql(sql`b.id = ${table}.id`, sql.raw('s.site_id = b.site_id'), true)}) x)`
 
 export type FlagKey = 'wateringOverdue' | 'wateringDue' | 'equalizeDue' | 'weakCell' | 'ranHot'
 

@@ -239,12 +239,6 @@ export function subjectObligations(rows: readonly SubjectRow[], subject: Pick<Du
 export const statusDueItems = (items: readonly SubjectObligation[]) =>
   items.map(o => ({ what: o.what, kind: o.kind, dueOn: o.dueOn, state: o.state, detail: o.detail, detailWords: o.detailWords, action: o.action }))
 
-// What is due on an asset that came with the asset itself (the tag look-up reads both in one statement), so
-// the asset's status does not ask again. Keyed by the asset's row object, and gone with it.
-const dueWithAsset = new WeakMap<object, SubjectRow[]>()
-export const keepDueWithAsset = (row: object, rows: SubjectRow[]) => void dueWithAsset.set(row, rows)
-export const dueCameWithAsset = (row: object): SubjectRow[] | undefined => dueWithAsset.get(row)
-
 /** What is due on one subject (the tag page and the asset pages), soonest first, in its state on the site's today. */
 export async function obligationsOfSubject(db: SqlRunner, siteId: string, subject: Pick<DueSubject, 'kind' | 'id' | 'label' | 'tagCode'>): Promise<SubjectObligation[]> {
   return subjectObligations(await rowsOf<SubjectRow>(db, subjectRowsSql(sql`${siteId}`, subject.kind, sql`${subject.id}`)), subject)
