@@ -85,6 +85,25 @@ describe('due list grouped by kind', () => {
     expect(watering.groups[0]!.label).toMatch(/water/i)
   })
 
+  it('every order lists the same rows, each field as the whole list has it, and a page is the start of its order', async () => {
+    const state = 'overdue,due_soon,upcoming,done'
+    const byId = (list: DueReply) => new Map(list.items.map(i => [i.id, i]))
+    const reference = byId(await dueList(lead, { siteId, role: 'all', state, limit: 20000 }))
+    expect(reference.size).toBeGreaterThan(10)
+    const contiguous = (values: string[]) => values.filter((v, i) => i === 0 || v !== values[i - 1])
+    for (const sort of ['due', 'kind', 'subject', 'role']) {
+      const all = await dueList(lead, { siteId, role: 'all', state, limit: 20000, sort })
+      expect(all.items.length, sort).toBe(reference.size)
+      for (const item of all.items) expect(item, `${sort} ${item.id}`).toEqual(reference.get(item.id))
+      const page = await dueList(lead, { siteId, role: 'all', state, limit: 5, sort })
+      expect(page.items.map(i => i.id), sort).toEqual(all.items.slice(0, 5).map(i => i.id))
+      // each order keeps its first key's rows together (the kind order goes by what is due, in words)
+      const key = (i: DueReply['items'][number] & { what?: string }) => ({ due: i.state, kind: i.what ?? '', subject: i.subject.label, role: i.responsibleRole }[sort]!)
+      const keys = all.items.map(key)
+      expect(contiguous(keys), sort).toEqual([...new Set(keys)])
+    }
+  })
+
   it('each schedule a lead added is its own group under its title, and opens to its own obligations', async () => {
     const all = await dueList(lead, { siteId, role: 'all', limit: 0 })
     const custom = all.groups.filter(g => g.kind === 'custom')
