@@ -7,23 +7,36 @@ const noteWords = (note: string | null | undefined): HistoryWords[] => (note ? [
 
 // Fuel-station states and events on cylinders and trucks: requalification and emissions dates,
 // refills, cylinder changes, requalifications and emissions tests in the asset timelines.
+// whether the cylinder's last refill found its tare down, with no requalification since
+async function tareLossSinceRequalification(db: ReturnType<typeof useDb>, cylinderId: string) {
+  const [lastRefill] = await db.select({ at: tables.cylinderRefills.at, tareFlagged: tables.cylinderRefills.tareFlagged })
+    .from(tables.cylinderRefills).where(eq(tables.cylinderRefills.cylinderId, cylinderId))
+    .orderBy(desc(tables.cylinderRefills.at)).limit(1)
+  if (!lastRefill?.tareFlagged) return false
+  const [after] = await db.select({ id: tables.requalifications.id }).from(tables.requalifications)
+    .where(and(eq(tables.requalifications.cylinderId, cylinderId), gte(tables.requalifications.at, lastRefill.at))).limit(1)
+  return !after
+}
+
 export default defineNitroPlugin(() => {
+  // a cylinder's site (for its requalification date on the site's today) and whether its last refill found
+  // the tare down with no requalification since, read with the cylinder in the tag look-up's statement, or here
+  registerAssetFacts('cylinder', 'fuel', table => sql`json_build_object(
+      'site', (SELECT json_build_object('id', st.id, 'name', st.name, 'timeZone', st.time_zone, 'settings', st.settings) FROM sites st WHERE st.id = ${table}.site_id),
+      'tareLoss', coalesce((SELECT r.tare_flagged AND NOT EXISTS (SELECT 1 FROM requalifications q WHERE q.cylinder_id = r.cylinder_id AND q.at >= r.at)
+        FROM cylinder_refills r WHERE r.cylinder_id = ${table}.id ORDER BY r.at DESC LIMIT 1), false))`)
   registerAssetStatus('cylinder', async (row) => {
     const cylinder = row as unknown as FuelCylinderRow
     const db = useDb()
-    const facts = await fuelSiteFacts(db, cylinder.siteId)
+    const came = factsCameWithAsset<{ site: Parameters<typeof fuelSiteFactsFrom>[0], tareLoss: boolean }>(row, 'fuel')
+    const facts = came ? fuelSiteFactsFrom(came.site) : await fuelSiteFacts(db, cylinder.siteId)
     const requal = cylinderRequalification(cylinder, facts)
     const flags: { key: string, label: string, tone: 'danger' | 'warning' | 'caution', params?: Record<string, string> }[] = []
     if (requal.status === 'overdue' && cylinder.status !== 'condemned') {
       flags.push({ key: 'requalification_overdue', label: `Requalification overdue since ${requal.dueOn}: do not fill or fit`, params: { on: String(requal.dueOn) }, tone: 'danger' })
     }
-    const [lastRefill] = await db.select({ at: tables.cylinderRefills.at, tareFlagged: tables.cylinderRefills.tareFlagged })
-      .from(tables.cylinderRefills).where(eq(tables.cylinderRefills.cylinderId, cylinder.id))
-      .orderBy(desc(tables.cylinderRefills.at)).limit(1)
-    if (lastRefill?.tareFlagged) {
-      const [after] = await db.select({ id: tables.requalifications.id }).from(tables.requalifications)
-        .where(and(eq(tables.requalifications.cylinderId, cylinder.id), gte(tables.requalifications.at, lastRefill.at))).limit(1)
-      if (!after) flags.push({ key: 'tare_loss', label: 'Tare weight down 5 % or more: requalify before filling', tone: 'warning' })
+    if (came ? came.tareLoss : await tareLossSinceRequalification(db, cylinder.id)) {
+      flags.push({ key: 'tare_loss', label: 'Tare weight down 5 % or more: requalify before filling', tone: 'warning' })
     }
     return { flags }
   })

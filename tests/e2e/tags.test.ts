@@ -95,8 +95,13 @@ describe('a tag\'s status read with the tag, or asked for', () => {
     const lp = await lpTruck(siteId)
     await freshCylinder(siteId, { currentTruckId: lp.id, status: 'in_use' })
     expect((await lead.post(`/api/trucks/${lp.id}/emissions-tests`, { testedOn: isoDaysFromNow(-1), testerName: 'Invented Tailpipe Services', coIdlePct: 1.2, coHighIdlePct: 0.8 })).status).toBe(201)
+    // a cylinder past its requalification date whose last refill found the tare down, and one in date
+    const old = await freshCylinder(siteId, { status: 'empty', manufactureYear: 2010, manufactureMonth: 3 })
+    await useTestDb().insert(tables.cylinderRefills).values({ siteId, userId: person.id, at: new Date(), cylinderId: old.id, inspection: {}, refused: true, tareFlagged: true })
+    const inDate = await freshCylinder(siteId, { status: 'full' })
     const codes = [
       await tagFor('battery', inTruck.id, siteId), await tagFor('truck', electric.id, siteId), await tagFor('truck', held.id, siteId), await tagFor('truck', lp.id, siteId),
+      await tagFor('cylinder', old.id, siteId), await tagFor('cylinder', inDate.id, siteId),
     ]
     const first = await Promise.all(codes.map(async c => (await lead.get(`/api/tags/${c}`)).body))
     expect(first[0].status.state).toBe('in_truck')
@@ -104,6 +109,8 @@ describe('a tag\'s status read with the tag, or asked for', () => {
     expect(first[2].status.state).toBe('inspection_hold')
     expect(first[3].status.state).toBe('cylinder_fitted')
     expect(first[3].status.due.map((d: { kind: string }) => d.kind)).toContain('emissions_test')
+    expect(first[4].status.flags.map((f: { key: string }) => f.key)).toEqual(['requalification_overdue', 'tare_loss'])
+    expect(first[5].status.flags).toEqual([])
     // a write at the site moves its revision, so each view is read again, now with the code's kind known
     expect((await lead.post('/api/batteries', { ...batteryInput(), siteId })).status).toBe(201)
     for (const [i, c] of codes.entries()) expect((await lead.get(`/api/tags/${c}`)).body.status, c).toEqual(first[i].status)

@@ -25,8 +25,8 @@ export async function truckHours(id: string) {
 }
 
 /** A tag code for a fixture row, from the same gap-free counter the server uses. */
-export async function tagFor(kind: 'battery' | 'truck' | 'charger', assetId: string, siteId: string): Promise<string> {
-  const prefix = { battery: 'B', truck: 'T', charger: 'C' }[kind]
+export async function tagFor(kind: 'battery' | 'truck' | 'charger' | 'cylinder', assetId: string, siteId: string): Promise<string> {
+  const prefix = { battery: 'B', truck: 'T', charger: 'C', cylinder: 'L' }[kind]
   const [row] = await useTestDb().execute<{ last: number }>(sql`
     INSERT INTO tag_counters (prefix, last) VALUES (${prefix}, 1)
     ON CONFLICT (prefix) DO UPDATE SET last = tag_counters.last + 1 RETURNING last`)

@@ -31,8 +31,12 @@ export async function fuelSiteFacts(db: DbOrTx, siteId: string): Promise<FuelSit
   const [site] = await db.select({ id: tables.sites.id, name: tables.sites.name, timeZone: tables.sites.timeZone, settings: tables.sites.settings })
     .from(tables.sites).where(eq(tables.sites.id, siteId))
   if (!site) throw codedError(404, 'no_such_site', 'No such site.')
-  return { ...site, settings: siteSettingsSchema.parse(site.settings ?? {}), today: localDate(new Date(), site.timeZone) }
+  return fuelSiteFactsFrom(site)
 }
+
+/** A site's fuel facts from its row (its settings as stored). */
+export const fuelSiteFactsFrom = (site: { id: string, name: string, timeZone: string, settings: unknown }): FuelSiteFacts =>
+  ({ ...site, settings: siteSettingsSchema.parse(site.settings ?? {}), today: localDate(new Date(), site.timeZone) })
 
 export interface CylinderRequalificationState {
   dueOn: string
