@@ -64,6 +64,10 @@ describe('battery swaps', () => {
     expect(outTag.body.status).toMatchObject({ state: 'needs_charge', label: 'Needs charge' })
     const history = await operator.get(`/api/history/battery/${fresh.id}`)
     expect(history.body.items.map((i: { title: string }) => i.title)).toEqual(expect.arrayContaining([`Put in truck ${t.fleetNumber}`, expect.stringMatching(/^Off charger /)]))
+    // `more` says whether earlier events were left out of the page
+    expect(history.body.more).toBe(false)
+    const one = await operator.get(`/api/history/battery/${fresh.id}?limit=1`)
+    expect(one.body).toMatchObject({ items: [history.body.items[0]], more: true })
     const truckHistory = await operator.get(`/api/history/truck/${t.id}`)
     expect(truckHistory.body.items[0].title).toBe(`Battery ${fresh.serial} fitted`)
   })
