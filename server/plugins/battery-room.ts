@@ -53,7 +53,7 @@ export default defineNitroPlugin(() => {
     const [current] = came !== undefined
       ? (came ? [came] : [])
       : await useDb().select({ serial: tables.batteries.serial }).from(tables.batteryStatus)
-        .innerJoin(tables.batteries, eq(tables.batteries.id, tables.batteryStatus.batteryId)).where(eq(tables.batteryStatus.truckId, row.id))
+          .innerJoin(tables.batteries, eq(tables.batteries.id, tables.batteryStatus.batteryId)).where(eq(tables.batteryStatus.truckId, row.id))
     return current
       ? { state: 'battery_in', flags: [{ key: 'battery', label: `Battery ${current.serial}`, params: { serial: current.serial }, tone: 'neutral' as const }] }
       : { state: 'battery_needed', flags: [{ key: 'battery_none', label: 'No battery recorded', tone: 'caution' as const }] }

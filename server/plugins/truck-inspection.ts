@@ -11,7 +11,7 @@ export default defineNitroPlugin(() => {
     const [s] = came !== undefined
       ? (came ? [{ holdReason: came.holdReason, lastInspectionAt: dateFromMs(came.lastInspectionMs) }] : [])
       : await useDb().select({ holdReason: tables.truckStatus.holdReason, lastInspectionAt: tables.truckStatus.lastInspectionAt })
-        .from(tables.truckStatus).where(eq(tables.truckStatus.truckId, row.id))
+          .from(tables.truckStatus).where(eq(tables.truckStatus.truckId, row.id))
     if (s?.holdReason) {
       return { state: 'inspection_hold', label: 'Out of service after inspection', tone: 'danger' as const, flags: [{ key: 'inspection_hold', label: s.holdReason, tone: 'danger' as const }] }
     }
