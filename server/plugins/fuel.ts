@@ -5,8 +5,6 @@ import type { FuelCylinderRow, FuelTruckRow } from '../utils/fuel/site'
 const tenth = (v: number) => Math.round(v * 10) / 10
 const noteWords = (note: string | null | undefined): HistoryWords[] => (note ? [{ code: 'note', params: { note } }] : [])
 
-// Fuel-station states and events on cylinders and trucks: requalification and emissions dates,
-// refills, cylinder changes, requalifications and emissions tests in the asset timelines.
 // whether the cylinder's last refill found its tare down, with no requalification since
 async function tareLossSinceRequalification(db: ReturnType<typeof useDb>, cylinderId: string) {
   const [lastRefill] = await db.select({ at: tables.cylinderRefills.at, tareFlagged: tables.cylinderRefills.tareFlagged })
@@ -18,6 +16,8 @@ async function tareLossSinceRequalification(db: ReturnType<typeof useDb>, cylind
   return !after
 }
 
+// Fuel-station states and events on cylinders and trucks: requalification and emissions dates,
+// refills, cylinder changes, requalifications and emissions tests in the asset timelines.
 export default defineNitroPlugin(() => {
   // a cylinder's site (for its requalification date on the site's today) and whether its last refill found
   // the tare down with no requalification since, read with the cylinder in the tag look-up's statement, or here
@@ -44,11 +44,7 @@ export default defineNitroPlugin(() => {
   // an engine truck's last effective emissions test (its next due date from its obligation) and the cylinder
   // fitted, read with the truck in the tag look-up's statement, or here
   registerAssetFacts('truck', 'fuel', table => sql`(SELECT json_build_object(
-      'emissions', (SELECT json_build_object('passed', e.passed, 'testedOn', e.tested_on::text, 'nextDueOn', coalesce((
-          SELECT o.due_on FROM obligations o WHERE o.site_id = ${table}.site_id AND o.rule_key = 'emissions_test'
-            AND o.subject_kind = 'truck' AND o.subject_id = ${table}.id LIMIT 1), e.next_due_on)::text)
-        FROM emissions_tests e WHERE e.truck_id = ${table}.id AND ${isEffectiveRecord('emissions_tests', 'e')}
-        ORDER BY e.tested_on DESC, e.recorded_at DESC LIMIT 1),
+      'emissions', ${latestEmissionsTestJson(table)},
       'cylinder', (SELECT c.serial FROM lp_cylinders c WHERE c.current_truck_id = ${table}.id LIMIT 1))
     WHERE ${table}.power <> 'electric')`)
   registerAssetStatus('truck', async (row) => {

@@ -11,7 +11,7 @@ export default defineNitroPlugin(() => {
     registerAssetStatus(kind, async (row) => {
       const label = String(row.serial ?? row.fleetNumber ?? row.name ?? '')
       const subject = { kind, id: row.id, label, tagCode: null }
-      // the tag look-up brings them with the asset; other pages ask
+      // the tag look-up brings them with the asset once it knows the code's kind; otherwise ask
       const known = factsCameWithAsset<SubjectRow[]>(row, 'due')
       const items = known ? subjectObligations(known, subject) : await obligationsOfSubject(useDb(), row.siteId, subject)
       return { due: statusDueItems(items) }

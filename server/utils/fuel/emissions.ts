@@ -1,3 +1,4 @@
+import type { SQL } from 'drizzle-orm'
 import type { EngineFuel } from '#shared/utils/emissions'
 import type { EmissionsTestInput } from '#shared/utils/fuel-schemas'
 import type { DbOrTx } from '../db'
@@ -17,6 +18,16 @@ export function emissionsBucket(latest: { passed: boolean, nextDueOn: string } |
   if (daysLeft <= 90) return { bucket: 'due_90', daysLeft }
   return { bucket: 'current', daysLeft }
 }
+
+/**
+ * latestEmissionsTests' answer for one truck as a JSON value inside another statement (the tag look-up's): the
+ * truck whose row is `table`'s there; its passed, testedOn and nextDueOn, or null when it has none. Keep the two alike.
+ */
+export const latestEmissionsTestJson = (table: SQL) => sql`(SELECT json_build_object('passed', e.passed, 'testedOn', e.tested_on::text,
+    'nextDueOn', coalesce((SELECT o.due_on FROM obligations o WHERE o.site_id = ${table}.site_id AND o.rule_key = 'emissions_test'
+      AND o.subject_kind = 'truck' AND o.subject_id = ${table}.id LIMIT 1), e.next_due_on)::text)
+  FROM emissions_tests e WHERE e.truck_id = ${table}.id AND ${isEffectiveRecord('emissions_tests', 'e')}
+  ORDER BY e.tested_on DESC, e.recorded_at DESC LIMIT 1)`
 
 /** Each truck's latest effective emissions test, with its next due date as the emissions schedule gives it now. */
 export async function latestEmissionsTests(db: DbOrTx, truckIds: string[]) {
