@@ -13,7 +13,10 @@ export async function resolveTagForActor(event: H3Event, raw: string) {
   const code = normalizeTagCode(raw)
   const actor = await requireActor(event)
   if (!code) throw codedError(404, 'tag_not_found', NOT_FOUND)
-  const kind = codeKinds.get(code)
+  // the code's letter names its asset's kind (Bayward issues every code so), so even a code's first look-up
+  // reads the tag and its asset in one statement; a code whose letter does not (a row written by hand) takes
+  // the long way once, and its kind is then known
+  const kind = codeKinds.get(code) ?? tagKind(code)
   if (kind) {
     const found = await tagWithAsset(code, kind, actor.siteIds)
     if (found) return { actor, ...found }
@@ -26,8 +29,8 @@ export async function resolveTagForActor(event: H3Event, raw: string) {
   return { actor, tag, kind: tag.assetKind, row, liveCode: tagCode }
 }
 
-// A code's asset kind, learnt from earlier look-ups (a code names one asset for life, retired or not): with
-// it, the tag and its asset come in one statement, not two after each other.
+// The asset kind of a code whose letter does not name it, learnt from its first look-up (a code names one
+// asset for life, retired or not): with it, the tag and its asset come in one statement, not two after each other.
 const codeKinds = new LRUCache<string, AssetKind>({ max: 20_000 })
 
 async function tagWithAsset(code: string, kind: AssetKind, siteIds: string[]) {
