@@ -1,4 +1,5 @@
 import { createRequire } from 'node:module'
+import { writeFileSync } from 'node:fs'
 import http from 'node:http'
 
 // Load generators: autocannon for a closed loop at N connections, and an open loop at fixed rates.
@@ -65,11 +66,14 @@ const DRAIN_MS = 30_000
 
 // An open loop: each stream fires at its rate for `seconds`, every request on its own keep-alive socket
 // from a shared pool; latency runs from the moment a request is sent to its last byte.
-export async function openLoop(base: string, cookie: string, streams: OpenStream[], seconds: number) {
+export async function openLoop(base: string, cookie: string, streams: OpenStream[], seconds: number, traced = true) {
   const agent = new http.Agent({ keepAlive: true, maxSockets: 512 })
   const url = new URL(base)
   const stats = new Map(streams.map(s => [s.name, { times: [] as number[], errors: 0, skipped: 0, statuses: new Map<number, number>() }]))
   const pending = new Map<Promise<void>, string>()
+  // BAYWARD_SHIFT_TRACE=file: every answer as "sent at (ms from the start) · ms taken · status · route", one a line
+  const trace: string[] = []
+  const t0 = performance.now()
   const send = (s: OpenStream) => {
     const req = s.next()
     const st = stats.get(s.name)!
@@ -89,6 +93,7 @@ export async function openLoop(base: string, cookie: string, streams: OpenStream
         res.on('end', () => {
           st.times.push(performance.now() - started)
           const status = res.statusCode ?? 0
+          if (traced && process.env.BAYWARD_SHIFT_TRACE) trace.push(`${(started - t0).toFixed(1)}\t${(performance.now() - started).toFixed(1)}\t${status}\t${s.name}`)
           st.statuses.set(status, (st.statuses.get(status) ?? 0) + 1)
           if (status < 200 || status >= 300) st.errors += 1
           s.onAnswer?.(status, Buffer.concat(chunks).toString(), req)
@@ -121,6 +126,7 @@ export async function openLoop(base: string, cookie: string, streams: OpenStream
   timers.forEach(clearInterval)
   // answers still owed after the run get a bounded wait; any still missing then count as errors
   await Promise.race([Promise.all(pending.keys()), new Promise(r => setTimeout(r, DRAIN_MS))])
+  if (traced && process.env.BAYWARD_SHIFT_TRACE) writeFileSync(process.env.BAYWARD_SHIFT_TRACE, `${trace.join('\n')}\n`)
   for (const name of pending.values()) {
     const st = stats.get(name)!
     st.errors += 1

@@ -116,6 +116,8 @@ export async function runShiftChange(server: BenchServer, sql: postgres.Sql) {
   }
   const streams = [swap, chargeStart, chargeEnd, check, board, due, tag]
   console.log(`  shift change: ${SHIFT_SECONDS} s at ${streams.map(s => `${s.rate}/s`).join(', ')}…`)
+  const warmUp = Number(process.env.BAYWARD_SHIFT_WARMUP_SECONDS ?? 0)
+  if (warmUp > 0) await openLoop(server.base, cookie, streams, warmUp, false)
   const figures = await openLoop(server.base, cookie, streams, SHIFT_SECONDS)
   for (const f of figures) console.log(`  [shift] ${f.route}: ${f.requests} answered, p95 ${f.p95.toFixed(1)} ms, ${f.errors} errors, ${f.skipped} skipped ${JSON.stringify(f.statuses)}`)
   return { figures, twoPlaces: await batteriesInTwoPlaces(sql, since) }
