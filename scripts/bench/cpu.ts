@@ -38,7 +38,7 @@ try {
   }
   for (const [name, path, cookie] of routes) {
     if (name !== 'health' && !name.startsWith('/') && !wanted(name)) continue
-    // (the tag look-up warms over all its codes: a code's first look-up learns its kind, as in the load runs)
+    // (the tag look-up warms over all its codes, as the load runs do)
     for (let i = 0; i < Number(process.env.BAYWARD_CPU_WARMUP ?? (name === 'tag' ? 500 : 20)); i++) await (await fetch(server.base + path(i), { headers: { cookie, 'accept': 'application/json', 'accept-encoding': encoding } })).text()
     const app0 = cpuMs(server.pid), pg0 = pgCpuMs(), t0 = performance.now()
     let bytes = 0

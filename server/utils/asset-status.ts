@@ -31,7 +31,8 @@ export function registerAssetStatus(kind: AssetKind, provider: StatusProvider) {
 // A provider may also say how to read its facts inside the tag look-up's own statement (one JSON value
 // about the asset's row, `table` being the asset's table there): the look-up then keeps what came with the
 // row (keepFactsWithAsset), and the provider takes it from there instead of asking PostgreSQL again.
-// A code's first look-up (its kind not yet known) brings no facts: a provider always handles a row without them.
+// A row found the long way (a tag whose code's letter does not name its kind) brings no facts: a provider
+// always handles a row without them.
 type FactsSql = (table: SQL) => SQL
 const factSqls: Partial<Record<AssetKind, { key: string, sql: FactsSql }[]>> = {}
 
