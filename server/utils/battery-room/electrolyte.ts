@@ -1,3 +1,4 @@
+import { randomUUID } from 'node:crypto'
 import type { z } from 'zod'
 import type { FitReason } from '#shared/utils/battery-fit'
 import { NO_ELECTROLYTE_READING, takesElectrolyteReadings } from '#shared/utils/chemistry-rules'
@@ -32,8 +33,13 @@ export async function recordElectrolyteCheck(actor: Actor, battery: BatteryRow, 
   const summary = summarizeElectrolyteReadings(body.cells, { referenceTempF: settings.sgReferenceTempF, correctionPerDegF: settings.sgCorrectionPerDegF }, settings.cellSpreadThreshold)
   try {
     return await useDb().transaction(async (tx) => {
-      await tx.select({ id: tables.batteries.id }).from(tables.batteries).where(eq(tables.batteries.id, battery.id)).for('update')
-      const [before] = await loadBatteryRows(tx, { siteId, batteryIds: [battery.id] })
+      // In batches on the transaction's connection (see DEVELOPERS.md): the lock with the battery's card,
+      // then the check, its cells and the read models' facts (which see them), then the audit row with the
+      // read models. The check's id is made here so its cells go in the same batch.
+      const [, [before]] = await Promise.all([
+        tx.select({ id: tables.batteries.id }).from(tables.batteries).where(eq(tables.batteries.id, battery.id)).for('update').then(rows => rows),
+        loadBatteryRows(tx, { siteId, batteryIds: [battery.id] }),
+      ])
       const timing = {
         waterAddedGal: body.waterAddedGal,
         chargeOpen: !!before?.chargeSessionId,
@@ -42,19 +48,25 @@ export async function recordElectrolyteCheck(actor: Actor, battery: BatteryRow, 
       }
       const warnings: FitReason[] = []
       if (wateringBeforeChargeCaution(timing, at)) warnings.push({ code: 'water_before_charge', message: WATER_AFTER_CHARGE_CAUTION })
-      const [check] = await tx.insert(ec).values({
-        siteId, userId: actor.user.id, at, idempotencyKey: body.idempotencyKey, note: body.note,
-        batteryId: battery.id, level: body.level, waterAddedGal: body.waterAddedGal, scope: body.cells.length ? body.scope : null,
-        referenceTempF: settings.sgReferenceTempF, correctionPerDegF: settings.sgCorrectionPerDegF,
-        meanCorrectedSg: summary.meanCorrectedSg, spread: body.scope === 'every_cell' ? summary.spread : null,
-        lowCellCount: summary.lowCells.length, stateOfChargePct: summary.stateOfChargePct,
-        afterCharge: justFinishedCharge(timing, at),
-      }).returning()
-      if (summary.cells.length) {
-        await tx.insert(tables.cellReadings).values(summary.cells.map(c => ({ checkId: check!.id, ...c })))
-      }
-      await writeAudit(tx, { actor, siteId, action: 'electrolyte_check', entity: 'electrolyte_check', entityId: check!.id, after: { ...check, cells: summary.cells }, note: warnings.map(w => w.message).join(' ') || undefined })
-      await recomputeSubjects(tx, siteId, [{ kind: 'battery', id: battery.id }], { lock: false, ctx: await cachedSiteContext(actor, siteId, tx) })
+      // (once the lock is held: see startChargeSession)
+      const ctx = await cachedSiteContext(actor, siteId, tx)
+      const checkId = randomUUID()
+      const [[check], , models] = await Promise.all([
+        tx.insert(ec).values({
+          id: checkId, siteId, userId: actor.user.id, at, idempotencyKey: body.idempotencyKey, note: body.note,
+          batteryId: battery.id, level: body.level, waterAddedGal: body.waterAddedGal, scope: body.cells.length ? body.scope : null,
+          referenceTempF: settings.sgReferenceTempF, correctionPerDegF: settings.sgCorrectionPerDegF,
+          meanCorrectedSg: summary.meanCorrectedSg, spread: body.scope === 'every_cell' ? summary.spread : null,
+          lowCellCount: summary.lowCells.length, stateOfChargePct: summary.stateOfChargePct,
+          afterCharge: justFinishedCharge(timing, at),
+        }).returning().then(rows => rows),
+        summary.cells.length ? tx.insert(tables.cellReadings).values(summary.cells.map(c => ({ checkId, ...c }))).then(() => undefined) : undefined,
+        computeReadModels(tx, ctx, { battery: [battery.id] }),
+      ])
+      await Promise.all([
+        writeAudit(tx, { actor, siteId, action: 'electrolyte_check', entity: 'electrolyte_check', entityId: check!.id, after: { ...check, cells: summary.cells }, note: warnings.map(w => w.message).join(' ') || undefined }),
+        writeReadModels(tx, { siteId, subjectIds: [battery.id] }, models),
+      ])
       const [after] = await loadBatteryRows(tx, { siteId, batteryIds: [battery.id] })
       return { item: check!, cells: summary.cells, lowCells: summary.lowCells, replayed: false, warnings, status: batteryRoomStatus(after!, settings.timeZone, new Date()) }
     })
