@@ -17,7 +17,12 @@ const enabled = () => process.env.BAYWARD_READ_CACHE !== 'false'
 
 // Bounded by an estimate of bytes (BAYWARD_READ_CACHE_MB, 32 by default): an entry counts 1 kB while it
 // is being computed, then what `sizeOf` says of its value.
-const cache = new LRUCache<string, { value: Promise<unknown> }>({
+interface CacheEntry {
+  value: Promise<unknown>
+  /** its value is in (a failed computation is not kept) */
+  settled: boolean
+}
+const cache = new LRUCache<string, CacheEntry>({
   maxSize: Number(process.env.BAYWARD_READ_CACHE_MB ?? 32) * 1024 * 1024,
   sizeCalculation: () => 1024,
   ttlAutopurge: false,
@@ -51,21 +56,26 @@ export function siteConfigRevision(actor: Actor, siteId: string): string | undef
  * The same as cachedForSite for what is computed from the site's configuration alone (its settings, time
  * zone and schedules): kept until the configuration changes or `ttlMs` passes, across writes of records.
  */
-export function cachedConfigForSite<T>(actor: Actor, siteId: string, key: string, ttlMs: number, compute: () => Promise<T>): Promise<T> {
+export function cachedConfigForSite<T>(actor: Actor, siteId: string, key: string, ttlMs: number, compute: () => Promise<T>, opts: { inTransaction?: boolean } = {}): Promise<T> {
   const revision = siteConfigRevision(actor, siteId)
-  return cachedAt(siteId, revision === undefined ? undefined : `cfg.${revision}`, key, ttlMs, compute, DEFAULT_SIZE)
+  return cachedAt(siteId, revision === undefined ? undefined : `cfg.${revision}`, key, ttlMs, compute, DEFAULT_SIZE, !opts.inTransaction)
 }
 
-async function cachedAt<T>(siteId: string, revision: string | undefined, key: string, ttlMs: number, compute: () => Promise<T>, sizeOf: (value: T) => number): Promise<T> {
+// `waitForOthers` false: a caller inside a transaction takes a value already computed but never waits for one
+// still being computed by another request: that load may be queued behind a lock this caller holds, or wait
+// for a pool connection that callers like this one hold. It computes its own (on its own transaction) instead.
+async function cachedAt<T>(siteId: string, revision: string | undefined, key: string, ttlMs: number, compute: () => Promise<T>, sizeOf: (value: T) => number, waitForOthers = true): Promise<T> {
   if (!enabled() || revision === undefined) return compute()
   const fullKey = `${siteId}@${revision}:${key}`
   const hit = cache.get(fullKey)
-  if (hit) return hit.value as Promise<T>
+  if (hit && (waitForOthers || hit.settled)) return hit.value as Promise<T>
+  if (hit) return compute()
   const value = compute()
-  const entry = { value }
+  const entry: CacheEntry = { value, settled: false }
   const started = Date.now()
   cache.set(fullKey, entry, { ttl: ttlMs })
   value.then((v) => {
+    entry.settled = true
     const left = ttlMs - (Date.now() - started)
     if (cache.get(fullKey) === entry && left > 0) cache.set(fullKey, entry, { ttl: left, size: Math.max(1, sizeOf(v)) })
   }, () => {

@@ -1,5 +1,5 @@
 import { afterEach, describe, expect, it } from 'vitest'
-import { cachedForSite, clearReadCache } from '../../server/utils/read-cache'
+import { cachedConfigForSite, cachedForSite, clearReadCache } from '../../server/utils/read-cache'
 import type { Actor } from '../../server/utils/auth'
 
 // Behaviour of the per-site-revision cache (no outside values: these are the cache's own rules).
@@ -43,6 +43,23 @@ describe('cachedForSite', () => {
     await cachedForSite(actorAt(1), SITE, 'k', 30, c.compute)
     await new Promise(r => setTimeout(r, 60))
     expect(await cachedForSite(actorAt(1), SITE, 'k', 30, c.compute)).toBe(2)
+  })
+
+  it('a caller inside a transaction takes a value already in but never waits for another request\'s load in flight', async () => {
+    // the pool's load, still running (it might wait for a connection the transaction holds)
+    let finish: (v: string) => void = () => {}
+    const pending = new Promise<string>((resolve) => {
+      finish = resolve
+    })
+    const pooled = cachedConfigForSite(actorAt(3), SITE, 'settings', 10_000, () => pending)
+    const own = await cachedConfigForSite(actorAt(3), SITE, 'settings', 10_000, async () => 'loaded on the transaction', { inTransaction: true })
+    expect(own).toBe('loaded on the transaction')
+    // outside a transaction a request still waits for the load in flight, and everyone gets it once it is in
+    const waiting = cachedConfigForSite(actorAt(3), SITE, 'settings', 10_000, async () => 'not asked')
+    finish('loaded on the pool')
+    expect(await pooled).toBe('loaded on the pool')
+    expect(await waiting).toBe('loaded on the pool')
+    expect(await cachedConfigForSite(actorAt(3), SITE, 'settings', 10_000, async () => 'not asked', { inTransaction: true })).toBe('loaded on the pool')
   })
 
   it('does not keep a failure', async () => {

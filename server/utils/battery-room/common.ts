@@ -16,7 +16,7 @@ export async function batteryRoomSettings(db: DbOrTx, siteId: string): Promise<S
  * transaction pass the transaction (see cachedSiteContext).
  */
 export function cachedBatteryRoomSettings(actor: Actor, siteId: string, db: DbOrTx = useDb()) {
-  return cachedConfigForSite(actor, siteId, 'battery-room-settings', 60_000, () => batteryRoomSettings(db, siteId))
+  return cachedConfigForSite(actor, siteId, 'battery-room-settings', 60_000, () => batteryRoomSettings(db, siteId), { inTransaction: db !== useDb() })
 }
 
 /** A refused action: 409 with every reason in words. */
