@@ -58,8 +58,9 @@ export async function startChargeSession(actor: Actor, battery: Pick<BatteryRow,
       const soft = chargerBatteryMatch(charger, locked)
       if (soft.length && !body.overrideReason) throw refusal(soft, { overridable: true, overrideReasonMinLength: OVERRIDE_REASON_MIN_LENGTH })
       const warnings = isLithiumIon(locked.chemistry) && charger.chemistryProfiles.length === 0 ? [CHARGER_PROFILE_UNRECORDED] : []
-      // the site's kept context, asked for once the locks are held: a context another request is loading
-      // meanwhile is shared with it, and one loading on a transaction that waits for these locks would never come
+      // the site's kept context, asked for once the locks are held, so a load this request starts on its
+      // transaction is not queued behind its own lock wait (inside a transaction it never waits for another
+      // request's load: cachedConfigForSite's `inTransaction`)
       const ctx = await cachedSiteContext(actor, siteId, tx)
       const [[session], models] = await Promise.all([
         tx.insert(cs).values({
