@@ -61,6 +61,25 @@ describe('record corrections', () => {
     expect(parsed.find(r => r.recordId === id)?.correctedBy).toBe(res.body.item.id)
   })
 
+  it('the history CSV carries every event however many there are; the page shows the latest and says the rest are in the CSV', async () => {
+    const b = await battery({ siteId: w.siteId })
+    const first = Date.parse('2024-01-01T08:00:00.000Z')
+    await useTestDb().insert(tables.auditLog).values(Array.from({ length: 620 }, (_, i) => ({
+      at: new Date(first + i * 3_600_000), userId: w.userId, siteId: w.siteId, action: 'update', entity: 'battery', entityId: b.id,
+      before: { notes: `edit ${i}` }, after: { notes: `edit ${i + 1}` },
+    })))
+    const page = await admin.get(`/api/history/battery/${b.id}`)
+    expect(page.body.items).toHaveLength(100)
+    expect(page.body.more).toBe(true)
+    const csv = await admin.get(`/api/history/battery/${b.id}/export`)
+    expect(csv.status).toBe(200)
+    const parsed = Papa.parse<Record<string, string>>(csv.body as string, { header: true, skipEmptyLines: true }).data
+    expect(parsed.length).toBeGreaterThanOrEqual(620)
+    // newest first, down to the oldest edit
+    expect(parsed.map(r => r.at)).toContain('2024-01-01T08:00:00.000Z')
+    expect(parsed.filter(r => r.at.startsWith('2024-')).length).toBe(620)
+  })
+
   it('a swap corrected to another battery moves both batteries; a charge corrected to interrupted drops the cycle', async () => {
     const other = await battery({ siteId: w.siteId })
     const truck = await fittedTruck(w.siteId)
