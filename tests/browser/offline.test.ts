@@ -121,6 +121,9 @@ describe('records that survive a dropped connection', () => {
     await context.unroute('**/api/battery-room/**', blocked)
     await context.setOffline(true)
     await context.setOffline(false)
+    // A device's browser says 'online' when its connection comes back; Chromium's emulated network does not, which
+    // left the records to the half-minute retry racing this wait. So the page is told, as a device's browser would.
+    await page.evaluate(() => window.dispatchEvent(new Event('online')))
     await page.getByText('Sent: 2 kept records saved').waitFor({ timeout: 20_000 })
     await page.locator('[data-outbox-banner]').waitFor({ state: 'detached', timeout: 20_000 })
 
@@ -159,6 +162,7 @@ describe('records that survive a dropped connection', () => {
     expect(taken.status, JSON.stringify(taken.body)).toBe(201)
 
     await context.setOffline(false)
+    await page.evaluate(() => window.dispatchEvent(new Event('online')))
     await page.locator('[data-outbox-state="refused"]').getByText('someone has just taken it').waitFor({ timeout: 20_000 })
     await page.getByRole('alert').getByText('1 record refused when it arrived').waitFor()
     await page.getByText(`Battery ${swap.codes[2]} into truck ${swap.codes[0]}`).first().waitFor()
