@@ -187,6 +187,30 @@ describe('battery swaps', () => {
     expect(row.checks[0].code).toBe('still_cooling')
   })
 
+  it('the overrides are listed for a range of the site\'s days (the last 90 unless asked), newest first, 500 at most and saying so', async () => {
+    const other = await site()
+    const reader = await signIn(await user({ siteId: other.id, roles: ['facilities_lead'] }))
+    const who = await user({ siteId: other.id, roles: ['technician'] })
+    const t = await fittedTruck(other.id)
+    const b = await battery({ siteId: other.id })
+    const rows = (n: number, newestMs: number, word: string) => Array.from({ length: n }, (_, i) => ({
+      siteId: other.id, userId: who.id, at: new Date(newestMs - i * 60_000), truckId: t.id, batteryInId: b.id,
+      overrideReason: `${word} ${i}: cooled under the fan.`, overriddenChecks: [{ code: 'still_cooling', message: 'Still cooling.' }],
+    }))
+    await useTestDb().insert(tables.batterySwaps).values([...rows(505, Date.now() - 3_600_000, 'Recent'), ...rows(3, Date.parse('2025-06-15T15:00:00Z'), 'Older')])
+    const recent = await reader.get(`/api/battery-room/overrides?siteId=${other.id}`)
+    expect(recent.status, JSON.stringify(recent.body)).toBe(200)
+    expect(recent.body.items).toHaveLength(500)
+    expect(recent.body.more).toBe(true)
+    expect(recent.body.items[0].reason).toBe('Recent 0: cooled under the fan.')
+    expect(recent.body.items.some((i: { reason: string }) => i.reason.startsWith('Older'))).toBe(false)
+    const june = await reader.get(`/api/battery-room/overrides?siteId=${other.id}&from=2025-06-01&to=2025-06-30`)
+    expect(june.body).toMatchObject({ from: '2025-06-01', to: '2025-06-30', more: false })
+    expect(june.body.items.map((i: { reason: string }) => i.reason)).toEqual([0, 1, 2].map(i => `Older ${i}: cooled under the fan.`))
+    const backwards = await reader.get(`/api/battery-room/overrides?siteId=${other.id}&from=2025-06-30&to=2025-06-01`)
+    expect(backwards.status).toBe(400)
+  })
+
   it('an operator may not override, and a reason under 10 characters is refused', async () => {
     const t = await fittedTruck(siteId)
     const b = await ready({ restedHours: 2 })

@@ -1,5 +1,24 @@
-// Swaps and charges that went ahead despite a refused check or with a recorded warning, newest first.
-export async function batteryRoomOverrides(siteId: string) {
+import { addCalendarInterval, localDate } from '#shared/utils/due-dates'
+import { zonedInstant } from '#shared/utils/shift-times'
+
+/** The most rows the overrides page lists for one range of days; it says so when there are more. */
+export const OVERRIDES_SHOWN = 500
+/** The days the page covers when none are asked for: the last 90, today included. */
+const DEFAULT_DAYS = 90
+
+const dayStart = (isoDate: string, timeZone: string) => {
+  const [y, m, d] = isoDate.split('-').map(Number) as [number, number, number]
+  return zonedInstant(y, m, d, 0, 0, timeZone)
+}
+
+// Swaps and charges that went ahead despite a refused check or with a recorded warning, newest first, within a
+// range of the site's days (the last 90 unless asked): the newest OVERRIDES_SHOWN of both kinds together, and
+// `more` when the range holds others.
+export async function batteryRoomOverrides(siteId: string, timeZone: string, range: { from?: string, to?: string } = {}) {
+  const to = range.to ?? localDate(new Date(), timeZone)
+  const from = range.from ?? addCalendarInterval(to, -(DEFAULT_DAYS - 1), 'day')
+  const start = dayStart(from, timeZone).toISOString()
+  const end = dayStart(addCalendarInterval(to, 1, 'day'), timeZone).toISOString()
   const db = useDb()
   const [swaps, charges] = await Promise.all([
     db.execute(sql`
@@ -10,16 +29,16 @@ export async function batteryRoomOverrides(siteId: string) {
       JOIN trucks t ON t.id = s.truck_id
       JOIN batteries bi ON bi.id = s.battery_in_id
       LEFT JOIN batteries bo ON bo.id = s.battery_out_id
-      WHERE s.site_id = ${siteId} AND s.overridden_checks IS NOT NULL
-      ORDER BY s.at DESC LIMIT 200`),
+      WHERE s.site_id = ${siteId} AND s.overridden_checks IS NOT NULL AND s.at >= ${start}::timestamptz AND s.at < ${end}::timestamptz
+      ORDER BY s.at DESC LIMIT ${OVERRIDES_SHOWN + 1}`),
     db.execute(sql`
       SELECT c.id, (EXTRACT(EPOCH FROM c.at) * 1000)::float8 AS "atMs", c.override_reason AS "overrideReason", u.name AS "who", b.serial AS "battery", ch.name AS "charger"
       FROM charge_sessions c
       JOIN users u ON u.id = c.user_id
       JOIN batteries b ON b.id = c.battery_id
       JOIN chargers ch ON ch.id = c.charger_id
-      WHERE c.site_id = ${siteId} AND c.override_reason IS NOT NULL
-      ORDER BY c.at DESC LIMIT 200`),
+      WHERE c.site_id = ${siteId} AND c.override_reason IS NOT NULL AND c.at >= ${start}::timestamptz AND c.at < ${end}::timestamptz
+      ORDER BY c.at DESC LIMIT ${OVERRIDES_SHOWN + 1}`),
   ])
   const iso = (v: unknown) => new Date(Number(v)).toISOString()
   const items = [
@@ -34,5 +53,5 @@ export async function batteryRoomOverrides(siteId: string) {
       what: `Battery ${c.battery} on charger ${c.charger}`, whatWords: { code: 'charge', params: { battery: String(c.battery), charger: String(c.charger) } }, reason: c.overrideReason as string, checks: [] as FitReason[],
     })),
   ].sort((a, b) => b.at.localeCompare(a.at))
-  return { items }
+  return { from, to, items: items.slice(0, OVERRIDES_SHOWN), more: items.length > OVERRIDES_SHOWN }
 }
