@@ -1,3 +1,4 @@
+import { createServer } from 'node:net'
 import { fileURLToPath } from 'node:url'
 import { getServerLogs, url } from '@nuxt/test-utils/e2e'
 
@@ -16,7 +17,26 @@ export const builtServer = {
   build: false,
   server: true,
   browser: false,
+  port: await listenPort(),
   nuxtConfig: { nitro: { output: { dir: `${rootDir}${outputDir}` } } },
+}
+
+/**
+ * A free port for the file's server, below Linux's range for outgoing connections (32768–60999). Left to pick,
+ * the test utilities take one the system hands out in that range and let it go before the server listens; an
+ * outgoing connection took it in between once (EADDRINUSE, and the file failed waiting for its server).
+ */
+async function listenPort(): Promise<number> {
+  for (let tries = 0; tries < 50; tries++) {
+    const port = 20_000 + Math.floor(Math.random() * 12_000)
+    const free = await new Promise<boolean>((resolve) => {
+      const probe = createServer()
+      probe.once('error', () => resolve(false))
+      probe.listen(port, '127.0.0.1', () => probe.close(() => resolve(true)))
+    })
+    if (free) return port
+  }
+  throw new Error('no free port between 20000 and 32000 for the test server')
 }
 
 export const SESSION_COOKIE = 'bayward-session'
