@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { isoDateSchema } from './iso-date'
+import { isoDateSchema, withDayRange } from './iso-date'
 import { addCalendarInterval, calendarDaysBetween } from './due-dates'
 
 // Area log checklists: the default items per area kind, the item keys the due list reads, the
@@ -130,13 +130,12 @@ export const logViewQuerySchema = z.object({
   cadence: z.enum(['daily', 'weekly']).default('daily'),
 })
 
-export const logRangeQuerySchema = z.object({
+export const logRangeQuerySchema = withDayRange(z.object({
   siteId: z.uuid(),
   areaId: z.uuid().optional(),
   from: isoDateSchema,
   to: isoDateSchema,
-}).refine(q => q.from <= q.to, { path: ['to'], message: 'The end is before the start.' })
-  .refine(q => daysInRange(q.from, q.to) <= 400, { path: ['to'], message: 'At most 400 days at a time.' })
+}))
 
 export const templateSaveSchema = z.object({
   siteId: z.uuid(),

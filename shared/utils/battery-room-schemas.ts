@@ -1,6 +1,5 @@
 import { z } from 'zod'
-import { calendarDaysBetween } from './due-dates'
-import { isoDateSchema } from './iso-date'
+import { isoDateSchema, withDayRange } from './iso-date'
 import { cellSpread, correctedSpecificGravity, stateOfChargeFromSpecificGravity, type SpecificGravityPolicy } from './specific-gravity'
 
 // Payloads of the battery-room routes, shared by the floor forms and the server.
@@ -104,12 +103,11 @@ export const lookupQuerySchema = z.object({
 export const siteQuerySchema = z.object({ siteId: z.uuid('Pick a site.') })
 
 /** The overrides page: a site and, optionally, a range of the site's days (the last 90 days unless given). */
-export const overridesQuerySchema = z.object({
+export const overridesQuerySchema = withDayRange(z.object({
   siteId: z.uuid('Pick a site.'),
   from: isoDateSchema.optional(),
   to: isoDateSchema.optional(),
-}).refine(q => !q.from || !q.to || q.from <= q.to, { path: ['to'], message: 'The end is before the start.' })
-  .refine(q => !q.from || !q.to || calendarDaysBetween(q.from, q.to) < 400, { path: ['to'], message: 'At most 400 days at a time.' })
+}))
 
 /** One cell as entered and corrected to the reference temperature. */
 export interface CorrectedCell {

@@ -12,6 +12,12 @@ function localParts(instant: Date, timeZone: string) {
   return { year: get('year'), month: get('month'), day: get('day'), hour: get('hour'), minute: get('minute'), second: get('second') }
 }
 
+/** The instant a site-local day (YYYY-MM-DD) begins. */
+export function localDayStart(isoDate: string, timeZone: string): Date {
+  const [y, m, d] = isoDate.split('-').map(Number) as [number, number, number]
+  return zonedInstant(y, m, d, 0, 0, timeZone)
+}
+
 /** The instant a site-local wall time falls on (the offset read at that moment, so daylight saving is right). */
 export function zonedInstant(year: number, month: number, day: number, hour: number, minute: number, timeZone: string): Date {
   const guess = Date.UTC(year, month - 1, day, hour, minute)

@@ -23,8 +23,8 @@ export const builtServer = {
 
 /**
  * A free port for the file's server, below Linux's range for outgoing connections (32768–60999). Left to pick,
- * the test utilities take one the system hands out in that range and let it go before the server listens; an
- * outgoing connection took it in between once (EADDRINUSE, and the file failed waiting for its server).
+ * the test utilities take one the system hands out in that range and let it go before the server listens; a
+ * file failed once with EADDRINUSE waiting for its server, most likely an outgoing connection taking it in between.
  */
 async function listenPort(): Promise<number> {
   for (let tries = 0; tries < 50; tries++) {

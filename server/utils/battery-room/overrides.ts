@@ -1,15 +1,10 @@
 import { addCalendarInterval, localDate } from '#shared/utils/due-dates'
-import { zonedInstant } from '#shared/utils/shift-times'
+import { localDayStart } from '#shared/utils/shift-times'
 
 /** The most rows the overrides page lists for one range of days; it says so when there are more. */
 export const OVERRIDES_SHOWN = 500
 /** The days the page covers when none are asked for: the last 90, today included. */
 const DEFAULT_DAYS = 90
-
-const dayStart = (isoDate: string, timeZone: string) => {
-  const [y, m, d] = isoDate.split('-').map(Number) as [number, number, number]
-  return zonedInstant(y, m, d, 0, 0, timeZone)
-}
 
 // Swaps and charges that went ahead despite a refused check or with a recorded warning, newest first, within a
 // range of the site's days (the last 90 unless asked): the newest OVERRIDES_SHOWN of both kinds together, and
@@ -17,8 +12,8 @@ const dayStart = (isoDate: string, timeZone: string) => {
 export async function batteryRoomOverrides(siteId: string, timeZone: string, range: { from?: string, to?: string } = {}) {
   const to = range.to ?? localDate(new Date(), timeZone)
   const from = range.from ?? addCalendarInterval(to, -(DEFAULT_DAYS - 1), 'day')
-  const start = dayStart(from, timeZone).toISOString()
-  const end = dayStart(addCalendarInterval(to, 1, 'day'), timeZone).toISOString()
+  const start = localDayStart(from, timeZone).toISOString()
+  const end = localDayStart(addCalendarInterval(to, 1, 'day'), timeZone).toISOString()
   const db = useDb()
   const [swaps, charges] = await Promise.all([
     db.execute(sql`

@@ -1,7 +1,7 @@
 import { sql } from 'drizzle-orm'
 import { parseSiteSettings } from '#shared/utils/site-settings'
 import { localDate } from '#shared/utils/due-dates'
-import { shiftStartedAt, zonedInstant } from '#shared/utils/shift-times'
+import { localDayStart, shiftStartedAt } from '#shared/utils/shift-times'
 import type { ShiftInspectionStatus, TruckCheckState } from '#shared/types/inspection'
 import type { DbOrTx } from '../db'
 
@@ -12,8 +12,7 @@ export async function shiftInspectionStatus(db: DbOrTx, siteId: string, now = ne
   const [site] = await db.select({ settings: tables.sites.settings, timeZone: tables.sites.timeZone }).from(tables.sites).where(eq(tables.sites.id, siteId))
   const timeZone = site?.timeZone ?? 'UTC'
   const since = shiftStartedAt(now, parseSiteSettings(site?.settings).shiftStarts, timeZone)
-  const [y, m, d] = localDate(now, timeZone).split('-').map(Number) as [number, number, number]
-  const dayStart = zonedInstant(y, m, d, 0, 0, timeZone)
+  const dayStart = localDayStart(localDate(now, timeZone), timeZone)
   const rows = (await db.execute(sql`
     SELECT t.id, t.fleet_number AS "fleetNumber",
       (SELECT code FROM tags WHERE tags.asset_kind = 'truck' AND tags.asset_id = t.id AND tags.retired_at IS NULL) AS "tagCode",
