@@ -1,4 +1,5 @@
 import PgBoss from 'pg-boss'
+import postgres from 'postgres'
 import type { DbOrTx } from './db'
 
 // The job queue of every app server: pg-boss, in its own schema (`pgboss`) of the application database,
@@ -17,6 +18,10 @@ export interface QueueWork {
 }
 
 let boss: PgBoss | undefined
+let ready: () => void = () => {}
+let started = new Promise<void>((resolve) => {
+  ready = resolve
+})
 const workerIds = new Map<string, string[]>()
 let lastErrorLogged = 0
 
@@ -54,17 +59,19 @@ export function startQueue(databaseUrl: string, work: QueueWork): { stop: () => 
     candidate.on('error', logQueueError)
     try {
       await candidate.start()
-      for (const [name, options] of Object.entries(work.queues)) {
-        const queue: PgBoss.Queue = { name, policy: options.policy ?? 'standard', expireInSeconds: options.expireInSeconds, retryLimit: options.retryLimit, retryDelay: 0 }
-        if (options.deadLetter) queue.deadLetter = options.deadLetter
-        await candidate.createQueue(name, queue)
-        // the same queue from an earlier start may have other limits: these win
-        await candidate.updateQueue(name, queue)
-      }
-      for (const [name, cron] of Object.entries(work.schedules)) {
-        if (cron) await candidate.schedule(name, cron, {}, { tz: 'UTC' })
-        else await candidate.unschedule(name)
-      }
+      await oneServerAtATime(databaseUrl, async () => {
+        for (const [name, options] of Object.entries(work.queues)) {
+          const queue: PgBoss.Queue = { name, policy: options.policy ?? 'standard', expireInSeconds: options.expireInSeconds, retryLimit: options.retryLimit, retryDelay: 0 }
+          if (options.deadLetter) queue.deadLetter = options.deadLetter
+          await candidate.createQueue(name, queue)
+          // the same queue from an earlier start may have other limits: these win
+          await candidate.updateQueue(name, queue)
+        }
+        for (const [name, cron] of Object.entries(work.schedules)) {
+          if (cron) await candidate.schedule(name, cron, {}, { tz: 'UTC' })
+          else await candidate.unschedule(name)
+        }
+      })
       if (stopped) return await candidate.stop({ graceful: false })
       for (const [name, worker] of Object.entries(work.workers)) {
         const ids: string[] = []
@@ -76,6 +83,7 @@ export function startQueue(databaseUrl: string, work: QueueWork): { stop: () => 
         workerIds.set(name, ids)
       }
       boss = candidate
+      ready()
     }
     catch (error) {
       logQueueError(error)
@@ -93,10 +101,29 @@ export function startQueue(databaseUrl: string, work: QueueWork): { stop: () => 
       clearTimeout(retry)
       const running = boss
       boss = undefined
+      started = new Promise<void>((resolve) => {
+        ready = resolve
+      })
       workerIds.clear()
       // jobs still running after the grace time are failed, and retried by another server
       await running?.stop({ graceful: true, wait: true, timeout: 10_000 }).catch(logQueueError)
     },
+  }
+}
+
+// Servers starting together each create the same queues (a table per queue): done at the same moment they
+// wait on each other's locks and PostgreSQL may end one as a deadlock, so the queue of that server started
+// seconds late (seen with two servers started at once). A session lock on a connection of its own lets one
+// server at a time set them up; the others then find them made. Ending the session releases the lock.
+const QUEUE_SETUP_LOCK = 725462
+async function oneServerAtATime(databaseUrl: string, work: () => Promise<void>) {
+  const lock = postgres(databaseUrl, { max: 1, onnotice: () => {}, connection: { application_name: 'bayward-queue-setup' } })
+  try {
+    await lock`SELECT pg_advisory_lock(${QUEUE_SETUP_LOCK})`
+    await work()
+  }
+  finally {
+    await lock.end({ timeout: 5 })
   }
 }
 
@@ -124,11 +151,29 @@ function inTransaction(tx: DbOrTx): PgBoss.Db {
 // instance that is never started serves every send, also while the workers are still starting.
 let sender: PgBoss | undefined
 
-/** Puts a job on the named queue inside the caller's transaction: it exists exactly when the transaction commits. */
+/** How long a request that queues a job waits for this server's queue while it is still starting. */
+const QUEUE_START_WAIT_MS = 10_000
+
+/**
+ * Puts a job on the named queue inside the caller's transaction: it exists exactly when the transaction
+ * commits. Just after a server starts, its queues may not be made yet (a job sent then is not stored):
+ * such a request waits for them a few seconds, and past that is answered 503, nothing saved.
+ */
 export async function enqueue(tx: DbOrTx, queue: string, data: Record<string, unknown>): Promise<void> {
+  if (!boss) await queueStarted(QUEUE_START_WAIT_MS)
   sender ??= new PgBoss(queueOptions(useRuntimeConfig().databaseUrl as string))
   const id = await sender.send(queue, data, { db: inTransaction(tx) })
   if (!id) throw new Error(`the job queue refused a job for ${queue}`)
+}
+
+async function queueStarted(ms: number) {
+  let timer: ReturnType<typeof setTimeout> | undefined
+  const late = new Promise<false>((resolve) => {
+    timer = setTimeout(() => resolve(false), ms)
+  })
+  const made = await Promise.race([started.then(() => true), late])
+  clearTimeout(timer)
+  if (!made) throw codedError(503, 'queue_starting', 'The server is still starting its job queue. Nothing was saved; try again in a moment.')
 }
 
 /** Asks this server's workers of the queue to look now rather than at their next poll. */

@@ -1,4 +1,4 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest'
 import { randomUUID } from 'node:crypto'
 import { mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
@@ -68,10 +68,42 @@ afterAll(async () => {
   rmSync(scratch, { recursive: true, force: true })
 })
 
+// When a test fails, what each server printed goes with it (a 500 says no more than "Server Error").
+afterEach(({ task }) => {
+  if (task.result?.state !== 'fail') return
+  for (const s of [a, b]) if (s) console.error(`--- server ${s.name} printed (last 20,000 characters):\n${s.log()}`)
+})
+
 const as = (who: keyof typeof people, server: RunningServer) => signIn(people[who], server.base)
 const within = <T>(check: () => Promise<T | undefined | null | false>, ms: number) => eventually(check, ms)
 
 describe('two app servers on one database', () => {
+  // First, while both servers are still making their queues (each server makes them as it starts; when two
+  // did so at once, one could wait seconds on the other and a job sent meanwhile was refused with a 500).
+  it('a job started through one is polled and fetched through the other; a file uploaded through one is served by the other', async () => {
+    const lead = await as('lead', a)
+    for (let i = 0; i < 3; i++) await tagFor('battery', (await battery({ siteId })).id, siteId)
+    const start = await lead.post('/api/labels', { siteId, kind: 'battery', layout: 'standard', paper: 'letter' })
+    expect(start.status, JSON.stringify(start.body)).toBe(202)
+    const job = await within(async () => {
+      const res = await lead.at(b.base).get(`/api/jobs/${start.body.id}`)
+      return res.body.status !== 'running' ? res.body : null
+    }, 20_000)
+    expect(job).toMatchObject({ status: 'done', done: start.body.total, total: start.body.total })
+    const pdf = await fetch(`${b.base}/api/labels/${start.body.id}/pdf`, { headers: { cookie: lead.cookie! } })
+    expect(pdf.headers.get('content-type')).toBe('application/pdf')
+    expect(Buffer.from(await pdf.arrayBuffer()).subarray(0, 5).toString()).toBe('%PDF-')
+
+    const form = new FormData()
+    form.append('file', new Blob([new Uint8Array([0x89, 0x50, 0x4E, 0x47, 0x0D, 0x0A, 0x1A, 0x0A, 0, 0, 0, 13])], { type: 'image/png' }), 'bay.png')
+    const up = await fetch(`${a.base}/api/uploads?siteId=${siteId}`, { method: 'POST', headers: { cookie: lead.cookie!, accept: 'application/json' }, body: form })
+    expect(up.status).toBe(201)
+    const { item } = await up.json() as { item: { id: string } }
+    const served = await fetch(`${b.base}/api/uploads/${item.id}`, { headers: { cookie: lead.cookie! } })
+    expect(served.status).toBe(200)
+    expect(Buffer.from(await served.arrayBuffer()).subarray(1, 4).toString()).toBe('PNG')
+  })
+
   it('a write through one is seen by the next read through the other: Bay board, tag page, due list', async () => {
     const tech = await as('tech', a)
     const charger = await roomCharger(siteId, areaId)
@@ -126,30 +158,6 @@ describe('two app servers on one database', () => {
       expect(res.status, `try ${i}`).toBe(401)
     }
     for (const s of [a, b]) expect((await client(null, s.base).post('/api/auth/sign-in', { email: who.email, password: who.password })).status).toBe(429)
-  })
-
-  it('a job started through one is polled and fetched through the other; a file uploaded through one is served by the other', async () => {
-    const lead = await as('lead', a)
-    for (let i = 0; i < 3; i++) await tagFor('battery', (await battery({ siteId })).id, siteId)
-    const start = await lead.post('/api/labels', { siteId, kind: 'battery', layout: 'standard', paper: 'letter' })
-    expect(start.status, JSON.stringify(start.body)).toBe(202)
-    const job = await within(async () => {
-      const res = await lead.at(b.base).get(`/api/jobs/${start.body.id}`)
-      return res.body.status !== 'running' ? res.body : null
-    }, 20_000)
-    expect(job).toMatchObject({ status: 'done', done: start.body.total, total: start.body.total })
-    const pdf = await fetch(`${b.base}/api/labels/${start.body.id}/pdf`, { headers: { cookie: lead.cookie! } })
-    expect(pdf.headers.get('content-type')).toBe('application/pdf')
-    expect(Buffer.from(await pdf.arrayBuffer()).subarray(0, 5).toString()).toBe('%PDF-')
-
-    const form = new FormData()
-    form.append('file', new Blob([new Uint8Array([0x89, 0x50, 0x4E, 0x47, 0x0D, 0x0A, 0x1A, 0x0A, 0, 0, 0, 13])], { type: 'image/png' }), 'bay.png')
-    const up = await fetch(`${a.base}/api/uploads?siteId=${siteId}`, { method: 'POST', headers: { cookie: lead.cookie!, accept: 'application/json' }, body: form })
-    expect(up.status).toBe(201)
-    const { item } = await up.json() as { item: { id: string } }
-    const served = await fetch(`${b.base}/api/uploads/${item.id}`, { headers: { cookie: lead.cookie! } })
-    expect(served.status).toBe(200)
-    expect(Buffer.from(await served.arrayBuffer()).subarray(1, 4).toString()).toBe('PNG')
   })
 
   it('a role removed through one server is refused on the other within a second; so is one changed straight in the database', async () => {
