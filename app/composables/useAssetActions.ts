@@ -4,6 +4,7 @@ import type { AssetKind } from '#shared/utils/asset-schemas'
 export function useAssetActions(kind: AssetKind) {
   const view = ASSET_VIEWS[kind]
   const toast = useToast()
+  const i18n = useNuxtApp().$i18n
 
   async function save(values: Record<string, unknown>, id?: string) {
     const session = useSessionStore()
@@ -11,14 +12,14 @@ export function useAssetActions(kind: AssetKind) {
       ? await $fetch<{ item: { id: string } }>(`${view.api}/${id}`, { method: 'PATCH', body: values })
       : await $fetch<{ item: { id: string } }>(view.api, { method: 'POST', body: { ...values, siteId: session.siteId } })
     await refreshNuxtData([`${kind}-list`, `${kind}-${result.item.id}`])
-    toast.show(id ? 'Saved.' : `${view.noun[0]!.toUpperCase()}${view.noun.slice(1)} added.`)
+    toast.show(i18n.t(id ? 'toast.saved' : `toast.added.${kind}`))
     return result.item
   }
 
   async function setOutOfService(id: string, outOfService: boolean, reason: string) {
     await $fetch(`${view.api}/${id}/out-of-service`, { method: 'POST', body: { outOfService, reason } })
     await refreshNuxtData([`${kind}-list`, `${kind}-${id}`, `history-${kind}-${id}`])
-    toast.show(outOfService ? 'Taken out of service.' : 'Back in service.')
+    toast.show(i18n.t(outOfService ? 'toast.out_of_service' : 'toast.back_in_service'))
   }
 
   return { save, setOutOfService }

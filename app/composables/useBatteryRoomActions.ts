@@ -9,6 +9,7 @@ type Keyed<S extends z.ZodType> = z.input<S> & { idempotencyKey: string }
 // Swaps, charges and electrolyte checks from the floor forms: through the device outbox, toast, refresh the board.
 export function useBatteryRoomActions() {
   const toast = useToast()
+  const i18n = useNuxtApp().$i18n
   const session = useSessionStore()
   const { submitFloorRecord } = useFloorSubmit()
   const BOARD_KEYS = ['bay-board']
@@ -28,22 +29,22 @@ export function useBatteryRoomActions() {
 
   async function swap(body: Keyed<typeof swapBodySchema>, words: FloorRecordWords) {
     const outcome = await submitFloorRecord<SwapAnswer>({ kind: 'swap', url: '/api/battery-room/swaps', body, ...words })
-    return settle(outcome, r => toast.show(r.overridden?.length ? 'Battery changed; the override is logged.' : 'Battery changed.'))
+    return settle(outcome, r => toast.show(i18n.t(r.overridden?.length ? 'toast.battery_changed_override' : 'toast.battery_changed')))
   }
 
   async function chargeOn(body: Keyed<typeof chargeStartSchema>, words: FloorRecordWords) {
     const outcome = await submitFloorRecord<ChargeOnAnswer>({ kind: 'charge_on', url: '/api/battery-room/charges', body, ...words })
-    return settle(outcome, () => toast.show('On charge.'))
+    return settle(outcome, () => toast.show(i18n.t('toast.on_charge')))
   }
 
   async function chargeOff(sessionId: string, body: Keyed<typeof chargeEndSchema>, words: FloorRecordWords) {
     const outcome = await submitFloorRecord<ChargeOffAnswer>({ kind: 'charge_off', url: `/api/battery-room/charges/${sessionId}/end`, body, atField: 'endedAt', ...words })
-    return settle(outcome, r => toast.show(r.item.ranHot ? 'Off charge. It ran hot: let it cool and check it.' : 'Off charge; cooling now.', r.item.ranHot ? 'danger' : 'safe'))
+    return settle(outcome, r => toast.show(i18n.t(r.item.ranHot ? 'toast.off_charge_hot' : 'toast.off_charge'), r.item.ranHot ? 'danger' : 'safe'))
   }
 
   async function check(body: Keyed<typeof electrolyteCheckSchema>, words: FloorRecordWords) {
     const outcome = await submitFloorRecord<CheckAnswer>({ kind: 'check', url: '/api/battery-room/checks', body, ...words })
-    return settle(outcome, r => toast.show(r.lowCells?.length ? `Saved. Weak cell: ${r.lowCells.join(', ')}.` : 'Check saved.', r.lowCells?.length ? 'danger' : 'safe'))
+    return settle(outcome, r => toast.show(r.lowCells?.length ? i18n.t('toast.check_weak_cells', { cells: r.lowCells.join(', ') }) : i18n.t('toast.check_saved'), r.lowCells?.length ? 'danger' : 'safe'))
   }
 
   return { lookup, swap, chargeOn, chargeOff, check }

@@ -7,6 +7,7 @@ import type { FloorOutcome, FloorRecordWords } from '~/composables/useFloorForm'
 // Area logs, follow-ups, incidents, calendar feeds: $fetch → toast → refresh the views and the due list.
 export function useDueActions() {
   const toast = useToast()
+  const i18n = useNuxtApp().$i18n
   const session = useSessionStore()
   const { submitFloorRecord } = useFloorSubmit()
   const logKeys = ['area-log', 'area-log-followups']
@@ -21,30 +22,30 @@ export function useDueActions() {
     const outcome = await submitFloorRecord<LogEntriesAnswer>({ kind: 'log_entries', url: '/api/logs/entries', body, atField: null, ...words })
     if (outcome.state === 'kept') return outcome
     const failed = outcome.data.followUps.length
-    await done(logKeys, failed ? `Saved. ${failed} failed item${failed === 1 ? '' : 's'}: the safety lead has been told and a follow-up is open.` : 'Checklist saved.', failed ? 'danger' : 'safe')
+    await done(logKeys, failed ? i18n.t('toast.checklist_failed_items', { n: failed }, failed) : i18n.t('toast.checklist_saved'), failed ? 'danger' : 'safe')
     return outcome
   }
 
   async function correctEntry(entryId: string, body: { result: string, note: string, reason: string }) {
     const result = await $fetch(`/api/logs/entries/${entryId}/corrections`, { method: 'POST', body })
-    await done(logKeys, 'Correction added to the log.')
+    await done(logKeys, i18n.t('toast.correction_added'))
     return result
   }
 
   async function signLogs(body: { areaId: string, date: string, span: 'day' | 'week', note?: string }) {
     const result = await $fetch<{ signed: unknown[] }>('/api/logs/sign', { method: 'POST', body: { ...body, siteId: session.siteId } })
-    await done(logKeys, `Signed ${result.signed.length} log${result.signed.length === 1 ? '' : 's'}. They are locked now.`, 'safe')
+    await done(logKeys, i18n.t('toast.logs_signed', { n: result.signed.length }, result.signed.length), 'safe')
     return result
   }
 
   async function closeFollowUp(id: string, note: string) {
     await $fetch(`/api/follow-ups/${id}/close`, { method: 'POST', body: { note } })
-    await done(logKeys, 'Follow-up closed.', 'safe')
+    await done(logKeys, i18n.t('toast.follow_up_closed'), 'safe')
   }
 
   async function saveTemplate(body: Record<string, unknown>) {
     const result = await $fetch<{ item: { version: number } }>('/api/logs/templates', { method: 'POST', body: { ...body, siteId: session.siteId } })
-    await done(['log-templates'], `Saved as version ${result.item.version}. Logs already begun keep their version.`)
+    await done(['log-templates'], i18n.t('toast.template_saved', { version: result.item.version }))
     return result.item
   }
 
@@ -56,7 +57,7 @@ export function useDueActions() {
 
   async function reportIncident(body: z.input<typeof incidentCreateSchema>) {
     const result = await $fetch<IncidentAnswer>('/api/incidents', { method: 'POST', body })
-    await done(['incidents'], `Incident reported. ${result.alerted} safety lead${result.alerted === 1 ? ' has' : 's have'} been told.`, 'safe')
+    await done(['incidents'], i18n.t('toast.incident_reported', { n: result.alerted }, result.alerted), 'safe')
     return result
   }
 
@@ -69,7 +70,7 @@ export function useDueActions() {
   async function revokeFeed(id: string) {
     await $fetch(`/api/calendar/feeds/${id}`, { method: 'DELETE' })
     await refreshNuxtData('calendar-feeds')
-    toast.show('Feed revoked: its address no longer works.')
+    toast.show(i18n.t('toast.feed_revoked'))
   }
 
   return { recordLog, correctEntry, signLogs, closeFollowUp, saveTemplate, uploadPhoto, reportIncident, createFeed, revokeFeed }

@@ -9,6 +9,8 @@ type Keyed<S extends z.ZodType> = z.input<S> & { idempotencyKey: string }
 // Fuel-station flows: refill, quarantine, cylinder change, requalification, emissions test, CO readings.
 export function useFuelActions() {
   const toast = useToast()
+  const i18n = useNuxtApp().$i18n
+  const { day } = useLocaleFormat()
   const session = useSessionStore()
   const { submitFloorRecord } = useFloorSubmit()
   const cylinderKeys = (id: string) => ['fuel-cage', 'cylinder-list', `cylinder-${id}`, `history-cylinder-${id}`]
@@ -23,7 +25,7 @@ export function useFuelActions() {
     const outcome = await submitFloorRecord<RefillAnswer>({ kind: 'refill', url: `/api/cylinders/${cylinderId}/refills`, body, atField: 'at', ...words })
     if (outcome.state === 'saved') {
       await Promise.all([refreshNuxtData(cylinderKeys(cylinderId)), refreshDue()])
-      toast.show('Refill recorded: the cylinder is full.')
+      toast.show(i18n.t('toast.refill_recorded'))
     }
     return outcome
   }
@@ -31,7 +33,7 @@ export function useFuelActions() {
   async function quarantine(cylinderId: string, reason: string) {
     await $fetch(`/api/cylinders/${cylinderId}/quarantine`, { method: 'POST', body: { reason } })
     await refreshNuxtData(cylinderKeys(cylinderId))
-    toast.show('Cylinder quarantined in the cage.')
+    toast.show(i18n.t('toast.cylinder_quarantined'))
   }
 
   // through the device outbox: kept on the device when the connection drops
@@ -39,7 +41,7 @@ export function useFuelActions() {
     const outcome = await submitFloorRecord<ExchangeAnswer>({ kind: 'exchange', url: `/api/trucks/${truckId}/cylinder-exchanges`, body, atField: 'at', ...words })
     if (outcome.state === 'saved') {
       await Promise.all([refreshNuxtData(['fuel-cage', 'fuel-lp-trucks', `truck-${truckId}`, `history-truck-${truckId}`]), refreshDue()])
-      toast.show('Cylinder change recorded.')
+      toast.show(i18n.t('toast.cylinder_changed'))
     }
     return outcome
   }
@@ -47,7 +49,7 @@ export function useFuelActions() {
   async function recordRequalification(cylinderId: string, body: z.input<typeof requalificationSchema>) {
     const result = await $fetch<RequalificationAnswer>(`/api/cylinders/${cylinderId}/requalifications`, { method: 'POST', body })
     await Promise.all([refreshNuxtData([...cylinderKeys(cylinderId), `requalifications-${cylinderId}`]), refreshDue()])
-    toast.show(`Requalification recorded. Next due ${result.requalification.dueOn}.`)
+    toast.show(i18n.t('toast.requal_recorded', { day: day(result.requalification.dueOn) }))
     return result
   }
 
@@ -61,14 +63,14 @@ export function useFuelActions() {
   async function recordEmissionsTest(truckId: string, body: z.input<typeof emissionsTestSchema>) {
     const result = await $fetch<EmissionsTestAnswer>(`/api/trucks/${truckId}/emissions-tests`, { method: 'POST', body })
     await Promise.all([refreshNuxtData(['fuel-emissions', `emissions-tests-${truckId}`, `truck-${truckId}`, `history-truck-${truckId}`]), refreshDue()])
-    toast.show(result.item.passed ? `Passed. Next test due ${result.item.nextDueOn}.` : `Failed. Retest due ${result.item.nextDueOn}.`, result.item.passed ? 'safe' : 'danger')
+    toast.show(i18n.t(result.item.passed ? 'toast.emissions_passed' : 'toast.emissions_failed', { day: day(result.item.nextDueOn) }), result.item.passed ? 'safe' : 'danger')
     return result
   }
 
   async function recordCoReadings(body: z.input<typeof coReadingsSchema>) {
     const result = await $fetch<CoReadingsAnswer>('/api/fuel/co-readings', { method: 'POST', body })
     await Promise.all([refreshNuxtData('fuel-co'), refreshDue()])
-    toast.show(result.alert ? 'Saved. A reading is above the 200 ppm ceiling: clear the area and ventilate.' : 'CO readings saved.', result.alert ? 'danger' : 'safe')
+    toast.show(i18n.t(result.alert ? 'toast.co_above_ceiling' : 'toast.co_saved'), result.alert ? 'danger' : 'safe')
     return result
   }
 

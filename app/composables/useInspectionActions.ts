@@ -4,6 +4,7 @@ import type { FloorOutcome, FloorRecordWords } from '~/composables/useFloorForm'
 // Pre-shift truck inspection: the record (through the device outbox) and the return to service.
 export function useInspectionActions() {
   const toast = useToast()
+  const i18n = useNuxtApp().$i18n
   const { submitFloorRecord } = useFloorSubmit()
   const truckKeys = (id: string) => [`inspection-${id}`, `truck-${id}`, `history-truck-${id}`, 'bay-board']
 
@@ -11,7 +12,7 @@ export function useInspectionActions() {
     const outcome = await submitFloorRecord<InspectionRecorded>({ kind: 'inspection', url: `/api/trucks/${truckId}/inspections`, body, atField: 'at', ...words })
     if (outcome.state === 'saved') {
       await Promise.all([refreshNuxtData(truckKeys(truckId)), refreshDue()])
-      toast.show('Pre-shift check recorded.')
+      toast.show(i18n.t('toast.inspection_recorded'))
     }
     return outcome
   }
@@ -19,7 +20,7 @@ export function useInspectionActions() {
   async function returnToService(truckId: string, whatWasDone: string) {
     await $fetch(`/api/trucks/${truckId}/return-to-service`, { method: 'POST', body: { whatWasDone } })
     await Promise.all([refreshNuxtData(truckKeys(truckId)), refreshDue()])
-    toast.show('Truck returned to service.', 'safe')
+    toast.show(i18n.t('toast.truck_returned'), 'safe')
   }
 
   return { recordInspection, returnToService }

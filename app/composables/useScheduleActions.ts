@@ -3,12 +3,13 @@ import type { ScheduleDefinition } from '#shared/utils/due-schedules'
 // The Schedules page and "Record it done": $fetch → toast → refresh the schedules and every open due list.
 export function useScheduleActions() {
   const toast = useToast()
+  const i18n = useNuxtApp().$i18n
   const session = useSessionStore()
 
   async function addSchedule(body: Record<string, unknown>) {
     const { item } = await $fetch<{ item: ScheduleDefinition }>('/api/schedules/custom', { method: 'POST', body: { ...body, siteId: session.siteId } })
     await Promise.all([refreshNuxtData('schedules'), refreshDue()])
-    toast.show(`Schedule "${item.title}" added; the due list has it now.`, 'safe')
+    toast.show(i18n.t('toast.schedule_added', { title: item.title }), 'safe')
     return item
   }
 
@@ -21,7 +22,7 @@ export function useScheduleActions() {
   async function recordDone(scheduleId: string, body: Record<string, unknown>) {
     const result = await $fetch<{ item: { id: string } }>(`/api/schedules/custom/${scheduleId}/completions`, { method: 'POST', body })
     await Promise.all([refreshNuxtData(`schedule-${scheduleId}`), refreshDue()])
-    toast.show('Recorded as done; the next one is on the due list.', 'safe')
+    toast.show(i18n.t('toast.schedule_done'), 'safe')
     return result.item
   }
 

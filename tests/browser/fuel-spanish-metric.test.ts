@@ -15,6 +15,7 @@ await setup(builtServer)
 
 let browser: Browser
 let serial: string
+let secondSerial: string
 let technician: { email: string, password: string }
 
 // A Spanish-speaking technician at a metric site refills by weight in kg: the scale readings are typed in kg and
@@ -25,6 +26,7 @@ beforeAll(async () => {
   const siteId = (await site({ unitSystem: 'metric' })).id
   const station = await fuelStation(siteId)
   serial = (await freshCylinder(siteId, { areaId: station.id, status: 'empty' })).serial
+  secondSerial = (await freshCylinder(siteId, { areaId: station.id, status: 'empty' })).serial
   const u = await user({ siteId, roles: ['technician'] })
   await useTestDb().update(tables.users).set({ language: 'es' }).where(eq(tables.users.id, u.id))
   await lpTransferQualification(u.id)
@@ -55,6 +57,21 @@ describe('refill in Spanish at a metric site', () => {
     const reason = await page.locator('[data-code="fill_overfilled"]').innerText()
     expect(reason).toContain('Sobrellenado por 0.75 kg: el límite es 15.1 kg (capacidad de agua 36.1 kg × 42 %)')
     await page.screenshot({ path: 'screenshots/form-refill-metric-es-refused-phone.png', fullPage: true })
+    await context.close()
+  })
+
+  it('a refill within the limit is confirmed in Spanish at the bottom of the screen', async () => {
+    const { page, context } = await signInAt(browser, technician, `/refill?code=${secondSerial}`, PHONE)
+    await expect.poll(() => page.getByText('Inspección antes del llenado').first().isVisible()).toBe(true)
+    for (const item of PREFILL_INSPECTION_ITEMS) {
+      await page.getByRole('radiogroup', { name: es.refill.item[item.key] }).getByRole('radio', { name: 'Pasa' }).click()
+    }
+    // 27.0 kg gross is 59.52 lb (mathjs), 29.52 lb of propane over the 30 lb tare: under the 33.39 lb limit
+    expect(unit(27, 'kg').toNumber('lbm') - 30).toBeLessThan(79.5 * 0.42)
+    await page.getByLabel('Peso antes de llenar (kg)').fill('14.1')
+    await page.getByLabel('Peso después de llenar (kg)').fill('27.0')
+    await page.getByRole('button', { name: 'Registrar el rellenado' }).click()
+    await expect.poll(() => page.getByText(es.toast.refill_recorded).isVisible()).toBe(true)
     await context.close()
   })
 })

@@ -17,5 +17,5 @@ export default defineAbilityHandler('user.manage', async (event) => {
   })
   deliverMailSoon()
   setResponseStatus(event, 202)
-  return { ok: true, message: `A link to set a new password is on its way to ${target.email}. It works for 30 minutes, once.` }
+  return { ok: true, email: target.email, message: `A link to set a new password is on its way to ${target.email}. It works for 30 minutes, once.` }
 })
