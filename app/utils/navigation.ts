@@ -44,6 +44,7 @@ export const NAV_ITEMS: NavItem[] = [
   { to: '/labels', label: 'Label sheet', icon: 'tag', ability: 'label.print', group: 'fleet' },
   { to: '/people', label: 'People', icon: 'people', ability: 'user.view', group: 'admin' },
   { to: '/site', label: 'Site settings', icon: 'cog', ability: 'site.edit', group: 'admin' },
+  { to: '/mail', label: 'Outgoing mail', icon: 'mail', ability: 'mail.manage', group: 'admin' },
   { to: '/calendar', label: 'Calendar feed', icon: 'calendar', ability: 'site.member', group: 'admin' },
 ]
 

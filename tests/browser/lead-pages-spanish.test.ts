@@ -13,11 +13,12 @@ let lead: { email: string, password: string }
 let admin: { email: string, password: string }
 let technician: { email: string, password: string }
 let areaId: string
+let siteId: string
 
 // A safety lead who reads Spanish: the area log's day and the due schedules are in Spanish, dates as es-US writes them.
 beforeAll(async () => {
   browser = await launchChromium()
-  const siteId = (await site()).id
+  siteId = (await site()).id
   areaId = (await area({ siteId, kind: 'charging_area' })).id
   const u = await user({ siteId, roles: ['safety_lead'] })
   await useTestDb().update(tables.users).set({ language: 'es' }).where(eq(tables.users.id, u.id))
@@ -124,6 +125,29 @@ describe('lead pages in Spanish', () => {
     await page.waitForLoadState('networkidle')
     expect(await page.getByText(/necesita uno de estos puestos/).count()).toBe(1)
     expect(problems.filter(p => /hydrat/i.test(p))).toEqual([])
+    await context.close()
+  })
+
+  it('the outgoing mail page: an alert the mail server refused, with its words, sent again from the page', async () => {
+    const m = tables.mailMessages
+    const [failed] = await useTestDb().insert(m).values({
+      siteId, toAddress: 'lider.seguridad@example.test', subject: '[Bayward] Punto de la lista que no pasó', body: 'Hola.', kind: 'alert:checklist_failed',
+      status: 'failed', attempts: 3, lastError: 'connect ECONNREFUSED 127.0.0.1:2599', nextAttemptAt: new Date(Date.now() + 3_600_000),
+    }).returning()
+    const { page, context } = await signInAt(browser, admin, '/mail', PHONE)
+    await page.getByRole('heading', { level: 1, name: 'Correo saliente' }).waitFor()
+    await untilHydrated(page, 'main button')
+    const row = page.locator(`[data-mail="${failed!.id}"]`)
+    expect(await row.innerText()).toContain('El servidor de correo dijo: connect ECONNREFUSED 127.0.0.1:2599')
+    expect(await row.getByText('No entregado', { exact: true }).count()).toBe(1)
+    expect(await row.getByText('Para lider.seguridad@example.test · Punto de la lista que no pasó').count()).toBe(1)
+    expect(await row.getByText(/No se entregó tras 3 intentos; se vuelve a intentar: /).count()).toBe(1)
+    await page.screenshot({ path: 'screenshots/mail-es-failed-phone.png', fullPage: true })
+    await page.getByRole('button', { name: 'Enviar ahora el correo en espera' }).click()
+    await expect.poll(() => page.getByText(/^Se intentaron \d+\. Enviados: \d+; no entregados: 0\.$/).isVisible()).toBe(true)
+    await expect.poll(() => row.getByText('Enviado', { exact: true }).count()).toBe(1)
+    const [stored] = await useTestDb().select().from(m).where(eq(m.id, failed!.id))
+    expect(stored).toMatchObject({ status: 'sent', attempts: 4 })
     await context.close()
   })
 })

@@ -4,7 +4,7 @@ import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { setup } from '@nuxt/test-utils/e2e'
 import { builtServer, type Client } from '../support/http'
-import { closeTestDb, site } from '../support/db'
+import { closeTestDb, site, tables, useTestDb } from '../support/db'
 import { CHARGING_KEYS, allPass, chargingArea, daysFrom, eventually, mailOfKind, mailTo, person, todayIn } from '../support/due'
 import { startSmtpFake, type SmtpFake } from '../../scripts/smtp-fake.mjs'
 import { freePort } from '../support/mail'
@@ -114,5 +114,27 @@ describe('alerts by e-mail through the outbox', () => {
     expect(list.status).toBe(200)
     expect(list.body.items.length).toBeGreaterThanOrEqual(3)
     expect((await tech.get(`/api/mail?siteId=${siteId}`)).status).toBe(403)
+  })
+
+  it('the outbox list says how many of each status the site has, and when it shows only the newest 500', async () => {
+    const other = (await site()).id
+    const { client: otherAdmin } = await person(other, ['admin'])
+    const at = (i: number) => new Date(Date.UTC(2026, 0, 1) + i * 60_000)
+    await useTestDb().insert(tables.mailMessages).values([
+      ...Array.from({ length: 503 }, (_, i) => ({ siteId: other, toAddress: `lead-${i}@example.test`, subject: `[Bayward] Digest ${i}`, body: '.', kind: 'digest', status: 'sent' as const, attempts: 1, sentAt: at(i), createdAt: at(i) })),
+      ...Array.from({ length: 2 }, (_, i) => ({ siteId: other, toAddress: `gone-${i}@example.test`, subject: `[Bayward] Alert ${i}`, body: '.', kind: 'alert:incident', status: 'failed' as const, attempts: 10, lastError: '550 no such mailbox', createdAt: at(600 + i) })),
+    ])
+    const all = await otherAdmin.get(`/api/mail?siteId=${other}`)
+    expect(all.status).toBe(200)
+    expect(all.body.counts).toEqual({ queued: 0, sent: 503, failed: 2 })
+    expect(all.body.items).toHaveLength(500)
+    expect(all.body.more).toBe(true)
+    // newest first: the two failed alerts, then the digests from the newest down
+    expect(all.body.items.slice(0, 3).map((m: { subject: string }) => m.subject)).toEqual(['[Bayward] Alert 1', '[Bayward] Alert 0', '[Bayward] Digest 502'])
+    const failed = await otherAdmin.get(`/api/mail?siteId=${other}&status=failed`)
+    expect(failed.body).toMatchObject({ more: false, counts: { queued: 0, sent: 503, failed: 2 }, maxAttempts: 10 })
+    expect(failed.body.items.map((m: { lastError: string }) => m.lastError)).toEqual(['550 no such mailbox', '550 no such mailbox'])
+    // another site's admin sees none of it
+    expect((await admin.get(`/api/mail?siteId=${other}`)).status).toBe(404)
   })
 })
