@@ -156,4 +156,21 @@ describe('area logs: fill in, fail, sign, correct', () => {
     expect(res.status).toBe(200)
     expect((await safety.post(`/api/follow-ups/${open[0].id}/close`, { note: 'Again.' })).status).toBe(409)
   })
+
+  it('the open follow-ups list gives the 500 due soonest and says how many are open in all', async () => {
+    const crowded = (await site()).id
+    const { client: lead } = await person(crowded, ['safety_lead'])
+    const day = (i: number) => daysFrom('2026-01-01', i)
+    await useTestDb().insert(tables.followUps).values([
+      ...Array.from({ length: 502 }, (_, i) => ({ siteId: crowded, source: 'incident', sourceId: crypto.randomUUID(), title: `Follow-up ${i}`, openedOn: day(i), dueOn: day(i + 3) })),
+      ...Array.from({ length: 3 }, (_, i) => ({ siteId: crowded, source: 'incident', sourceId: crypto.randomUUID(), title: `Closed ${i}`, openedOn: day(i), dueOn: day(i), closedAt: new Date() })),
+    ])
+    const res = await lead.get(`/api/follow-ups?siteId=${crowded}`)
+    expect(res.status).toBe(200)
+    expect(res.body).toMatchObject({ total: 502, more: true })
+    expect(res.body.items).toHaveLength(500)
+    expect(res.body.items[0]).toMatchObject({ title: 'Follow-up 0', dueOn: day(3) })
+    expect(res.body.items.at(-1)).toMatchObject({ title: 'Follow-up 499' })
+    expect(res.body.items.some((f: { title: string }) => f.title.startsWith('Closed'))).toBe(false)
+  })
 })
