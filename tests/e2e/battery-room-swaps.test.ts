@@ -1,4 +1,5 @@
 import { randomUUID } from 'node:crypto'
+import Papa from 'papaparse'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { setup } from '@nuxt/test-utils/e2e'
 import { count, eq } from 'drizzle-orm'
@@ -209,6 +210,20 @@ describe('battery swaps', () => {
     expect(june.body.items.map((i: { reason: string }) => i.reason)).toEqual([0, 1, 2].map(i => `Older ${i}: cooled under the fan.`))
     const backwards = await reader.get(`/api/battery-room/overrides?siteId=${other.id}&from=2025-06-30&to=2025-06-01`)
     expect(backwards.status).toBe(400)
+
+    // the CSV of the same dates carries every one, not the 500 listed
+    const csv = await reader.get(`/api/battery-room/overrides/export?siteId=${other.id}`)
+    expect(csv.status).toBe(200)
+    const parsed = Papa.parse<Record<string, string>>(csv.body as string, { header: true, skipEmptyLines: true })
+    expect(parsed.meta.fields).toEqual(['at', 'kind', 'who', 'truck', 'battery', 'batteryOut', 'charger', 'checks', 'checkMessages', 'reason'])
+    expect(parsed.data).toHaveLength(505)
+    expect(parsed.data[0]).toMatchObject({ kind: 'swap', who: who.name, truck: t.fleetNumber, battery: b.serial, batteryOut: '', checks: 'still_cooling', checkMessages: 'Still cooling.', reason: 'Recent 0: cooled under the fan.' })
+    expect(parsed.data.at(-1)!.reason).toBe('Recent 504: cooled under the fan.')
+    const juneCsv = Papa.parse<Record<string, string>>((await reader.get(`/api/battery-room/overrides/export?siteId=${other.id}&from=2025-06-01&to=2025-06-30`)).body as string, { header: true, skipEmptyLines: true })
+    expect(juneCsv.data.map(r => r.reason)).toEqual([0, 1, 2].map(i => `Older ${i}: cooled under the fan.`))
+    expect((await reader.get(`/api/battery-room/overrides/export?siteId=${other.id}&from=2025-06-30&to=2025-06-01`)).status).toBe(400)
+    const operator = await signIn(await user({ siteId: other.id, roles: ['operator'] }))
+    expect((await operator.get(`/api/battery-room/overrides/export?siteId=${other.id}`)).status).toBe(403)
   })
 
   it('an operator may not override, and a reason under 10 characters is refused', async () => {

@@ -210,6 +210,7 @@ export const ROUTE_EXAMPLES: Record<string, Example> = {
   'server/api/battery-room/board.get.ts': get(w => `/api/battery-room/board?${inSite(w)}`),
   'server/api/battery-room/lookup.get.ts': get(w => `/api/battery-room/lookup?${inSite(w)}&code=${w.batteryTag}`),
   'server/api/battery-room/overrides.get.ts': get(w => `/api/battery-room/overrides?${inSite(w)}`),
+  'server/api/battery-room/overrides/export.get.ts': get(w => `/api/battery-room/overrides/export?${inSite(w)}`),
   'server/api/battery-room/swaps.post.ts': {
     run: async (x) => {
       const t = await fittedTruck(x.w.siteId)
