@@ -7,7 +7,8 @@ import { setup, url } from '@nuxt/test-utils/e2e'
 import { strFromU8, unzipSync } from 'fflate'
 import { builtServer, type Client } from '../support/http'
 import { eq } from 'drizzle-orm'
-import { closeTestDb, site, tables, useTestDb } from '../support/db'
+import { battery, closeTestDb, site, tables, useTestDb } from '../support/db'
+import { fittedTruck, roomCharger } from '../support/battery-room'
 import { PDF_BYTES, freshCylinder, fuelPerson, fuelStation, isoDaysFromNow, lpTruck, passingInspection, upload } from '../support/fuel'
 import { CHARGING_KEYS, allPass, chargingArea, eventually, person, todayIn } from '../support/due'
 
@@ -75,6 +76,17 @@ describe('audit pack', () => {
     await db.insert(tables.requalifications).values({ siteId, userId: tech.id, cylinderId: cyl.id, performedOn: isoDaysFromNow(-5), method: 'external_visual', marking: '11-26 E', passed: true, nextDueOn: isoDaysFromNow(1800) })
     await db.insert(tables.retrainingTriggers).values({ siteId, userId: safety.id, personId: tech.id, reason: 'Struck a rack upright while reversing.', truckClass: 4, happenedOn: isoDaysFromNow(-4) })
     expect((await tech.client.post('/api/incidents', { siteId, kind: 'near_miss', description: 'Pallet left in the charging aisle.' })).status).toBe(201)
+
+    // a battery change made over a refused cooling check, and a charge on a charger that did not match
+    const ev = await fittedTruck(siteId, { fleetNumber: 'AQ-E2' })
+    const warm = await battery({ siteId, serial: 'AQB-0042' })
+    const at = new Date(Date.now() - 2 * 3_600_000)
+    await db.insert(tables.batterySwaps).values({
+      siteId, userId: tech.id, at, truckId: ev.id, batteryInId: warm.id, overrideReason: 'Only battery left for the dock truck; fitted warm.',
+      overriddenChecks: [{ code: 'still_cooling', message: 'Battery is still cooling after its charge: 40 min left.', params: { minutes: 40 } } as never],
+    })
+    const charger = await roomCharger(siteId, charging.id)
+    await db.insert(tables.chargeSessions).values({ siteId, userId: tech.id, at, batteryId: warm.id, chargerId: charger.id, endedAt: new Date(), overrideReason: 'Matching charger down for repair; maker allows this one.' })
   })
   afterAll(closeTestDb)
 
@@ -93,7 +105,7 @@ describe('audit pack', () => {
     expect(pdf.type).toBe('application/pdf')
     const text = pdfText(pdf.bytes)
     for (const title of ['1. Area logs', '2. Emissions tests', '3. Cylinder requalifications', '4. Refused refills', '5. Indoor CO readings',
-      '6. Training, evaluations and retraining', '7. Incidents and follow-ups']) expect(text).toContain(title)
+      '6. Training, evaluations and retraining', '7. Incidents and follow-ups', '8. Battery-room overrides']) expect(text).toContain(title)
     const pages = text.split('\f').filter(p => p.trim())
     expect(pages.length).toBe(job.result.pages)
     pages.forEach((page, i) => {
@@ -112,15 +124,24 @@ describe('audit pack', () => {
     expect(text).toContain('Struck a rack upright')
     expect(text).toContain('Pallet left in the charging aisle.')
     expect(text).toContain('LP-gas transfer')
+    // the overrides: the check set aside in the reader's words with its number, the reason as written
+    expect(text).toContain('Battery is still cooling after its charge: 40')
+    expect(text).toContain('Only battery left for the dock truck;')
+    expect(text).toContain('Charger does not match the')
 
     const zip = await download(safety.client, `/api/audit-packs/${start.body.id}/zip`)
     expect(zip.status).toBe(200)
     expect(zip.type).toBe('application/zip')
     const files = unzipSync(zip.bytes)
     expect(Object.keys(files).sort()).toEqual([
-      'area-logs.csv', 'certificates/' + `${isoDaysFromNow(-2)} AQ-07 Tailpipe certificate AQ-07.pdf`, 'co-readings.csv', 'co-twa.csv', 'emissions-tests.csv',
-      'follow-ups.csv', 'incidents.csv', 'qualifications.csv', 'refused-refills.csv', 'requalifications.csv', 'retraining-triggers.csv',
+      'area-logs.csv', 'certificates/' + `${isoDaysFromNow(-2)} AQ-07 Tailpipe certificate AQ-07.pdf`, 'charge-overrides.csv', 'co-readings.csv', 'co-twa.csv', 'emissions-tests.csv',
+      'follow-ups.csv', 'incidents.csv', 'qualifications.csv', 'refused-refills.csv', 'requalifications.csv', 'retraining-triggers.csv', 'swap-overrides.csv',
     ].sort())
+    const swaps = strFromU8(files['swap-overrides.csv']!)
+    expect(swaps).toContain('AQ-E2')
+    expect(swaps).toContain('AQB-0042')
+    expect(swaps).toContain('Only battery left for the dock truck; fitted warm.')
+    expect(strFromU8(files['charge-overrides.csv']!)).toContain('Matching charger down for repair; maker allows this one.')
     expect(files[`certificates/${isoDaysFromNow(-2)} AQ-07 Tailpipe certificate AQ-07.pdf`]).toEqual(PDF_BYTES)
     const logs = strFromU8(files['area-logs.csv']!)
     expect(logs.split('\r\n')[0]).toContain('record_id,corrects,corrected_by,correction_reason')
@@ -145,6 +166,10 @@ describe('audit pack', () => {
     // a refused refill's reason from its codes and the failed pre-fill check by its name, in Spanish
     expect(text).toContain('No pasó la inspección')
     expect(text).toContain('Sin abolladuras')
+    // the check a battery change set aside, from its code and number, in Spanish; the reason as written
+    expect(text).toContain('8. Excepciones autorizadas en el cuarto de baterías')
+    expect(text).toContain('La batería se sigue enfriando')
+    expect(text).toContain('Only battery left for the dock')
   })
 
   it('a technician is refused; a lead of another site gets nothing of this site, nor this pack', async () => {

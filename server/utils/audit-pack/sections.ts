@@ -205,6 +205,38 @@ const followUps: PackTable = {
   ],
 }
 
+// The checks a swap went ahead despite, in the pack's language where their codes were kept (numbers as stored).
+const setAside = (checks: unknown, t: PackWords) => (Array.isArray(checks)
+  ? (checks as FitReason[]).map(c => (c.code ? mailReason(t, c, 'us') : c.message)).join('; ')
+  : '')
+const swapOv = packCorrectionColumns('battery_swaps')
+const swapOverrides: PackTable = {
+  file: 'swap-overrides.csv',
+  title: 'swap_overrides',
+  columns: [col('when', 0.9), col('truck', 0.7), col('battery_in', 0.9), col('battery_out', 0.9), col('set_aside', 2.2), col('reason', 2), col('by', 1), CORRECTION_COLUMN],
+  corrections: true,
+  sql: `SELECT ${swapOv.select}, ${packSiteTime('t.at')} AS "at", tr.fleet_number AS "truck", bi.serial AS "batteryIn", bo.serial AS "batteryOut",
+      t.overridden_checks AS "checks", t.override_reason AS "reason"
+    FROM battery_swaps t JOIN trucks tr ON tr.id = t.truck_id JOIN batteries bi ON bi.id = t.battery_in_id
+      LEFT JOIN batteries bo ON bo.id = t.battery_out_id ${swapOv.join}
+    WHERE t.site_id = $1 AND t.overridden_checks IS NOT NULL AND ${packInRange('t.at')}
+    ORDER BY t.at, t.id`,
+  cells: (r, t) => [r.at, r.truck, r.batteryIn, r.batteryOut ?? '', setAside(r.checks, t), r.reason ?? word(t, 'warning_only'), r.recordedBy, corrected(r, t)],
+}
+
+const chargeOv = packCorrectionColumns('charge_sessions')
+const chargeOverrides: PackTable = {
+  file: 'charge-overrides.csv',
+  title: 'charge_overrides',
+  columns: [col('when', 0.9), col('battery', 0.9), col('charger', 0.9), col('set_aside', 1.6), col('reason', 2.4), col('by', 1), CORRECTION_COLUMN],
+  corrections: true,
+  sql: `SELECT ${chargeOv.select}, ${packSiteTime('t.at')} AS "at", b.serial AS "battery", ch.name AS "charger", t.override_reason AS "reason"
+    FROM charge_sessions t JOIN batteries b ON b.id = t.battery_id JOIN chargers ch ON ch.id = t.charger_id ${chargeOv.join}
+    WHERE t.site_id = $1 AND t.override_reason IS NOT NULL AND ${packInRange('t.at')}
+    ORDER BY t.at, t.id`,
+  cells: (r, t) => [r.at, r.battery, r.charger, word(t, 'charger_mismatch'), r.reason, r.recordedBy, corrected(r, t)],
+}
+
 export const PACK_SECTIONS: PackSection[] = [
   { key: 'logs', intro: ['logs'], tables: [areaLogs] },
   { key: 'emissions', intro: ['emissions'], tables: [packEmissionsTests] },
@@ -213,4 +245,5 @@ export const PACK_SECTIONS: PackSection[] = [
   { key: 'co', intro: ['co_twa', 'co_limits'], tables: [packCoReadings] },
   { key: 'training', intro: ['training'], tables: [qualifications, retraining] },
   { key: 'incidents', intro: [], tables: [incidents, followUps] },
+  { key: 'overrides', intro: ['overrides'], tables: [swapOverrides, chargeOverrides] },
 ]
