@@ -132,8 +132,26 @@ describe('section rows', async () => {
     expect(new Set(files).size).toBe(files.length)
     expect(PACK_SECTIONS.map(s => en(`audit_pack.pdf.section.${s.key}`))).toEqual([
       'Area logs', 'Emissions tests', 'Cylinder requalifications', 'Refused refills', 'Indoor CO readings',
-      'Training, evaluations and retraining', 'Incidents and follow-ups',
+      'Training, evaluations and retraining', 'Incidents and follow-ups', 'Battery-room overrides',
     ])
+  })
+
+  it('a battery change over a refused check reads the check in the pack\'s language with its number; a warning alone says so', () => {
+    const row = {
+      ...facts(), id: 's1', at: '2026-03-04 07:15', truck: 'MB-08', batteryIn: 'QB-1105', batteryOut: 'QB-1112', reason: 'No cooled battery in the bay; fitted warm.',
+      checks: [{ code: 'still_cooling', message: 'Battery is still cooling after its charge: 40 min left.', params: { minutes: 40 } }],
+    }
+    const swaps = table('swap-overrides.csv')
+    expect(swaps.cells(row, en)).toEqual(['2026-03-04 07:15', 'MB-08', 'QB-1105', 'QB-1112', 'Battery is still cooling after its charge: 40 min left.', 'No cooled battery in the bay; fitted warm.', 'Dana Okafor', ''])
+    expect(swaps.cells(row, es)[4]).toBe('La batería se sigue enfriando después de la carga: faltan 40 min.')
+    expect(swaps.cells(row, en)).toHaveLength(swaps.columns.length)
+    // a check kept without a code reads as recorded; a swap with a warning and no override says so
+    const warned = { ...row, batteryOut: null, reason: null, checks: [{ message: 'Qualification not on record.' }] }
+    expect(swaps.cells(warned, en).slice(3, 6)).toEqual(['', 'Qualification not on record.', 'Warning only, no override'])
+    const charges = table('charge-overrides.csv')
+    const charge = { ...facts(), id: 'c1', at: '2026-03-04 07:15', battery: 'QB-1105', charger: 'CH-3', reason: 'Matching charger down for repair.' }
+    expect(charges.cells(charge, es)).toEqual(['2026-03-04 07:15', 'QB-1105', 'CH-3', 'El cargador no corresponde a la batería', 'Matching charger down for repair.', 'Dana Okafor', ''])
+    expect(charges.cells(charge, en)).toHaveLength(charges.columns.length)
   })
 
   it('a refused refill reads when, which cylinder, why and who', () => {
