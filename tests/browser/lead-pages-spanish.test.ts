@@ -3,7 +3,7 @@ import { setup, url } from '@nuxt/test-utils/e2e'
 import type { Browser } from 'playwright-core'
 import { eq } from 'drizzle-orm'
 import { builtServer } from '../support/http'
-import { area, closeTestDb, site, tables, user, useTestDb } from '../support/db'
+import { area, battery, closeTestDb, site, tables, user, useTestDb } from '../support/db'
 import { DESKTOP, PHONE, launchChromium, signInAt, untilHydrated } from '../support/chromium'
 
 await setup(builtServer)
@@ -148,6 +148,16 @@ describe('lead pages in Spanish', () => {
     await expect.poll(() => row.getByText('Enviado', { exact: true }).count()).toBe(1)
     const [stored] = await useTestDb().select().from(m).where(eq(m.id, failed!.id))
     expect(stored).toMatchObject({ status: 'sent', attempts: 4 })
+    await context.close()
+  })
+
+  it('the new and edit pages of an asset are headed in Spanish', async () => {
+    const b = await battery({ siteId })
+    const { page, context } = await signInAt(browser, admin, '/batteries/new', DESKTOP)
+    await page.getByRole('heading', { level: 1, name: 'Agregar batería' }).waitFor()
+    expect(await page.title()).toBe('Agregar batería · Bayward')
+    await page.goto(url(`/batteries/${b.id}/edit`))
+    await page.getByRole('heading', { level: 1, name: `Editar batería ${b.serial}` }).waitFor()
     await context.close()
   })
 })
