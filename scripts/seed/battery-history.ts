@@ -193,12 +193,14 @@ export function simulateBatteryRoom(ctx: SeedContext, fleet: Fleet): BatteryHist
     }
     // A mid-shift change finds the other battery charged but still cooling; the technician lets it go out
     // with a written override (what the shift-change shortfall report counts). No such battery: no change.
-    let override: { reason: string, checks: { code: string, message: string }[] } | null = null
+    let override: { reason: string, checks: { code: string, message: string, params: { minutes: number } }[] } | null = null
     if (event.midShift) {
       chosen = truck.pair.map(b => sim(b.id)).find(s => s.planned.row.id !== outId && s.inTruck === null && !s.leftUncharged && !ready(s, event.at)
         && !(s.heldAt && s.heldAt <= event.at) && s.lastChargeEnd <= event.at && (s.lastRemovedAt === null || s.lastChargeEnd > s.lastRemovedAt))
       if (!chosen || !fits(chosen)) continue
-      override = { reason: 'Battery ran low mid-shift, no cooled battery in the bay; fitted warm', checks: [{ code: 'still_cooling', message: 'Battery is still cooling after its charge.' }] }
+      // the check as the app stores it: its code, the minutes of cool-down left and the words
+      const minutes = Math.max(1, Math.ceil((coolMs - (event.at.getTime() - chosen.lastChargeEnd.getTime())) / 60_000))
+      override = { reason: 'Battery ran low mid-shift, no cooled battery in the bay; fitted warm', checks: [{ code: 'still_cooling', message: `Battery is still cooling after its charge: ${minutes} min left.`, params: { minutes } }] }
     }
     if (!chosen || !fits(chosen)) {
       skippedSwaps += 1

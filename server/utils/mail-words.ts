@@ -58,7 +58,9 @@ export function mailDay(language: string | null | undefined): MailDay {
 export function mailReason(t: MailT, reason: FitReason, units: UnitSystem): string {
   const key = `refusal.${reason.code}${typeof reason.params?.variant === 'string' ? `_${reason.params.variant}` : ''}`
   if (!lookup(MESSAGES.en, key)) return reason.message
-  return mailCoded(t, key, reason.params, units)
+  const said = mailCoded(t, key, reason.params, units)
+  // a reason stored without a number its words need ("{minutes} min left") reads as it was recorded
+  return /\{\w+\}/.test(said) ? reason.message : said
 }
 
 /** One coded message (refusal, history line) with its parameters named as the screen names them, in `units`. */

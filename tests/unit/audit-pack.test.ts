@@ -148,6 +148,9 @@ describe('section rows', async () => {
     // a check kept without a code reads as recorded; a swap with a warning and no override says so
     const warned = { ...row, batteryOut: null, reason: null, checks: [{ message: 'Qualification not on record.' }] }
     expect(swaps.cells(warned, en).slice(3, 6)).toEqual(['', 'Qualification not on record.', 'Warning only, no override'])
+    // a check stored without the number its words need reads as it was recorded, not "{minutes} min left"
+    const bare = { ...row, checks: [{ code: 'still_cooling', message: 'Battery is still cooling after its charge.' }] }
+    expect(swaps.cells(bare, es)[4]).toBe('Battery is still cooling after its charge.')
     const charges = table('charge-overrides.csv')
     const charge = { ...facts(), id: 'c1', at: '2026-03-04 07:15', battery: 'QB-1105', charger: 'CH-3', reason: 'Matching charger down for repair.' }
     expect(charges.cells(charge, es)).toEqual(['2026-03-04 07:15', 'QB-1105', 'CH-3', 'El cargador no corresponde a la batería', 'Matching charger down for repair.', 'Dana Okafor', ''])
