@@ -134,7 +134,12 @@ describe('lead pages in Spanish', () => {
       siteId, toAddress: 'lider.seguridad@example.test', subject: '[Bayward] Punto de la lista que no pasó', body: 'Hola.', kind: 'alert:checklist_failed',
       status: 'failed', attempts: 3, lastError: 'connect ECONNREFUSED 127.0.0.1:2599', nextAttemptAt: new Date(Date.now() + 3_600_000),
     }).returning()
-    const { page, context } = await signInAt(browser, admin, '/mail', PHONE)
+    // the admin's home says so and leads there
+    const { page, context } = await signInAt(browser, admin, '/', PHONE)
+    await expect.poll(() => page.getByText('1 correo de este sitio no se entregó.').isVisible()).toBe(true)
+    await untilHydrated(page, '[data-home-mail] a')
+    await page.getByRole('link', { name: 'Ver el correo saliente' }).click()
+    await page.waitForURL(/\/mail\?status=failed$/)
     await page.getByRole('heading', { level: 1, name: 'Correo saliente' }).waitFor()
     await untilHydrated(page, 'main button')
     const row = page.locator(`[data-mail="${failed!.id}"]`)
@@ -145,6 +150,9 @@ describe('lead pages in Spanish', () => {
     await page.screenshot({ path: 'screenshots/mail-es-failed-phone.png', fullPage: true })
     await page.getByRole('button', { name: 'Enviar ahora el correo en espera' }).click()
     await expect.poll(() => page.getByText(/^Se intentaron \d+\. Enviados: \d+; no entregados: 0\.$/).isVisible()).toBe(true)
+    // shown as not delivered it leaves this filter; under all it reads sent
+    await expect.poll(() => row.count()).toBe(0)
+    await page.getByRole('link', { name: /^Todos \(/ }).click()
     await expect.poll(() => row.getByText('Enviado', { exact: true }).count()).toBe(1)
     const [stored] = await useTestDb().select().from(m).where(eq(m.id, failed!.id))
     expect(stored).toMatchObject({ status: 'sent', attempts: 4 })

@@ -134,6 +134,8 @@ describe('alerts by e-mail through the outbox', () => {
     const failed = await otherAdmin.get(`/api/mail?siteId=${other}&status=failed`)
     expect(failed.body).toMatchObject({ more: false, counts: { queued: 0, sent: 503, failed: 2 }, maxAttempts: 10 })
     expect(failed.body.items.map((m: { lastError: string }) => m.lastError)).toEqual(['550 no such mailbox', '550 no such mailbox'])
+    // the admin's home asks for the counts alone
+    expect((await otherAdmin.get(`/api/mail?siteId=${other}&only=counts`)).body).toEqual({ items: [], more: false, counts: { queued: 0, sent: 503, failed: 2 }, maxAttempts: 10 })
     // another site's admin sees none of it
     expect((await admin.get(`/api/mail?siteId=${other}`)).status).toBe(404)
   })
