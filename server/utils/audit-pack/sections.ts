@@ -205,10 +205,9 @@ const followUps: PackTable = {
   ],
 }
 
-// The checks a swap went ahead despite, in the pack's language where their codes were kept (numbers as stored).
-const setAside = (checks: unknown, t: PackWords) => (Array.isArray(checks)
-  ? (checks as FitReason[]).map(c => (c.code ? mailReason(t, c, 'us') : c.message)).join('; ')
-  : '')
+// The checks a swap went ahead despite, in the pack's language where their codes were kept (numbers as stored;
+// mailReason keeps the recorded words of a check without a known code).
+const setAside = (checks: unknown, t: PackWords) => (Array.isArray(checks) ? (checks as FitReason[]).map(c => mailReason(t, c, 'us')).join('; ') : '')
 const swapOv = packCorrectionColumns('battery_swaps')
 const swapOverrides: PackTable = {
   file: 'swap-overrides.csv',
