@@ -225,7 +225,9 @@ export function simulateBatteryRoom(ctx: SeedContext, fleet: Fleet): BatteryHist
     chosen.swapIns.push(event.at)
     current.set(truck.truck.id, chosen.planned.row.id)
     if (out.planned.role === 'needs_charge') out.leftUncharged = true
-    else charge(out, addMinutes(event.at, 30), false, override ? 24 : 4)
+    // no charger free within the hour: the technician puts it on the first one that comes free that day
+    // (a battery of the pair left uncharged would stay so for the rest of the year)
+    else if (!charge(out, addMinutes(event.at, 30), false, override ? 24 : 4)) charge(out, addMinutes(event.at, 30), false, 24)
   }
 
   // The truck hour meters read on from their last change.

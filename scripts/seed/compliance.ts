@@ -61,12 +61,16 @@ export function writeEmissionsTests(ctx: SeedContext, combustion: TruckRow[]) {
   }
 }
 
-// Indoor CO at Millbrook: a few timed readings per area each month, under eight hours in all.
+// Indoor CO at both sites: a few timed readings per area each month at Millbrook, each quarter at
+// Fenwick (the default schedule's interval), under eight hours in all.
 export function writeCoReadings(ctx: SeedContext) {
+  for (const [site, everyMonths] of [[ctx.sites.mb, 1], [ctx.sites.fx, 3]] as const) writeSiteCoReadings(ctx, site, everyMonths)
+}
+
+function writeSiteCoReadings(ctx: SeedContext, site: SeedContext['sites']['mb'], everyMonths: number) {
   const { clock, rand, rows } = ctx
-  const site = ctx.sites.mb
   const areas = [...site.chargingAreas, site.fuelStation]
-  for (let m = 0; m < 12; m++) {
+  for (let m = 0; m < 12; m += everyMonths) {
     areas.forEach((area, i) => {
       const takenOn = clock.dateDaysAgo(m * 30 + 4 + i)
       const plan: Array<[number, number]> = rand.chance(0.5) ? [[8, 2.5], [10.5, 3], [13.5, 2.5]] : [[8, 2], [10, 3], [13, 2]]
