@@ -5,7 +5,7 @@ import { eq } from 'drizzle-orm'
 import type { Browser } from 'playwright-core'
 import { builtServer, signIn } from '../support/http'
 import { battery, charger, closeTestDb, refreshReadModels, site, tables, user, useTestDb } from '../support/db'
-import { fittedTruck } from '../support/battery-room'
+import { fittedTruck, tagFor } from '../support/battery-room'
 import { DESKTOP, PHONE, launchChromium, signInAt } from '../support/chromium'
 import { endedCharges, oldBattery } from '../support/due'
 
@@ -93,8 +93,12 @@ describe('grouped due list and corrections in the browser', () => {
     await context.close()
   })
 
-  it('a battery\'s history offers Correct this; the original is struck through beside the correction', async () => {
-    const { page, context } = await signInAt(browser, lead, `/batteries/${batteryId}`, PHONE)
+  it('from the battery\'s tag, its whole history offers Correct this; the original is struck through beside the correction', async () => {
+    const code = await tagFor('battery', batteryId, siteId)
+    const { page, context } = await signInAt(browser, lead, `/t/${code}`, PHONE)
+    // the tag page lists the last events and links to all of them, where a record is corrected
+    await page.getByRole('link', { name: 'All events, and correcting a record' }).click(SLOW)
+    await expect.poll(() => new URL(page.url()).pathname + new URL(page.url()).hash, SLOW).toBe(`/batteries/${batteryId}#history`)
     const row = page.locator('li').filter({ hasText: 'Electrolyte level check' }).first()
     await row.getByRole('button', { name: 'Correct this' }).click()
     const form = page.getByRole('form', { name: /Correct this electrolyte check/ })
