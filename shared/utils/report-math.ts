@@ -1,4 +1,5 @@
 import { keptDateFormat } from './intl-formats'
+import { addCalendarInterval } from './due-dates'
 // The arithmetic of the reports, apart from the SQL that gathers its inputs (tests/unit/report-math.test.ts).
 
 /** Hours a charger spent on charge per day of the range. */
@@ -39,6 +40,18 @@ export function ratedCyclesReachedOn(asOf: string, used: number, rated: number, 
   const d = new Date(`${asOf}T00:00:00Z`)
   d.setUTCDate(d.getUTCDate() + days)
   return d.toISOString().slice(0, 10)
+}
+
+/**
+ * How far ahead the replacement forecast names a day. A battery that its recent rate puts further out than
+ * this will be retired for its age or a failed capacity test first (flooded traction batteries are commonly
+ * good for about five years in service: common practice, from memory), so a day centuries away is no plan.
+ */
+export const FORECAST_HORIZON_YEARS = 10
+
+/** Whether the day `isoDate` lies more than `years` calendar years after `asOf` (both 'YYYY-MM-DD'). */
+export function beyondYears(asOf: string, isoDate: string, years: number): boolean {
+  return isoDate > addCalendarInterval(asOf, years, 'year')
 }
 
 /** "2027 Q1" for a YYYY-MM-DD date. */

@@ -3,7 +3,7 @@ import dayjs from 'dayjs'
 import utc from 'dayjs/plugin/utc'
 import quarterOfYear from 'dayjs/plugin/quarterOfYear'
 import {
-  batteryRisk, changeWords, cyclesPerDay, hoursOnChargePerDay, monthsBetween, nextQuarters, percentChange, quarterOf,
+  batteryRisk, beyondYears, changeWords, cyclesPerDay, hoursOnChargePerDay, monthsBetween, nextQuarters, percentChange, quarterOf,
   closedMonthsInside, monthText, ratedCyclesReachedOn, sameDaysLastMonth,
 } from '../../shared/utils/report-math'
 import 'dayjs/locale/es'
@@ -39,6 +39,20 @@ describe('report arithmetic', () => {
     expect(ratedCyclesReachedOn('2026-01-01', 1400, 1500, 5 / 7)).toBe(dayjs.utc('2026-01-01').add(140, 'day').format('YYYY-MM-DD'))
     expect(ratedCyclesReachedOn('2026-01-01', 1600, 1500, 0)).toBe('2026-01-01')
     expect(ratedCyclesReachedOn('2026-01-01', 10, 1500, 0)).toBeNull()
+  })
+
+  it('the forecast names a day up to ten years ahead (calendar years, as dayjs adds them)', () => {
+    const horizon = dayjs.utc('2026-03-31').add(10, 'year').format('YYYY-MM-DD')
+    expect(beyondYears('2026-03-31', horizon, 10)).toBe(false)
+    expect(beyondYears('2026-03-31', dayjs.utc(horizon).add(1, 'day').format('YYYY-MM-DD'), 10)).toBe(true)
+    // 1,500 rated, 8 used, 1 counted cycle in 90 days: 134,280 days on, centuries away
+    expect(beyondYears('2026-12-05', ratedCyclesReachedOn('2026-12-05', 8, 1500, cyclesPerDay(1, 90))!, 10)).toBe(true)
+    // the 2,910 days above are within it
+    expect(beyondYears('2026-03-31', ratedCyclesReachedOn('2026-03-31', 3, 100, cyclesPerDay(3, 90))!, 10)).toBe(false)
+    // from 29 February, ten years on is 28 February (dayjs agrees)
+    expect(beyondYears('2028-02-29', dayjs.utc('2028-02-29').add(10, 'year').format('YYYY-MM-DD'), 10)).toBe(false)
+    expect(dayjs.utc('2028-02-29').add(10, 'year').format('YYYY-MM-DD')).toBe('2038-02-28')
+    expect(beyondYears('2028-02-29', '2038-03-01', 10)).toBe(true)
   })
 
   it('quarters agree with dayjs\'s quarterOfYear', () => {

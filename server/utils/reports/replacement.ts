@@ -1,5 +1,5 @@
 import type { ReportResponse } from '#shared/types/reports'
-import { cyclesPerDay, nextQuarters, quarterOf, ratedCyclesReachedOn } from '#shared/utils/report-math'
+import { beyondYears, cyclesPerDay, FORECAST_HORIZON_YEARS, nextQuarters, quarterOf, ratedCyclesReachedOn } from '#shared/utils/report-math'
 import { batteryFacts, RECENT_DAYS } from './battery-facts'
 import { chartOf, dayText, money, siteColumn, totalsOf, type ReportScope } from './scope'
 
@@ -48,13 +48,17 @@ export async function replacementReport(scope: ReportScope): Promise<ReportRespo
       {
         key: 'battery',
         title: t('report.replacement.battery_title'),
-        note: t('report.replacement.battery_note'),
+        note: t('report.replacement.battery_note', { n: FORECAST_HORIZON_YEARS }),
         chart: null,
         columns: [
           { key: 'serial', label: t('report.col.battery') }, ...siteColumn(scope), { key: 'cycles', label: t('report.col.cycles'), decimals: 0 }, { key: 'ratedCycles', label: t('report.col.rated'), decimals: 0 },
           { key: 'perWeek', label: t('report.col.recent_rate'), unit: t('report.unit.cycles_week'), decimals: 1 }, { key: 'reachesOn', label: t('report.col.reaches_rated'), date: true }, { key: 'price', label: t('report.col.price'), unit: cur, decimals: 2 },
         ],
-        rows: forecast.map(b => ({ serial: b.serial, site: b.site, cycles: b.cycles, ratedCycles: b.ratedCycles, perWeek: b.perDay * 7, reachesOn: b.reachesOn, price: b.replacementPrice })),
+        // a day past the horizon reads as "over 10 years" (the rows stay in the order of their days)
+        rows: forecast.map(b => ({
+          serial: b.serial, site: b.site, cycles: b.cycles, ratedCycles: b.ratedCycles, perWeek: b.perDay * 7, price: b.replacementPrice,
+          reachesOn: b.reachesOn && beyondYears(scope.to, b.reachesOn, FORECAST_HORIZON_YEARS) ? t('report.replacement.over_years', { n: FORECAST_HORIZON_YEARS }) : b.reachesOn,
+        })),
       },
     ],
     caveats: [],
