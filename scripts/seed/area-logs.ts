@@ -3,15 +3,17 @@ import { DEFAULT_CHECKLIST_ITEMS } from '../../shared/utils/area-checklists'
 import { addMinutes } from './clock'
 import type { SeedContext, SiteContext } from './context'
 import type { AreaRow } from './rows'
+import { HISTORY_DAYS } from './battery-history'
 
 // The demo logs use the app's own default checklist items.
 export const CHARGING_AREA_ITEMS = DEFAULT_CHECKLIST_ITEMS.charging_area
 export const FUEL_STATION_ITEMS = DEFAULT_CHECKLIST_ITEMS.fuel_station
 
-const LOG_DAYS = 30
+const LOG_DAYS = HISTORY_DAYS
 
-// Daily area logs for the last 30 days, recorded by the technician; the safety lead has signed every
-// log before this week except the one with the failed eyewash at Millbrook's North charge room.
+// Daily area logs for the year of the demo, recorded by the technician (now and then a day before the last
+// month went unlogged, as on any site); the safety lead has signed every log before this week except the one
+// with the failed eyewash at Millbrook's North charge room.
 export function writeAreaLogs(ctx: SeedContext) {
   const { clock, rand, rows, newId } = ctx
   const weekStart = clock.weekStart()
@@ -33,6 +35,7 @@ export function writeAreaLogs(ctx: SeedContext) {
         const periodStart = clock.dateDaysAgo(d)
         const startAt = clock.at(periodStart, 6, rand.int(5, 40))
         if (startAt > clock.now) continue
+        if (d > 30 && rand.chance(0.02)) continue
         const logId = newId()
         const failEyewash = site.key === 'mb' && area.name === 'North charge room' && periodStart === failedOn
         const failExtinguisher = site.key === 'fx' && area.kind === 'fuel_station' && periodStart === oldFailOn
