@@ -191,10 +191,14 @@ export function simulateBatteryRoom(ctx: SeedContext, fleet: Fleet): BatteryHist
       chosen = truck.pair.map(b => sim(b.id)).filter(s => s.planned.row.id !== outId && ready(s, event.at))
         .sort((a, b) => a.lastChargeEnd.getTime() - b.lastChargeEnd.getTime())[0]
     }
-    // A mid-shift change finds the other battery charged but still cooling; the technician lets it go out
-    // with a written override (what the shift-change shortfall report counts). No such battery: no change.
+    // A mid-shift change takes a ready spare when the bay has one (about two times in three: the others are
+    // held for the next shift); else it finds the other battery charged but still cooling, and the technician
+    // lets it go out with a written override (what the shift-change shortfall report counts). No such
+    // battery: no change.
     let override: { reason: string, checks: { code: string, message: string, params: { minutes: number } }[] } | null = null
-    if (event.midShift) {
+    const readySpare = event.midShift && rand.chance(0.65) ? spares.find(s => s.planned.role === 'ready' && ready(s, event.at) && fits(s)) : undefined
+    if (readySpare) chosen = readySpare
+    else if (event.midShift) {
       chosen = truck.pair.map(b => sim(b.id)).find(s => s.planned.row.id !== outId && s.inTruck === null && !s.leftUncharged && !ready(s, event.at)
         && !(s.heldAt && s.heldAt <= event.at) && s.lastChargeEnd <= event.at && (s.lastRemovedAt === null || s.lastChargeEnd > s.lastRemovedAt))
       if (!chosen || !fits(chosen)) continue
