@@ -8,6 +8,7 @@ import type { SeedContext, SiteKey } from './context'
 import { HISTORY_DAYS } from './battery-history'
 import { roundTo } from './random'
 import type { CylinderRow, TruckRow } from './rows'
+import { PROPANE_PER_GAL } from './people'
 
 type Build = 'steel' | 'aluminium' | 'steel43'
 type Special = 'overdue' | 'due_soon' | 'quarantine' | 'condemn' | null
@@ -201,7 +202,9 @@ export function simulateFuelStation(ctx: SeedContext, cylinders: PlannedCylinder
     for (const s of sims.filter(x => x.c.row.siteId === siteId && x.status === 'empty')) {
       at = addMinutes(at, rand.int(3, 6))
       const row = s.c.row
-      const base = { id: newId(), siteId, userId: technician, at, recordedAt: new Date(at.getTime() + rand.int(2, 30) * 1000), cylinderId: row.id }
+      // each refill keeps the site's price of its day, as the app does: two cents a gallon less for each month back
+      const pricePerGal = roundTo(PROPANE_PER_GAL[event.site] - 0.02 * Math.floor((clock.now.getTime() - at.getTime()) / (30 * DAY_MS)), 2)
+      const base = { id: newId(), siteId, userId: technician, at, recordedAt: new Date(at.getTime() + rand.int(2, 30) * 1000), cylinderId: row.id, pricePerGal }
       if (s.c.special === 'quarantine' && at >= quarantineFrom) {
         const failed = PREFILL_INSPECTION_ITEMS.filter(item => item.key === 'dents')
         const reason = 'Dent in the shell above the foot ring, about 1 in across.'

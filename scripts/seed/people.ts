@@ -35,6 +35,9 @@ const AREAS: Array<{ site: SiteKey, kind: 'charging_area' | 'fuel_station', name
   { site: 'fx', kind: 'fuel_station', name: 'Yard fuel cage', floor: 80, volume: null, exhaust: null, lpLimit: 900, notes: 'Outdoor cage at the yard gate.' },
 ]
 
+/** Each site's propane price per US gallon today (invented figures). */
+export const PROPANE_PER_GAL: Record<SiteKey, number> = { mb: 2.85, fx: 2.95 }
+
 export function buildOrganization(rows: SeedRows, newId: () => string, registeredAt: Date) {
   const organizationId = newId()
   rows.organizations.push({ id: organizationId, name: DEMO_ORGANIZATION, createdAt: registeredAt, updatedAt: registeredAt })
@@ -49,7 +52,7 @@ export function buildOrganization(rows: SeedRows, newId: () => string, registere
       unitSystem: key === 'mb' ? 'us' : 'metric',
       // the metric site reads specific gravity against 25 °C (77 °F)
       // propane per US gallon: an invented figure
-      settings: { ...defaultSiteSettings(), sgReferenceTempF: defaultSgReferenceTempF(key === 'mb' ? 'us' : 'metric'), propanePerGal: key === 'mb' ? 2.85 : 2.95 },
+      settings: { ...defaultSiteSettings(), sgReferenceTempF: defaultSgReferenceTempF(key === 'mb' ? 'us' : 'metric'), propanePerGal: PROPANE_PER_GAL[key] },
       createdAt: registeredAt,
       updatedAt: registeredAt,
     })
