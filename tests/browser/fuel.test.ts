@@ -8,6 +8,7 @@ import { charger, closeTestDb, refreshReadModels, site, tables, truck, user, use
 import { DESKTOP, PHONE, launchChromium, signInAt, untilHydrated } from '../support/chromium'
 import { freshCylinder, fuelStation, isoDaysFromNow, lpTransferQualification, lpTruck } from '../support/fuel'
 import { PREFILL_INSPECTION_ITEMS } from '../../shared/utils/lp-gas'
+import { tagFor } from '../support/battery-room'
 
 await setup(builtServer)
 
@@ -15,6 +16,7 @@ let browser: Browser
 let siteId: string
 let emptySerial: string
 let fullSerial: string
+let requalSerial: string
 const people: Record<string, { email: string, password: string }> = {}
 
 // Invented fuel station: a few full and empty cylinders, LP and gasoline trucks with tests in each bucket.
@@ -29,7 +31,9 @@ beforeAll(async () => {
   await freshCylinder(siteId, { areaId: station.id, status: 'quarantined' })
   const soon = new Date()
   soon.setUTCMonth(soon.getUTCMonth() + 2)
-  await freshCylinder(siteId, { areaId: station.id, status: 'empty', manufactureYear: soon.getUTCFullYear() - 12, manufactureMonth: soon.getUTCMonth() + 1 })
+  const dueSoon = await freshCylinder(siteId, { areaId: station.id, status: 'empty', manufactureYear: soon.getUTCFullYear() - 12, manufactureMonth: soon.getUTCMonth() + 1 })
+  requalSerial = dueSoon.serial
+  await tagFor('cylinder', dueSoon.id, siteId)
   emptySerial = (await freshCylinder(siteId, { areaId: station.id, status: 'empty' })).serial
   const fitted = await lpTruck(siteId)
   await freshCylinder(siteId, { areaId: station.id, status: 'in_use', currentTruckId: fitted.id })
@@ -86,6 +90,10 @@ describe('fuel station in the browser', () => {
     await expect.poll(() => lines.count()).toBe(1)
     expect(await lines.locator('li').filter({ hasText: 'On truck' }).count()).toBe(1)
     expect(await lines.evaluate(e => e.scrollWidth <= e.clientWidth)).toBe(true)
+    // the requalification list shows the tag code and, under it, the stamped serial whole
+    const serial = page.getByTestId('cage-requal-list').getByText(requalSerial, { exact: true })
+    await expect.poll(() => serial.isVisible()).toBe(true)
+    expect(await serial.evaluate(e => e.scrollWidth <= e.clientWidth)).toBe(true)
     await page.screenshot({ path: 'screenshots/fuel-cage-phone.png', fullPage: true })
     await page.goto(url('/chargers'))
     await expect.poll(() => page.getByText('North wall 48 V lithium-ion opportunity charger no. 12').first().isVisible()).toBe(true)
