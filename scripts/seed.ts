@@ -18,6 +18,7 @@ import { writeElectrolyteChecks } from './seed/electrolyte'
 import { buildCylinders, simulateFuelStation } from './seed/fuel'
 import { writeCoReadings, writeEmissionsTests } from './seed/compliance'
 import { writeAreaLogs } from './seed/area-logs'
+import { writeIncidents } from './seed/incidents'
 import { writeInspections } from './seed/inspections'
 import { insertSchedules } from './seed/schedules'
 import { writeBatteryHolds, writeTagsAndAudit } from './seed/registry'
@@ -71,6 +72,9 @@ async function buildDemo(now: Date) {
   writeEmissionsTests(ctx, fleet.combustion)
   writeCoReadings(ctx)
   writeAreaLogs(ctx)
+  const dented = cylinders.find(c => c.special === 'quarantine')?.row
+  const heldAt = dented && rows.assetHolds.find(h => h.assetId === dented.id)?.at
+  writeIncidents(ctx, dented && heldAt ? { id: dented.id, heldAt } : undefined)
 
   rows.trucks.push(...fleet.trucks)
   writeInspections(ctx, fleet.trucks)

@@ -30,6 +30,7 @@ export const SEED_TABLES = {
   checklistTemplates: schema.checklistTemplates,
   areaLogs: schema.areaLogs,
   areaLogEntries: schema.areaLogEntries,
+  incidents: schema.incidents,
   followUps: schema.followUps,
   truckInspectionTemplates: schema.truckInspectionTemplates,
   truckInspections: schema.truckInspections,
