@@ -134,8 +134,13 @@ describe('reports', () => {
   it('the shortfall counts a swap over a cooling refusal once, in the site\'s hour', async () => {
     const res = await report(lead, 'shortfall', `siteId=${siteA}&${range}`)
     const hours = section(res.body, 'hour').rows
-    expect(hours.find(h => h.hour === '07:00')).toMatchObject({ swaps: 1, shortfalls: 1 })
+    expect(hours.find(h => h.hour === '07:00')).toMatchObject({ swaps: 1, shortfalls: 1, share: 100 })
     expect(hours.reduce((s, h) => s + Number(h.swaps), 0)).toBe(2)
+    // the chart's share line skips an hour of one change (the table keeps its 100 %); the bars keep the count
+    const chart = section(res.body, 'hour').chart!
+    expect(chart.series[1]!.data[7]).toBeNull()
+    expect(chart.series[0]!.data[7]).toBe(1)
+    expect(section(res.body, 'hour').note).toMatch(/fewer than 10 changes/)
   })
 
   it('compliance: a day\'s CO TWA is Σ(ppm × h) ÷ 8 over the standing readings', async () => {

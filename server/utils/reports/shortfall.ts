@@ -39,6 +39,8 @@ async function batteriesPerTruck(scope: ReportScope) {
 
 export async function shortfallReport(scope: ReportScope): Promise<ReportResponse> {
   const [groups, perTruck] = await Promise.all([swapGroups(scope), batteriesPerTruck(scope)])
+  /** Fewer changes than this in an hour: the chart's share line skips it (the table keeps it). */
+  const SHARE_LINE_MIN_SWAPS = 10
   const share = (short: number, all: number) => (all > 0 ? (short / all) * 100 : null)
   const hours = Array.from({ length: 24 }, (_, h) => {
     const g = groups.find(r => r.grouping === 'hour' && Number(r.key) === h)
@@ -63,10 +65,11 @@ export async function shortfallReport(scope: ReportScope): Promise<ReportRespons
       {
         key: 'hour',
         title: t('report.shortfall.hour_title'),
-        note: t('report.shortfall.hour_note'),
+        note: t('report.shortfall.hour_note', { n: SHARE_LINE_MIN_SWAPS }),
         chart: chartOf(scope, {
           kind: 'bar', categories: hours.map(h => h.hour.slice(0, 2)), unit: t('report.unit.swaps'), secondUnit: '%',
-          series: [{ name: t('report.shortfall.series'), data: hours.map(h => h.shortfalls) }, { name: t('report.shortfall.share_pct'), type: 'line', data: hours.map(h => (h.share === null ? null : Math.round(h.share))) }],
+          // the share line leaves out hours with few changes: one refusal among two reads as 50 %
+          series: [{ name: t('report.shortfall.series'), data: hours.map(h => h.shortfalls) }, { name: t('report.shortfall.share_pct'), type: 'line', data: hours.map(h => (h.share === null || h.swaps < SHARE_LINE_MIN_SWAPS ? null : Math.round(h.share))) }],
         }),
         columns: [{ key: 'hour', label: t('report.col.hour') }, { key: 'swaps', label: t('report.col.swaps'), decimals: 0 }, { key: 'shortfalls', label: t('report.col.short'), decimals: 0 }, { key: 'share', label: t('report.col.share'), unit: '%', decimals: 0 }],
         // 24 rows of zeros say less than "nothing recorded"
