@@ -60,6 +60,8 @@ export function chartOption(chart: ChartData, width: number) {
   const twoAxes = chart.kind === 'bar' && chart.series.some(s => s.type === 'line')
   // counts (batteries, swaps, tests) get whole-number ticks on the left axis
   const wholeLeft = chart.series.filter(s => !(twoAxes && s.type === 'line')).every(s => s.data.every(v => v === null || Number.isInteger(v)))
+  // and so does the right axis when its line is whole numbers (a share rounded to whole per cent: not 0.2, 0.4 … %)
+  const wholeRight = chart.series.filter(s => s.type === 'line').every(s => s.data.every(v => v === null || Number.isInteger(v)))
   const legendRows = chart.series.length < 2 ? 0 : chart.series.length > 3 || width < 420 ? 2 : 1
   const top = 24 + legendRows * 24 + (chart.note ? 20 : 0)
   return {
@@ -74,7 +76,7 @@ export function chartOption(chart: ChartData, width: number) {
     yAxis: [
       // an axis's name starts at its axis and runs inwards, so a long one ("batteries") is not cut at the edge
       { type: 'value', name: chart.unit, nameTextStyle: { align: 'left' }, minInterval: wholeLeft ? 1 : undefined, splitLine: { lineStyle: { color: '#e2e8f0' } } },
-      ...(twoAxes ? [{ type: 'value', name: chart.secondUnit ?? '', nameTextStyle: { align: 'right' }, splitLine: { show: false } }] : []),
+      ...(twoAxes ? [{ type: 'value', name: chart.secondUnit ?? '', nameTextStyle: { align: 'right' }, minInterval: wholeRight ? 1 : undefined, splitLine: { show: false } }] : []),
     ],
     series: chart.series.map(s => ({
       name: s.name,

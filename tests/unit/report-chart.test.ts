@@ -39,6 +39,14 @@ describe('report charts of many things', () => {
     expect(drawn(twoAxes)).toContain('$')
   })
 
+  it('a line of whole numbers (a share in whole per cent) gets whole-number ticks on its own axis', () => {
+    const share = chartOption({ kind: 'bar', unit: 'swaps', secondUnit: '%', categories: ['06', '07', '08'], series: [{ name: 'short', data: [1, 3, 2] }, { name: 'share', type: 'line', data: [0, 1, null] }] }, 480)
+    expect(share.yAxis[1]).toMatchObject({ minInterval: 1 })
+    expect(drawn(share)).not.toMatch(/>0\.[2468]</)
+    // a line of decimals keeps ECharts' own ticks
+    expect(chartOption({ kind: 'bar', unit: 'kWh', secondUnit: '$', categories: ['Jan'], series: [{ name: 'kWh', data: [10] }, { name: 'cost', data: [1.5], type: 'line' }] }, 480).yAxis[1]).toMatchObject({ minInterval: undefined })
+  })
+
   it('starts the plot lower on a phone, where a legend of two series or more may wrap', () => {
     const two = chartData(spec)!
     expect(chartOption(two, 340).grid.top).toBeGreaterThan(chartOption(two, 700).grid.top)
