@@ -37,10 +37,11 @@ async function batteriesPerTruck(scope: ReportScope) {
     FROM t FULL JOIN b ON b.voltage = t.voltage ORDER BY 1`)
 }
 
+/** Fewer changes than this in an hour: the chart's share line skips it (the table keeps it). */
+const SHARE_LINE_MIN_SWAPS = 10
+
 export async function shortfallReport(scope: ReportScope): Promise<ReportResponse> {
   const [groups, perTruck] = await Promise.all([swapGroups(scope), batteriesPerTruck(scope)])
-  /** Fewer changes than this in an hour: the chart's share line skips it (the table keeps it). */
-  const SHARE_LINE_MIN_SWAPS = 10
   const share = (short: number, all: number) => (all > 0 ? (short / all) * 100 : null)
   const hours = Array.from({ length: 24 }, (_, h) => {
     const g = groups.find(r => r.grouping === 'hour' && Number(r.key) === h)
