@@ -28,7 +28,7 @@ afterAll(async () => {
   await closeTestDb()
 })
 
-const focusedLabel = (page: Page) => page.evaluate(() => document.activeElement?.closest('label')?.textContent ?? '')
+const focusedLabel = (page: Page) => page.evaluate(() => (document.activeElement as HTMLInputElement | null)?.labels?.[0]?.textContent ?? '')
 const nonceOf = (policy: string | null | undefined) => /'nonce-([^']+)'/.exec(policy ?? '')?.[1] ?? null
 // the device's own copies (IndexedDB bayward-device/kv), by key
 const deviceKeys = (page: Page) => page.evaluate(() => new Promise<string[]>((resolve, reject) => {

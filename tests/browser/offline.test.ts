@@ -33,7 +33,7 @@ afterAll(async () => {
 const signedInContext = (who: { email: string, password: string }, path: string): Promise<{ context: BrowserContext, page: Page }> =>
   signInAt(browser, who, path)
 
-const focusedLabel = (page: Page) => page.evaluate(() => document.activeElement?.closest('label')?.textContent ?? '')
+const focusedLabel = (page: Page) => page.evaluate(() => (document.activeElement as HTMLInputElement | null)?.labels?.[0]?.textContent ?? '')
 
 async function swapFixture() {
   const t = await fittedTruck(siteId, { hourMeter: 1200 })
