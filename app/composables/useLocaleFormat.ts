@@ -17,7 +17,8 @@ export function useLocaleFormat() {
   return {
     /** the BCP 47 tag of the reader's language (en-US, es-US) */
     tag,
-    number: (value: number, maximumFractionDigits = 2) => keptNumberFormat(tag(), { maximumFractionDigits }).format(value),
+    /** a number with at most `maximumFractionDigits` decimals; a column of readings passes `minimumFractionDigits` too (0.50, 0.39) */
+    number: (value: number, maximumFractionDigits = 2, minimumFractionDigits = 0) => keptNumberFormat(tag(), { maximumFractionDigits, minimumFractionDigits }).format(value),
     money: (value: number, currency: string) => keptNumberFormat(tag(), { style: 'currency', currency }).format(value),
     dateTime: (at: string | Date) => keptDateFormat(tag(), { dateStyle: 'medium', timeStyle: 'short', ...zone() }).format(new Date(at)),
     /** the clock time alone (3:05 PM / 3:05 p.m.) */

@@ -144,6 +144,8 @@ describe('fuel station in the browser', () => {
     expect(await section.locator('[data-bucket="failed"]').innerText()).toBe('1')
     expect(await section.locator('[data-bucket="due_30"]').innerText()).toBe('1')
     expect(await page.getByText('Minnesota Rules 5205.0116').first().isVisible()).toBe(true)
+    // CO readings in a column with two decimals, as an analyser prints them (0.40, not 0.4)
+    expect(await section.getByText('0.40 % / 0.50 %').count()).toBeGreaterThan(0)
     await page.screenshot({ path: 'screenshots/fuel-emissions-desktop.png', fullPage: true })
     await page.emulateMedia({ media: 'print' })
     await page.screenshot({ path: 'screenshots/fuel-emissions-print.png', fullPage: true })
