@@ -3,7 +3,7 @@ import { setup } from '@nuxt/test-utils/e2e'
 import type { Browser } from 'playwright-core'
 import { and, asc, eq } from 'drizzle-orm'
 import { builtServer, signIn } from '../support/http'
-import { closeTestDb, site, tables, user, useTestDb } from '../support/db'
+import { battery, closeTestDb, site, tables, user, useTestDb } from '../support/db'
 import { PHONE, launchChromium, signInAt } from '../support/chromium'
 import { fittedTruck } from '../support/battery-room'
 import { answers, classQualification, inspect } from '../support/inspection'
@@ -55,6 +55,21 @@ describe('a lead keeps the pre-shift checklists and calls for retraining, at pho
     expect(versions[1]!.items).toContainEqual(expect.objectContaining({ label: 'Floor under the truck dry: no fresh drips', critical: true, group: 'key_off' }))
     const [old] = await useTestDb().select().from(tables.truckInspections).where(eq(tables.truckInspections.id, recorded.body.item.id))
     expect(old!.templateId).toBe(versions[0]!.id)
+  })
+
+  it('the due list names the trucks used today and not checked this shift by fleet number, each one tap from its check', async () => {
+    const used = await fittedTruck(siteId, { fleetNumber: 'LY-07' })
+    const b = await battery({ siteId })
+    // changed a second ago, so used today on any clock; nobody has checked it since the shift began
+    await useTestDb().insert(tables.batterySwaps).values({ siteId, userId: people.operator!.id, at: new Date(Date.now() - 1000), truckId: used.id, batteryInId: b.id, hourMeter: null })
+    const { page } = await signInAt(browser, people.lead!, '/due', PHONE)
+    const card = page.getByRole('region', { name: 'Pre-shift checks' })
+    await expect.poll(() => card.getByText('Tap a truck to check it.').isVisible()).toBe(true)
+    const link = card.getByRole('link', { name: 'Check LY-07' })
+    expect(await link.innerText()).toBe('LY-07')
+    await link.click()
+    await page.waitForURL(new RegExp(`/inspect\\?truck=${used.id}`))
+    await page.context().close()
   })
 
   it('a safety lead records a near miss for an operator, not for themself', async () => {
