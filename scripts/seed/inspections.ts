@@ -1,11 +1,17 @@
 import { DEFAULT_INSPECTION_ITEMS, DEFAULT_INSPECTION_TITLES, INSPECTION_POWERS, criticalFailures, inspectionPowerOf } from '../../shared/utils/truck-inspection'
+import { shiftStartedAt } from '../../shared/utils/shift-times'
+import { parseSiteSettings } from '../../shared/utils/site-settings'
 import type { SeedContext } from './context'
+import { MINUTE_MS, SITE_TIME_ZONE } from './clock'
 import type { TruckRow } from './rows'
 
-// Pre-shift checks: both checklists (version 1) at every site, this morning's check of most trucks in
-// service by the site's operator, one truck a minor failure, and one held since yesterday for a failed brake.
+// Pre-shift checks: both checklists (version 1) at every site, the check of most trucks in service at the start
+// of the shift the seed runs in (the sites' default shift starts), by the site's operator, one truck a minor
+// failure, and one held since yesterday for a failed brake. A check placed after the seed's moment (the first
+// minutes of a shift) is left out: that truck is then one not checked yet.
 export function writeInspections(ctx: SeedContext, trucks: TruckRow[]) {
   const { clock, rows, newId } = ctx
+  const shiftStart = shiftStartedAt(clock.now, parseSiteSettings({}).shiftStarts, SITE_TIME_ZONE)
   for (const site of [ctx.sites.mb, ctx.sites.fx]) {
     const templates = Object.fromEntries(INSPECTION_POWERS.map((power) => {
       const id = newId()
@@ -19,7 +25,7 @@ export function writeInspections(ctx: SeedContext, trucks: TruckRow[]) {
       const fail: Record<string, string> = n === 0 ? { service_brake: 'Pedal sinks slowly when held' } : n === 1 ? { lights: 'Left work light out' } : {}
       const answers = DEFAULT_INSPECTION_ITEMS[power].map(i => (i.key in fail ? { key: i.key, result: 'fail' as const, note: fail[i.key]! } : { key: i.key, result: 'pass' as const, note: '' }))
       const critical = criticalFailures(DEFAULT_INSPECTION_ITEMS[power], answers)
-      const at = n === 0 ? clock.at(clock.dateDaysAgo(1), 6, 12) : clock.at(clock.dateDaysAgo(0), 6, 5 + n)
+      const at = n === 0 ? clock.at(clock.dateDaysAgo(1), 6, 12) : new Date(shiftStart.getTime() + (5 + n) * MINUTE_MS)
       if (at > clock.now) return
       const id = newId()
       rows.truckInspections.push({

@@ -1,6 +1,8 @@
 import { execFileSync } from 'node:child_process'
 import { afterAll, describe, expect, it } from 'vitest'
 import postgres from 'postgres'
+import { shiftStartedAt } from '../../shared/utils/shift-times'
+import { parseSiteSettings } from '../../shared/utils/site-settings'
 
 // The demo seed runs against its own database so it never mixes with other tests' fixtures.
 const url = (process.env.NUXT_DATABASE_URL ?? '').replace(/\/[^/]+$/, '/bayward_test_seed')
@@ -48,5 +50,10 @@ describe('demo seed', () => {
     expect(stale).toEqual([])
     const longOverdue = await sql`SELECT kind, label, due_on FROM obligations WHERE due_on < current_date - 60 ORDER BY kind`
     expect(longOverdue.map(o => o.kind)).toEqual(['cylinder_requalification'])
+    // the pre-shift checks of today are those of the shift the demo opens in (06:00, 14:00, 22:00 Chicago), so
+    // its due list asks for a few trucks, not for every truck checked at dawn
+    const shiftStart = shiftStartedAt(new Date(), parseSiteSettings({}).shiftStarts, 'America/Chicago')
+    const earlier = await sql`SELECT at FROM truck_inspections WHERE at < ${shiftStart} AND failed_count = 0`
+    expect(earlier).toEqual([])
   }, 180_000)
 })
