@@ -22,6 +22,7 @@ import { writeIncidents } from './seed/incidents'
 import { writeInspections } from './seed/inspections'
 import { insertSchedules } from './seed/schedules'
 import { writeBatteryHolds, writeTagsAndAudit } from './seed/registry'
+import { writeSeedFiles } from './seed/certificates'
 import { countRows, insertSeedRows, truncateSchemaTables } from './seed/database'
 import { boardSummary } from './seed/summary'
 import { rebuildReadModels } from '../server/utils/due/rebuild'
@@ -53,6 +54,7 @@ async function buildDemo(now: Date) {
     fenwickLpExpiredOn: people.fenwickLpExpiredOn,
     sites: siteContexts(org.siteIds, org.siteNames, org.areas, people.people),
     registeredAt,
+    files: [],
   }
 
   const fleet = buildFleet(ctx)
@@ -69,7 +71,7 @@ async function buildDemo(now: Date) {
   const cage = ctx.sites.fx.fuelStation
   const cageAudit = rows.auditLog.find(a => a.entityId === cage.id)
   if (cageAudit) cageAudit.after = { ...(cageAudit.after as object), lpStorageLimitLb: cage.lpStorageLimitLb }
-  writeEmissionsTests(ctx, fleet.combustion)
+  await writeEmissionsTests(ctx, fleet.combustion)
   writeCoReadings(ctx)
   writeAreaLogs(ctx)
   const dented = cylinders.find(c => c.special === 'quarantine')?.row
@@ -124,6 +126,8 @@ async function main() {
       await insertSeedRows(tx, demo.rows)
       await insertSchedules(tx, demo.ctx)
     })
+    // the certificates' bytes, once their upload rows are in
+    const files = await writeSeedFiles(demo.ctx)
     // the read models from the records, as `npm run rebuild-state` computes them
     const rebuilt = await rebuildReadModels(db)
     await db.execute(sql`UPDATE read_model_rebuilds SET needed = false, done_at = now()`)
@@ -131,6 +135,7 @@ async function main() {
     const counts = await countRows(db)
     console.log(`Seeded ${DEMO_ORGANIZATION} in ${((Date.now() - started) / 1000).toFixed(1)} s${reset ? ' (after reset)' : ''}.`)
     console.table(Object.fromEntries(counts.filter(c => c.rows > 0).map(c => [c.table, c.rows])))
+    console.log(`Files: ${files} certificates written to ${process.env.NUXT_UPLOADS_DRIVER === 's3' ? `the S3 bucket ${process.env.NUXT_UPLOADS_S3_BUCKET}` : '.data/uploads/'}.`)
     console.log(`Read models: ${rebuilt.batteries} batteries, ${rebuilt.trucks} trucks, ${rebuilt.obligations} obligations (${(rebuilt.ms / 1000).toFixed(1)} s).`)
     console.log(await boardSummary(db, demo.ctx))
     if (demo.history.skippedSwaps > 0 || demo.fuel.skippedExchanges > 0) {

@@ -3,13 +3,14 @@ import { assessEmissionsTest, nextEmissionsDue, type EngineFuel } from '../../sh
 import { emissionsPolicyFromSettings } from '../../shared/utils/fuel-policy'
 import type { SeedContext, SiteKey } from './context'
 import { roundTo } from './random'
+import { emissionsCertificate } from './certificates'
 import type { TruckRow } from './rows'
 
 const TESTERS = ['Delphine Ruaro', 'Anselm Tiwari-Booth']
 
 // Yearly tailpipe tests: MB-16 falls due next month, FX-09 is overdue (last tested about 13 months ago),
-// MB-18 failed once and passed its retest.
-export function writeEmissionsTests(ctx: SeedContext, combustion: TruckRow[]) {
+// MB-18 failed once and passed its retest. Each test has the tester's certificate (a PDF, seed/certificates.ts).
+export async function writeEmissionsTests(ctx: SeedContext, combustion: TruckRow[]) {
   const { clock, rand, rows } = ctx
   const policy = emissionsPolicyFromSettings(ctx.settings)
   const nextMonth15 = `${addCalendarInterval(clock.today, 1, 'month').slice(0, 7)}-15`
@@ -35,26 +36,34 @@ export function writeEmissionsTests(ctx: SeedContext, combustion: TruckRow[]) {
       const o2Pct = roundTo(rand.between(0.3, 1.4), 1)
       const testedAt = clock.at(test.on, 9, rand.int(0, 50))
       const verdict = assessEmissionsTest({ fuel, coIdlePercent: coIdlePct, coHighIdlePercent: coHighIdlePct, hcPpm, co2Percent: co2Pct, o2Percent: o2Pct }, policy)
+      const id = ctx.newId()
+      const testerName = rand.pick(TESTERS)
+      const idleRpm = Math.round(rand.between(750, 850) / 10) * 10
+      const highIdleRpm = Math.round(rand.between(2200, 2500) / 10) * 10
+      const certificateUploadId = await emissionsCertificate(ctx, id, {
+        siteId: truck.siteId, siteName: ctx.sites[site].name, userId: ctx.sites[site].people.facilities, truck: truck.fleetNumber!, fuel, testedOn: test.on, at: testedAt,
+        tester: testerName, readings: { coIdlePct, coHighIdlePct, hcPpm, co2Pct, o2Pct, idleRpm, highIdleRpm }, passed: verdict.pass, reasons: verdict.reasons,
+      })
       rows.emissionsTests.push({
-        id: ctx.newId(),
+        id,
         siteId: truck.siteId,
         userId: ctx.sites[site].people.facilities,
         at: testedAt,
         recordedAt: testedAt,
         truckId: truck.id,
         testedOn: test.on,
-        testerName: rand.pick(TESTERS),
+        testerName,
         coIdlePct,
         coHighIdlePct,
         hcPpm,
         co2Pct,
         o2Pct,
-        idleRpm: Math.round(rand.between(750, 850) / 10) * 10,
-        highIdleRpm: Math.round(rand.between(2200, 2500) / 10) * 10,
+        idleRpm,
+        highIdleRpm,
         passed: verdict.pass,
         reasons: verdict.reasons,
         nextDueOn: nextEmissionsDue(test.on, verdict.pass, policy),
-        certificateUploadId: null,
+        certificateUploadId,
         note: test.fail ? 'Mixer adjusted and air filter replaced; retest booked.' : '',
       })
     }

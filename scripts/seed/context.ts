@@ -35,4 +35,6 @@ export interface SeedContext {
   sites: Record<SiteKey, SiteContext>
   /** When the assets were registered in Bayward, before the year of history. */
   registeredAt: Date
+  /** Files for the uploads storage (certificates), written once the rows naming them have committed. */
+  files: Array<{ key: string, bytes: Uint8Array }>
 }

@@ -22,6 +22,7 @@ export const SEED_TABLES = {
   electrolyteChecks: schema.electrolyteChecks,
   cellReadings: schema.cellReadings,
   assetHolds: schema.assetHolds,
+  uploads: schema.uploads,
   requalifications: schema.requalifications,
   cylinderExchanges: schema.cylinderExchanges,
   cylinderRefills: schema.cylinderRefills,

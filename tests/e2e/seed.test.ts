@@ -1,4 +1,7 @@
 import { execFileSync } from 'node:child_process'
+import { createHash } from 'node:crypto'
+import { readFileSync } from 'node:fs'
+import { join } from 'node:path'
 import { afterAll, describe, expect, it } from 'vitest'
 import postgres from 'postgres'
 import { shiftStartedAt } from '../../shared/utils/shift-times'
@@ -55,5 +58,14 @@ describe('demo seed', () => {
     const shiftStart = shiftStartedAt(new Date(), parseSiteSettings({}).shiftStarts, 'America/Chicago')
     const earlier = await sql`SELECT at FROM truck_inspections WHERE at < ${shiftStart} AND failed_count = 0`
     expect(earlier).toEqual([])
+    // every emissions test has its tester's certificate, a PDF in the uploads storage (disk here) matching its row
+    const tests = await sql`SELECT u.storage_key, u.sha256, u.bytes, u.content_type FROM emissions_tests e LEFT JOIN uploads u ON u.id = e.certificate_upload_id`
+    expect(tests.length).toBeGreaterThan(10)
+    for (const u of tests) {
+      expect(u.content_type).toBe('application/pdf')
+      const file = readFileSync(join('.data/uploads', ...String(u.storage_key).split(':')))
+      expect(file.subarray(0, 5).toString()).toBe('%PDF-')
+      expect([file.length, createHash('sha256').update(file).digest('hex')]).toEqual([u.bytes, u.sha256])
+    }
   }, 180_000)
 })
