@@ -149,9 +149,18 @@ describe('battery room on the floor', () => {
         await page.getByLabel('Cell 1 specific gravity').waitFor()
         await page.getByLabel('Water added (US gal)').fill('0.5')
         await page.screenshot({ path: 'screenshots/battery-room-check-desktop.png', fullPage: true })
+        // a wall screen opens the wall view directly: the server draws it in the wall layout, so the page
+        // hydrates without a mismatch; leaving the wall view brings the app's navigation back
+        const errors: string[] = []
+        page.on('console', m => m.type() === 'error' && errors.push(m.text()))
         await page.goto(url('/bay?wall=1'))
         await page.getByRole('heading', { name: 'Bay board' }).waitFor()
+        await page.waitForLoadState('networkidle')
         await page.screenshot({ path: 'screenshots/battery-room-bay-wall.png', fullPage: true })
+        expect(errors.filter(e => /hydration/i.test(e))).toEqual([])
+        expect(await page.getByRole('link', { name: 'Home', exact: true }).count()).toBe(0)
+        await page.getByRole('link', { name: 'Leave wall view' }).click()
+        await expect.poll(() => page.getByRole('link', { name: 'Home', exact: true }).count()).toBeGreaterThan(0)
       }
       await page.context().close()
     }
