@@ -111,3 +111,25 @@ describe('headers', () => {
     expect(cookie).toMatch(/Path=\//i)
   })
 })
+
+describe('a form sent before the page\'s script has started', () => {
+  it('the sign-in form is a POST: the e-mail and password never go into the address (history, server logs)', async () => {
+    const context = await newContext(browser, url('/'), PHONE)
+    const page = await context.newPage()
+    // the app's script never arrives, as on a slow connection when someone presses Enter at once
+    await page.route('**/_nuxt/**', route => route.abort())
+    await page.goto(url('/sign-in?next=/due'))
+    await page.getByLabel('E-mail').fill(admin.email)
+    await page.getByLabel('Password').fill(admin.password)
+    const sent = page.waitForRequest(r => new URL(r.url()).pathname === '/sign-in' && r.isNavigationRequest() && r.method() === 'POST')
+    await page.getByLabel('Password').press('Enter')
+    const request = await sent
+    await page.waitForLoadState('domcontentloaded')
+    expect(request.url()).not.toContain('password')
+    expect(page.url()).not.toContain(encodeURIComponent(admin.password))
+    expect(page.url()).not.toContain('password=')
+    // the same sign-in page comes back, to sign in once the script is there
+    expect(await page.getByLabel('Password').count()).toBe(1)
+    await context.close()
+  })
+})
