@@ -71,6 +71,11 @@ describe('navigation by role', () => {
     expect(labels).not.toContain('People')
     expect(labels).not.toContain('Site settings')
     expect(labels).not.toContain('Schedules')
+    // a lead's page opened by its address says why it is not theirs, with no form that can do nothing
+    const page = context.pages()[0]!
+    await page.goto(url('/labels'))
+    await expect.poll(() => page.getByRole('alert').innerText()).toMatch(/To print label sheets you need one of these roles/)
+    expect(await page.getByRole('button', { name: 'Make PDF' }).count()).toBe(0)
     await context.close()
   })
 
