@@ -83,6 +83,13 @@ describe('navigation by role', () => {
     const { context, labels } = await signInAndOpenMenu(people.facilities!, DESKTOP)
     expect(labels).toEqual(expect.arrayContaining(['Home', 'Trucks', 'Batteries', 'Chargers', 'LP cylinders', 'Areas', 'People', 'Due list', 'Schedules']))
     expect(labels).not.toContain('Site settings')
+    // the site settings opened by their address are there to read (the cool-down, the tariff), not to change
+    const page = context.pages()[0]!
+    await page.goto(url('/site'))
+    await expect.poll(() => page.getByText('Only an admin can change these settings').isVisible()).toBe(true)
+    expect(await page.getByLabel('Cool-down after charge (minutes)').isDisabled()).toBe(true)
+    expect(await page.getByRole('button', { name: 'Save settings' }).count()).toBe(0)
+    expect(await page.getByRole('button', { name: 'Add another site' }).count()).toBe(0)
     await context.close()
   })
 })
