@@ -79,6 +79,9 @@ describe('lead pages in Spanish', () => {
   it('the password form says its field checks and a wrong current password in Spanish', async () => {
     const { page, context } = await signInAt(browser, lead, '/account', DESKTOP)
     await page.getByRole('heading', { name: 'Cambiar su contraseña' }).waitFor()
+    // the page says whose account it is, in the reader's language
+    expect(await page.getByRole('heading', { level: 1, name: 'Su cuenta' }).count()).toBe(1)
+    expect(await page.title()).toBe('Su cuenta · Bayward')
     await page.locator('input[name="newPassword"]').fill('short')
     await page.getByRole('button', { name: 'Cambiar contraseña' }).click()
     await expect.poll(() => page.getByText('Llene este dato.').count()).toBe(1)
