@@ -115,6 +115,19 @@ describe('battery room on the floor', () => {
     await page.context().close()
   })
 
+  it('a charged lead-acid battery scanned at the charge form gets a line to check it is the one at the charger', async () => {
+    const ready = await readyBattery({ siteId, userId: people.technician!.id, chargerId, homeAreaId: areaId })
+    const flat = await battery({ siteId, homeAreaId: areaId })
+    const [readyCode, flatCode] = [await tagFor('battery', ready.id, siteId), await tagFor('battery', flat.id, siteId)]
+    const page = await signedIn(people.technician!, `/charge?battery=${readyCode}`)
+    await expect.poll(() => page.getByTestId('charge-charged-already').innerText()).toContain('Bayward has this battery as charged')
+    await page.goto(url(`/charge?battery=${flatCode}`))
+    await page.getByLabel('Charger').first().waitFor()
+    await expect.poll(() => page.getByText(`${flat.serial} · Needs charge`).count()).toBeGreaterThan(0)
+    expect(await page.getByTestId('charge-charged-already').count()).toBe(0)
+    await page.context().close()
+  })
+
   it('screenshots of the Bay board and the forms, phone and desktop', async () => {
     const tech = people.technician!.id
     const t = await fittedTruck(siteId, { fleetNumber: `MB-${String(Date.now()).slice(-3)}` })
