@@ -128,6 +128,23 @@ describe('battery room on the floor', () => {
     await page.context().close()
   })
 
+  it('the Bay board\'s countdowns hydrate without a mismatch on a device whose clock is minutes off the server\'s', async () => {
+    const cooling = await battery({ siteId, homeAreaId: areaId })
+    await pastCharge({ siteId, userId: people.technician!.id, batteryId: cooling.id, chargerId, endedHoursAgo: 1 })
+    const { context, page } = await signInAt(browser, people.technician!, '/scan', PHONE)
+    // the tablet's clock runs seven minutes fast: its countdowns differ from the server's render by seven minutes
+    await context.clock.install({ time: Date.now() + 7 * 60_000 })
+    const errors: string[] = []
+    page.on('console', m => m.type() === 'error' && errors.push(m.text()))
+    await page.goto(url('/bay'))
+    await page.getByRole('heading', { name: 'Bay board' }).waitFor()
+    await page.waitForLoadState('networkidle')
+    expect(errors.filter(e => /hydration/i.test(e))).toEqual([])
+    // once running, the board counts on the device's own clock
+    await expect.poll(() => page.getByText(/Ready in 6 h 5\d min/).count()).toBeGreaterThan(0)
+    await context.close()
+  })
+
   it('screenshots of the Bay board and the forms, phone and desktop', async () => {
     const tech = people.technician!.id
     const t = await fittedTruck(siteId, { fleetNumber: `MB-${String(Date.now()).slice(-3)}` })
